@@ -1,0 +1,133 @@
+//! The `aerostrata` binary as a user runs it: outputs, formats and every error path.
+
+use assert_cmd::Command;
+
+fn aerostrata() -> Command {
+    Command::cargo_bin("aerostrata").unwrap()
+}
+
+fn stdout_of(args: &[&str], stdin: &str) -> String {
+    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
+    assert!(output.status.success(), "{args:?}: {}", String::from_utf8_lossy(&output.stderr));
+    String::from_utf8(output.stdout).unwrap()
+}
+
+/// Exit status 2 and exactly one line on stderr, containing `words`.
+fn fails_with(args: &[&str], stdin: &str, words: &str) {
+    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
+    let stderr = String::from_utf8(output.stderr).unwrap();
+    assert_eq!(output.status.code(), Some(2), "{args:?}: {stderr}");
+    assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
+    assert!(stderr.contains(words), "{args:?}: {stderr:?} should contain {words:?}");
+}
+
+fn column(csv: &str, name: &str) -> Vec<f64> {
+    let mut lines = csv.lines();
+    let index = lines.next().unwrap().split(',').position(|c| c == name).unwrap();
+    lines.map(|line| line.split(',').nth(index).unwrap().parse().unwrap()).collect()
+}
+
+#[test]
+fn default_table_covers_0_to_86_km() {
+    let text = stdout_of(&["table"], "");
+    let rows: Vec<&str> = text.lines().collect();
+    assert_eq!(rows.len(), 2 + 87, "two heading lines and a row per km");
+    assert!(rows[2].trim_start().starts_with("0.0"));
+    assert!(rows[88].trim_start().starts_with("86000.0"));
+    assert!(rows[2].contains("288.150"));
+}
+
+#[test]
+fn table_csv_and_json_agree() {
+    let args = ["table", "--from", "-5000", "--to", "30000", "--step", "2500"];
+    let csv = stdout_of(&[&args[..], &["--format", "csv"]].concat(), "");
+    let json = stdout_of(&[&args[..], &["--format", "json"]].concat(), "");
+    let rows: serde_json::Value = serde_json::from_str(&json).unwrap();
+    let pressures = column(&csv, "pressure_Pa");
+    assert_eq!(pressures.len(), 15);
+    for (row, p) in rows.as_array().unwrap().iter().zip(&pressures) {
+        assert_eq!(row["pressure_Pa"].as_f64().unwrap(), *p);
+    }
+    assert_eq!(column(&csv, "geometric_altitude_m")[0], -5000.0);
+}
+
+#[test]
+fn eval_reads_stdin_and_files_and_skips_blanks() {
+    let csv = stdout_of(&["eval"], "0\n\n# a comment\n11000\n");
+    assert_eq!(column(&csv, "temperature_K"), vec![288.15, 216.77351270445553]);
+    let dir = std::env::temp_dir().join(format!("aerostrata-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("altitudes.txt");
+    std::fs::write(&file, "0\n11000\n").unwrap();
+    assert_eq!(stdout_of(&["eval", file.to_str().unwrap()], ""), csv);
+    assert_eq!(stdout_of(&["eval", "-"], "0\n11000\n"), csv);
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn eval_header_names_quantities_and_units() {
+    let csv = stdout_of(&["eval"], "0\n");
+    let header = csv.lines().next().unwrap();
+    for name in [
+        "geometric_altitude_m",
+        "geopotential_altitude_m",
+        "temperature_K",
+        "pressure_Pa",
+        "density_kg_m3",
+        "speed_of_sound_m_s",
+        "dynamic_viscosity_Pa_s",
+    ] {
+        assert!(header.split(',').any(|c| c == name), "{name} missing from {header}");
+    }
+}
+
+#[test]
+fn offset_and_geopotential_options() {
+    let hot = stdout_of(&["eval", "--offset", "15"], "0\n");
+    assert_eq!(column(&hot, "temperature_K"), vec![303.15]);
+    assert_eq!(column(&hot, "pressure_Pa"), vec![101_325.0]);
+    let cold = stdout_of(&["eval", "--offset", "-15"], "0\n");
+    assert_eq!(column(&cold, "temperature_K"), vec![273.15]);
+    let geo = stdout_of(&["eval", "--geopotential"], "11000\n");
+    assert_eq!(column(&geo, "temperature_K"), vec![216.65]);
+    assert_eq!(column(&geo, "pressure_Pa"), vec![22_632.063_973_462_93]);
+}
+
+#[test]
+fn bad_input_exits_2_with_one_line() {
+    fails_with(&["eval"], "0\nabc\n", "line 2: 'abc' is not an altitude");
+    fails_with(
+        &["eval"],
+        "0\n\n90000\n",
+        "line 3: geometric altitude 90000 m is outside the allowed range -5000 to 86000 m",
+    );
+    fails_with(&["eval"], "NaN\n", "line 1: geometric altitude must be a finite number, got NaN");
+    fails_with(
+        &["eval", "--geopotential"],
+        "85000\n",
+        "geopotential altitude 85000 m is outside the allowed range",
+    );
+    fails_with(&["eval", "--offset", "-400"], "0\n", "temperature must be greater than 0 K");
+    fails_with(&["eval", "/no/such/file"], "", "cannot open /no/such/file");
+    fails_with(&["table", "--step", "0"], "", "--step must be greater than 0 m");
+    fails_with(&["table", "--from", "10", "--to", "0"], "", "must not be below --from");
+    fails_with(&["table", "--to", "90000"], "", "--to: geometric altitude 90000 m is outside");
+    fails_with(&["table", "--step", "1e-9"], "", "rows, more than");
+    fails_with(&["table", "--offset", "inf"], "", "temperature offset must be a finite number");
+}
+
+#[test]
+fn usage_errors_exit_2() {
+    let output = aerostrata().args(["table", "--format", "xml"]).output().unwrap();
+    assert_eq!(output.status.code(), Some(2));
+    let output = aerostrata().arg("frobnicate").output().unwrap();
+    assert_eq!(output.status.code(), Some(2));
+}
+
+#[test]
+fn help_shows_an_example_per_subcommand() {
+    for sub in ["table", "eval"] {
+        let help = stdout_of(&[sub, "--help"], "");
+        assert!(help.contains("Example:"), "{sub} help lacks an example");
+    }
+}

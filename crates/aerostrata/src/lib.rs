@@ -1,0 +1,55 @@
+//! # aerostrata
+//!
+//! The air's properties along a flight, and the aerodynamic loads built on them, from one
+//! validated, deterministic, `no_std` core: the U.S. Standard Atmosphere 1976, user
+//! layers, exponential and isothermal profiles and temperature offsets, each yielding the
+//! full state the standard tabulates.
+//!
+//! ```
+//! use aerostrata::{Altitude, Atmosphere, US1976};
+//!
+//! // Sea level of the standard: 288.15 K, 101 325 Pa, 1.2250 kg/m^3, 340.29 m/s
+//! // (U.S. Standard Atmosphere 1976, Table I; from memory of the printed table).
+//! let s = US1976.state(Altitude::geometric_m(0.0)?)?;
+//! assert_eq!(s.temperature_k, 288.15);
+//! assert_eq!(s.pressure_pa, 101_325.0);
+//! assert!((s.density_kg_m3 - 1.2250).abs() < 0.5e-4);
+//! assert!((s.speed_of_sound()? - 340.29).abs() < 0.005);
+//! # Ok::<(), aerostrata::Error>(())
+//! ```
+//!
+//! Everything is SI; names carry their unit (`pressure_pa`, `density_kg_m3`). Every
+//! transcendental function goes through the pure-Rust `libm` crate, so results are
+//! bit-identical on x86-64, wasm32 and Cortex-M. No function panics on any input: bad
+//! input is an [`Error`] that names the value and the allowed range.
+//!
+//! Not certified flight software: verify results independently before they carry loads,
+//! lives or launches.
+
+#![cfg_attr(not(feature = "std"), no_std)]
+#![forbid(unsafe_code)]
+#![warn(missing_docs)]
+
+#[cfg(feature = "alloc")]
+extern crate alloc;
+
+pub mod altitude;
+pub mod constants;
+mod error;
+pub mod gas;
+mod math;
+pub mod model;
+mod state;
+
+pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
+pub use error::{Error, Result};
+pub use gas::Air;
+pub use model::{
+    Atmosphere, Exponential, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset, Us1976, US1976,
+};
+pub use state::State;
+
+/// The README's Rust example, compiled and run as a doctest.
+#[cfg(doctest)]
+#[doc = include_str!("../../../README.md")]
+struct ReadmeExample;

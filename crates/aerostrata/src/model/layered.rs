@@ -1,0 +1,342 @@
+//! Layers of constant lapse rate in geopotential altitude: the machinery of the standard's
+//! lower atmosphere, open to user layers.
+//!
+//! Within a layer the molecular-scale temperature is linear in geopotential altitude and
+//! the pressure follows from the hydrostatic law integrated exactly (U.S. Standard
+//! Atmosphere 1976, Part 1, the two pressure equations for zero and non-zero lapse rate).
+//! Base pressures are computed once, at construction, never walked at evaluation.
+
+use crate::altitude::{Altitude, AltitudeRange, MAX_GEOPOTENTIAL_M, MIN_GEOPOTENTIAL_M};
+use crate::constants::{GMR_K_M, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
+use crate::error::{Error, Result};
+use crate::gas::Air;
+use crate::math::{exp, pow};
+
+use super::Atmosphere;
+
+/// One complete layer: its base and its constant lapse rate.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct Layer {
+    /// Geopotential altitude of the base, m.
+    pub base_geopotential_m: f64,
+    /// Molecular-scale temperature at the base, K.
+    pub base_temperature_k: f64,
+    /// Pressure at the base, Pa.
+    pub base_pressure_pa: f64,
+    /// dT/dH, K per geopotential metre (negative when temperature falls with height).
+    pub lapse_rate_k_m: f64,
+}
+
+/// A layer as a user describes it: where it ends and how temperature changes in it.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LayerSpec {
+    /// Geopotential altitude of the layer's top, m.
+    pub top_geopotential_m: f64,
+    /// dT/dH, K per geopotential metre.
+    pub lapse_rate_k_m: f64,
+}
+
+impl Layer {
+    const EMPTY: Layer = Layer {
+        base_geopotential_m: 0.0,
+        base_temperature_k: 0.0,
+        base_pressure_pa: 0.0,
+        lapse_rate_k_m: 0.0,
+    };
+
+    /// Molecular-scale temperature (K) and pressure (Pa) at geopotential altitude `h_m`,
+    /// which may lie outside the layer (the layer is then extended).
+    ///
+    /// ```text
+    /// T = Tb + L (H - Hb)
+    /// p = pb (Tb / T)^(g0 M0 / (R* L))          L != 0
+    /// p = pb exp(-g0 M0 (H - Hb) / (R* Tb))      L == 0
+    /// ```
+    #[inline]
+    pub fn temperature_pressure(&self, h_m: f64) -> (f64, f64) {
+        let dh = h_m - self.base_geopotential_m;
+        if self.lapse_rate_k_m == 0.0 {
+            let p = self.base_pressure_pa * exp(-GMR_K_M * dh / self.base_temperature_k);
+            (self.base_temperature_k, p)
+        } else {
+            let t = self.base_temperature_k + self.lapse_rate_k_m * dh;
+            let p = self.base_pressure_pa * pow(self.base_temperature_k / t, GMR_K_M / self.lapse_rate_k_m);
+            (t, p)
+        }
+    }
+}
+
+/// An atmosphere of layers with constant lapse rate, dry air of the standard's sea-level
+/// composition (M = M0, so kinetic and molecular-scale temperature coincide).
+///
+/// `S` is the storage: an array `[Layer; N]` (no allocation; see
+/// [`Layered::from_lapse_rates`]), a borrowed slice, or with the `alloc` feature a
+/// `Vec<Layer>`. The model is defined from the first base to the last top, in
+/// geopotential altitude.
+///
+/// ```
+/// use aerostrata::{Altitude, Atmosphere, Layered, LayerSpec};
+/// // An invented two-layer desert profile: a steep surface lapse, then isothermal.
+/// let desert = Layered::from_lapse_rates(0.0, 318.15, 100_800.0, &[
+///     LayerSpec { top_geopotential_m: 3_000.0, lapse_rate_k_m: -0.0095 },
+///     LayerSpec { top_geopotential_m: 12_000.0, lapse_rate_k_m: 0.0 },
+/// ])?;
+/// let s = desert.state(Altitude::geopotential_m(5_000.0)?)?;
+/// assert!((s.temperature_k - 289.65).abs() < 1e-9);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct Layered<S> {
+    layers: S,
+    range: AltitudeRange,
+}
+
+/// Relative mismatch allowed between a layer's computed top and the next layer's given
+/// base in [`Layered::from_layers`]: loose enough for values typed to 10 digits, tight
+/// enough to catch a wrong layer.
+const CONTINUITY_TOLERANCE: f64 = 1e-9;
+
+impl<S: AsRef<[Layer]>> Layered<S> {
+    /// A model from complete layers, checked for consistency, defined from the first
+    /// base up to `top_geopotential_m`.
+    ///
+    /// # Errors
+    /// [`Error::InvalidLayer`] when there are no layers, a value is not finite, a base
+    /// temperature or pressure is not positive, the bases do not increase strictly, the
+    /// top is not above the last base, the temperature reaches 0 K inside a layer, or a
+    /// base temperature or pressure differs from the layer below's top by more than
+    /// 1e-9 relative.
+    pub fn from_layers(layers: S, top_geopotential_m: f64) -> Result<Self> {
+        let list = layers.as_ref();
+        let Some(first) = list.first() else {
+            return Err(invalid(0, "at least one layer is needed; layer count", 0.0));
+        };
+        for (index, layer) in list.iter().enumerate() {
+            check_layer_values(index, layer)?;
+        }
+        for (index, pair) in list.windows(2).enumerate() {
+            let (below, above) = (&pair[0], &pair[1]);
+            let index = index + 1;
+            if above.base_geopotential_m <= below.base_geopotential_m {
+                return Err(invalid(
+                    index,
+                    "base geopotential altitude (m) must be above the layer below's base",
+                    above.base_geopotential_m,
+                ));
+            }
+            let (t_top, p_top) = below.temperature_pressure(above.base_geopotential_m);
+            check_top_temperature(index - 1, t_top)?;
+            if !close(above.base_temperature_k, t_top) {
+                return Err(invalid(
+                    index,
+                    "base temperature (K) must continue the layer below within 1e-9 relative",
+                    above.base_temperature_k,
+                ));
+            }
+            if !close(above.base_pressure_pa, p_top) {
+                return Err(invalid(
+                    index,
+                    "base pressure (Pa) must continue the layer below within 1e-9 relative",
+                    above.base_pressure_pa,
+                ));
+            }
+        }
+        let last_index = list.len() - 1;
+        let last = &list[last_index];
+        check_top(last_index, last, top_geopotential_m)?;
+        let range = AltitudeRange::from_geopotential(first.base_geopotential_m, top_geopotential_m);
+        Ok(Self { layers, range })
+    }
+
+    /// A model over trusted layers and range (the standard's, typed from its tables).
+    pub(crate) const fn from_trusted(layers: S, range: AltitudeRange) -> Self {
+        Self { layers, range }
+    }
+
+    /// The layers, lowest first.
+    pub fn layers(&self) -> &[Layer] {
+        self.layers.as_ref()
+    }
+
+    /// Extends the lowest layer down to `bottom_geopotential_m` (for example below sea
+    /// level), keeping its lapse rate.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] when the new bottom is not finite, is above the first base
+    /// or below the lowest representable geopotential altitude;
+    /// [`Error::InvalidLayer`] when the temperature would reach 0 K.
+    pub fn extend_below(self, bottom_geopotential_m: f64) -> Result<Self> {
+        let first = self.layers.as_ref()[0];
+        crate::error::within(
+            "bottom geopotential altitude",
+            "m",
+            bottom_geopotential_m,
+            MIN_GEOPOTENTIAL_M,
+            first.base_geopotential_m,
+        )?;
+        let (t, _) = first.temperature_pressure(bottom_geopotential_m);
+        check_top_temperature(0, t)?;
+        let range = AltitudeRange::from_geopotential(bottom_geopotential_m, self.range.geopotential_max_m);
+        Ok(Self { layers: self.layers, range })
+    }
+
+    /// Molecular-scale temperature (K) and pressure (Pa) at a geopotential altitude the
+    /// caller has checked against the range.
+    #[inline]
+    pub(crate) fn temperature_pressure(&self, h_m: f64) -> (f64, f64) {
+        let layers = self.layers.as_ref();
+        // The last layer whose base is at or below h; the first layer also serves below
+        // its base when the range was extended downward.
+        let index = layers.partition_point(|layer| layer.base_geopotential_m <= h_m);
+        layers[index.saturating_sub(1)].temperature_pressure(h_m)
+    }
+}
+
+impl<const N: usize> Layered<[Layer; N]> {
+    /// A model of `N` layers, stacked from a base (`base_geopotential_m`, with temperature
+    /// `base_temperature_k` and pressure `base_pressure_pa`) by each layer's top and lapse
+    /// rate. Base temperatures and pressures are computed here, once.
+    ///
+    /// # Errors
+    /// [`Error::InvalidLayer`] for no layers, non-finite values, a non-positive base
+    /// temperature or pressure, a top not above its base or above the highest
+    /// representable altitude, a temperature that reaches 0 K, or a pressure that
+    /// underflows to zero.
+    pub fn from_lapse_rates(
+        base_geopotential_m: f64,
+        base_temperature_k: f64,
+        base_pressure_pa: f64,
+        specs: &[LayerSpec; N],
+    ) -> Result<Self> {
+        let mut layers = [Layer::EMPTY; N];
+        let top = stack(base_geopotential_m, base_temperature_k, base_pressure_pa, specs, &mut layers)?;
+        let range = AltitudeRange::from_geopotential(base_geopotential_m, top);
+        Ok(Self { layers, range })
+    }
+}
+
+#[cfg(feature = "alloc")]
+impl Layered<alloc::vec::Vec<Layer>> {
+    /// As [`Layered::from_lapse_rates`], for a number of layers known only at run time.
+    ///
+    /// # Errors
+    /// As [`Layered::from_lapse_rates`].
+    pub fn from_lapse_rates_vec(
+        base_geopotential_m: f64,
+        base_temperature_k: f64,
+        base_pressure_pa: f64,
+        specs: &[LayerSpec],
+    ) -> Result<Self> {
+        let mut layers = alloc::vec![Layer::EMPTY; specs.len()];
+        let top = stack(base_geopotential_m, base_temperature_k, base_pressure_pa, specs, &mut layers)?;
+        let range = AltitudeRange::from_geopotential(base_geopotential_m, top);
+        Ok(Self { layers, range })
+    }
+}
+
+impl<S: AsRef<[Layer]>> Atmosphere for Layered<S> {
+    fn range(&self) -> AltitudeRange {
+        self.range
+    }
+
+    fn air(&self, altitude: Altitude) -> Result<Air> {
+        let h = self.range.check(altitude)?.geopotential().meters();
+        let (t, p) = self.temperature_pressure(h);
+        Air::new(t, p, SEA_LEVEL_MOLAR_MASS_KG_KMOL)
+    }
+}
+
+/// Fills `out` (as long as `specs`) with the layers stacked from the base; returns the top.
+fn stack(
+    base_geopotential_m: f64,
+    base_temperature_k: f64,
+    base_pressure_pa: f64,
+    specs: &[LayerSpec],
+    out: &mut [Layer],
+) -> Result<f64> {
+    if specs.is_empty() {
+        return Err(invalid(0, "at least one layer is needed; layer count", 0.0));
+    }
+    let mut base = Layer {
+        base_geopotential_m,
+        base_temperature_k,
+        base_pressure_pa,
+        lapse_rate_k_m: specs[0].lapse_rate_k_m,
+    };
+    for (index, (spec, slot)) in specs.iter().zip(out.iter_mut()).enumerate() {
+        base.lapse_rate_k_m = spec.lapse_rate_k_m;
+        check_layer_values(index, &base)?;
+        check_top(index, &base, spec.top_geopotential_m)?;
+        *slot = base;
+        let (t, p) = base.temperature_pressure(spec.top_geopotential_m);
+        if p.partial_cmp(&0.0) != Some(core::cmp::Ordering::Greater) {
+            return Err(invalid(index, "pressure must stay above 0 Pa up to the top; top pressure (Pa)", p));
+        }
+        base = Layer {
+            base_geopotential_m: spec.top_geopotential_m,
+            base_temperature_k: t,
+            base_pressure_pa: p,
+            lapse_rate_k_m: 0.0,
+        };
+    }
+    Ok(base.base_geopotential_m)
+}
+
+fn check_layer_values(index: usize, layer: &Layer) -> Result<()> {
+    if !(MIN_GEOPOTENTIAL_M..=MAX_GEOPOTENTIAL_M).contains(&layer.base_geopotential_m) {
+        return Err(invalid(
+            index,
+            "base geopotential altitude (m) must be finite and within -1.19e6 to 3.89e6 m",
+            layer.base_geopotential_m,
+        ));
+    }
+    if !(layer.base_temperature_k.is_finite() && layer.base_temperature_k > 0.0) {
+        return Err(invalid(
+            index,
+            "base temperature (K) must be finite and above 0 K",
+            layer.base_temperature_k,
+        ));
+    }
+    if !(layer.base_pressure_pa.is_finite() && layer.base_pressure_pa > 0.0) {
+        return Err(invalid(
+            index,
+            "base pressure (Pa) must be finite and above 0 Pa",
+            layer.base_pressure_pa,
+        ));
+    }
+    if !layer.lapse_rate_k_m.is_finite() {
+        return Err(invalid(index, "lapse rate (K/m) must be finite", layer.lapse_rate_k_m));
+    }
+    Ok(())
+}
+
+fn check_top(index: usize, layer: &Layer, top_geopotential_m: f64) -> Result<()> {
+    if !(top_geopotential_m > layer.base_geopotential_m && top_geopotential_m <= MAX_GEOPOTENTIAL_M) {
+        return Err(invalid(
+            index,
+            "top geopotential altitude (m) must be finite, above the layer's base and at most 3.89e6 m",
+            top_geopotential_m,
+        ));
+    }
+    let (t_top, _) = layer.temperature_pressure(top_geopotential_m);
+    check_top_temperature(index, t_top)
+}
+
+fn check_top_temperature(index: usize, t_top: f64) -> Result<()> {
+    if t_top > 0.0 && t_top.is_finite() {
+        Ok(())
+    } else {
+        Err(invalid(index, "temperature must stay above 0 K through the layer; top temperature (K)", t_top))
+    }
+}
+
+fn close(given: f64, computed: f64) -> bool {
+    (given - computed).abs() <= CONTINUITY_TOLERANCE * computed.abs()
+}
+
+fn invalid(index: usize, problem: &'static str, value: f64) -> Error {
+    Error::InvalidLayer { index, problem, value }
+}

@@ -1,0 +1,189 @@
+//! The full state of the atmosphere at a point, derived from an [`Air`] in one place.
+
+use crate::altitude::Altitude;
+use crate::constants::{SEA_LEVEL_DENSITY_KG_M3, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
+use crate::error::{Error, Result};
+use crate::gas::Air;
+
+/// Every property the U.S. Standard Atmosphere 1976 tabulates, at one altitude, in SI.
+///
+/// The continuum properties (speed of sound, viscosities, conductivity) are `None` where
+/// the model does not define them (the rarefied upper atmosphere); the accessor methods
+/// such as [`State::speed_of_sound`] turn that into an [`Error::Undefined`].
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct State {
+    /// Geometric altitude Z, m.
+    pub geometric_altitude_m: f64,
+    /// Geopotential altitude H, m.
+    pub geopotential_altitude_m: f64,
+    /// Kinetic temperature T, K.
+    pub temperature_k: f64,
+    /// Molecular-scale temperature T_M = T M0 / M, K.
+    pub molecular_temperature_k: f64,
+    /// Pressure p, Pa.
+    pub pressure_pa: f64,
+    /// Density rho, kg/m^3.
+    pub density_kg_m3: f64,
+    /// Speed of sound a, m/s.
+    pub speed_of_sound_m_s: Option<f64>,
+    /// Dynamic viscosity mu, Pa s.
+    pub dynamic_viscosity_pa_s: Option<f64>,
+    /// Kinematic viscosity nu = mu / rho, m^2/s.
+    pub kinematic_viscosity_m2_s: Option<f64>,
+    /// Thermal conductivity k, W/(m K).
+    pub thermal_conductivity_w_m_k: Option<f64>,
+    /// Acceleration of gravity g, m/s^2.
+    pub gravity_m_s2: f64,
+    /// Pressure scale height H_p = R* T / (M g), m.
+    pub pressure_scale_height_m: f64,
+    /// Number density n, 1/m^3.
+    pub number_density_m3: f64,
+    /// Mean particle speed V, m/s.
+    pub mean_particle_speed_m_s: f64,
+    /// Mean free path L, m.
+    pub mean_free_path_m: f64,
+    /// Mean collision frequency V / L, 1/s.
+    pub collision_frequency_hz: f64,
+    /// Mean molecular weight M, kg/kmol.
+    pub mean_molar_mass_kg_kmol: f64,
+    /// Temperature ratio theta = T / T0.
+    pub temperature_ratio: f64,
+    /// Pressure ratio delta = p / P0.
+    pub pressure_ratio: f64,
+    /// Density ratio sigma = rho / rho0.
+    pub density_ratio: f64,
+}
+
+impl State {
+    /// The full state of `air` found at `altitude`.
+    ///
+    /// Infallible: [`Air`] is finite and positive by construction, and an [`Altitude`]
+    /// is finite and within its band, so every derived quantity is finite.
+    pub fn new(altitude: Altitude, air: Air) -> Self {
+        let z = altitude.geometric();
+        let gravity_m_s2 = z.gravity_m_s2();
+        let density_kg_m3 = air.density_kg_m3();
+        let dynamic_viscosity_pa_s = air.dynamic_viscosity_pa_s();
+        let number_density_m3 = air.number_density_m3();
+        let mean_particle_speed_m_s = air.mean_particle_speed_m_s();
+        let mean_free_path_m = crate::gas::mean_free_path(number_density_m3);
+        Self {
+            geometric_altitude_m: z.meters(),
+            geopotential_altitude_m: altitude.geopotential().meters(),
+            temperature_k: air.temperature_k(),
+            molecular_temperature_k: air.molecular_temperature_k(),
+            pressure_pa: air.pressure_pa(),
+            density_kg_m3,
+            speed_of_sound_m_s: air.speed_of_sound_m_s(),
+            dynamic_viscosity_pa_s,
+            kinematic_viscosity_m2_s: dynamic_viscosity_pa_s.map(|mu| mu / density_kg_m3),
+            thermal_conductivity_w_m_k: air.thermal_conductivity_w_m_k(),
+            gravity_m_s2,
+            pressure_scale_height_m: air.pressure_scale_height_m(gravity_m_s2),
+            number_density_m3,
+            mean_particle_speed_m_s,
+            mean_free_path_m,
+            collision_frequency_hz: mean_particle_speed_m_s / mean_free_path_m,
+            mean_molar_mass_kg_kmol: air.molar_mass_kg_kmol(),
+            temperature_ratio: air.temperature_k() / SEA_LEVEL_TEMPERATURE_K,
+            pressure_ratio: air.pressure_pa() / SEA_LEVEL_PRESSURE_PA,
+            density_ratio: density_kg_m3 / SEA_LEVEL_DENSITY_KG_M3,
+        }
+    }
+
+    /// Speed of sound, m/s.
+    ///
+    /// # Errors
+    /// [`Error::Undefined`] where the model does not define it.
+    pub fn speed_of_sound(&self) -> Result<f64> {
+        self.defined("speed of sound", self.speed_of_sound_m_s)
+    }
+
+    /// Dynamic viscosity, Pa s.
+    ///
+    /// # Errors
+    /// [`Error::Undefined`] where the model does not define it.
+    pub fn dynamic_viscosity(&self) -> Result<f64> {
+        self.defined("dynamic viscosity", self.dynamic_viscosity_pa_s)
+    }
+
+    /// Kinematic viscosity, m^2/s.
+    ///
+    /// # Errors
+    /// [`Error::Undefined`] where the model does not define it.
+    pub fn kinematic_viscosity(&self) -> Result<f64> {
+        self.defined("kinematic viscosity", self.kinematic_viscosity_m2_s)
+    }
+
+    /// Thermal conductivity, W/(m K).
+    ///
+    /// # Errors
+    /// [`Error::Undefined`] where the model does not define it.
+    pub fn thermal_conductivity(&self) -> Result<f64> {
+        self.defined("thermal conductivity", self.thermal_conductivity_w_m_k)
+    }
+
+    fn defined(&self, quantity: &'static str, value: Option<f64>) -> Result<f64> {
+        value.ok_or(Error::Undefined { quantity, altitude_m: self.geometric_altitude_m })
+    }
+
+    /// Every field as (name, value), `None` for the undefined ones, in declaration order;
+    /// what comparisons and tabulations iterate over.
+    pub fn fields(&self) -> [(&'static str, Option<f64>); 20] {
+        [
+            ("geometric_altitude_m", Some(self.geometric_altitude_m)),
+            ("geopotential_altitude_m", Some(self.geopotential_altitude_m)),
+            ("temperature_k", Some(self.temperature_k)),
+            ("molecular_temperature_k", Some(self.molecular_temperature_k)),
+            ("pressure_pa", Some(self.pressure_pa)),
+            ("density_kg_m3", Some(self.density_kg_m3)),
+            ("speed_of_sound_m_s", self.speed_of_sound_m_s),
+            ("dynamic_viscosity_pa_s", self.dynamic_viscosity_pa_s),
+            ("kinematic_viscosity_m2_s", self.kinematic_viscosity_m2_s),
+            ("thermal_conductivity_w_m_k", self.thermal_conductivity_w_m_k),
+            ("gravity_m_s2", Some(self.gravity_m_s2)),
+            ("pressure_scale_height_m", Some(self.pressure_scale_height_m)),
+            ("number_density_m3", Some(self.number_density_m3)),
+            ("mean_particle_speed_m_s", Some(self.mean_particle_speed_m_s)),
+            ("mean_free_path_m", Some(self.mean_free_path_m)),
+            ("collision_frequency_hz", Some(self.collision_frequency_hz)),
+            ("mean_molar_mass_kg_kmol", Some(self.mean_molar_mass_kg_kmol)),
+            ("temperature_ratio", Some(self.temperature_ratio)),
+            ("pressure_ratio", Some(self.pressure_ratio)),
+            ("density_ratio", Some(self.density_ratio)),
+        ]
+    }
+}
+
+impl approx::AbsDiffEq for State {
+    type Epsilon = f64;
+
+    fn default_epsilon() -> f64 {
+        f64::EPSILON
+    }
+
+    /// Every field within `epsilon` absolutely; undefined fields must be undefined in both.
+    fn abs_diff_eq(&self, other: &Self, epsilon: f64) -> bool {
+        self.fields().iter().zip(other.fields().iter()).all(|((_, a), (_, b))| match (a, b) {
+            (Some(a), Some(b)) => a.abs_diff_eq(b, epsilon),
+            (None, None) => true,
+            _ => false,
+        })
+    }
+}
+
+impl approx::RelativeEq for State {
+    fn default_max_relative() -> f64 {
+        f64::EPSILON
+    }
+
+    /// Every field within `max_relative` relatively (or `epsilon` absolutely).
+    fn relative_eq(&self, other: &Self, epsilon: f64, max_relative: f64) -> bool {
+        self.fields().iter().zip(other.fields().iter()).all(|((_, a), (_, b))| match (a, b) {
+            (Some(a), Some(b)) => a.relative_eq(b, epsilon, max_relative),
+            (None, None) => true,
+            _ => false,
+        })
+    }
+}

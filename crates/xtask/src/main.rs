@@ -1,0 +1,79 @@
+//! Project automation: every CI step is one of these commands, runnable by hand.
+//!
+//! ```text
+//! cargo xtask test              everything CI runs (installs what is missing first)
+//! cargo xtask validate [--check] write docs/validation.md (or fail if it is stale)
+//! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
+//! ```
+
+mod bench;
+mod setup;
+mod test;
+mod validate;
+mod vectors;
+
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+fn main() -> ExitCode {
+    let args: Vec<String> = std::env::args().skip(1).collect();
+    let root = workspace_root();
+    let result = match args.first().map(String::as_str) {
+        Some("test") => test::run(&root),
+        Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
+        Some("bench") => bench::run(&root),
+        _ => Err("usage: cargo xtask test | validate [--check] | bench".to_owned()),
+    };
+    match result {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(message) => {
+            eprintln!("xtask: {message}");
+            ExitCode::FAILURE
+        }
+    }
+}
+
+fn workspace_root() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .ancestors()
+        .nth(2)
+        .expect("xtask lives in crates/xtask")
+        .to_path_buf()
+}
+
+/// Runs a command in `dir`, inheriting the terminal; Err names the command on failure.
+pub(crate) fn run_command(
+    dir: &Path,
+    program: &str,
+    args: &[&str],
+    envs: &[(&str, &str)],
+) -> Result<(), String> {
+    eprintln!("+ {program} {}", args.join(" "));
+    let status = std::process::Command::new(program)
+        .args(args)
+        .envs(envs.iter().copied())
+        .current_dir(dir)
+        .status()
+        .map_err(|e| format!("cannot start {program}: {e}"))?;
+    if status.success() {
+        Ok(())
+    } else {
+        Err(format!("`{program} {}` failed ({status})", args.join(" ")))
+    }
+}
+
+/// Runs a command and returns its stdout; stderr goes to the terminal.
+pub(crate) fn command_output(dir: &Path, program: &str, args: &[&str]) -> Result<String, String> {
+    let output = std::process::Command::new(program)
+        .args(args)
+        .current_dir(dir)
+        .stderr(std::process::Stdio::inherit())
+        .output()
+        .map_err(|e| format!("cannot start {program}: {e}"))?;
+    let stdout = String::from_utf8_lossy(&output.stdout).into_owned();
+    if output.status.success() {
+        Ok(stdout)
+    } else {
+        Err(format!("`{program} {}` failed ({}):\n{stdout}", args.join(" "), output.status))
+    }
+}

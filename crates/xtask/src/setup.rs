@@ -1,0 +1,99 @@
+//! Installing what the tests need on a fresh Debian machine, skipping what is there.
+//!
+//! Rust targets come from rustup; where rustup cannot download, Debian's rustc with its
+//! std source builds `core` per target instead (../shared/notes/toolchains.md). Python's
+//! mpmath comes from pip, or Debian's python3-mpmath.
+
+use std::path::Path;
+use std::process::{Command, Stdio};
+
+use crate::run_command;
+
+/// The bare-metal targets the core must keep building for.
+pub const FIRMWARE_TARGETS: [&str; 2] = ["thumbv7em-none-eabihf", "thumbv7m-none-eabi"];
+
+/// How to build for the firmware targets on this machine.
+#[derive(Clone, Copy, PartialEq, Eq)]
+pub enum TargetToolchain {
+    /// rustup has the targets' standard libraries.
+    Rustup,
+    /// Debian's rustc builds `core` from source (`-Zbuild-std`).
+    DebianBuildStd,
+}
+
+fn quiet_success(program: &str, args: &[&str]) -> bool {
+    Command::new(program)
+        .args(args)
+        .stdout(Stdio::null())
+        .stderr(Stdio::null())
+        .status()
+        .is_ok_and(|s| s.success())
+}
+
+fn is_root() -> bool {
+    Command::new("id").arg("-u").output().is_ok_and(|o| o.stdout.starts_with(b"0\n"))
+}
+
+/// Installs Debian packages when missing (as root), or says what to install.
+pub fn apt_install(root: &Path, packages: &[&str]) -> Result<(), String> {
+    let missing: Vec<&str> = packages.iter().copied().filter(|p| !dpkg_installed(p)).collect();
+    if missing.is_empty() {
+        return Ok(());
+    }
+    if !is_root() {
+        return Err(format!(
+            "please install these Debian packages: sudo apt-get install {}",
+            missing.join(" ")
+        ));
+    }
+    run_command(root, "apt-get", &["update", "-q"], &[])?;
+    let mut args = vec!["install", "-y", "-q", "--no-install-recommends"];
+    args.extend(&missing);
+    run_command(root, "apt-get", &args, &[("DEBIAN_FRONTEND", "noninteractive")])
+}
+
+fn dpkg_installed(package: &str) -> bool {
+    Command::new("dpkg-query")
+        .args(["-W", "-f=${Status}", package])
+        .output()
+        .is_ok_and(|o| String::from_utf8_lossy(&o.stdout).contains("install ok installed"))
+}
+
+/// Makes the firmware targets buildable and says how.
+pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
+    let installed = Command::new("rustup")
+        .args(["target", "list", "--installed"])
+        .output()
+        .map(|o| String::from_utf8_lossy(&o.stdout).into_owned())
+        .unwrap_or_default();
+    let missing: Vec<&str> =
+        FIRMWARE_TARGETS.iter().copied().filter(|t| !installed.lines().any(|l| l == *t)).collect();
+    if missing.is_empty() {
+        return Ok(TargetToolchain::Rustup);
+    }
+    let mut args = vec!["target", "add"];
+    args.extend(&missing);
+    if run_command(root, "rustup", &args, &[]).is_ok() {
+        return Ok(TargetToolchain::Rustup);
+    }
+    eprintln!("rustup could not add {missing:?}; falling back to Debian's rustc with -Zbuild-std");
+    apt_install(root, &["rustc-web", "rust-web-src", "lld-16"])?;
+    Ok(TargetToolchain::DebianBuildStd)
+}
+
+/// Makes `python3 -c "import mpmath"` work.
+pub fn mpmath(root: &Path) -> Result<(), String> {
+    if quiet_success("python3", &["-c", "import mpmath"]) {
+        return Ok(());
+    }
+    if !quiet_success("python3", &["--version"]) {
+        apt_install(root, &["python3", "python3-mpmath"])?;
+    } else if run_command(root, "python3", &["-m", "pip", "install", "--quiet", "mpmath"], &[]).is_err() {
+        apt_install(root, &["python3-mpmath"])?;
+    }
+    if quiet_success("python3", &["-c", "import mpmath"]) {
+        Ok(())
+    } else {
+        Err("mpmath is still not importable by python3".to_owned())
+    }
+}

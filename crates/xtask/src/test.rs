@@ -1,0 +1,92 @@
+//! `cargo xtask test`: every test the project has, after installing what is missing.
+
+use std::path::Path;
+use std::time::Instant;
+
+use crate::run_command;
+use crate::setup::{self, TargetToolchain, FIRMWARE_TARGETS};
+
+pub fn run(root: &Path) -> Result<(), String> {
+    let started = Instant::now();
+    let mut passed = 0usize;
+    let mut failed: Vec<String> = Vec::new();
+    let mut step = |name: &str, result: Result<(), String>| match result {
+        Ok(()) => {
+            eprintln!("ok: {name}");
+            passed += 1;
+        }
+        Err(message) => {
+            eprintln!("FAILED: {name}: {message}");
+            failed.push(name.to_owned());
+        }
+    };
+
+    let toolchain = setup::firmware_targets(root);
+    let mpmath = setup::mpmath(root);
+    step("install: python3 with mpmath", mpmath);
+
+    step("format (cargo fmt --check)", run_command(root, "cargo", &["fmt", "--all", "--", "--check"], &[]));
+    step(
+        "lints (cargo clippy -D warnings)",
+        run_command(root, "cargo", &["clippy", "--workspace", "--all-targets", "--", "-D", "warnings"], &[]),
+    );
+    step(
+        "unit, property, doc and CLI tests (cargo test)",
+        run_command(root, "cargo", &["test", "--workspace"], &[]),
+    );
+    step(
+        "API docs build without warnings",
+        run_command(
+            root,
+            "cargo",
+            &["doc", "--quiet", "--no-deps", "-p", "aerostrata"],
+            &[("RUSTDOCFLAGS", "-D warnings")],
+        ),
+    );
+    match toolchain {
+        Ok(toolchain) => {
+            for target in FIRMWARE_TARGETS {
+                for features in [&[][..], &["--features", "serde"][..]] {
+                    let label = format!("no_std build for {target} {}", features.join(" "));
+                    step(&label, no_std_build(root, toolchain, target, features));
+                }
+            }
+        }
+        Err(message) => step("install: firmware targets", Err(message)),
+    }
+    step(
+        "reference vectors and mpmath check (cargo xtask validate --check)",
+        crate::validate::run(root, true),
+    );
+
+    let failed_count = failed.len();
+    eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
+    println!("{passed} passed, {failed_count} failed");
+    if failed.is_empty() {
+        Ok(())
+    } else {
+        Err(format!("failed steps: {}", failed.join("; ")))
+    }
+}
+
+fn no_std_build(
+    root: &Path,
+    toolchain: TargetToolchain,
+    target: &str,
+    features: &[&str],
+) -> Result<(), String> {
+    let mut args = vec!["build", "--quiet", "-p", "aerostrata", "--no-default-features", "--target", target];
+    args.extend(features);
+    match toolchain {
+        TargetToolchain::Rustup => run_command(root, "cargo", &args, &[]),
+        TargetToolchain::DebianBuildStd => {
+            args.extend(["-Zbuild-std=core", "--target-dir", "target/debian-rustc"]);
+            run_command(
+                root,
+                "cargo",
+                &args,
+                &[("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")],
+            )
+        }
+    }
+}

@@ -1,0 +1,257 @@
+//! Reading the reference vectors of `tests/vectors` and checking the core against them.
+//!
+//! File format (tests/vectors/README.md): `#` comment lines first, among them
+//! `# model: NAME` and one `# tolerance: COLUMN RULE` per checked column, where RULE is
+//! `printed` (half a unit of the last digit of each value as written), `rel X` or
+//! `abs X`; then a header whose first column is the input altitude
+//! (`geometric_altitude_m` or `geopotential_altitude_m`) and whose other columns are
+//! state quantities named as in `aerostrata eval`; then rows, empty cells unchecked.
+
+use std::collections::BTreeMap;
+use std::fs;
+use std::path::{Path, PathBuf};
+
+use aerostrata::{Altitude, Atmosphere, State, TemperatureOffset, US1976};
+
+/// How close a computed value must be to a reference value.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Rule {
+    /// Half a unit of the last printed digit of each reference value.
+    Printed,
+    /// A relative tolerance.
+    Relative(f64),
+    /// An absolute tolerance in the column's unit.
+    Absolute(f64),
+}
+
+/// One parsed vector file.
+pub struct VectorFile {
+    pub path: PathBuf,
+    /// The comment lines before the machine-readable ones: the source.
+    pub source: Vec<String>,
+    pub model: String,
+    pub rules: BTreeMap<String, Rule>,
+    pub input: String,
+    pub columns: Vec<String>,
+    /// Rows as (line number, cells as written).
+    pub rows: Vec<(usize, Vec<String>)>,
+}
+
+/// What one column of one file came to.
+#[derive(Debug, Clone)]
+pub struct ColumnResult {
+    pub column: String,
+    pub rule: Rule,
+    pub points: usize,
+    pub worst_relative: f64,
+    /// The loosest relative tolerance any point had (for `printed`, it varies by value).
+    pub loosest_relative_tolerance: f64,
+    /// The largest |error| / tolerance; at most 1 when every point passes.
+    pub worst_ratio: f64,
+    pub failures: Vec<String>,
+}
+
+pub fn read_all(root: &Path) -> Result<Vec<VectorFile>, String> {
+    let dir = root.join("tests/vectors");
+    let mut paths: Vec<PathBuf> = fs::read_dir(&dir)
+        .map_err(|e| format!("cannot read {}: {e}", dir.display()))?
+        .filter_map(|entry| entry.ok().map(|e| e.path()))
+        .filter(|p| p.extension().is_some_and(|x| x == "csv"))
+        .collect();
+    paths.sort();
+    paths.iter().map(|p| read(p)).collect()
+}
+
+pub fn read(path: &Path) -> Result<VectorFile, String> {
+    let text = fs::read_to_string(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let name = path.display();
+    let mut file = VectorFile {
+        path: path.to_path_buf(),
+        source: Vec::new(),
+        model: String::new(),
+        rules: BTreeMap::new(),
+        input: String::new(),
+        columns: Vec::new(),
+        rows: Vec::new(),
+    };
+    for (index, line) in text.lines().enumerate() {
+        let number = index + 1;
+        let line = line.trim();
+        if line.is_empty() {
+            continue;
+        }
+        if let Some(comment) = line.strip_prefix('#') {
+            let comment = comment.trim();
+            if let Some(model) = comment.strip_prefix("model:") {
+                file.model = model.trim().to_owned();
+            } else if let Some(rule) = comment.strip_prefix("tolerance:") {
+                let (column, rule) = parse_rule(rule).map_err(|e| format!("{name}:{number}: {e}"))?;
+                file.rules.insert(column, rule);
+            } else if file.model.is_empty() && file.rules.is_empty() {
+                file.source.push(comment.to_owned());
+            }
+            continue;
+        }
+        let cells: Vec<String> = line.split(',').map(|c| c.trim().to_owned()).collect();
+        if file.columns.is_empty() {
+            file.input = cells[0].clone();
+            file.columns = cells[1..].to_vec();
+        } else if cells.len() != file.columns.len() + 1 {
+            return Err(format!(
+                "{name}:{number}: {} cells, the header has {}",
+                cells.len(),
+                file.columns.len() + 1
+            ));
+        } else {
+            file.rows.push((number, cells));
+        }
+    }
+    if file.model.is_empty() {
+        return Err(format!("{name}: no '# model:' line"));
+    }
+    for column in &file.columns {
+        if !file.rules.contains_key(column) {
+            return Err(format!("{name}: column {column} has no '# tolerance:' line"));
+        }
+    }
+    Ok(file)
+}
+
+fn parse_rule(text: &str) -> Result<(String, Rule), String> {
+    let words: Vec<&str> = text.split_whitespace().collect();
+    let number = |w: Option<&&str>| -> Result<f64, String> {
+        w.and_then(|w| w.parse::<f64>().ok()).filter(|x| *x > 0.0).ok_or(format!("bad tolerance '{text}'"))
+    };
+    let rule = match words.get(1).copied() {
+        Some("printed") => Rule::Printed,
+        Some("rel") => Rule::Relative(number(words.get(2))?),
+        Some("abs") => Rule::Absolute(number(words.get(2))?),
+        _ => return Err(format!("bad tolerance '{text}': expected COLUMN printed|rel X|abs X")),
+    };
+    Ok((words[0].to_owned(), rule))
+}
+
+/// Half a unit of the last digit of a number as written: "1.01325E+05" -> 0.5,
+/// "288.150" -> 0.0005, "86000" -> 0.5.
+pub fn half_unit_of_last_digit(written: &str) -> Option<f64> {
+    let lower = written.to_ascii_lowercase();
+    let (mantissa, exponent) = match lower.split_once('e') {
+        Some((m, e)) => (m, e.parse::<i32>().ok()?),
+        None => (lower.as_str(), 0),
+    };
+    let decimals = mantissa.split_once('.').map_or(0, |(_, fraction)| fraction.len() as i32);
+    Some(0.5 * 10f64.powi(exponent - decimals))
+}
+
+/// The model a vector file names.
+fn model(name: &str) -> Result<Box<dyn Atmosphere>, String> {
+    let mut words = name.split_whitespace();
+    let base = words.next().unwrap_or_default();
+    if base != "us1976" {
+        return Err(format!("unknown model '{name}'"));
+    }
+    match words.next().and_then(|w| w.strip_prefix("offset=")) {
+        None => Ok(Box::new(US1976)),
+        Some(offset) => {
+            let offset: f64 = offset.parse().map_err(|_| format!("bad offset in model '{name}'"))?;
+            Ok(Box::new(TemperatureOffset::new(US1976, offset).map_err(|e| e.to_string())?))
+        }
+    }
+}
+
+/// The state field a column names (`temperature_K` is the field `temperature_k`).
+fn field(state: &State, column: &str) -> Option<Option<f64>> {
+    let wanted = column.to_ascii_lowercase();
+    state.fields().iter().find(|(name, _)| *name == wanted).map(|(_, value)| *value)
+}
+
+/// Evaluates every row of `file` and compares each checked cell.
+pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
+    let name = file.path.display();
+    let atmosphere = model(&file.model).map_err(|e| format!("{name}: {e}"))?;
+    let mut results: Vec<ColumnResult> = file
+        .columns
+        .iter()
+        .map(|column| ColumnResult {
+            column: column.clone(),
+            rule: file.rules[column],
+            points: 0,
+            worst_relative: 0.0,
+            loosest_relative_tolerance: 0.0,
+            worst_ratio: 0.0,
+            failures: Vec::new(),
+        })
+        .collect();
+    for (line, cells) in &file.rows {
+        let input: f64 =
+            cells[0].parse().map_err(|_| format!("{name}:{line}: bad altitude '{}'", cells[0]))?;
+        let altitude = match file.input.as_str() {
+            "geometric_altitude_m" => Altitude::geometric_m(input),
+            "geopotential_altitude_m" => Altitude::geopotential_m(input),
+            other => return Err(format!("{name}: unknown input column {other}")),
+        }
+        .map_err(|e| format!("{name}:{line}: {e}"))?;
+        let state = atmosphere.state(altitude).map_err(|e| format!("{name}:{line}: {e}"))?;
+        for (result, written) in results.iter_mut().zip(&cells[1..]) {
+            if written.is_empty() {
+                continue;
+            }
+            let reference: f64 = written
+                .parse()
+                .map_err(|_| format!("{name}:{line}: bad value '{written}' in {}", result.column))?;
+            let ours = field(&state, &result.column)
+                .ok_or_else(|| format!("{name}: no state quantity named {}", result.column))?
+                .ok_or_else(|| format!("{name}:{line}: {} is not defined there", result.column))?;
+            let tolerance = match result.rule {
+                Rule::Printed => half_unit_of_last_digit(written)
+                    .ok_or_else(|| format!("{name}:{line}: cannot read the digits of '{written}'"))?,
+                Rule::Relative(r) => r * reference.abs(),
+                Rule::Absolute(a) => a,
+            };
+            let error = (ours - reference).abs();
+            result.points += 1;
+            result.worst_relative = result.worst_relative.max(error / reference.abs());
+            result.loosest_relative_tolerance =
+                result.loosest_relative_tolerance.max(tolerance / reference.abs());
+            result.worst_ratio = result.worst_ratio.max(error / tolerance);
+            if error > tolerance {
+                result.failures.push(format!(
+                    "{name}:{line}: {} at {} = {input}: computed {ours}, reference {written} (tolerance {tolerance:e})",
+                    result.column, file.input
+                ));
+            }
+        }
+    }
+    Ok(results)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn last_digit_rule() {
+        assert_eq!(half_unit_of_last_digit("1.01325E+05"), Some(0.5));
+        assert_eq!(half_unit_of_last_digit("288.150"), Some(0.0005));
+        assert_eq!(half_unit_of_last_digit("86000"), Some(0.5));
+        assert!((half_unit_of_last_digit("6.6328E-08").unwrap() - 0.5e-12).abs() < 1e-27);
+    }
+
+    /// Every vector of every file within its tolerance: the Rust door's reference test.
+    #[test]
+    fn core_meets_every_reference_vector() {
+        let root = crate::workspace_root();
+        let files = read_all(&root).unwrap();
+        assert!(!files.is_empty(), "no vector files");
+        let mut failures = Vec::new();
+        let mut checked = 0;
+        for file in &files {
+            for result in check(file).unwrap() {
+                checked += result.points;
+                failures.extend(result.failures);
+            }
+        }
+        assert!(checked > 100, "only {checked} values checked");
+        assert!(failures.is_empty(), "{} misses:\n{}", failures.len(), failures.join("\n"));
+    }
+}
