@@ -91,7 +91,20 @@ fn readable(index: usize, value: f64) -> String {
         0 | 1 => format!("{value:.1}"),
         2 | 3 => format!("{value:.3}"),
         6 | 10 => format!("{value:.4}"),
-        _ => format!("{value:.5e}"),
+        _ => scientific(value),
+    }
+}
+
+/// Six significant digits as `1.22500E+00`, the way printed tables show them.
+fn scientific(value: f64) -> String {
+    let text = format!("{value:.5e}");
+    match text.split_once('e') {
+        Some((mantissa, exponent)) => {
+            let exponent: i32 = exponent.parse().unwrap_or(0);
+            let sign = if exponent < 0 { '-' } else { '+' };
+            format!("{mantissa}E{sign}{:02}", exponent.abs())
+        }
+        None => text,
     }
 }
 
@@ -136,6 +149,13 @@ mod tests {
         for (column, (field, _)) in COLUMNS.iter().zip(state.fields()) {
             assert_eq!(column.to_lowercase(), field, "column {column} against field {field}");
         }
+    }
+
+    #[test]
+    fn scientific_looks_like_a_printed_table() {
+        assert_eq!(scientific(1.2249991558877122), "1.22500E+00");
+        assert_eq!(scientific(6.633232327863704e-8), "6.63323E-08");
+        assert_eq!(scientific(101_325.0), "1.01325E+05");
     }
 
     #[test]

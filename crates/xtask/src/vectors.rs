@@ -114,6 +114,9 @@ pub fn read(path: &Path) -> Result<VectorFile, String> {
             return Err(format!("{name}: column {column} has no '# tolerance:' line"));
         }
     }
+    if let Some(stray) = file.rules.keys().find(|rule| !file.columns.contains(rule)) {
+        return Err(format!("{name}: '# tolerance: {stray}' names no column of the header"));
+    }
     Ok(file)
 }
 
