@@ -33,7 +33,8 @@ use crate::math::{exp, sqrt};
 /// A parcel of air: kinetic temperature, pressure and mean molecular weight, all finite
 /// and positive (checked on construction).
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(try_from = "AirParameters"))]
 pub struct Air {
     temperature_k: f64,
     pressure_pa: f64,
@@ -227,4 +228,23 @@ pub(crate) fn conductivity(temperature_k: f64) -> f64 {
     let damping = exp(-CONDUCTIVITY_EXPONENT_K * LN_10 / temperature_k);
     CONDUCTIVITY_COEFFICIENT * temperature_k * sqrt(temperature_k)
         / (temperature_k + CONDUCTIVITY_TEMPERATURE_K * damping)
+}
+
+/// What deserialisation reads before [`Air::new`] validates it.
+#[cfg(feature = "serde")]
+#[derive(serde::Deserialize)]
+struct AirParameters {
+    temperature_k: f64,
+    pressure_pa: f64,
+    molar_mass_kg_kmol: f64,
+    continuum: bool,
+}
+
+#[cfg(feature = "serde")]
+impl TryFrom<AirParameters> for Air {
+    type Error = crate::Error;
+    fn try_from(p: AirParameters) -> Result<Self> {
+        let air = Self::new(p.temperature_k, p.pressure_pa, p.molar_mass_kg_kmol)?;
+        Ok(if p.continuum { air } else { air.rarefied() })
+    }
 }

@@ -262,3 +262,53 @@ fn user_layers_reproduce_the_standard() {
         assert!(approx::relative_eq!(ours, theirs, max_relative = 1e-13), "at {h}: {ours:?} vs {theirs:?}");
     }
 }
+
+#[cfg(feature = "serde")]
+#[test]
+fn models_round_trip_through_serde_and_deserialising_validates() {
+    use aerostrata::Layer;
+    let hot = TemperatureOffset::new(US1976, 12.5).unwrap();
+    let text = serde_json::to_string(&hot).unwrap();
+    let back: TemperatureOffset<aerostrata::Us1976> = serde_json::from_str(&text).unwrap();
+    assert_eq!(back, hot);
+    let model = Layered::from_lapse_rates_vec(
+        0.0,
+        300.0,
+        100_000.0,
+        &[LayerSpec { top_geopotential_m: 2_000.0, lapse_rate_k_m: -0.008 }],
+    )
+    .unwrap()
+    .extend_below(-500.0)
+    .unwrap();
+    let back: Layered<Vec<Layer>> = serde_json::from_str(&serde_json::to_string(&model).unwrap()).unwrap();
+    assert_eq!(back, model);
+    let state = US1976.state(Altitude::geometric_m(1234.5).unwrap()).unwrap();
+    let back: State = serde_json::from_str(&serde_json::to_string(&state).unwrap()).unwrap();
+    assert_eq!(back, state);
+    let exponential = Exponential::new(1.2, 7_000.0, 250.0).unwrap();
+    let back: Exponential = serde_json::from_str(&serde_json::to_string(&exponential).unwrap()).unwrap();
+    assert_eq!(back, exponential);
+    // Deserialising goes through the constructors' checks.
+    let bad = r#"{"sea_level_density_kg_m3":1.2,"scale_height_m":-5.0,"temperature_k":250.0}"#;
+    let e = serde_json::from_str::<Exponential>(bad).unwrap_err();
+    assert!(e.to_string().contains("scale height must be greater than 0 m"), "{e}");
+    let bad = r#"{"temperature_k":-1.0,"sea_level_pressure_pa":1.0}"#;
+    assert!(serde_json::from_str::<Isothermal>(bad).is_err());
+    let bad = r#"{"temperature_k":0.0,"pressure_pa":1.0,"molar_mass_kg_kmol":28.9,"continuum":true}"#;
+    assert!(serde_json::from_str::<Air>(bad).is_err());
+    let bad = r#"{"base":null,"offset_k":1e999}"#;
+    assert!(serde_json::from_str::<TemperatureOffset<aerostrata::Us1976>>(bad).is_err());
+    let bad = format!(
+        r#"{{"layers":[{}],"range":{}}}"#,
+        serde_json::to_string(&Layer {
+            base_geopotential_m: 0.0,
+            base_temperature_k: 10.0,
+            base_pressure_pa: 1e5,
+            lapse_rate_k_m: -0.01
+        })
+        .unwrap(),
+        serde_json::to_string(&aerostrata::AltitudeRange::from_geopotential(0.0, 5_000.0)).unwrap()
+    );
+    let e = serde_json::from_str::<Layered<Vec<Layer>>>(&bad).unwrap_err();
+    assert!(e.to_string().contains("0 K"), "{e}");
+}

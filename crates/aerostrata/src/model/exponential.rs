@@ -26,7 +26,8 @@ use super::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(try_from = "ExponentialParameters"))]
 pub struct Exponential {
     sea_level_density_kg_m3: f64,
     scale_height_m: f64,
@@ -70,5 +71,22 @@ impl Atmosphere for Exponential {
         let density = self.sea_level_density_kg_m3 * exp(-z / self.scale_height_m);
         let pressure = density * GAS_CONSTANT_J_KMOL_K * self.temperature_k / SEA_LEVEL_MOLAR_MASS_KG_KMOL;
         Air::new(self.temperature_k, pressure, SEA_LEVEL_MOLAR_MASS_KG_KMOL)
+    }
+}
+
+/// What deserialisation reads before [`Exponential::new`] validates it.
+#[cfg(feature = "serde")]
+#[derive(serde::Deserialize)]
+struct ExponentialParameters {
+    sea_level_density_kg_m3: f64,
+    scale_height_m: f64,
+    temperature_k: f64,
+}
+
+#[cfg(feature = "serde")]
+impl TryFrom<ExponentialParameters> for Exponential {
+    type Error = crate::Error;
+    fn try_from(p: ExponentialParameters) -> Result<Self> {
+        Self::new(p.sea_level_density_kg_m3, p.scale_height_m, p.temperature_k)
     }
 }

@@ -24,7 +24,8 @@ use super::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(try_from = "IsothermalParameters"))]
 pub struct Isothermal {
     temperature_k: f64,
     sea_level_pressure_pa: f64,
@@ -64,5 +65,21 @@ impl Atmosphere for Isothermal {
         let h = Self::RANGE.check(altitude)?.geopotential().meters();
         let pressure = self.sea_level_pressure_pa * exp(-GMR_K_M * h / self.temperature_k);
         Air::new(self.temperature_k, pressure, SEA_LEVEL_MOLAR_MASS_KG_KMOL)
+    }
+}
+
+/// What deserialisation reads before [`Isothermal::new`] validates it.
+#[cfg(feature = "serde")]
+#[derive(serde::Deserialize)]
+struct IsothermalParameters {
+    temperature_k: f64,
+    sea_level_pressure_pa: f64,
+}
+
+#[cfg(feature = "serde")]
+impl TryFrom<IsothermalParameters> for Isothermal {
+    type Error = crate::Error;
+    fn try_from(p: IsothermalParameters) -> Result<Self> {
+        Self::new(p.temperature_k, p.sea_level_pressure_pa)
     }
 }

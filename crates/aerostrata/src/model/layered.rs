@@ -88,7 +88,11 @@ impl Layer {
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(
+    feature = "serde",
+    serde(try_from = "LayeredParts<S>", bound(deserialize = "S: AsRef<[Layer]> + serde::Deserialize<'de>"))
+)]
 pub struct Layered<S> {
     layers: S,
     range: AltitudeRange,
@@ -339,4 +343,26 @@ fn close(given: f64, computed: f64) -> bool {
 
 fn invalid(index: usize, problem: &'static str, value: f64) -> Error {
     Error::InvalidLayer { index, problem, value }
+}
+
+/// What deserialisation reads before [`Layered::from_layers`] (and, for a range that
+/// reaches below the first base, [`Layered::extend_below`]) validates it.
+#[cfg(feature = "serde")]
+#[derive(serde::Deserialize)]
+struct LayeredParts<S> {
+    layers: S,
+    range: AltitudeRange,
+}
+
+#[cfg(feature = "serde")]
+impl<S: AsRef<[Layer]>> TryFrom<LayeredParts<S>> for Layered<S> {
+    type Error = Error;
+    fn try_from(parts: LayeredParts<S>) -> Result<Self> {
+        let bottom = parts.range.geopotential_min_m;
+        let model = Self::from_layers(parts.layers, parts.range.geopotential_max_m)?;
+        match model.layers().first() {
+            Some(first) if bottom < first.base_geopotential_m => model.extend_below(bottom),
+            _ => Ok(model),
+        }
+    }
 }

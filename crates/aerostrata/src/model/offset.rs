@@ -23,7 +23,11 @@ use super::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(
+    feature = "serde",
+    serde(try_from = "OffsetParameters<A>", bound(deserialize = "A: Atmosphere + serde::Deserialize<'de>"))
+)]
 pub struct TemperatureOffset<A> {
     base: A,
     offset_k: f64,
@@ -62,5 +66,21 @@ impl<A: Atmosphere> Atmosphere for TemperatureOffset<A> {
         let air =
             Air::new(base.temperature_k() + self.offset_k, base.pressure_pa(), base.molar_mass_kg_kmol())?;
         Ok(if base.is_continuum() { air } else { air.rarefied() })
+    }
+}
+
+/// What deserialisation reads before [`TemperatureOffset::new`] validates it.
+#[cfg(feature = "serde")]
+#[derive(serde::Deserialize)]
+struct OffsetParameters<A> {
+    base: A,
+    offset_k: f64,
+}
+
+#[cfg(feature = "serde")]
+impl<A: Atmosphere> TryFrom<OffsetParameters<A>> for TemperatureOffset<A> {
+    type Error = crate::Error;
+    fn try_from(p: OffsetParameters<A>) -> Result<Self> {
+        Self::new(p.base, p.offset_k)
     }
 }
