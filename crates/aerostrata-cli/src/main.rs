@@ -15,8 +15,8 @@ use clap::{Args, Parser, Subcommand, ValueEnum};
 
 use output::{write_csv_header, write_csv_row, write_json, write_table};
 
-/// Air properties of the U.S. Standard Atmosphere 1976 (-5 km to 86 km), on a standard,
-/// hot or cold day.
+/// Air properties of the U.S. Standard Atmosphere 1976 (-5 km to 1000 km), on a
+/// standard, hot or cold day.
 ///
 /// Not certified flight software: verify results independently before relying on them.
 #[derive(Parser)]
@@ -34,7 +34,8 @@ enum Command {
     )]
     Table(TableArgs),
     /// Evaluate the full state at altitudes read one per line (CSV out).
-    #[command(after_help = "Example:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10")]
+    #[command(after_help = "Examples:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10\n  \
+                            printf '120000\\n400000\\n' | aerostrata eval --species")]
     Eval(EvalArgs),
 }
 
@@ -72,6 +73,10 @@ struct EvalArgs {
     /// File of altitudes in metres, one per line; `-` or nothing reads stdin. Blank lines
     /// and lines starting with `#` are skipped.
     file: Option<PathBuf>,
+    /// Add the standard's number densities of N2, O, O2, Ar, He and H (1/m^3; defined
+    /// above 86 km, empty cells below).
+    #[arg(long)]
+    species: bool,
     #[command(flatten)]
     model: ModelArgs,
 }
@@ -172,9 +177,9 @@ fn table(args: &TableArgs) -> Result<(), Failure> {
     match args.format {
         Format::Table => write_table(&mut out, &states)?,
         Format::Csv => {
-            write_csv_header(&mut out)?;
+            write_csv_header(&mut out, false)?;
             for state in &states {
-                write_csv_row(&mut out, state)?;
+                write_csv_row(&mut out, state, None)?;
             }
         }
         Format::Json => write_json(&mut out, &states)?,
@@ -185,6 +190,12 @@ fn table(args: &TableArgs) -> Result<(), Failure> {
 
 fn eval(args: &EvalArgs) -> Result<(), Failure> {
     let atmosphere = model(&args.model)?;
+    if args.species && args.model.offset != 0.0 {
+        return Err(Failure::Input(
+            "--species gives the standard's own number densities and cannot be combined with --offset"
+                .to_owned(),
+        ));
+    }
     let input: Box<dyn BufRead> = match &args.file {
         None => Box::new(io::stdin().lock()),
         Some(path) if path.as_os_str() == "-" => Box::new(io::stdin().lock()),
@@ -193,7 +204,7 @@ fn eval(args: &EvalArgs) -> Result<(), Failure> {
         )),
     };
     let mut out = BufWriter::new(io::stdout().lock());
-    write_csv_header(&mut out)?;
+    write_csv_header(&mut out, args.species)?;
     for (index, line) in input.lines().enumerate() {
         let line_number = index + 1;
         let line = line.map_err(|e| Failure::Input(format!("line {line_number}: cannot read: {e}")))?;
@@ -203,10 +214,22 @@ fn eval(args: &EvalArgs) -> Result<(), Failure> {
         }
         let state = evaluate_line(&atmosphere, text, args.model.geopotential)
             .map_err(|message| Failure::Input(format!("line {line_number}: {message}")))?;
-        write_csv_row(&mut out, &state)?;
+        let species = if args.species { species_at(&state) } else { None };
+        write_csv_row(&mut out, &state, args.species.then_some(species))?;
     }
     out.flush()?;
     Ok(())
+}
+
+/// The standard's species where it defines them (above 86 km).
+fn species_at(state: &State) -> Option<[f64; 6]> {
+    if state.geometric_altitude_m <= aerostrata::model::upper::BASE_M {
+        return None;
+    }
+    Altitude::geometric_m(state.geometric_altitude_m)
+        .and_then(|a| US1976.species(a))
+        .ok()
+        .map(|n| n.as_array())
 }
 
 fn evaluate_line(atmosphere: &impl Atmosphere, text: &str, geopotential: bool) -> Result<State, String> {

@@ -43,12 +43,27 @@ pub fn exact(value: f64) -> String {
     }
 }
 
-pub fn write_csv_header(out: &mut impl Write) -> io::Result<()> {
-    writeln!(out, "{}", COLUMNS.join(","))
+/// Header names of the species columns that `eval --species` adds.
+pub const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
+
+pub fn write_csv_header(out: &mut impl Write, species: bool) -> io::Result<()> {
+    let extra: &[&str] = if species { &SPECIES_COLUMNS } else { &[] };
+    writeln!(out, "{}", [&COLUMNS[..], extra].concat().join(","))
 }
 
-pub fn write_csv_row(out: &mut impl Write, state: &State) -> io::Result<()> {
-    let cells: Vec<String> = state.fields().iter().map(|(_, v)| v.map(exact).unwrap_or_default()).collect();
+/// One row; `species` is `None` for no species columns, `Some(None)` for empty ones.
+pub fn write_csv_row(
+    out: &mut impl Write,
+    state: &State,
+    species: Option<Option<[f64; 6]>>,
+) -> io::Result<()> {
+    let mut cells: Vec<String> =
+        state.fields().iter().map(|(_, v)| v.map(exact).unwrap_or_default()).collect();
+    match species {
+        Some(Some(n)) => cells.extend(n.iter().map(|v| exact(*v))),
+        Some(None) => cells.extend(core::iter::repeat_n(String::new(), SPECIES_COLUMNS.len())),
+        None => {}
+    }
     writeln!(out, "{}", cells.join(","))
 }
 

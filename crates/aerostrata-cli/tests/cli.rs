@@ -98,20 +98,21 @@ fn bad_input_exits_2_with_one_line() {
     fails_with(&["eval"], "0\nabc\n", "line 2: 'abc' is not an altitude");
     fails_with(
         &["eval"],
-        "0\n\n90000\n",
-        "line 3: geometric altitude 90000 m is outside the allowed range -5000 to 86000 m",
+        "0\n\n1200000\n",
+        "line 3: geometric altitude 1200000 m is outside the allowed range -5000 to 1000000 m",
     );
     fails_with(&["eval"], "NaN\n", "line 1: geometric altitude must be a finite number, got NaN");
     fails_with(
         &["eval", "--geopotential"],
-        "85000\n",
-        "geopotential altitude 85000 m is outside the allowed range",
+        "-6000\n",
+        "geopotential altitude -6000 m is outside the allowed range",
     );
     fails_with(&["eval", "--offset", "-400"], "0\n", "temperature must be greater than 0 K");
     fails_with(&["eval", "/no/such/file"], "", "cannot open /no/such/file");
     fails_with(&["table", "--step", "0"], "", "--step must be greater than 0 m");
     fails_with(&["table", "--from", "10", "--to", "0"], "", "must not be below --from");
-    fails_with(&["table", "--to", "90000"], "", "--to: geometric altitude 90000 m is outside");
+    fails_with(&["table", "--to", "1000001"], "", "--to: geometric altitude 1000001 m is outside");
+    fails_with(&["eval", "--species", "--offset", "5"], "0\n", "cannot be combined with --offset");
     fails_with(&["table", "--step", "1e-9"], "", "rows, more than");
     fails_with(&["table", "--offset", "inf"], "", "temperature offset must be a finite number");
 }
@@ -128,6 +129,25 @@ fn usage_errors_exit_2() {
 fn help_shows_an_example_per_subcommand() {
     for sub in ["table", "eval"] {
         let help = stdout_of(&[sub, "--help"], "");
-        assert!(help.contains("Example:"), "{sub} help lacks an example");
+        assert!(help.contains("Example"), "{sub} help lacks an example");
     }
+}
+
+#[test]
+fn species_columns_above_86_km() {
+    let csv = stdout_of(&["eval", "--species"], "50000\n120000\n400000\n");
+    let header: Vec<&str> = csv.lines().next().unwrap().split(',').collect();
+    let n2 = header.iter().position(|c| *c == "n_N2_m3").unwrap();
+    let h = header.iter().position(|c| *c == "n_H_m3").unwrap();
+    let rows: Vec<Vec<&str>> = csv.lines().skip(1).map(|l| l.split(',').collect()).collect();
+    assert_eq!(rows[0][n2], "", "no species below 86 km");
+    let n2_120: f64 = rows[1][n2].parse().unwrap();
+    // N2 at 120 km: 3.726E+17 /m^3 (U.S. Standard Atmosphere 1976; from memory of the printed table).
+    assert!((n2_120 / 3.726e17 - 1.0).abs() < 2e-4, "{n2_120}");
+    assert_eq!(rows[1][h], "0", "no hydrogen below 150 km");
+    assert!(rows[2][h].parse::<f64>().unwrap() > 0.0);
+    // The whole range: a table to 1000 km.
+    let table =
+        stdout_of(&["table", "--from", "80000", "--to", "1000000", "--step", "20000", "--format", "csv"], "");
+    assert_eq!(table.lines().count(), 1 + 47);
 }

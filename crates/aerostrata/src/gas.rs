@@ -9,9 +9,9 @@
 use core::f64::consts::{LN_10, PI, SQRT_2};
 
 use crate::constants::{
-    AVOGADRO_PER_KMOL, COLLISION_DIAMETER_M, CONDUCTIVITY_COEFFICIENT, CONDUCTIVITY_EXPONENT_K,
-    CONDUCTIVITY_TEMPERATURE_K, GAMMA, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL, SUTHERLAND_BETA,
-    SUTHERLAND_S_K,
+    AVOGADRO_PER_KMOL, BOLTZMANN_J_K, COLLISION_DIAMETER_M, CONDUCTIVITY_COEFFICIENT,
+    CONDUCTIVITY_EXPONENT_K, CONDUCTIVITY_TEMPERATURE_K, GAMMA, GAS_CONSTANT_J_KMOL_K,
+    SEA_LEVEL_MOLAR_MASS_KG_KMOL, SUTHERLAND_BETA, SUTHERLAND_S_K,
 };
 use crate::error::{positive, within, Result};
 
@@ -30,8 +30,8 @@ pub const MIN_MOLAR_MASS_KG_KMOL: f64 = 0.5;
 pub const MAX_MOLAR_MASS_KG_KMOL: f64 = 1.0e3;
 use crate::math::{exp, sqrt};
 
-/// A parcel of air: kinetic temperature, pressure and mean molecular weight, all finite
-/// and positive (checked on construction).
+/// A parcel of air: kinetic temperature, pressure, mean molecular weight, density and
+/// number density, all finite and positive (checked on construction).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 #[cfg_attr(feature = "serde", serde(try_from = "AirParameters"))]
@@ -39,6 +39,8 @@ pub struct Air {
     temperature_k: f64,
     pressure_pa: f64,
     molar_mass_kg_kmol: f64,
+    density_kg_m3: f64,
+    number_density_m3: f64,
     continuum: bool,
 }
 
@@ -60,17 +62,68 @@ impl Air {
         let temperature_k = positive("temperature", "K", temperature_k)?;
         let pressure_pa = positive("pressure", "Pa", pressure_pa)?;
         let molar_mass_kg_kmol = positive("mean molecular weight", "kg/kmol", molar_mass_kg_kmol)?;
+        let temperature_k = within("temperature", "K", temperature_k, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K)?;
+        let pressure_pa = within("pressure", "Pa", pressure_pa, MIN_PRESSURE_PA, MAX_PRESSURE_PA)?;
+        let molar_mass_kg_kmol = within(
+            "mean molecular weight",
+            "kg/kmol",
+            molar_mass_kg_kmol,
+            MIN_MOLAR_MASS_KG_KMOL,
+            MAX_MOLAR_MASS_KG_KMOL,
+        )?;
+        let per_rt = 1.0 / (GAS_CONSTANT_J_KMOL_K * temperature_k);
         Ok(Self {
-            temperature_k: within("temperature", "K", temperature_k, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K)?,
-            pressure_pa: within("pressure", "Pa", pressure_pa, MIN_PRESSURE_PA, MAX_PRESSURE_PA)?,
-            molar_mass_kg_kmol: within(
-                "mean molecular weight",
-                "kg/kmol",
-                molar_mass_kg_kmol,
-                MIN_MOLAR_MASS_KG_KMOL,
-                MAX_MOLAR_MASS_KG_KMOL,
-            )?,
+            temperature_k,
+            pressure_pa,
+            molar_mass_kg_kmol,
+            density_kg_m3: pressure_pa * molar_mass_kg_kmol * per_rt,
+            number_density_m3: AVOGADRO_PER_KMOL * pressure_pa * per_rt,
             continuum: true,
+        })
+    }
+
+    /// Rarefied air given by its particles, as the standard defines the atmosphere above
+    /// 86 km: kinetic temperature `temperature_k` (K), total number density
+    /// `number_density_m3` (1/m^3) and density `density_kg_m3` (kg/m^3). The continuum
+    /// properties (speed of sound, viscosity, conductivity) are reported as not defined.
+    ///
+    /// ```text
+    /// p = n k T,   M = rho N_A / n
+    /// ```
+    ///
+    /// # Errors
+    /// As [`Air::new`] for the inputs and for the resulting pressure and mean molecular
+    /// weight.
+    pub fn from_number_density(
+        temperature_k: f64,
+        number_density_m3: f64,
+        density_kg_m3: f64,
+    ) -> Result<Self> {
+        let temperature_k = positive("temperature", "K", temperature_k)?;
+        let temperature_k = within("temperature", "K", temperature_k, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K)?;
+        let number_density_m3 = positive("number density", "1/m^3", number_density_m3)?;
+        let density_kg_m3 = positive("density", "kg/m^3", density_kg_m3)?;
+        let pressure_pa = within(
+            "pressure",
+            "Pa",
+            number_density_m3 * BOLTZMANN_J_K * temperature_k,
+            MIN_PRESSURE_PA,
+            MAX_PRESSURE_PA,
+        )?;
+        let molar_mass_kg_kmol = within(
+            "mean molecular weight",
+            "kg/kmol",
+            density_kg_m3 * AVOGADRO_PER_KMOL / number_density_m3,
+            MIN_MOLAR_MASS_KG_KMOL,
+            MAX_MOLAR_MASS_KG_KMOL,
+        )?;
+        Ok(Self {
+            temperature_k,
+            pressure_pa,
+            molar_mass_kg_kmol,
+            density_kg_m3,
+            number_density_m3,
+            continuum: false,
         })
     }
 
@@ -80,6 +133,24 @@ impl Air {
     /// As [`Air::new`].
     pub fn standard_composition(temperature_k: f64, pressure_pa: f64) -> Result<Self> {
         Self::new(temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL)
+    }
+
+    /// The same parcel at another temperature and the same pressure: density and number
+    /// density scale by T / T_new (the gas law), composition and continuum flag are kept.
+    /// With `temperature_k` equal to the current temperature the result is bit-identical.
+    ///
+    /// # Errors
+    /// As [`Air::new`] for the new temperature.
+    pub fn at_temperature(self, temperature_k: f64) -> Result<Self> {
+        let temperature_k = positive("temperature", "K", temperature_k)?;
+        let temperature_k = within("temperature", "K", temperature_k, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K)?;
+        let scale = self.temperature_k / temperature_k;
+        Ok(Self {
+            temperature_k,
+            density_kg_m3: self.density_kg_m3 * scale,
+            number_density_m3: self.number_density_m3 * scale,
+            ..self
+        })
     }
 
     /// The same air, marked as rarefied: the continuum properties (speed of sound,
@@ -119,7 +190,8 @@ impl Air {
         self.temperature_k * SEA_LEVEL_MOLAR_MASS_KG_KMOL / self.molar_mass_kg_kmol
     }
 
-    /// Density, kg/m^3.
+    /// Density, kg/m^3: rho = p M / (R* T) for [`Air::new`], as given for
+    /// [`Air::from_number_density`].
     ///
     /// ```text
     /// rho = p M / (R* T)
@@ -134,17 +206,18 @@ impl Air {
     /// ```
     #[inline]
     pub fn density_kg_m3(&self) -> f64 {
-        self.pressure_pa * self.molar_mass_kg_kmol / (GAS_CONSTANT_J_KMOL_K * self.temperature_k)
+        self.density_kg_m3
     }
 
-    /// Number density of particles, 1/m^3.
+    /// Number density of particles, 1/m^3: from the gas law for [`Air::new`], as given for
+    /// [`Air::from_number_density`].
     ///
     /// ```text
     /// n = N_A p / (R* T)
     /// ```
     #[inline]
     pub fn number_density_m3(&self) -> f64 {
-        AVOGADRO_PER_KMOL * self.pressure_pa / (GAS_CONSTANT_J_KMOL_K * self.temperature_k)
+        self.number_density_m3
     }
 
     /// Speed of sound, m/s, or `None` for rarefied air.
@@ -237,6 +310,8 @@ struct AirParameters {
     temperature_k: f64,
     pressure_pa: f64,
     molar_mass_kg_kmol: f64,
+    density_kg_m3: f64,
+    number_density_m3: f64,
     continuum: bool,
 }
 
@@ -244,7 +319,10 @@ struct AirParameters {
 impl TryFrom<AirParameters> for Air {
     type Error = crate::Error;
     fn try_from(p: AirParameters) -> Result<Self> {
-        let air = Self::new(p.temperature_k, p.pressure_pa, p.molar_mass_kg_kmol)?;
-        Ok(if p.continuum { air } else { air.rarefied() })
+        if p.continuum {
+            Self::new(p.temperature_k, p.pressure_pa, p.molar_mass_kg_kmol)
+        } else {
+            Self::from_number_density(p.temperature_k, p.number_density_m3, p.density_kg_m3)
+        }
     }
 }

@@ -168,8 +168,8 @@ fn molecular_weight_ratio_is_continuous_and_applied_above_80_km() {
 
 #[test]
 fn errors_name_the_value_and_the_range() {
-    let e = US1976.state(Altitude::geometric_m(90_000.0).unwrap()).unwrap_err();
-    assert_eq!(e.to_string(), "geometric altitude 90000 m is outside the allowed range -5000 to 86000 m");
+    let e = US1976.state(Altitude::geometric_m(1_200_000.0).unwrap()).unwrap_err();
+    assert_eq!(e.to_string(), "geometric altitude 1200000 m is outside the allowed range -5000 to 1000000 m");
     let e = US1976.state(Altitude::geopotential_m(-6_000.0).unwrap()).unwrap_err();
     assert!(
         e.to_string().starts_with("geopotential altitude -6000 m is outside the allowed range -5003.9"),
@@ -231,6 +231,18 @@ fn layered_models_reject_bad_layers() {
     layers[1].base_pressure_pa *= 1.001;
     let e = Layered::from_layers(layers, 20_000.0).unwrap_err();
     assert!(e.to_string().contains("layer 1: base pressure"), "{e}");
+}
+
+#[test]
+fn a_zero_offset_changes_nothing_anywhere() {
+    for z in [-5_000.0, 0.0, 11_000.0, 80_500.0, 86_000.0, 90_000.0, 400_000.0, 1_000_000.0] {
+        let a = Altitude::geometric_m(z).unwrap();
+        assert_eq!(
+            TemperatureOffset::new(US1976, 0.0).unwrap().state(a).unwrap(),
+            US1976.state(a).unwrap(),
+            "at {z}"
+        );
+    }
 }
 
 #[test]

@@ -3,12 +3,16 @@
 //! ```text
 //! cargo xtask test              everything CI runs (installs what is missing first)
 //! cargo xtask validate [--check] write docs/validation.md (or fail if it is stale)
+//! cargo xtask upper-table [--check] regenerate the 86-1000 km table (or fail if stale)
+//! cargo xtask flash             the upper-atmosphere table's flash cost on Cortex-M4F
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! ```
 
 mod bench;
+mod flash;
 mod setup;
 mod test;
+mod upper;
 mod validate;
 mod vectors;
 
@@ -18,12 +22,16 @@ use std::process::ExitCode;
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
     let root = workspace_root();
-    let result = match args.first().map(String::as_str) {
-        Some("test") => test::run(&root),
-        Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
-        Some("bench") => bench::run(&root),
-        _ => Err("usage: cargo xtask test | validate [--check] | bench".to_owned()),
-    };
+    let result =
+        match args.first().map(String::as_str) {
+            Some("test") => test::run(&root),
+            Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
+            Some("bench") => bench::run(&root),
+            Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
+            Some("flash") => flash::check(&root, &[], &[]),
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | bench"
+                .to_owned()),
+        };
     match result {
         Ok(()) => ExitCode::SUCCESS,
         Err(message) => {

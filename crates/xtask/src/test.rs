@@ -43,16 +43,23 @@ pub fn run(root: &Path) -> Result<(), String> {
             &[("RUSTDOCFLAGS", "-D warnings")],
         ),
     );
-    match toolchain {
+    match &toolchain {
         Ok(toolchain) => {
             for target in FIRMWARE_TARGETS {
-                for features in [&[][..], &["--features", "serde"][..]] {
+                for features in [&[][..], &["--features", "upper"][..], &["--features", "upper,serde"][..]] {
                     let label = format!("no_std build for {target} {}", features.join(" "));
-                    step(&label, no_std_build(root, toolchain, target, features));
+                    step(&label, no_std_build(root, *toolchain, target, features));
                 }
             }
         }
-        Err(message) => step("install: firmware targets", Err(message)),
+        Err(message) => step("install: firmware targets", Err(message.clone())),
+    }
+    if let Ok(toolchain) = toolchain {
+        let (envs, extra) = match toolchain {
+            TargetToolchain::Rustup => (&[][..], &[][..]),
+            TargetToolchain::DebianBuildStd => (&DEBIAN_ENVS[..], &["-Zbuild-std=core"][..]),
+        };
+        step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
     }
     step(
         "reference vectors and mpmath check (cargo xtask validate --check)",
@@ -69,6 +76,10 @@ pub fn run(root: &Path) -> Result<(), String> {
     }
 }
 
+/// Debian's rustc building `core` from source (the fallback of ../shared/notes/toolchains.md).
+const DEBIAN_ENVS: [(&str, &str); 3] =
+    [("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")];
+
 fn no_std_build(
     root: &Path,
     toolchain: TargetToolchain,
@@ -81,12 +92,7 @@ fn no_std_build(
         TargetToolchain::Rustup => run_command(root, "cargo", &args, &[]),
         TargetToolchain::DebianBuildStd => {
             args.extend(["-Zbuild-std=core", "--target-dir", "target/debian-rustc"]);
-            run_command(
-                root,
-                "cargo",
-                &args,
-                &[("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")],
-            )
+            run_command(root, "cargo", &args, &DEBIAN_ENVS)
         }
     }
 }

@@ -6,6 +6,10 @@ mod isothermal;
 mod layered;
 mod offset;
 mod standard;
+#[cfg(feature = "upper")]
+pub mod upper;
+#[cfg(feature = "upper")]
+mod upper_table;
 
 pub use exponential::Exponential;
 pub use isothermal::Isothermal;

@@ -63,9 +63,7 @@ impl<A: Atmosphere> Atmosphere for TemperatureOffset<A> {
     /// offset takes the temperature to or below 0 K.
     fn air(&self, altitude: Altitude) -> Result<Air> {
         let base = self.base.air(altitude)?;
-        let air =
-            Air::new(base.temperature_k() + self.offset_k, base.pressure_pa(), base.molar_mass_kg_kmol())?;
-        Ok(if base.is_continuum() { air } else { air.rarefied() })
+        base.at_temperature(base.temperature_k() + self.offset_k)
     }
 }
 

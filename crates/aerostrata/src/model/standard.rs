@@ -1,11 +1,12 @@
-//! The U.S. Standard Atmosphere, 1976, from -5 km to 86 km geometric altitude.
+//! The U.S. Standard Atmosphere, 1976, from -5 km to 1000 km geometric altitude (to
+//! 86 km without the `upper` feature).
 //!
-//! Seven layers of molecular-scale temperature linear in geopotential altitude up to
+//! Up to 86 km: seven layers of molecular-scale temperature linear in geopotential altitude up to
 //! 84.852 km (the standard's Table 4), evaluated by the same [`Layered`] machinery users
 //! get, plus the standard's ratio M/M0 of mean molecular weight between 80 and 86 km
 //! (its Table 8), which makes the kinetic temperature T = T_M M/M0 and the mean
-//! molecular weight match its tables there. Source: U.S. Standard Atmosphere, 1976,
-//! NOAA-S/T 76-1562, Part 1.
+//! molecular weight match its tables there. Above 86 km: [`super::upper`]. Source: U.S.
+//! Standard Atmosphere, 1976, NOAA-S/T 76-1562, Part 1.
 
 use crate::altitude::{Altitude, AltitudeRange};
 use crate::constants::{SEA_LEVEL_MOLAR_MASS_KG_KMOL, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
@@ -14,7 +15,14 @@ use crate::gas::Air;
 
 use super::{Atmosphere, Layer, Layered};
 
-/// The U.S. Standard Atmosphere, 1976, -5 km to 86 km geometric.
+/// The U.S. Standard Atmosphere, 1976, -5 km to 1000 km geometric (86 km without the
+/// `upper` feature).
+///
+/// At and below 86 km the layered lower part answers, above it the upper part; the two
+/// meet at 86 km within the standard's own small discontinuity (pressure 1.05e-5 and
+/// density 1.0e-5 relative; see docs/models.md). Above 86 km the continuum properties
+/// (speed of sound, viscosity, conductivity) are not defined by the standard and come
+/// out as `None`.
 ///
 /// ```
 /// use aerostrata::{Altitude, Atmosphere, US1976};
@@ -34,7 +42,13 @@ pub struct Us1976;
 pub const US1976: Us1976 = Us1976;
 
 /// Geometric range of the lower standard, m.
-const RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
+const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
+
+/// Geometric range of the whole model, m.
+#[cfg(feature = "upper")]
+const RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, super::upper::TOP_M);
+#[cfg(not(feature = "upper"))]
+const RANGE: AltitudeRange = LOWER_RANGE;
 
 /// The standard's layers (Table 4 of the standard: base geopotential altitude, base
 /// molecular-scale temperature, lapse rate). The base pressures are the standard's
@@ -66,7 +80,7 @@ const fn layer(
     Layer { base_geopotential_m, base_temperature_k, base_pressure_pa, lapse_rate_k_m }
 }
 
-const LOWER: Layered<[Layer; 7]> = Layered::from_trusted(LAYERS, RANGE);
+const LOWER: Layered<[Layer; 7]> = Layered::from_trusted(LAYERS, LOWER_RANGE);
 
 /// M/M0 from 80 km to 86 km geometric at 0.5 km steps (the standard's Table 8), linearly
 /// interpolated in geometric altitude.
@@ -101,6 +115,36 @@ impl Us1976 {
     pub fn layers(&self) -> &'static [Layer] {
         &LAYERS
     }
+
+    /// Number densities of N2, O, O2, Ar, He and H, 1/m^3, from 86 km to 1000 km
+    /// geometric (hydrogen is zero below 150 km). The standard gives no species below
+    /// 86 km.
+    ///
+    /// ```
+    /// use aerostrata::{Altitude, US1976};
+    /// // The standard's boundary values at 86 km (from memory of the printed table).
+    /// let n = US1976.species(Altitude::geometric_m(86_000.0)?)?;
+    /// assert!((n.n2_m3 / 1.129794e20 - 1.0).abs() < 1e-12);
+    /// assert!((n.o_m3 / 8.6e16 - 1.0).abs() < 1e-12);
+    /// # Ok::<(), aerostrata::Error>(())
+    /// ```
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`](crate::Error::OutOfRange) outside 86 km to 1000 km.
+    #[cfg(feature = "upper")]
+    pub fn species(&self, altitude: Altitude) -> Result<super::upper::Species> {
+        super::upper::species_checked(altitude.geometric().meters())
+    }
+}
+
+/// Whether the upper part answers for `altitude` (strictly above 86 km geometric),
+/// decided in the kind of altitude the caller gave.
+#[cfg(feature = "upper")]
+fn is_upper(altitude: Altitude) -> bool {
+    match altitude {
+        Altitude::Geometric(z) => z.meters() > LOWER_RANGE.geometric_max_m,
+        Altitude::Geopotential(h) => h.meters() > LOWER_RANGE.geopotential_max_m,
+    }
 }
 
 impl Atmosphere for Us1976 {
@@ -110,6 +154,10 @@ impl Atmosphere for Us1976 {
 
     fn air(&self, altitude: Altitude) -> Result<Air> {
         let altitude = RANGE.check(altitude)?;
+        #[cfg(feature = "upper")]
+        if is_upper(altitude) {
+            return super::upper::air(altitude.geometric().meters());
+        }
         let h = altitude.geopotential().meters();
         let (molecular_temperature_k, pressure_pa) = LOWER.temperature_pressure(h);
         if h <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {

@@ -1,0 +1,187 @@
+//! The U.S. Standard Atmosphere 1976 above 86 km: closed-form kinetic temperature and
+//! the number densities of N2, O, O2, Ar, He and H from a compact generated table.
+//!
+//! Temperature: the standard's four segments (Part 1: isothermal 86-91 km, elliptical
+//! 91-110 km, linear 110-120 km, exponential 120-1000 km). Number densities: the
+//! standard's diffusion equations integrated once, off line, by `cargo xtask upper-table`
+//! (fixed-step RK4, converged to better than 1e-10; see crates/xtask/src/upper.rs), and
+//! stored as ln n and d(ln n)/dZ at nodes; here each ln n is a piecewise cubic Hermite
+//! interpolant through those values and slopes, within 1e-6 relative of the generator's
+//! own integration everywhere (proved by a test of the generator). No integration at run
+//! time.
+
+use crate::altitude::AltitudeRange;
+use crate::constants::{AVOGADRO_PER_KMOL, EARTH_RADIUS_M};
+use crate::error::{Error, Result};
+use crate::gas::Air;
+use crate::math::{exp, sqrt};
+
+use super::upper_table::{LN_DENSITY, SEGMENTS, SLOPE};
+
+/// Where the upper part takes over, geometric m (86 km; at exactly 86 km the lower part
+/// answers).
+pub const BASE_M: f64 = 86_000.0;
+/// Top of the standard, geometric m.
+pub const TOP_M: f64 = 1_000_000.0;
+/// The range of the upper part alone.
+pub const RANGE: AltitudeRange = AltitudeRange::from_geometric(BASE_M, TOP_M);
+
+/// Molecular weights of N2, O, O2, Ar, He, H, kg/kmol (the standard's values).
+pub const MOLAR_MASS_KG_KMOL: [f64; 6] = [28.0134, 15.9994, 31.9988, 39.948, 4.0026, 1.00797];
+
+/// Hydrogen is part of the standard from 150 km up; below it is taken as zero.
+pub const HYDROGEN_BASE_M: f64 = 150_000.0;
+
+// Temperature segments (the standard's constants, Part 1).
+const T7_K: f64 = 186.8673;
+const Z8_M: f64 = 91_000.0;
+const ELLIPSE_TC_K: f64 = 263.1905;
+const ELLIPSE_A_K: f64 = -76.3232;
+const ELLIPSE_A_M: f64 = -19_942.9;
+const Z9_M: f64 = 110_000.0;
+const T9_K: f64 = 240.0;
+const LAPSE_9_K_M: f64 = 0.012;
+const Z10_M: f64 = 120_000.0;
+const T10_K: f64 = 360.0;
+const T_INF_K: f64 = 1000.0;
+const LAMBDA_PER_M: f64 = 0.01875e-3;
+
+/// The six species' number densities at one altitude, 1/m^3.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct Species {
+    /// Molecular nitrogen.
+    pub n2_m3: f64,
+    /// Atomic oxygen.
+    pub o_m3: f64,
+    /// Molecular oxygen.
+    pub o2_m3: f64,
+    /// Argon.
+    pub ar_m3: f64,
+    /// Helium.
+    pub he_m3: f64,
+    /// Atomic hydrogen (zero below 150 km).
+    pub h_m3: f64,
+}
+
+impl Species {
+    /// The densities in the standard's order N2, O, O2, Ar, He, H.
+    pub fn as_array(&self) -> [f64; 6] {
+        [self.n2_m3, self.o_m3, self.o2_m3, self.ar_m3, self.he_m3, self.h_m3]
+    }
+
+    /// Total number density, 1/m^3.
+    pub fn total_m3(&self) -> f64 {
+        self.as_array().iter().sum()
+    }
+
+    /// Mass density sum(n_i M_i) / N_A, kg/m^3.
+    pub fn density_kg_m3(&self) -> f64 {
+        let mass: f64 = self.as_array().iter().zip(MOLAR_MASS_KG_KMOL).map(|(n, m)| n * m).sum();
+        mass / AVOGADRO_PER_KMOL
+    }
+}
+
+/// Kinetic temperature (K) and its gradient dT/dZ (K/m) at geometric altitude `z_m`,
+/// for 86 km <= Z <= 1000 km (the caller checks).
+///
+/// ```text
+/// 86-91 km     T = 186.8673
+/// 91-110 km    T = Tc + A sqrt(1 - ((Z - 91 km) / a)^2)      Tc = 263.1905, A = -76.3232, a = -19.9429 km
+/// 110-120 km   T = 240 + 12 (Z - 110 km)                     (K, km)
+/// 120-1000 km  T = Tinf - (Tinf - 360) exp(-lambda xi)       Tinf = 1000, lambda = 0.01875 /km,
+///              xi = (Z - 120 km)(r0 + 120 km) / (r0 + Z)
+/// ```
+pub fn temperature(z_m: f64) -> (f64, f64) {
+    if z_m <= Z8_M {
+        (T7_K, 0.0)
+    } else if z_m <= Z9_M {
+        let x = (z_m - Z8_M) / ELLIPSE_A_M;
+        let root = sqrt(1.0 - x * x);
+        (ELLIPSE_TC_K + ELLIPSE_A_K * root, -ELLIPSE_A_K / ELLIPSE_A_M * x / root)
+    } else if z_m <= Z10_M {
+        (T9_K + LAPSE_9_K_M * (z_m - Z9_M), LAPSE_9_K_M)
+    } else {
+        let ratio = (EARTH_RADIUS_M + Z10_M) / (EARTH_RADIUS_M + z_m);
+        let xi = (z_m - Z10_M) * ratio;
+        let decay = (T_INF_K - T10_K) * exp(-LAMBDA_PER_M * xi);
+        (T_INF_K - decay, LAMBDA_PER_M * decay * ratio * ratio)
+    }
+}
+
+/// One run of equally spaced table nodes.
+pub(crate) struct Segment {
+    /// Geometric altitude of the first node, m.
+    pub start_m: f64,
+    /// Geometric altitude of the last node, m.
+    pub end_m: f64,
+    /// Node spacing, m.
+    pub step_m: f64,
+    /// Index of the first node in the table.
+    pub first: u16,
+    /// Number of intervals (nodes - 1).
+    pub intervals: u16,
+}
+
+/// The geometric altitudes of the table's nodes, m, lowest first; where two runs of
+/// nodes meet, the shared altitude appears once.
+pub fn table_nodes() -> impl Iterator<Item = f64> {
+    SEGMENTS.iter().enumerate().flat_map(|(index, segment)| {
+        let skip_first = usize::from(index > 0);
+        (skip_first..=segment.intervals as usize).map(move |k| segment.start_m + k as f64 * segment.step_m)
+    })
+}
+
+/// The species at `z_m`, 86 km <= Z <= 1000 km (the caller checks).
+pub(crate) fn species(z_m: f64) -> Species {
+    // The segment holding z: the first whose end is at or above it.
+    let segment = SEGMENTS.iter().find(|s| z_m <= s.end_m).unwrap_or(&SEGMENTS[SEGMENTS.len() - 1]);
+    let position = ((z_m - segment.start_m) / segment.step_m).max(0.0);
+    let interval = (position as usize).min(segment.intervals as usize - 1);
+    let u = position - interval as f64;
+    let lower = segment.first as usize + interval;
+    let (y0, y1) = (&LN_DENSITY[lower], &LN_DENSITY[lower + 1]);
+    let (d0, d1) = (&SLOPE[lower], &SLOPE[lower + 1]);
+    // Cubic Hermite basis on [0, 1]; slopes are per metre, scaled by the step.
+    let u2 = u * u;
+    let u3 = u2 * u;
+    let h00 = 2.0 * u3 - 3.0 * u2 + 1.0;
+    let h10 = u3 - 2.0 * u2 + u;
+    let h01 = -2.0 * u3 + 3.0 * u2;
+    let h11 = u3 - u2;
+    let step = segment.step_m;
+    let ln_n =
+        |i: usize| h00 * y0[i] + h01 * y1[i] + step * (h10 * f64::from(d0[i]) + h11 * f64::from(d1[i]));
+    let hydrogen = if z_m >= HYDROGEN_BASE_M { exp(ln_n(5)) } else { 0.0 };
+    Species {
+        n2_m3: exp(ln_n(0)),
+        o_m3: exp(ln_n(1)),
+        o2_m3: exp(ln_n(2)),
+        ar_m3: exp(ln_n(3)),
+        he_m3: exp(ln_n(4)),
+        h_m3: hydrogen,
+    }
+}
+
+/// The air at `z_m`, 86 km < Z <= 1000 km (the caller checks).
+pub(crate) fn air(z_m: f64) -> Result<Air> {
+    let (temperature_k, _) = temperature(z_m);
+    let species = species(z_m);
+    Air::from_number_density(temperature_k, species.total_m3(), species.density_kg_m3())
+}
+
+/// The species at an altitude the standard's upper part covers, or an error naming the
+/// band.
+pub(crate) fn species_checked(z_m: f64) -> Result<Species> {
+    if (BASE_M..=TOP_M).contains(&z_m) {
+        Ok(species(z_m))
+    } else {
+        Err(Error::OutOfRange {
+            quantity: "geometric altitude for species number densities",
+            unit: "m",
+            value: z_m,
+            min: BASE_M,
+            max: TOP_M,
+        })
+    }
+}

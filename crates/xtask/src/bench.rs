@@ -1,0 +1,657 @@
+//! `cargo xtask bench`: run the `state` benchmark of the core crate and write
+//! `docs/performance.md` from criterion's estimates.
+//!
+//! Criterion (0.5) leaves, for every benchmark, `<criterion home>/<group>/<id>/new/`
+//! holding `estimates.json` (nanoseconds per iteration: mean, median, ... each with a
+//! point estimate and a 95% confidence interval) and `benchmark.json` (among other
+//! things the throughput the benchmark declared). One iteration of the `state` benchmark
+//! evaluates a whole set of altitudes, and the set's size is the declared
+//! `Throughput::Elements`, so per-evaluation figures are the estimates divided by it.
+//!
+//! The JSON is read with the small parser at the end of this file: the two files are
+//! flat, machine-written, and this keeps xtask free of dependencies.
+
+use std::fmt::Write as _;
+use std::path::{Path, PathBuf};
+use std::process::Command;
+use std::time::{SystemTime, UNIX_EPOCH};
+use std::{env, fs};
+
+/// The criterion group of `crates/aerostrata/benches/state.rs`.
+const GROUP: &str = "state";
+
+/// The benchmark ids of that group, in report order, with what one element is.
+const BENCHMARKS: [(&str, &str); 5] = [
+    ("full_state", "`US1976.state(alt)`: every property of the standard at one altitude"),
+    ("density_only", "`US1976.density_kg_m3(alt)`"),
+    ("libm_pow_plus_sqrt", "one `libm::pow` plus one `libm::sqrt` (the yardstick)"),
+    ("baseline_layer_walk_density", "naive density: walks the seven layers up from sea level on every call"),
+    (
+        "baseline_layer_walk_full_state",
+        "the naive walk's temperature and pressure, then the library's own `State::new`",
+    ),
+];
+
+/// Where the report goes, relative to the workspace root.
+const REPORT: &str = "docs/performance.md";
+
+/// Runs the benchmark, then writes [`REPORT`] under `root` (the workspace root).
+///
+/// # Errors
+/// A message when cargo cannot be started or the benchmark fails, when criterion's
+/// files are missing or malformed, or when the report cannot be written.
+pub fn run(root: &Path) -> Result<(), String> {
+    // Probed first, so that the load average is the machine's before the benchmark.
+    let machine = Machine::probe(root);
+    // The cargo that runs xtask, so that the benchmark builds with the same toolchain.
+    let cargo = env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
+    crate::run_command(root, &cargo, &["bench", "-p", "aerostrata", "--bench", "state"], &[])?;
+    let home = criterion_home(root);
+    let results = BENCHMARKS
+        .iter()
+        .map(|&(id, what)| Measured::read(&home.join(GROUP).join(id).join("new"), id, what))
+        .collect::<Result<Vec<_>, _>>()?;
+    let report = render(&results, &machine);
+    let path = root.join(REPORT);
+    if let Some(dir) = path.parent() {
+        fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+    }
+    fs::write(&path, report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+    eprintln!("wrote {REPORT}");
+    for goal in goals(&results) {
+        eprintln!("{}: {:.2}x (goal {}) {}", goal.name, goal.ratio.point, goal.goal_text(), goal.verdict());
+    }
+    Ok(())
+}
+
+/// Criterion's output directory, found as criterion finds it: `$CRITERION_HOME`, else
+/// `$CARGO_TARGET_DIR/criterion`, else `<root>/target/criterion`.
+fn criterion_home(root: &Path) -> PathBuf {
+    let relative_to_root = |p: PathBuf| if p.is_absolute() { p } else { root.join(p) };
+    if let Some(home) = env::var_os("CRITERION_HOME") {
+        return relative_to_root(home.into());
+    }
+    if let Some(target) = env::var_os("CARGO_TARGET_DIR") {
+        return relative_to_root(PathBuf::from(target).join("criterion"));
+    }
+    root.join("target").join("criterion")
+}
+
+/// A point estimate with its 95% confidence interval, ns per evaluation.
+#[derive(Debug, Clone, Copy)]
+struct Interval {
+    point: f64,
+    lower: f64,
+    upper: f64,
+}
+
+impl Interval {
+    fn from_json(estimates: &Json, statistic: &str, per: f64, file: &Path) -> Result<Self, String> {
+        let number = |keys: &[&str]| {
+            estimates
+                .path(keys)
+                .and_then(Json::as_f64)
+                .ok_or_else(|| format!("{}: no number at {}", file.display(), keys.join(".")))
+        };
+        Ok(Self {
+            point: number(&[statistic, "point_estimate"])? / per,
+            lower: number(&[statistic, "confidence_interval", "lower_bound"])? / per,
+            upper: number(&[statistic, "confidence_interval", "upper_bound"])? / per,
+        })
+    }
+
+    /// The ratio of two estimates; its range takes the extremes of both intervals
+    /// (wider than a proper interval of the ratio, so a goal met across it is met).
+    fn ratio(self, denominator: Interval) -> Interval {
+        Interval {
+            point: self.point / denominator.point,
+            lower: self.lower / denominator.upper,
+            upper: self.upper / denominator.lower,
+        }
+    }
+}
+
+/// One benchmark's figures, per evaluation.
+struct Measured {
+    id: &'static str,
+    what: &'static str,
+    elements: u64,
+    mean: Interval,
+    median: Interval,
+}
+
+impl Measured {
+    fn read(dir: &Path, id: &'static str, what: &'static str) -> Result<Self, String> {
+        let benchmark_file = dir.join("benchmark.json");
+        let benchmark = read_json(&benchmark_file)?;
+        let elements = benchmark
+            .path(&["throughput", "Elements"])
+            .and_then(Json::as_f64)
+            .filter(|n| *n >= 1.0 && n.fract() == 0.0)
+            .ok_or_else(|| format!("{}: no throughput.Elements count", benchmark_file.display()))?;
+        let estimates_file = dir.join("estimates.json");
+        let estimates = read_json(&estimates_file)?;
+        Ok(Self {
+            id,
+            what,
+            elements: elements as u64,
+            mean: Interval::from_json(&estimates, "mean", elements, &estimates_file)?,
+            median: Interval::from_json(&estimates, "median", elements, &estimates_file)?,
+        })
+    }
+}
+
+fn read_json(path: &Path) -> Result<Json, String> {
+    let text = fs::read_to_string(path).map_err(|e| {
+        format!("cannot read {} ({e}); did the benchmark run and keep its ids?", path.display())
+    })?;
+    Json::parse(&text).map_err(|e| format!("{}: {e}", path.display()))
+}
+
+fn find<'a>(results: &'a [Measured], id: &str) -> &'a Measured {
+    results.iter().find(|m| m.id == id).expect("every id of BENCHMARKS is read")
+}
+
+/// A ratio the project sets itself a goal on.
+struct Goal {
+    name: &'static str,
+    numerator: &'static str,
+    denominator: &'static str,
+    ratio: Interval,
+    /// The goal is `ratio <= limit` when true, `ratio >= limit` when false.
+    at_most: bool,
+    limit: f64,
+}
+
+impl Goal {
+    fn goal_text(&self) -> String {
+        format!("{} {}x", if self.at_most { "at most" } else { "at least" }, self.limit)
+    }
+
+    fn meets(&self, value: f64) -> bool {
+        if self.at_most {
+            value <= self.limit
+        } else {
+            value >= self.limit
+        }
+    }
+
+    fn verdict(&self) -> &'static str {
+        let (worst, best) = if self.at_most {
+            (self.ratio.upper, self.ratio.lower)
+        } else {
+            (self.ratio.lower, self.ratio.upper)
+        };
+        match (self.meets(self.ratio.point), self.meets(worst), self.meets(best)) {
+            (true, true, _) => "met",
+            (true, false, _) => "met at the point estimate, not across its whole range",
+            (false, _, true) => "not met at the point estimate (within reach of its range)",
+            (false, _, false) => "not met",
+        }
+    }
+}
+
+fn goals(results: &[Measured]) -> [Goal; 2] {
+    let mean = |id| find(results, id).mean;
+    [
+        Goal {
+            name: "(a) full state / (one pow + one sqrt)",
+            numerator: "full_state",
+            denominator: "libm_pow_plus_sqrt",
+            ratio: mean("full_state").ratio(mean("libm_pow_plus_sqrt")),
+            at_most: true,
+            limit: 2.0,
+        },
+        Goal {
+            name: "(b) baseline walk density / our density",
+            numerator: "baseline_layer_walk_density",
+            denominator: "density_only",
+            ratio: mean("baseline_layer_walk_density").ratio(mean("density_only")),
+            at_most: false,
+            limit: 3.0,
+        },
+    ]
+}
+
+/// What the report says about the machine and the toolchain.
+struct Machine {
+    cpus: String,
+    cpu_model: String,
+    rustc: String,
+    date: String,
+    load_average: String,
+}
+
+impl Machine {
+    fn probe(root: &Path) -> Self {
+        let cpus = Command::new("nproc")
+            .output()
+            .ok()
+            .filter(|o| o.status.success())
+            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
+            .or_else(|| std::thread::available_parallelism().ok().map(|n| n.to_string()))
+            .unwrap_or_else(|| "unknown".to_owned());
+        let cpu_model = fs::read_to_string("/proc/cpuinfo")
+            .ok()
+            .and_then(|info| {
+                info.lines()
+                    .filter_map(|line| line.split_once(':'))
+                    .find(|(key, _)| key.trim() == "model name")
+                    .map(|(_, value)| value.trim().to_owned())
+            })
+            .unwrap_or_else(|| "unknown (no model name in /proc/cpuinfo)".to_owned());
+        let rustc = Command::new(env::var_os("RUSTC").unwrap_or_else(|| "rustc".into()))
+            .current_dir(root)
+            .arg("--version")
+            .output()
+            .ok()
+            .filter(|o| o.status.success())
+            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
+            .unwrap_or_else(|| "unknown".to_owned());
+        let load_average = fs::read_to_string("/proc/loadavg")
+            .ok()
+            .map(|l| l.split_whitespace().take(3).collect::<Vec<_>>().join(" "))
+            .unwrap_or_else(|| "unknown".to_owned());
+        Self { cpus, cpu_model, rustc, date: today_utc(), load_average }
+    }
+}
+
+/// Today's date in UTC as YYYY-MM-DD, from the system clock.
+fn today_utc() -> String {
+    let seconds = SystemTime::now().duration_since(UNIX_EPOCH).map_or(0, |d| d.as_secs());
+    let (year, month, day) = civil_from_days((seconds / 86_400) as i64);
+    format!("{year:04}-{month:02}-{day:02}")
+}
+
+/// The proleptic Gregorian date `days` days after 1970-01-01: count whole 400-year eras
+/// (146 097 days each) from 0000-03-01, so that leap days fall at the end of a year.
+fn civil_from_days(days: i64) -> (i64, u32, u32) {
+    let shifted = days + 719_468; // days from 0000-03-01 to 1970-01-01
+    let era = shifted.div_euclid(146_097);
+    let day_of_era = shifted.rem_euclid(146_097);
+    let year_of_era = (day_of_era - day_of_era / 1_460 + day_of_era / 36_524 - day_of_era / 146_096) / 365;
+    let day_of_year = day_of_era - (365 * year_of_era + year_of_era / 4 - year_of_era / 100);
+    let month_from_march = (5 * day_of_year + 2) / 153;
+    let day = (day_of_year - (153 * month_from_march + 2) / 5 + 1) as u32;
+    let month = if month_from_march < 10 { month_from_march + 3 } else { month_from_march - 9 } as u32;
+    let year = year_of_era + era * 400 + i64::from(month <= 2);
+    (year, month, day)
+}
+
+fn render(results: &[Measured], machine: &Machine) -> String {
+    let mut out = String::new();
+    let elements = results.first().map_or(0, |m| m.elements);
+    let full = find(results, "full_state").mean;
+    let density = find(results, "density_only").mean;
+    let walk_full = find(results, "baseline_layer_walk_full_state").mean;
+
+    out.push_str("# Performance\n\n");
+    out.push_str(
+        "<!-- Written by `cargo xtask bench` (crates/xtask/src/bench.rs); rerun it rather than edit. -->\n\n",
+    );
+    let _ = writeln!(
+        out,
+        "What one evaluation of the U.S. Standard Atmosphere 1976 costs in `aerostrata`, \
+         measured on {} by `cargo bench -p aerostrata --bench state` (criterion).",
+        machine.date
+    );
+    out.push('\n');
+    out.push_str("## Machine\n\n");
+    let _ = writeln!(out, "- CPU: {} (model name from `/proc/cpuinfo`)", machine.cpu_model);
+    let _ = writeln!(out, "- Logical CPUs (`nproc`): {}", machine.cpus);
+    let _ = writeln!(out, "- Compiler: {}", machine.rustc);
+    let _ = writeln!(out, "- Load average before the run (1, 5, 15 min): {}", machine.load_average);
+    let _ = writeln!(out, "- Date (UTC): {}", machine.date);
+    out.push('\n');
+    out.push_str(
+        "Every figure below was measured in one run of one benchmark binary, each benchmark \
+         after the other on the same machine, so the ratios between them are comparable; the \
+         absolute nanoseconds depend on the machine (and on whatever else it was doing) and \
+         are no promise for another. Nothing here is a timed test: no build fails on a slow \
+         machine.\n\n",
+    );
+
+    out.push_str("## Time per evaluation\n\n");
+    let _ = writeln!(
+        out,
+        "Each benchmark evaluates the same {elements} pseudo-random geometric altitudes, uniform in \
+         [0, 86 000] m (fixed seed, converted to `Altitude` before timing) per criterion \
+         iteration; figures are criterion's estimates divided by {elements}, in nanoseconds per \
+         evaluation, with the 95% confidence interval criterion reports."
+    );
+    out.push('\n');
+    out.push_str("| benchmark | one evaluation is | mean ns | mean 95% CI ns | median ns |\n");
+    out.push_str("|---|---|---:|---:|---:|\n");
+    for m in results {
+        let _ = writeln!(
+            out,
+            "| `{}` | {} | {:.1} | {:.1} to {:.1} | {:.1} |",
+            m.id, m.what, m.mean.point, m.mean.lower, m.mean.upper, m.median.point
+        );
+    }
+    out.push('\n');
+
+    out.push_str("## Goals\n\n");
+    out.push_str(
+        "Ratios of the mean estimates. The range beside each divides the ends of the two \
+         confidence intervals crosswise, so it is wider than a confidence interval of the \
+         ratio: a goal met across it is met beyond doubt on this machine.\n\n",
+    );
+    out.push_str("| ratio | measured | range | goal | verdict |\n");
+    out.push_str("|---|---:|---:|---|---|\n");
+    for goal in goals(results) {
+        let _ = writeln!(
+            out,
+            "| {} (`{}` / `{}`) | {:.2}x | {:.2}x to {:.2}x | {} | {} |",
+            goal.name,
+            goal.numerator,
+            goal.denominator,
+            goal.ratio.point,
+            goal.ratio.lower,
+            goal.ratio.upper,
+            goal.goal_text(),
+            goal.verdict()
+        );
+    }
+    out.push('\n');
+    let _ = writeln!(
+        out,
+        "- Full state: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
+        full.point, full.lower, full.upper
+    );
+    let _ = writeln!(
+        out,
+        "- Density only: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
+        density.point, density.lower, density.upper
+    );
+    let walk_ratio = walk_full.ratio(full);
+    let _ = writeln!(
+        out,
+        "- For information, no goal: the naive walk followed by the same derivation of the \
+         state takes {:.2}x the time of `full_state` (range {:.2}x to {:.2}x). It omits the \
+         range check and the standard's M/M0 table above 80 km, which favours the baseline.",
+        walk_ratio.point, walk_ratio.lower, walk_ratio.upper
+    );
+    out.push('\n');
+
+    out.push_str("## What is measured\n\n");
+    out.push_str(
+        "- `full_state` and `density_only` call the library as users do, on `Altitude` values.\n\
+         - `libm_pow_plus_sqrt` is the yardstick of goal (a): one `libm::pow(T0/T, g0 M0/(R* L0))` \
+         plus one `libm::sqrt(T)` per altitude, with T the standard's temperature there, inputs \
+         prepared before timing.\n\
+         - `baseline_layer_walk_density` is a naive implementation written in the benchmark: it \
+         keeps only the layers' base altitudes and lapse rates and the sea-level temperature and \
+         pressure, and on every call walks up from sea level, computing each crossed layer's top \
+         pressure with `pow` or `exp`, with the same constants (g0 = 9.80665 m/s^2, \
+         M0 = 28.9644 kg/kmol, R* = 8314.32 J/(kmol K), r0 = 6 356 766 m). Before timing, the \
+         benchmark asserts that it agrees with `US1976.density_kg_m3` to 1e-12 relative at every \
+         sampled altitude and every layer base, and that the walk's full state agrees with \
+         `US1976.state` field by field to 1e-12 below 80 km.\n\
+         - Inputs and results pass through `std::hint::black_box`, so nothing is computed ahead \
+         of time or thrown away.\n\n",
+    );
+
+    out.push_str("## Reproduce\n\n");
+    out.push_str(
+        "Run `cargo xtask bench` from the workspace: it runs the benchmark and rewrites this \
+         file. The raw criterion output is in `target/criterion/state/<benchmark>/new/`; \
+         `cargo bench -p aerostrata --bench state` alone runs the benchmark without the report. \
+         The whole run takes well under two minutes after the build.\n",
+    );
+    out
+}
+
+/// A JSON value, as much of JSON as criterion writes (all of it, in fact).
+#[derive(Debug, Clone, PartialEq)]
+enum Json {
+    Null,
+    Bool(bool),
+    Number(f64),
+    String(String),
+    Array(Vec<Json>),
+    Object(Vec<(String, Json)>),
+}
+
+impl Json {
+    fn parse(text: &str) -> Result<Json, String> {
+        let mut parser = Parser { bytes: text.as_bytes(), at: 0 };
+        let value = parser.value()?;
+        parser.skip_space();
+        if parser.at != parser.bytes.len() {
+            return Err(parser.error("trailing characters"));
+        }
+        Ok(value)
+    }
+
+    fn get(&self, key: &str) -> Option<&Json> {
+        match self {
+            Json::Object(members) => members.iter().find(|(k, _)| k == key).map(|(_, v)| v),
+            _ => None,
+        }
+    }
+
+    fn path(&self, keys: &[&str]) -> Option<&Json> {
+        keys.iter().try_fold(self, |value, key| value.get(key))
+    }
+
+    fn as_f64(&self) -> Option<f64> {
+        match self {
+            Json::Number(n) => Some(*n),
+            _ => None,
+        }
+    }
+}
+
+struct Parser<'a> {
+    bytes: &'a [u8],
+    at: usize,
+}
+
+impl Parser<'_> {
+    fn error(&self, problem: &str) -> String {
+        format!("malformed JSON at byte {}: {problem}", self.at)
+    }
+
+    fn skip_space(&mut self) {
+        while matches!(self.bytes.get(self.at), Some(b' ' | b'\t' | b'\n' | b'\r')) {
+            self.at += 1;
+        }
+    }
+
+    fn expect(&mut self, byte: u8) -> Result<(), String> {
+        self.skip_space();
+        if self.bytes.get(self.at) == Some(&byte) {
+            self.at += 1;
+            Ok(())
+        } else {
+            Err(self.error(&format!("expected `{}`", byte as char)))
+        }
+    }
+
+    fn literal(&mut self, word: &str, value: Json) -> Result<Json, String> {
+        if self.bytes[self.at..].starts_with(word.as_bytes()) {
+            self.at += word.len();
+            Ok(value)
+        } else {
+            Err(self.error("unknown literal"))
+        }
+    }
+
+    fn value(&mut self) -> Result<Json, String> {
+        self.skip_space();
+        match self.bytes.get(self.at) {
+            None => Err(self.error("unexpected end")),
+            Some(b'{') => self.object(),
+            Some(b'[') => self.array(),
+            Some(b'"') => self.string().map(Json::String),
+            Some(b't') => self.literal("true", Json::Bool(true)),
+            Some(b'f') => self.literal("false", Json::Bool(false)),
+            Some(b'n') => self.literal("null", Json::Null),
+            Some(_) => self.number(),
+        }
+    }
+
+    fn object(&mut self) -> Result<Json, String> {
+        self.expect(b'{')?;
+        let mut members = Vec::new();
+        self.skip_space();
+        if self.bytes.get(self.at) == Some(&b'}') {
+            self.at += 1;
+            return Ok(Json::Object(members));
+        }
+        loop {
+            self.skip_space();
+            let key = self.string()?;
+            self.expect(b':')?;
+            members.push((key, self.value()?));
+            self.skip_space();
+            match self.bytes.get(self.at) {
+                Some(b',') => self.at += 1,
+                Some(b'}') => {
+                    self.at += 1;
+                    return Ok(Json::Object(members));
+                }
+                _ => return Err(self.error("expected `,` or `}`")),
+            }
+        }
+    }
+
+    fn array(&mut self) -> Result<Json, String> {
+        self.expect(b'[')?;
+        let mut items = Vec::new();
+        self.skip_space();
+        if self.bytes.get(self.at) == Some(&b']') {
+            self.at += 1;
+            return Ok(Json::Array(items));
+        }
+        loop {
+            items.push(self.value()?);
+            self.skip_space();
+            match self.bytes.get(self.at) {
+                Some(b',') => self.at += 1,
+                Some(b']') => {
+                    self.at += 1;
+                    return Ok(Json::Array(items));
+                }
+                _ => return Err(self.error("expected `,` or `]`")),
+            }
+        }
+    }
+
+    fn string(&mut self) -> Result<String, String> {
+        self.expect(b'"')?;
+        let mut out = String::new();
+        loop {
+            let start = self.at;
+            while !matches!(self.bytes.get(self.at), None | Some(b'"' | b'\\')) {
+                self.at += 1;
+            }
+            // The input is a &str and the run stops only at ASCII, so this is whole UTF-8.
+            out.push_str(std::str::from_utf8(&self.bytes[start..self.at]).map_err(|e| e.to_string())?);
+            match self.bytes.get(self.at) {
+                None => return Err(self.error("unterminated string")),
+                Some(b'"') => {
+                    self.at += 1;
+                    return Ok(out);
+                }
+                Some(_) => {
+                    self.at += 1;
+                    let escaped =
+                        *self.bytes.get(self.at).ok_or_else(|| self.error("unterminated escape"))?;
+                    self.at += 1;
+                    match escaped {
+                        b'"' => out.push('"'),
+                        b'\\' => out.push('\\'),
+                        b'/' => out.push('/'),
+                        b'b' => out.push('\u{8}'),
+                        b'f' => out.push('\u{c}'),
+                        b'n' => out.push('\n'),
+                        b'r' => out.push('\r'),
+                        b't' => out.push('\t'),
+                        b'u' => {
+                            let hex = self
+                                .bytes
+                                .get(self.at..self.at + 4)
+                                .and_then(|h| std::str::from_utf8(h).ok())
+                                .and_then(|h| u32::from_str_radix(h, 16).ok())
+                                .ok_or_else(|| self.error("bad \\u escape"))?;
+                            self.at += 4;
+                            // Surrogate pairs are not needed for criterion's files; a lone
+                            // surrogate becomes U+FFFD.
+                            out.push(char::from_u32(hex).unwrap_or('\u{fffd}'));
+                        }
+                        _ => return Err(self.error("unknown escape")),
+                    }
+                }
+            }
+        }
+    }
+
+    fn number(&mut self) -> Result<Json, String> {
+        let start = self.at;
+        while matches!(self.bytes.get(self.at), Some(b'0'..=b'9' | b'-' | b'+' | b'.' | b'e' | b'E')) {
+            self.at += 1;
+        }
+        std::str::from_utf8(&self.bytes[start..self.at])
+            .ok()
+            .and_then(|s| s.parse::<f64>().ok())
+            .map(Json::Number)
+            .ok_or_else(|| {
+                self.at = start;
+                self.error("expected a value")
+            })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parses_what_criterion_writes() {
+        let text = r#"{"mean":{"confidence_interval":{"confidence_level":0.95,"lower_bound":1.5e2,
+            "upper_bound":200.25},"point_estimate":175,"standard_error":3.0},"slope":null,
+            "list":[true,false,"a\"b\u0041"],"empty":{}}"#;
+        let json = Json::parse(text).unwrap();
+        assert_eq!(json.path(&["mean", "point_estimate"]).and_then(Json::as_f64), Some(175.0));
+        assert_eq!(
+            json.path(&["mean", "confidence_interval", "lower_bound"]).and_then(Json::as_f64),
+            Some(150.0)
+        );
+        assert_eq!(json.get("slope"), Some(&Json::Null));
+        assert_eq!(
+            json.get("list"),
+            Some(&Json::Array(vec![Json::Bool(true), Json::Bool(false), Json::String("a\"bA".into())]))
+        );
+        assert!(Json::parse("{\"a\":1} x").is_err());
+        assert!(Json::parse("{\"a\":}").is_err());
+    }
+
+    #[test]
+    fn dates_from_unix_days() {
+        assert_eq!(civil_from_days(0), (1970, 1, 1));
+        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
+        assert_eq!(civil_from_days(19_782), (2024, 2, 29));
+        assert_eq!(civil_from_days(-1), (1969, 12, 31));
+    }
+
+    #[test]
+    fn verdicts_read_the_range() {
+        let goal = |point, lower, upper| Goal {
+            name: "",
+            numerator: "",
+            denominator: "",
+            ratio: Interval { point, lower, upper },
+            at_most: true,
+            limit: 2.0,
+        };
+        assert_eq!(goal(1.5, 1.4, 1.6).verdict(), "met");
+        assert_eq!(goal(1.9, 1.8, 2.1).verdict(), "met at the point estimate, not across its whole range");
+        assert_eq!(
+            goal(2.1, 1.9, 2.2).verdict(),
+            "not met at the point estimate (within reach of its range)"
+        );
+        assert_eq!(goal(2.5, 2.3, 2.7).verdict(), "not met");
+    }
+}

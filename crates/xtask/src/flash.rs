@@ -1,0 +1,83 @@
+//! What the upper-atmosphere table costs in flash on a Cortex-M4F: the core is built for
+//! `thumbv7em-none-eabihf` (release, no LTO so that the rlib holds machine code), and the
+//! sizes of the table's statics are read from the symbol table of the object in the rlib.
+
+use std::fs;
+use std::path::Path;
+
+use object::read::archive::ArchiveFile;
+use object::{Object, ObjectSymbol};
+
+use crate::run_command;
+
+/// The budget for the table, bytes.
+pub const TABLE_BUDGET_BYTES: u64 = 24 * 1024;
+
+/// Bytes of every static in `model::upper_table`, as (name, size).
+pub fn table_sizes(
+    root: &Path,
+    envs: &[(&str, &str)],
+    extra_args: &[&str],
+) -> Result<Vec<(String, u64)>, String> {
+    let target_dir = "target/flash";
+    let mut args = vec![
+        "build",
+        "--quiet",
+        "--release",
+        "-p",
+        "aerostrata",
+        "--no-default-features",
+        "--features",
+        "upper",
+        "--target",
+        "thumbv7em-none-eabihf",
+        "--target-dir",
+        target_dir,
+    ];
+    args.extend(extra_args);
+    let mut all_envs = vec![("CARGO_PROFILE_RELEASE_LTO", "false")];
+    all_envs.extend(envs);
+    run_command(root, "cargo", &args, &all_envs)?;
+    let rlib = root.join(target_dir).join("thumbv7em-none-eabihf/release/libaerostrata.rlib");
+    let data = fs::read(&rlib).map_err(|e| format!("cannot read {}: {e}", rlib.display()))?;
+    let archive = ArchiveFile::parse(&*data).map_err(|e| format!("{}: {e}", rlib.display()))?;
+    let mut sizes = Vec::new();
+    for member in archive.members() {
+        let member = member.map_err(|e| e.to_string())?;
+        if !member.name().ends_with(b".o") {
+            continue;
+        }
+        let bytes = member.data(&*data).map_err(|e| e.to_string())?;
+        let file = object::File::parse(bytes).map_err(|e| format!("object in {}: {e}", rlib.display()))?;
+        for symbol in file.symbols() {
+            let name = symbol.name().unwrap_or_default();
+            if name.contains("upper_table") {
+                let short = ["LN_DENSITY", "SLOPE", "SEGMENTS"]
+                    .iter()
+                    .find(|s| name.contains(*s))
+                    .unwrap_or(&"other");
+                sizes.push(((*short).to_owned(), symbol.size()));
+            }
+        }
+    }
+    if sizes.is_empty() {
+        return Err(format!("no upper_table symbols found in {}", rlib.display()));
+    }
+    sizes.sort();
+    Ok(sizes)
+}
+
+/// Fails when the table exceeds its budget; prints the figures.
+pub fn check(root: &Path, envs: &[(&str, &str)], extra_args: &[&str]) -> Result<(), String> {
+    let sizes = table_sizes(root, envs, extra_args)?;
+    let total: u64 = sizes.iter().map(|(_, s)| s).sum();
+    let parts: Vec<String> = sizes.iter().map(|(n, s)| format!("{n} {s} B")).collect();
+    eprintln!("upper-atmosphere table on thumbv7em-none-eabihf: {total} B ({})", parts.join(", "));
+    if total <= TABLE_BUDGET_BYTES {
+        Ok(())
+    } else {
+        Err(format!(
+            "the upper-atmosphere table takes {total} B of flash, over the {TABLE_BUDGET_BYTES} B budget"
+        ))
+    }
+}
