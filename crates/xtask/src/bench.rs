@@ -51,7 +51,8 @@ pub fn run(root: &Path) -> Result<(), String> {
         .iter()
         .map(|&(id, what)| Measured::read(&home.join(GROUP).join(id).join("new"), id, what))
         .collect::<Result<Vec<_>, _>>()?;
-    let report = render(&results, &machine);
+    let load_after = load_average();
+    let report = render(&results, &machine, load_after);
     let path = root.join(REPORT);
     if let Some(dir) = path.parent() {
         fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
@@ -219,7 +220,7 @@ struct Machine {
     cpu_model: String,
     rustc: String,
     date: String,
-    load_average: String,
+    load_before: Option<[f64; 3]>,
 }
 
 impl Machine {
@@ -248,12 +249,19 @@ impl Machine {
             .filter(|o| o.status.success())
             .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
             .unwrap_or_else(|| "unknown".to_owned());
-        let load_average = fs::read_to_string("/proc/loadavg")
-            .ok()
-            .map(|l| l.split_whitespace().take(3).collect::<Vec<_>>().join(" "))
-            .unwrap_or_else(|| "unknown".to_owned());
-        Self { cpus, cpu_model, rustc, date: today_utc(), load_average }
+        Self { cpus, cpu_model, rustc, date: today_utc(), load_before: load_average() }
     }
+}
+
+/// The 1, 5 and 15 minute load averages, from `/proc/loadavg`.
+fn load_average() -> Option<[f64; 3]> {
+    let text = fs::read_to_string("/proc/loadavg").ok()?;
+    let mut fields = text.split_whitespace().map(|f| f.parse::<f64>().ok());
+    Some([fields.next()??, fields.next()??, fields.next()??])
+}
+
+fn load_text(load: Option<[f64; 3]>) -> String {
+    load.map_or_else(|| "unknown".to_owned(), |[a, b, c]| format!("{a:.2}, {b:.2}, {c:.2}"))
 }
 
 /// Today's date in UTC as YYYY-MM-DD, from the system clock.
@@ -278,7 +286,7 @@ fn civil_from_days(days: i64) -> (i64, u32, u32) {
     (year, month, day)
 }
 
-fn render(results: &[Measured], machine: &Machine) -> String {
+fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>) -> String {
     let mut out = String::new();
     let elements = results.first().map_or(0, |m| m.elements);
     let full = find(results, "full_state").mean;
@@ -300,7 +308,12 @@ fn render(results: &[Measured], machine: &Machine) -> String {
     let _ = writeln!(out, "- CPU: {} (model name from `/proc/cpuinfo`)", machine.cpu_model);
     let _ = writeln!(out, "- Logical CPUs (`nproc`): {}", machine.cpus);
     let _ = writeln!(out, "- Compiler: {}", machine.rustc);
-    let _ = writeln!(out, "- Load average before the run (1, 5, 15 min): {}", machine.load_average);
+    let _ = writeln!(
+        out,
+        "- Load average (1, 5, 15 min) before the run: {}; after it: {}",
+        load_text(machine.load_before),
+        load_text(load_after)
+    );
     let _ = writeln!(out, "- Date (UTC): {}", machine.date);
     out.push('\n');
     out.push_str(
@@ -310,6 +323,20 @@ fn render(results: &[Measured], machine: &Machine) -> String {
          are no promise for another. Nothing here is a timed test: no build fails on a slow \
          machine.\n\n",
     );
+    // The benchmark itself keeps one CPU busy; more than that means other work shared
+    // the machine, which shifts the benchmarks measured at different moments unequally.
+    let cpus = machine.cpus.parse::<f64>().unwrap_or(1.0);
+    let busiest = [machine.load_before, load_after].iter().flatten().map(|l| l[0]).fold(0.0, f64::max);
+    if busiest > 1.0 + 0.25 * cpus {
+        let _ = writeln!(
+            out,
+            "**Caution:** the one-minute load average reached {busiest:.2} on {} CPUs during this \
+             run, so other work shared the machine and the ratios below carry more noise than \
+             their confidence intervals show. Rerun `cargo xtask bench` on an idle machine \
+             before quoting them.\n",
+            machine.cpus
+        );
+    }
 
     out.push_str("## Time per evaluation\n\n");
     let _ = writeln!(

@@ -49,6 +49,12 @@ fn workspace_root() -> PathBuf {
         .to_path_buf()
 }
 
+/// Where cargo puts build output: `CARGO_TARGET_DIR` if set, else `target/` at the root.
+pub(crate) fn target_dir(root: &Path) -> PathBuf {
+    std::env::var_os("CARGO_TARGET_DIR")
+        .map_or_else(|| root.join("target"), |dir| root.join(PathBuf::from(dir)))
+}
+
 /// Runs a command in `dir`, inheriting the terminal; Err names the command on failure.
 pub(crate) fn run_command(
     dir: &Path,

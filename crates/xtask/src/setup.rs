@@ -2,7 +2,7 @@
 //!
 //! Rust targets come from rustup; where rustup cannot download, Debian's rustc with its
 //! std source builds `core` per target instead (../shared/notes/toolchains.md). Python's
-//! mpmath comes from pip, or Debian's python3-mpmath.
+//! mpmath, scipy and numpy come from pip, or from Debian's packages.
 
 use std::path::Path;
 use std::process::{Command, Stdio};
@@ -81,19 +81,27 @@ pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
     Ok(TargetToolchain::DebianBuildStd)
 }
 
-/// Makes `python3 -c "import mpmath"` work.
-pub fn mpmath(root: &Path) -> Result<(), String> {
-    if quiet_success("python3", &["-c", "import mpmath"]) {
+/// Makes `python3 -c "import mpmath, scipy, numpy"` work: pip first, then Debian's
+/// python3-mpmath, python3-scipy and python3-numpy.
+pub fn python_modules(root: &Path) -> Result<(), String> {
+    const MODULES: [(&str, &str); 3] =
+        [("mpmath", "python3-mpmath"), ("scipy", "python3-scipy"), ("numpy", "python3-numpy")];
+    let importable = |module: &str| quiet_success("python3", &["-c", &format!("import {module}")]);
+    if !quiet_success("python3", &["--version"]) {
+        apt_install(root, &["python3"])?;
+    }
+    let missing: Vec<(&str, &str)> = MODULES.iter().copied().filter(|(m, _)| !importable(m)).collect();
+    if missing.is_empty() {
         return Ok(());
     }
-    if !quiet_success("python3", &["--version"]) {
-        apt_install(root, &["python3", "python3-mpmath"])?;
-    } else if run_command(root, "python3", &["-m", "pip", "install", "--quiet", "mpmath"], &[]).is_err() {
-        apt_install(root, &["python3-mpmath"])?;
+    let mut pip = vec!["-m", "pip", "install", "--quiet"];
+    pip.extend(missing.iter().map(|(m, _)| *m));
+    if run_command(root, "python3", &pip, &[]).is_err() {
+        let packages: Vec<&str> = missing.iter().map(|(_, p)| *p).collect();
+        apt_install(root, &packages)?;
     }
-    if quiet_success("python3", &["-c", "import mpmath"]) {
-        Ok(())
-    } else {
-        Err("mpmath is still not importable by python3".to_owned())
+    match MODULES.iter().find(|(m, _)| !importable(m)) {
+        None => Ok(()),
+        Some((module, _)) => Err(format!("python3 still cannot import {module}")),
     }
 }

@@ -22,8 +22,8 @@ pub fn run(root: &Path) -> Result<(), String> {
     };
 
     let toolchain = setup::firmware_targets(root);
-    let mpmath = setup::mpmath(root);
-    step("install: python3 with mpmath", mpmath);
+    let python = setup::python_modules(root);
+    step("install: python3 with mpmath, scipy and numpy", python);
 
     step("format (cargo fmt --check)", run_command(root, "cargo", &["fmt", "--all", "--", "--check"], &[]));
     step(

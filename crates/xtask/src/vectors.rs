@@ -162,8 +162,15 @@ fn model(name: &str) -> Result<Box<dyn Atmosphere>, String> {
     }
 }
 
-/// The state field a column names (`temperature_K` is the field `temperature_k`).
-fn field(state: &State, column: &str) -> Option<Option<f64>> {
+/// Species columns, in the order of `Species::as_array`, named as `aerostrata eval --species`.
+const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
+
+/// The value a column names: a state field (`temperature_K` is the field
+/// `temperature_k`) or a species number density of the standard.
+fn field(state: &State, altitude: Altitude, column: &str) -> Option<Option<f64>> {
+    if let Some(index) = SPECIES_COLUMNS.iter().position(|c| *c == column) {
+        return Some(US1976.species(altitude).ok().map(|n| n.as_array()[index]));
+    }
     let wanted = column.to_ascii_lowercase();
     state.fields().iter().find(|(name, _)| *name == wanted).map(|(_, value)| *value)
 }
@@ -202,7 +209,7 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
             let reference: f64 = written
                 .parse()
                 .map_err(|_| format!("{name}:{line}: bad value '{written}' in {}", result.column))?;
-            let ours = field(&state, &result.column)
+            let ours = field(&state, altitude, &result.column)
                 .ok_or_else(|| format!("{name}: no state quantity named {}", result.column))?
                 .ok_or_else(|| format!("{name}:{line}: {} is not defined there", result.column))?;
             let tolerance = match result.rule {
