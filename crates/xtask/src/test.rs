@@ -61,6 +61,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         };
         step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
     }
+    step("upper-atmosphere table is fresh (cargo xtask upper-table --check)", crate::upper::run(root, true));
     step(
         "reference vectors and mpmath check (cargo xtask validate --check)",
         crate::validate::run(root, true),
