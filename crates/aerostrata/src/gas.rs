@@ -71,15 +71,24 @@ impl Air {
             MIN_MOLAR_MASS_KG_KMOL,
             MAX_MOLAR_MASS_KG_KMOL,
         )?;
+        Ok(Self::trusted(temperature_k, pressure_pa, molar_mass_kg_kmol))
+    }
+
+    /// Air whose values the caller guarantees finite and inside the bands of [`Air::new`]:
+    /// the standard's own lower part, whose temperatures (165 K to 330 K) and pressures
+    /// (0.37 Pa to 1.8e5 Pa) over -5 km to 86 km are fixed by its constants. Skipping the
+    /// checks there keeps the hot path of every evaluation short.
+    #[inline]
+    pub(crate) fn trusted(temperature_k: f64, pressure_pa: f64, molar_mass_kg_kmol: f64) -> Self {
         let per_rt = 1.0 / (GAS_CONSTANT_J_KMOL_K * temperature_k);
-        Ok(Self {
+        Self {
             temperature_k,
             pressure_pa,
             molar_mass_kg_kmol,
             density_kg_m3: pressure_pa * molar_mass_kg_kmol * per_rt,
             number_density_m3: AVOGADRO_PER_KMOL * pressure_pa * per_rt,
             continuum: true,
-        })
+        }
     }
 
     /// Rarefied air given by its particles, as the standard defines the atmosphere above
@@ -187,7 +196,14 @@ impl Air {
     /// Molecular-scale temperature T_M = T M0 / M, K.
     #[inline]
     pub fn molecular_temperature_k(&self) -> f64 {
-        self.temperature_k * SEA_LEVEL_MOLAR_MASS_KG_KMOL / self.molar_mass_kg_kmol
+        // M0 / M first, so that T_M is exactly T where M = M0.
+        self.temperature_k * (SEA_LEVEL_MOLAR_MASS_KG_KMOL / self.molar_mass_kg_kmol)
+    }
+
+    /// 1 / M: one division shared (after inlining) by every property that needs it.
+    #[inline]
+    fn per_molar_mass(&self) -> f64 {
+        1.0 / self.molar_mass_kg_kmol
     }
 
     /// Density, kg/m^3: rho = p M / (R* T) for [`Air::new`], as given for
@@ -228,7 +244,7 @@ impl Air {
     #[inline]
     pub fn speed_of_sound_m_s(&self) -> Option<f64> {
         self.continuum
-            .then(|| sqrt(GAMMA * GAS_CONSTANT_J_KMOL_K * self.temperature_k / self.molar_mass_kg_kmol))
+            .then(|| sqrt(GAMMA * GAS_CONSTANT_J_KMOL_K * self.temperature_k * self.per_molar_mass()))
     }
 
     /// Dynamic viscosity by Sutherland's law, Pa s, or `None` for rarefied air.
@@ -258,7 +274,7 @@ impl Air {
     /// ```
     #[inline]
     pub fn mean_particle_speed_m_s(&self) -> f64 {
-        sqrt(8.0 * GAS_CONSTANT_J_KMOL_K * self.temperature_k / (PI * self.molar_mass_kg_kmol))
+        sqrt(8.0 * GAS_CONSTANT_J_KMOL_K / PI * self.temperature_k * self.per_molar_mass())
     }
 
     /// Mean free path, m.
@@ -278,12 +294,15 @@ impl Air {
     /// ```
     #[inline]
     pub fn pressure_scale_height_m(&self, gravity_m_s2: f64) -> f64 {
-        GAS_CONSTANT_J_KMOL_K * self.temperature_k / (self.molar_mass_kg_kmol * gravity_m_s2)
+        GAS_CONSTANT_J_KMOL_K * self.temperature_k * self.per_molar_mass() / gravity_m_s2
     }
 }
 
-/// 1 / (sqrt(2) pi sigma^2), m^2 inverted: the mean free path times number density.
+/// 1 / (sqrt(2) pi sigma^2), 1/m^2: the mean free path times number density.
 const FREE_PATH_NUMERATOR_M2: f64 = 1.0 / (SQRT_2 * PI * COLLISION_DIAMETER_M * COLLISION_DIAMETER_M);
+
+/// sqrt(2) pi sigma^2, m^2: the collision frequency over speed and number density.
+pub(crate) const COLLISION_CROSS_SECTION_M2: f64 = SQRT_2 * PI * COLLISION_DIAMETER_M * COLLISION_DIAMETER_M;
 
 #[inline]
 pub(crate) fn mean_free_path(number_density_m3: f64) -> f64 {

@@ -3,7 +3,7 @@
 use crate::altitude::Altitude;
 use crate::constants::{SEA_LEVEL_DENSITY_KG_M3, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
 use crate::error::{Error, Result};
-use crate::gas::Air;
+use crate::gas::{Air, COLLISION_CROSS_SECTION_M2};
 
 /// Every property the U.S. Standard Atmosphere 1976 tabulates, at one altitude, in SI.
 ///
@@ -84,8 +84,10 @@ impl State {
             number_density_m3,
             mean_particle_speed_m_s,
             mean_free_path_m,
-            collision_frequency_hz: mean_particle_speed_m_s / mean_free_path_m,
+            // V / L with L = 1 / (sqrt(2) pi sigma^2 n), without dividing by L.
+            collision_frequency_hz: mean_particle_speed_m_s * number_density_m3 * COLLISION_CROSS_SECTION_M2,
             mean_molar_mass_kg_kmol: air.molar_mass_kg_kmol(),
+            // Divisions, not reciprocal multiplications, so that sea level gives exactly 1.
             temperature_ratio: air.temperature_k() / SEA_LEVEL_TEMPERATURE_K,
             pressure_ratio: air.pressure_pa() / SEA_LEVEL_PRESSURE_PA,
             density_ratio: density_kg_m3 / SEA_LEVEL_DENSITY_KG_M3,

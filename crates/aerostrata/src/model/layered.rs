@@ -10,7 +10,7 @@ use crate::altitude::{Altitude, AltitudeRange, MAX_GEOPOTENTIAL_M, MIN_GEOPOTENT
 use crate::constants::{GMR_K_M, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use crate::error::{Error, Result};
 use crate::gas::Air;
-use crate::math::{exp, pow};
+use crate::math::{exp, ln_1p};
 
 use super::Atmosphere;
 
@@ -54,6 +54,9 @@ impl Layer {
     /// p = pb (Tb / T)^(g0 M0 / (R* L))          L != 0
     /// p = pb exp(-g0 M0 (H - Hb) / (R* Tb))      L == 0
     /// ```
+    /// The power is evaluated as exp(-(g0 M0 / (R* L)) ln(1 + L (H - Hb) / Tb)): the same
+    /// number to a few ulps, at about half the cost of a general `pow`, and accurate near
+    /// the base where T / Tb is close to 1.
     #[inline]
     pub fn temperature_pressure(&self, h_m: f64) -> (f64, f64) {
         let dh = h_m - self.base_geopotential_m;
@@ -61,8 +64,10 @@ impl Layer {
             let p = self.base_pressure_pa * exp(-GMR_K_M * dh / self.base_temperature_k);
             (self.base_temperature_k, p)
         } else {
-            let t = self.base_temperature_k + self.lapse_rate_k_m * dh;
-            let p = self.base_pressure_pa * pow(self.base_temperature_k / t, GMR_K_M / self.lapse_rate_k_m);
+            let rise = self.lapse_rate_k_m * dh;
+            let t = self.base_temperature_k + rise;
+            let p = self.base_pressure_pa
+                * exp(-(GMR_K_M / self.lapse_rate_k_m) * ln_1p(rise / self.base_temperature_k));
             (t, p)
         }
     }

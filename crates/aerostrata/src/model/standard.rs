@@ -80,7 +80,7 @@ const fn layer(
     Layer { base_geopotential_m, base_temperature_k, base_pressure_pa, lapse_rate_k_m }
 }
 
-const LOWER: Layered<[Layer; 7]> = Layered::from_trusted(LAYERS, LOWER_RANGE);
+static LOWER: Layered<[Layer; 7]> = Layered::from_trusted(LAYERS, LOWER_RANGE);
 
 /// M/M0 from 80 km to 86 km geometric at 0.5 km steps (the standard's Table 8), linearly
 /// interpolated in geometric altitude.
@@ -160,11 +160,13 @@ impl Atmosphere for Us1976 {
         }
         let h = altitude.geopotential().meters();
         let (molecular_temperature_k, pressure_pa) = LOWER.temperature_pressure(h);
+        // The lower standard's (T, p) lie well inside Air's bands everywhere in its range
+        // (a property test checks every state is finite), so they need no checks here.
         if h <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {
-            return Air::new(molecular_temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL);
+            return Ok(Air::trusted(molecular_temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL));
         }
         let ratio = molar_mass_ratio(altitude.geometric().meters());
-        Air::new(molecular_temperature_k * ratio, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL * ratio)
+        Ok(Air::trusted(molecular_temperature_k * ratio, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL * ratio))
     }
 }
 
