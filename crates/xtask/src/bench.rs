@@ -8,8 +8,7 @@
 //! evaluates a whole set of altitudes, and the set's size is the declared
 //! `Throughput::Elements`, so per-evaluation figures are the estimates divided by it.
 //!
-//! The JSON is read with the small parser at the end of this file: the two files are
-//! flat, machine-written, and this keeps xtask free of dependencies.
+//! The JSON is read with serde_json.
 
 use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
@@ -17,12 +16,15 @@ use std::process::Command;
 use std::time::{SystemTime, UNIX_EPOCH};
 use std::{env, fs};
 
+use serde_json::Value as Json;
+
 /// The criterion group of `crates/aerostrata/benches/state.rs`.
 const GROUP: &str = "state";
 
 /// The benchmark ids of that group, in report order, with what one element is.
-const BENCHMARKS: [(&str, &str); 5] = [
-    ("full_state", "`US1976.state(alt)`: every property of the standard at one altitude"),
+const BENCHMARKS: [(&str, &str); 6] = [
+    ("full_state", "`US1976.state(alt)`: every property of the standard at one altitude, 0 to 86 km"),
+    ("full_state_upper", "`US1976.state(alt)` at the same fractions of 86 to 1000 km (species table)"),
     ("density_only", "`US1976.density_kg_m3(alt)`"),
     ("libm_pow_plus_sqrt", "one `libm::pow` plus one `libm::sqrt` (the yardstick)"),
     ("baseline_layer_walk_density", "naive density: walks the seven layers up from sea level on every call"),
@@ -88,16 +90,17 @@ struct Interval {
 
 impl Interval {
     fn from_json(estimates: &Json, statistic: &str, per: f64, file: &Path) -> Result<Self, String> {
-        let number = |keys: &[&str]| {
+        let number = |path: &str| {
+            let pointer = format!("/{statistic}/{path}");
             estimates
-                .path(keys)
+                .pointer(&pointer)
                 .and_then(Json::as_f64)
-                .ok_or_else(|| format!("{}: no number at {}", file.display(), keys.join(".")))
+                .ok_or_else(|| format!("{}: no number at {pointer}", file.display()))
         };
         Ok(Self {
-            point: number(&[statistic, "point_estimate"])? / per,
-            lower: number(&[statistic, "confidence_interval", "lower_bound"])? / per,
-            upper: number(&[statistic, "confidence_interval", "upper_bound"])? / per,
+            point: number("point_estimate")? / per,
+            lower: number("confidence_interval/lower_bound")? / per,
+            upper: number("confidence_interval/upper_bound")? / per,
         })
     }
 
@@ -126,7 +129,7 @@ impl Measured {
         let benchmark_file = dir.join("benchmark.json");
         let benchmark = read_json(&benchmark_file)?;
         let elements = benchmark
-            .path(&["throughput", "Elements"])
+            .pointer("/throughput/Elements")
             .and_then(Json::as_f64)
             .filter(|n| *n >= 1.0 && n.fract() == 0.0)
             .ok_or_else(|| format!("{}: no throughput.Elements count", benchmark_file.display()))?;
@@ -146,7 +149,7 @@ fn read_json(path: &Path) -> Result<Json, String> {
     let text = fs::read_to_string(path).map_err(|e| {
         format!("cannot read {} ({e}); did the benchmark run and keep its ids?", path.display())
     })?;
-    Json::parse(&text).map_err(|e| format!("{}: {e}", path.display()))
+    serde_json::from_str(&text).map_err(|e| format!("{}: {e}", path.display()))
 }
 
 fn find<'a>(results: &'a [Measured], id: &str) -> &'a Measured {
@@ -192,7 +195,7 @@ impl Goal {
     }
 }
 
-fn goals(results: &[Measured]) -> [Goal; 2] {
+fn goals(results: &[Measured]) -> [Goal; 3] {
     let mean = |id| find(results, id).mean;
     [
         Goal {
@@ -210,6 +213,14 @@ fn goals(results: &[Measured]) -> [Goal; 2] {
             ratio: mean("baseline_layer_walk_density").ratio(mean("density_only")),
             at_most: false,
             limit: 3.0,
+        },
+        Goal {
+            name: "(c) full state above 86 km / full state below",
+            numerator: "full_state_upper",
+            denominator: "full_state",
+            ratio: mean("full_state_upper").ratio(mean("full_state")),
+            at_most: true,
+            limit: 2.0,
         },
     ]
 }
@@ -342,8 +353,8 @@ fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>)
     let _ = writeln!(
         out,
         "Each benchmark evaluates the same {elements} pseudo-random geometric altitudes, uniform in \
-         [0, 86 000] m (fixed seed, converted to `Altitude` before timing) per criterion \
-         iteration; figures are criterion's estimates divided by {elements}, in nanoseconds per \
+         [0, 86 000] m (fixed seed, converted to `Altitude` before timing; `full_state_upper` maps \
+         the same fractions onto [86 000, 1 000 000] m) per criterion iteration; figures are criterion's estimates divided by {elements}, in nanoseconds per \
          evaluation, with the 95% confidence interval criterion reports."
     );
     out.push('\n');
@@ -429,231 +440,9 @@ fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>)
     out
 }
 
-/// A JSON value, as much of JSON as criterion writes (all of it, in fact).
-#[derive(Debug, Clone, PartialEq)]
-enum Json {
-    Null,
-    Bool(bool),
-    Number(f64),
-    String(String),
-    Array(Vec<Json>),
-    Object(Vec<(String, Json)>),
-}
-
-impl Json {
-    fn parse(text: &str) -> Result<Json, String> {
-        let mut parser = Parser { bytes: text.as_bytes(), at: 0 };
-        let value = parser.value()?;
-        parser.skip_space();
-        if parser.at != parser.bytes.len() {
-            return Err(parser.error("trailing characters"));
-        }
-        Ok(value)
-    }
-
-    fn get(&self, key: &str) -> Option<&Json> {
-        match self {
-            Json::Object(members) => members.iter().find(|(k, _)| k == key).map(|(_, v)| v),
-            _ => None,
-        }
-    }
-
-    fn path(&self, keys: &[&str]) -> Option<&Json> {
-        keys.iter().try_fold(self, |value, key| value.get(key))
-    }
-
-    fn as_f64(&self) -> Option<f64> {
-        match self {
-            Json::Number(n) => Some(*n),
-            _ => None,
-        }
-    }
-}
-
-struct Parser<'a> {
-    bytes: &'a [u8],
-    at: usize,
-}
-
-impl Parser<'_> {
-    fn error(&self, problem: &str) -> String {
-        format!("malformed JSON at byte {}: {problem}", self.at)
-    }
-
-    fn skip_space(&mut self) {
-        while matches!(self.bytes.get(self.at), Some(b' ' | b'\t' | b'\n' | b'\r')) {
-            self.at += 1;
-        }
-    }
-
-    fn expect(&mut self, byte: u8) -> Result<(), String> {
-        self.skip_space();
-        if self.bytes.get(self.at) == Some(&byte) {
-            self.at += 1;
-            Ok(())
-        } else {
-            Err(self.error(&format!("expected `{}`", byte as char)))
-        }
-    }
-
-    fn literal(&mut self, word: &str, value: Json) -> Result<Json, String> {
-        if self.bytes[self.at..].starts_with(word.as_bytes()) {
-            self.at += word.len();
-            Ok(value)
-        } else {
-            Err(self.error("unknown literal"))
-        }
-    }
-
-    fn value(&mut self) -> Result<Json, String> {
-        self.skip_space();
-        match self.bytes.get(self.at) {
-            None => Err(self.error("unexpected end")),
-            Some(b'{') => self.object(),
-            Some(b'[') => self.array(),
-            Some(b'"') => self.string().map(Json::String),
-            Some(b't') => self.literal("true", Json::Bool(true)),
-            Some(b'f') => self.literal("false", Json::Bool(false)),
-            Some(b'n') => self.literal("null", Json::Null),
-            Some(_) => self.number(),
-        }
-    }
-
-    fn object(&mut self) -> Result<Json, String> {
-        self.expect(b'{')?;
-        let mut members = Vec::new();
-        self.skip_space();
-        if self.bytes.get(self.at) == Some(&b'}') {
-            self.at += 1;
-            return Ok(Json::Object(members));
-        }
-        loop {
-            self.skip_space();
-            let key = self.string()?;
-            self.expect(b':')?;
-            members.push((key, self.value()?));
-            self.skip_space();
-            match self.bytes.get(self.at) {
-                Some(b',') => self.at += 1,
-                Some(b'}') => {
-                    self.at += 1;
-                    return Ok(Json::Object(members));
-                }
-                _ => return Err(self.error("expected `,` or `}`")),
-            }
-        }
-    }
-
-    fn array(&mut self) -> Result<Json, String> {
-        self.expect(b'[')?;
-        let mut items = Vec::new();
-        self.skip_space();
-        if self.bytes.get(self.at) == Some(&b']') {
-            self.at += 1;
-            return Ok(Json::Array(items));
-        }
-        loop {
-            items.push(self.value()?);
-            self.skip_space();
-            match self.bytes.get(self.at) {
-                Some(b',') => self.at += 1,
-                Some(b']') => {
-                    self.at += 1;
-                    return Ok(Json::Array(items));
-                }
-                _ => return Err(self.error("expected `,` or `]`")),
-            }
-        }
-    }
-
-    fn string(&mut self) -> Result<String, String> {
-        self.expect(b'"')?;
-        let mut out = String::new();
-        loop {
-            let start = self.at;
-            while !matches!(self.bytes.get(self.at), None | Some(b'"' | b'\\')) {
-                self.at += 1;
-            }
-            // The input is a &str and the run stops only at ASCII, so this is whole UTF-8.
-            out.push_str(std::str::from_utf8(&self.bytes[start..self.at]).map_err(|e| e.to_string())?);
-            match self.bytes.get(self.at) {
-                None => return Err(self.error("unterminated string")),
-                Some(b'"') => {
-                    self.at += 1;
-                    return Ok(out);
-                }
-                Some(_) => {
-                    self.at += 1;
-                    let escaped =
-                        *self.bytes.get(self.at).ok_or_else(|| self.error("unterminated escape"))?;
-                    self.at += 1;
-                    match escaped {
-                        b'"' => out.push('"'),
-                        b'\\' => out.push('\\'),
-                        b'/' => out.push('/'),
-                        b'b' => out.push('\u{8}'),
-                        b'f' => out.push('\u{c}'),
-                        b'n' => out.push('\n'),
-                        b'r' => out.push('\r'),
-                        b't' => out.push('\t'),
-                        b'u' => {
-                            let hex = self
-                                .bytes
-                                .get(self.at..self.at + 4)
-                                .and_then(|h| std::str::from_utf8(h).ok())
-                                .and_then(|h| u32::from_str_radix(h, 16).ok())
-                                .ok_or_else(|| self.error("bad \\u escape"))?;
-                            self.at += 4;
-                            // Surrogate pairs are not needed for criterion's files; a lone
-                            // surrogate becomes U+FFFD.
-                            out.push(char::from_u32(hex).unwrap_or('\u{fffd}'));
-                        }
-                        _ => return Err(self.error("unknown escape")),
-                    }
-                }
-            }
-        }
-    }
-
-    fn number(&mut self) -> Result<Json, String> {
-        let start = self.at;
-        while matches!(self.bytes.get(self.at), Some(b'0'..=b'9' | b'-' | b'+' | b'.' | b'e' | b'E')) {
-            self.at += 1;
-        }
-        std::str::from_utf8(&self.bytes[start..self.at])
-            .ok()
-            .and_then(|s| s.parse::<f64>().ok())
-            .map(Json::Number)
-            .ok_or_else(|| {
-                self.at = start;
-                self.error("expected a value")
-            })
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn parses_what_criterion_writes() {
-        let text = r#"{"mean":{"confidence_interval":{"confidence_level":0.95,"lower_bound":1.5e2,
-            "upper_bound":200.25},"point_estimate":175,"standard_error":3.0},"slope":null,
-            "list":[true,false,"a\"b\u0041"],"empty":{}}"#;
-        let json = Json::parse(text).unwrap();
-        assert_eq!(json.path(&["mean", "point_estimate"]).and_then(Json::as_f64), Some(175.0));
-        assert_eq!(
-            json.path(&["mean", "confidence_interval", "lower_bound"]).and_then(Json::as_f64),
-            Some(150.0)
-        );
-        assert_eq!(json.get("slope"), Some(&Json::Null));
-        assert_eq!(
-            json.get("list"),
-            Some(&Json::Array(vec![Json::Bool(true), Json::Bool(false), Json::String("a\"bA".into())]))
-        );
-        assert!(Json::parse("{\"a\":1} x").is_err());
-        assert!(Json::parse("{\"a\":}").is_err());
-    }
 
     #[test]
     fn dates_from_unix_days() {
