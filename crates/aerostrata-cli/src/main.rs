@@ -3,7 +3,11 @@
 //! Exit status: 0 on success, 2 for bad input or usage (one line on stderr naming the
 //! value and the allowed range), 1 for an internal or I/O failure.
 
+mod airspeed;
+mod altitude;
+mod flight;
 mod output;
+mod sounding;
 
 use std::fs::File;
 use std::io::{self, BufRead, BufReader, BufWriter, Write};
@@ -37,6 +41,25 @@ enum Command {
     #[command(after_help = "Examples:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10\n  \
                             printf '120000\\n400000\\n' | aerostrata eval --species")]
     Eval(EvalArgs),
+    /// Scan a flight (CSV of time_s,altitude_m,velocity_m_s): per-sample q, Mach,
+    /// Reynolds number and drag on stdout, the summary (max q, max Mach, Mach 1
+    /// crossings, max drag) on stderr.
+    #[command(
+        after_help = "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
+                            --area 0.0182 --summary json"
+    )]
+    Flight(flight::FlightArgs),
+    /// Convert between calibrated, equivalent and true airspeed and Mach number.
+    #[command(
+        after_help = "Example:\n  aerostrata airspeed --cas 250 --unit kt --pressure-altitude 3048 --oat 268.15"
+    )]
+    Airspeed(airspeed::AirspeedArgs),
+    /// Pressure altitude from static pressure; density altitude, QNH or pad-relative
+    /// altitude on request.
+    #[command(
+        after_help = "Example:\n  aerostrata altitude --pressure 84300 --pad 98100 --temperature 281.2"
+    )]
+    Altitude(altitude::AltitudeArgs),
 }
 
 #[derive(Args)]
@@ -48,16 +71,25 @@ struct ModelArgs {
     /// Read altitudes as geopotential instead of geometric metres.
     #[arg(long)]
     geopotential: bool,
+    /// Use a sounding instead of the standard: CSV with a header of quantities and units,
+    /// or JSON if the name ends in .json (docs/soundings.md). Outside its rows: an error,
+    /// unless --blend is given.
+    #[arg(long, value_name = "FILE")]
+    sounding: Option<PathBuf>,
+    /// With --sounding: beyond the first and last rows, blend into the standard over this
+    /// many geopotential metres.
+    #[arg(long, value_name = "M", requires = "sounding")]
+    blend: Option<f64>,
 }
 
 #[derive(Args)]
 struct TableArgs {
-    /// Lowest altitude, m.
-    #[arg(long, value_name = "M", default_value_t = 0.0, allow_negative_numbers = true)]
-    from: f64,
-    /// Highest altitude, m.
-    #[arg(long, value_name = "M", default_value_t = 86_000.0, allow_negative_numbers = true)]
-    to: f64,
+    /// Lowest altitude, m [default: 0, or the model's bottom if higher].
+    #[arg(long, value_name = "M", allow_negative_numbers = true)]
+    from: Option<f64>,
+    /// Highest altitude, m [default: 86000, or the model's top if lower].
+    #[arg(long, value_name = "M", allow_negative_numbers = true)]
+    to: Option<f64>,
     /// Altitude step, m.
     #[arg(long, value_name = "M", default_value_t = 1_000.0)]
     step: f64,
@@ -112,6 +144,9 @@ fn main() -> ExitCode {
     let result = match cli.command {
         Command::Table(args) => table(&args),
         Command::Eval(args) => eval(&args),
+        Command::Flight(args) => flight::run(&args),
+        Command::Airspeed(args) => airspeed::run(&args),
+        Command::Altitude(args) => altitude::run(&args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,
@@ -127,8 +162,18 @@ fn main() -> ExitCode {
     }
 }
 
-fn model(args: &ModelArgs) -> Result<TemperatureOffset<aerostrata::Us1976>, Failure> {
-    TemperatureOffset::new(US1976, args.offset).map_err(|e| Failure::Input(format!("--offset: {e}")))
+fn model(args: &ModelArgs) -> Result<Box<dyn Atmosphere>, Failure> {
+    if let Some(path) = &args.sounding {
+        if args.offset != 0.0 {
+            return Err(Failure::Input(
+                "--offset applies to the standard and cannot be combined with --sounding".to_owned(),
+            ));
+        }
+        return Ok(Box::new(sounding::load(path, args.blend).map_err(Failure::Input)?));
+    }
+    let offset =
+        TemperatureOffset::new(US1976, args.offset).map_err(|e| Failure::Input(format!("--offset: {e}")))?;
+    Ok(Box::new(offset))
 }
 
 fn altitude(meters: f64, geopotential: bool) -> aerostrata::Result<Altitude> {
@@ -141,7 +186,15 @@ fn altitude(meters: f64, geopotential: bool) -> aerostrata::Result<Altitude> {
 
 fn table(args: &TableArgs) -> Result<(), Failure> {
     let atmosphere = model(&args.model)?;
-    for (name, value) in [("--from", args.from), ("--to", args.to), ("--step", args.step)] {
+    let range = atmosphere.range();
+    let (bottom, top) = if args.model.geopotential {
+        (range.geopotential_min_m, range.geopotential_max_m)
+    } else {
+        (range.geometric_min_m, range.geometric_max_m)
+    };
+    let from = args.from.unwrap_or(bottom.max(0.0));
+    let to = args.to.unwrap_or(top.min(86_000.0));
+    for (name, value) in [("--from", from), ("--to", to), ("--step", args.step)] {
         if !value.is_finite() {
             return Err(Failure::Input(format!("{name} must be a finite number of metres, got {value}")));
         }
@@ -149,15 +202,15 @@ fn table(args: &TableArgs) -> Result<(), Failure> {
     if args.step <= 0.0 {
         return Err(Failure::Input(format!("--step must be greater than 0 m, got {} m", args.step)));
     }
-    if args.to < args.from {
-        return Err(Failure::Input(format!("--to {} m must not be below --from {} m", args.to, args.from)));
+    if to < from {
+        return Err(Failure::Input(format!("--to {to} m must not be below --from {from} m")));
     }
-    for (name, meters) in [("--from", args.from), ("--to", args.to)] {
+    for (name, meters) in [("--from", from), ("--to", to)] {
         altitude(meters, args.model.geopotential)
             .and_then(|a| atmosphere.range().check(a))
             .map_err(|e| Failure::Input(format!("{name}: {e}")))?;
     }
-    let intervals = ((args.to - args.from) / args.step * (1.0 + 1e-12)).floor();
+    let intervals = ((to - from) / args.step * (1.0 + 1e-12)).floor();
     if intervals + 1.0 > MAX_TABLE_ROWS {
         return Err(Failure::Input(format!(
             "--step {} m gives {} rows, more than the {MAX_TABLE_ROWS} allowed",
@@ -167,7 +220,7 @@ fn table(args: &TableArgs) -> Result<(), Failure> {
     }
     let mut states = Vec::with_capacity(intervals as usize + 1);
     for i in 0..=(intervals as u64) {
-        let meters = (args.from + i as f64 * args.step).min(args.to);
+        let meters = (from + i as f64 * args.step).min(to);
         let state = altitude(meters, args.model.geopotential)
             .and_then(|a| atmosphere.state(a))
             .map_err(|e| Failure::Input(e.to_string()))?;
@@ -190,9 +243,9 @@ fn table(args: &TableArgs) -> Result<(), Failure> {
 
 fn eval(args: &EvalArgs) -> Result<(), Failure> {
     let atmosphere = model(&args.model)?;
-    if args.species && args.model.offset != 0.0 {
+    if args.species && (args.model.offset != 0.0 || args.model.sounding.is_some()) {
         return Err(Failure::Input(
-            "--species gives the standard's own number densities and cannot be combined with --offset"
+            "--species gives the standard's own number densities and cannot be combined with --offset or --sounding"
                 .to_owned(),
         ));
     }
@@ -212,7 +265,7 @@ fn eval(args: &EvalArgs) -> Result<(), Failure> {
         if text.is_empty() || text.starts_with('#') {
             continue;
         }
-        let state = evaluate_line(&atmosphere, text, args.model.geopotential)
+        let state = evaluate_line(atmosphere.as_ref(), text, args.model.geopotential)
             .map_err(|message| Failure::Input(format!("line {line_number}: {message}")))?;
         let species = if args.species { species_at(&state) } else { None };
         write_csv_row(&mut out, &state, args.species.then_some(species))?;
@@ -232,7 +285,7 @@ fn species_at(state: &State) -> Option<[f64; 6]> {
         .map(|n| n.as_array())
 }
 
-fn evaluate_line(atmosphere: &impl Atmosphere, text: &str, geopotential: bool) -> Result<State, String> {
+fn evaluate_line(atmosphere: &dyn Atmosphere, text: &str, geopotential: bool) -> Result<State, String> {
     let meters: f64 =
         text.parse().map_err(|_| format!("'{text}' is not an altitude (a number of metres)"))?;
     altitude(meters, geopotential).and_then(|a| atmosphere.state(a)).map_err(|e| e.to_string())

@@ -33,10 +33,16 @@
 #[cfg(feature = "alloc")]
 extern crate alloc;
 
+pub mod aero;
+pub mod airspeed;
 pub mod altitude;
 pub mod constants;
 mod error;
+pub mod flight;
+pub mod flow;
 pub mod gas;
+pub mod humidity;
+pub mod inverse;
 mod math;
 pub mod model;
 mod state;
@@ -44,10 +50,17 @@ mod state;
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
 pub use error::{Error, Result};
 pub use gas::Air;
+pub use model::{AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated};
 pub use model::{
     Atmosphere, Exponential, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset, Us1976, US1976,
 };
 pub use state::State;
+
+pub use aero::{DragCurve, Interpolation, RarefactionRegime};
+pub use airspeed::{AirData, Airspeed, Airspeeds};
+pub use flight::{FlightPoint, FlightScan, FlightSummary, Sample, Vehicle};
+pub use flow::{MachBranch, NormalShock, PerfectGas};
+pub use inverse::{BarometricReference, SolverSettings};
 
 /// The README's Rust example, compiled and run as a doctest.
 #[cfg(doctest)]

@@ -112,13 +112,11 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
     );
     run_command(root, "cargo", &["build", "--quiet", "-p", "aerostrata-cli"], &[])?;
     let binary = crate::target_dir(root).join("debug/aerostrata");
-    let script = command_output(
-        root,
-        "python3",
-        &["tests/reference/usa76_mpmath.py", binary.to_str().ok_or("non-UTF-8 path")?],
-    );
+    // The report must not depend on where the binary was built.
+    let binary_text = binary.to_str().ok_or("non-UTF-8 path")?;
+    let script = command_output(root, "python3", &["tests/reference/usa76_mpmath.py", binary_text]);
     match script {
-        Ok(text) => out.push_str(&text),
+        Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
         Err(message) => failures.push(message),
     }
     out.push_str(
@@ -128,14 +126,32 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
          species, N, p, rho and M with `aerostrata eval --species` at a dozen altitudes from 86 to\n\
          1000 km (limit 1e-6 relative; T to 1e-12). Its summary:\n\n```text\n",
     );
-    let script = command_output(
-        root,
-        "python3",
-        &["tests/reference/usa76_upper_scipy.py", binary.to_str().ok_or("non-UTF-8 path")?],
-    );
+    let script = command_output(root, "python3", &["tests/reference/usa76_upper_scipy.py", binary_text]);
     match script {
-        Ok(text) => out.push_str(&text),
+        Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
         Err(message) => failures.push(message),
+    }
+    out.push_str(
+        "```\n\n## Independent check of the compressible-flow vectors (mpmath, 30 digits)\n\n\
+         `tests/reference/naca1135_mpmath.py` writes the perfect-gas relations of NACA Report\n\
+         1135 in mpmath at 30 significant digits, checks them against identities that must hold\n\
+         exactly (`--self-test`), and checks every cell of `tests/vectors/naca1135_*.csv` with\n\
+         the files' own tolerances (`--check-vectors`), the check the remembered table values\n\
+         went through before they were kept. Its summaries:\n\n```text\n",
+    );
+    for args in [
+        &["tests/reference/naca1135_mpmath.py", "--self-test"][..],
+        &[
+            "tests/reference/naca1135_mpmath.py",
+            "--check-vectors",
+            "tests/vectors/naca1135_isentropic.csv",
+            "tests/vectors/naca1135_normal_shock.csv",
+        ][..],
+    ] {
+        match command_output(root, "python3", args) {
+            Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
+            Err(message) => failures.push(message),
+        }
     }
     out.push_str("```\n");
     out.push_str(NOTES);

@@ -6,12 +6,16 @@
 //! `abs X`; then a header whose first column is the input altitude
 //! (`geometric_altitude_m` or `geopotential_altitude_m`) and whose other columns are
 //! state quantities named as in `aerostrata eval`; then rows, empty cells unchecked.
+//! The compressible-flow models take the input column `mach`: `isentropic gamma=G` the
+//! columns `p_p0`, `rho_rho0`, `t_t0`, `a_astar` (A/A*) and `qc_p` (impact over static
+//! pressure), `normal_shock gamma=G` the columns `m2`, `p2_p1`, `rho2_rho1`, `t2_t1`,
+//! `p02_p01`, `p02_p1` (Rayleigh pitot) and `p1_p02`.
 
 use std::collections::BTreeMap;
 use std::fs;
 use std::path::{Path, PathBuf};
 
-use aerostrata::{Altitude, Atmosphere, State, TemperatureOffset, US1976};
+use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
 /// How close a computed value must be to a reference value.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -162,6 +166,91 @@ fn model(name: &str) -> Result<Box<dyn Atmosphere>, String> {
     }
 }
 
+/// What a file's `# model:` line names: an atmosphere, or a compressible-flow relation.
+enum Evaluator {
+    Atmosphere(Box<dyn Atmosphere>),
+    Isentropic(PerfectGas),
+    NormalShock(PerfectGas),
+}
+
+impl Evaluator {
+    fn for_model(name: &str) -> Result<Self, String> {
+        let mut words = name.split_whitespace();
+        let kind = words.next().unwrap_or_default();
+        if kind != "isentropic" && kind != "normal_shock" {
+            return model(name).map(Evaluator::Atmosphere);
+        }
+        let gas = match words.next().map(|w| w.strip_prefix("gamma=")) {
+            None => PerfectGas::AIR,
+            Some(Some(gamma)) => {
+                let gamma: f64 = gamma.parse().map_err(|_| format!("bad gamma in model '{name}'"))?;
+                PerfectGas::new(gamma).map_err(|e| format!("model '{name}': {e}"))?
+            }
+            Some(None) => return Err(format!("unknown parameter in model '{name}'")),
+        };
+        Ok(if kind == "isentropic" { Evaluator::Isentropic(gas) } else { Evaluator::NormalShock(gas) })
+    }
+
+    /// Every value one row's input gives, by column name (`None` where a quantity is not
+    /// defined there).
+    fn row(&self, input_column: &str, input: f64) -> Result<Row, String> {
+        let flow = |values: Vec<(&'static str, f64)>| Ok(Row::Flow(values));
+        match self {
+            Evaluator::Atmosphere(atmosphere) => {
+                let altitude = match input_column {
+                    "geometric_altitude_m" => Altitude::geometric_m(input),
+                    "geopotential_altitude_m" => Altitude::geopotential_m(input),
+                    other => return Err(format!("unknown input column {other}")),
+                }
+                .map_err(|e| e.to_string())?;
+                let state = atmosphere.state(altitude).map_err(|e| e.to_string())?;
+                Ok(Row::State(Box::new(state), altitude))
+            }
+            _ if input_column != "mach" => {
+                Err(format!("unknown input column {input_column} (expected mach)"))
+            }
+            Evaluator::Isentropic(gas) => {
+                let e = |r: aerostrata::Result<f64>| r.map_err(|e| e.to_string());
+                flow(vec![
+                    ("p_p0", e(gas.pressure_ratio(input))?),
+                    ("rho_rho0", e(gas.density_ratio(input))?),
+                    ("t_t0", e(gas.temperature_ratio(input))?),
+                    ("a_astar", e(gas.area_ratio(input))?),
+                    ("qc_p", e(gas.impact_pressure_ratio(input))?),
+                ])
+            }
+            Evaluator::NormalShock(gas) => {
+                let shock = gas.normal_shock(input).map_err(|e| e.to_string())?;
+                flow(vec![
+                    ("m2", shock.downstream_mach),
+                    ("p2_p1", shock.pressure_ratio),
+                    ("rho2_rho1", shock.density_ratio),
+                    ("t2_t1", shock.temperature_ratio),
+                    ("p02_p01", shock.total_pressure_ratio),
+                    ("p02_p1", shock.pitot_pressure_ratio),
+                    ("p1_p02", 1.0 / shock.pitot_pressure_ratio),
+                ])
+            }
+        }
+    }
+}
+
+/// The computed values of one row.
+enum Row {
+    State(Box<State>, Altitude),
+    Flow(Vec<(&'static str, f64)>),
+}
+
+impl Row {
+    /// The value `column` names: `None` if no such quantity, `Some(None)` if undefined.
+    fn value(&self, column: &str) -> Option<Option<f64>> {
+        match self {
+            Row::State(state, altitude) => field(state, *altitude, column),
+            Row::Flow(values) => values.iter().find(|(name, _)| *name == column).map(|(_, v)| Some(*v)),
+        }
+    }
+}
+
 /// Species columns, in the order of `Species::as_array`, named as `aerostrata eval --species`.
 const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
 
@@ -178,7 +267,7 @@ fn field(state: &State, altitude: Altitude, column: &str) -> Option<Option<f64>>
 /// Evaluates every row of `file` and compares each checked cell.
 pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
     let name = file.path.display();
-    let atmosphere = model(&file.model).map_err(|e| format!("{name}: {e}"))?;
+    let evaluator = Evaluator::for_model(&file.model).map_err(|e| format!("{name}: {e}"))?;
     let mut results: Vec<ColumnResult> = file
         .columns
         .iter()
@@ -194,14 +283,8 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
         .collect();
     for (line, cells) in &file.rows {
         let input: f64 =
-            cells[0].parse().map_err(|_| format!("{name}:{line}: bad altitude '{}'", cells[0]))?;
-        let altitude = match file.input.as_str() {
-            "geometric_altitude_m" => Altitude::geometric_m(input),
-            "geopotential_altitude_m" => Altitude::geopotential_m(input),
-            other => return Err(format!("{name}: unknown input column {other}")),
-        }
-        .map_err(|e| format!("{name}:{line}: {e}"))?;
-        let state = atmosphere.state(altitude).map_err(|e| format!("{name}:{line}: {e}"))?;
+            cells[0].parse().map_err(|_| format!("{name}:{line}: bad {} '{}'", file.input, cells[0]))?;
+        let row = evaluator.row(&file.input, input).map_err(|e| format!("{name}:{line}: {e}"))?;
         for (result, written) in results.iter_mut().zip(&cells[1..]) {
             if written.is_empty() {
                 continue;
@@ -209,8 +292,11 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
             let reference: f64 = written
                 .parse()
                 .map_err(|_| format!("{name}:{line}: bad value '{written}' in {}", result.column))?;
-            let ours = field(&state, altitude, &result.column)
-                .ok_or_else(|| format!("{name}: no state quantity named {}", result.column))?
+            let ours = row
+                .value(&result.column)
+                .ok_or_else(|| {
+                    format!("{name}: no quantity named {} for model {}", result.column, file.model)
+                })?
                 .ok_or_else(|| format!("{name}:{line}: {} is not defined there", result.column))?;
             let tolerance = match result.rule {
                 Rule::Printed => half_unit_of_last_digit(written)
@@ -245,6 +331,42 @@ mod tests {
         assert_eq!(half_unit_of_last_digit("288.150"), Some(0.0005));
         assert_eq!(half_unit_of_last_digit("86000"), Some(0.5));
         assert!((half_unit_of_last_digit("6.6328E-08").unwrap() - 0.5e-12).abs() < 1e-27);
+        // NACA Report 1135 prints ratios without the leading zero.
+        assert_eq!(".99303".parse::<f64>(), Ok(0.99303));
+        assert!((half_unit_of_last_digit(".99303").unwrap() - 0.5e-5).abs() < 1e-20);
+    }
+
+    #[test]
+    fn flow_models_are_read_and_checked() {
+        let dir = std::env::temp_dir().join(format!("aerostrata-vectors-{}", std::process::id()));
+        fs::create_dir_all(&dir).unwrap();
+        let path = dir.join("flow.csv");
+        // p/p0 at Mach 2 is 0.127804525... : "0.1278" passes, "0.1279" misses its half unit.
+        fs::write(
+            &path,
+            "# source\n# model: isentropic gamma=1.4\n# tolerance: p_p0 printed\nmach,p_p0\n2.0,.1278\n2.0,.1279\n",
+        )
+        .unwrap();
+        let results = check(&read(&path).unwrap()).unwrap();
+        assert_eq!(results[0].points, 2);
+        assert_eq!(results[0].failures.len(), 1, "{:?}", results[0].failures);
+        fs::write(
+            &path,
+            "# model: normal_shock gamma=1.3\n# tolerance: m2 rel 1e-12\nmach,m2\n2,0.5628780357842335\n",
+        )
+        .unwrap();
+        let results = check(&read(&path).unwrap()).unwrap();
+        assert!(results[0].failures.is_empty(), "{:?}", results[0].failures);
+        fs::write(&path, "# model: normal_shock gamma=1.4\n# tolerance: m2 printed\nmach,m2\n0.5,1.0\n")
+            .unwrap();
+        assert!(check(&read(&path).unwrap()).unwrap_err().contains("upstream Mach number 0.5"));
+        fs::write(&path, "# model: isentropic gamma=3\n# tolerance: p_p0 printed\nmach,p_p0\n1,1\n").unwrap();
+        assert!(check(&read(&path).unwrap()).is_err());
+        fs::write(&path, "# model: isentropic\n# tolerance: wrong printed\nmach,wrong\n1,1\n").unwrap();
+        assert!(check(&read(&path).unwrap()).unwrap_err().contains("no quantity named wrong"));
+        fs::write(&path, "# model: isentropic\n# tolerance: p_p0 printed\naltitude_m,p_p0\n1,1\n").unwrap();
+        assert!(check(&read(&path).unwrap()).unwrap_err().contains("expected mach"));
+        fs::remove_dir_all(&dir).unwrap();
     }
 
     /// Every vector of every file within its tolerance: the Rust door's reference test.

@@ -5,7 +5,10 @@ mod exponential;
 mod isothermal;
 mod layered;
 mod offset;
+#[cfg(feature = "std")]
+pub mod sounding_io;
 mod standard;
+mod tabulated;
 #[cfg(feature = "upper")]
 pub mod upper;
 #[cfg(feature = "upper")]
@@ -16,6 +19,10 @@ pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
 pub use offset::TemperatureOffset;
 pub use standard::{Us1976, US1976};
+pub use tabulated::{
+    AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
+    MIN_HYDROSTATIC_RATIO, MIN_ROW_SPACING_M,
+};
 
 use crate::altitude::{Altitude, AltitudeRange};
 use crate::error::Result;

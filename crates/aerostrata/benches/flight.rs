@@ -1,0 +1,133 @@
+//! What the flight scan costs, measured in one run next to its yardstick: evaluating the
+//! standard atmosphere's states at the same altitudes, so that the ratio is comparable on
+//! any machine (the goal: the scan costs at most 1.3 times the states).
+//!
+//! The flight is one million samples of an invented boost, coast and descent through the
+//! standard atmosphere (0 to 40 km, up to Mach 2.5), built before timing. One criterion
+//! iteration is one pass over all of them; `Throughput::Elements` records the count, so
+//! criterion reports samples per second.
+//!
+//! | id             | what one element is                                                   |
+//! |----------------|-----------------------------------------------------------------------|
+//! | `states`       | `Altitude::geometric_m(z)` then `US1976.state(altitude)`              |
+//! | `scan`         | `FlightScan::push` without a vehicle (q, Mach, Re per metre, summary) |
+//! | `scan_vehicle` | `FlightScan::push` with a 7-point monotone-cubic Cd table and lengths |
+//!
+//! Before anything is timed, the scan's q and Mach are checked against the states'
+//! (1e-14 relative), so that both do the same work. `std::hint::black_box` as in
+//! benches/state.rs.
+
+use std::hint::black_box;
+use std::time::Duration;
+
+use aerostrata::aero::{DragCurve, Interpolation};
+use aerostrata::flight::{FlightScan, Sample, Vehicle};
+use aerostrata::{Altitude, Atmosphere, US1976};
+use criterion::{criterion_group, criterion_main, Criterion, SamplingMode, Throughput};
+
+/// Samples in the flight.
+const COUNT: usize = 1_000_000;
+/// Duration of the flight, s.
+const DURATION_S: f64 = 200.0;
+/// The group every benchmark lives in: `criterion/flight/<id>/new/estimates.json`.
+const GROUP: &str = "flight";
+
+/// The invented flight: 30 s of boost at 25 m/s^2, then a ballistic coast under 9.8 m/s^2
+/// (apogee near 40 km at 106.5 s) and the fall back; velocity is signed (negative on the
+/// way down), as a vertical-velocity log would have it.
+fn flight() -> Vec<Sample> {
+    let (boost_s, acceleration, gravity) = (30.0, 25.0, 9.8);
+    let burnout_v = acceleration * boost_s;
+    let burnout_z = 0.5 * acceleration * boost_s * boost_s;
+    (0..COUNT)
+        .map(|i| {
+            let t = DURATION_S * i as f64 / COUNT as f64;
+            let (z, v) = if t <= boost_s {
+                (0.5 * acceleration * t * t, acceleration * t)
+            } else {
+                let c = t - boost_s;
+                (burnout_z + burnout_v * c - 0.5 * gravity * c * c, burnout_v - gravity * c)
+            };
+            Sample { time_s: t, altitude_m: z.max(0.0), velocity_m_s: v }
+        })
+        .collect()
+}
+
+const CD_MACH: [f64; 7] = [0.0, 0.6, 0.9, 1.05, 1.3, 2.0, 4.0];
+const CD: [f64; 7] = [0.42, 0.40, 0.46, 0.70, 0.62, 0.50, 0.40];
+
+fn vehicle() -> Vehicle<'static> {
+    let curve = DragCurve::table(&CD_MACH, &CD, Interpolation::MonotoneCubic).expect("a valid table");
+    Vehicle::new(curve, 0.0182).and_then(|v| v.with_reference_length(3.2)).expect("a valid vehicle")
+}
+
+/// The scan's per-sample q and Mach equal what the states give, to rounding.
+fn check_agreement(samples: &[Sample]) {
+    let mut scan = FlightScan::new(US1976, None);
+    for sample in samples.iter().step_by(997) {
+        let point = scan.push(*sample).expect("the flight stays in range");
+        let state = US1976.state(Altitude::geometric_m(sample.altitude_m).expect("valid")).expect("in range");
+        let q = 0.5 * state.density_kg_m3 * sample.velocity_m_s * sample.velocity_m_s;
+        let mach = sample.velocity_m_s.abs() / state.speed_of_sound().expect("defined below 86 km");
+        for (ours, theirs) in [(point.dynamic_pressure_pa, q), (point.mach.expect("defined"), mach)] {
+            assert!(ours == theirs || ((ours - theirs) / theirs).abs() < 1e-14, "{ours} vs {theirs}");
+        }
+    }
+}
+
+fn configure() -> Criterion {
+    Criterion::default()
+        .sample_size(10)
+        .warm_up_time(Duration::from_secs(1))
+        .measurement_time(Duration::from_secs(12))
+}
+
+fn benchmarks(c: &mut Criterion) {
+    let samples = flight();
+    check_agreement(&samples);
+    let vehicle = vehicle();
+
+    let mut group = c.benchmark_group(GROUP);
+    group.throughput(Throughput::Elements(COUNT as u64));
+    // One iteration is a whole flight (tens of ms): flat sampling, as criterion advises.
+    group.sampling_mode(SamplingMode::Flat);
+
+    group.bench_function("states", |b| {
+        b.iter(|| {
+            for sample in &samples {
+                if let Ok(altitude) = Altitude::geometric_m(black_box(sample.altitude_m)) {
+                    let _ = black_box(US1976.state(altitude));
+                }
+            }
+        });
+    });
+
+    group.bench_function("scan", |b| {
+        b.iter(|| {
+            let mut scan = FlightScan::new(US1976, None);
+            for sample in &samples {
+                let _ = black_box(scan.push(black_box(*sample)));
+            }
+            black_box(scan.summary())
+        });
+    });
+
+    group.bench_function("scan_vehicle", |b| {
+        b.iter(|| {
+            let mut scan = FlightScan::new(US1976, Some(vehicle));
+            for sample in &samples {
+                let _ = black_box(scan.push(black_box(*sample)));
+            }
+            black_box(scan.summary())
+        });
+    });
+
+    group.finish();
+}
+
+criterion_group! {
+    name = benches;
+    config = configure();
+    targets = benchmarks
+}
+criterion_main!(benches);

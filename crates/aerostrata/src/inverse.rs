@@ -1,0 +1,572 @@
+//! Inverse altitudes: pressure altitude, density altitude, the barometric altitude a
+//! flight computer reports, and the altitude where any monotone property of any
+//! [`Atmosphere`] takes a given value; plus the bracketed solver every iterative inverse
+//! of the core uses.
+//!
+//! In the lower 1976 standard (-5 km to 86 km) pressure and density altitude are closed
+//! forms, one per layer: the layer equations of U.S. Standard Atmosphere 1976, Part 1,
+//! solved for the altitude. Everywhere else (above 86 km, or any other model) the
+//! bracketed solver below answers.
+//!
+//! # The bracketed solver and its guarantee
+//!
+//! The solver keeps an interval [a, b] on which the residual changes sign. Each step
+//! tries a regula-falsi point with the Illinois modification (the retained end's residual
+//! is halved when the same end is kept twice, which makes the method superlinear), and
+//! falls back to bisection whenever the interpolated point is not strictly inside the
+//! interval. Every third step is a bisection unless the two steps before it have already
+//! halved the interval, so the interval at least halves every three residual
+//! evaluations: from width W to the tolerance t it takes at most 3 ceil(log2(W / t))
+//! evaluations besides the two at the ends, whatever the function (the method never
+//! leaves the bracket, so it converges to a sign change even of a discontinuous
+//! function, such as the standard's own small step at 86 km, where it returns the
+//! altitude of the step). The default settings allow 200 evaluations, above that bound
+//! for every bracket the core solves: an altitude (W <= 1.1e7 m, t >= 1e-7 m) needs at
+//! most 141, a Mach number (W < 1000, t >= 1e-14) at most 171, a terminal velocity
+//! (W < 1e8 m/s, t >= 1e-9 m/s) at most 171. [`Error::NoConvergence`] therefore only
+//! appears with settings that allow fewer iterations than the bound.
+
+use crate::altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
+use crate::constants::{GAS_CONSTANT_J_KMOL_K, GMR_K_M, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
+use crate::error::{finite, positive, within, Error, Result};
+use crate::gas::Air;
+use crate::math::{exp_m1, ln};
+use crate::model::{Atmosphere, Layer, US1976};
+
+/// Tolerance and iteration budget of the bracketed solver.
+///
+/// The solver stops when the bracket is narrower than
+/// `absolute_tolerance + relative_tolerance * max(|a|, |b|)` (in the unit of the
+/// unknown), or when it cannot be split further in f64.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct SolverSettings {
+    /// Absolute tolerance on the unknown, in its unit; at least 0.
+    pub absolute_tolerance: f64,
+    /// Relative tolerance on the unknown; at least 0.
+    pub relative_tolerance: f64,
+    /// Most residual evaluations allowed; at least 1.
+    pub max_iterations: u32,
+}
+
+/// Four units in the last place: the relative resolution the solvers aim for.
+const FOUR_ULPS: f64 = 4.0 * f64::EPSILON;
+
+impl SolverSettings {
+    /// For altitudes, m: 1e-7 m (a pressure error below 2e-11 relative) plus 4 ulps.
+    pub const ALTITUDE: SolverSettings =
+        SolverSettings { absolute_tolerance: 1e-7, relative_tolerance: FOUR_ULPS, max_iterations: 200 };
+    /// For Mach numbers: 1e-14 plus 4 ulps.
+    pub const MACH: SolverSettings =
+        SolverSettings { absolute_tolerance: 1e-14, relative_tolerance: FOUR_ULPS, max_iterations: 200 };
+    /// For speeds, m/s: 1e-9 m/s plus 4 ulps.
+    pub const SPEED: SolverSettings =
+        SolverSettings { absolute_tolerance: 1e-9, relative_tolerance: FOUR_ULPS, max_iterations: 200 };
+
+    /// Settings with the given tolerances and iteration budget, checked.
+    ///
+    /// # Errors
+    /// [`Error::NotFinite`] for a NaN or infinite tolerance; [`Error::RatioOutOfRange`]
+    /// for a negative tolerance, or an iteration budget of 0 (it must be 1 to
+    /// 4294967295).
+    pub fn new(absolute_tolerance: f64, relative_tolerance: f64, max_iterations: u32) -> Result<Self> {
+        SolverSettings { absolute_tolerance, relative_tolerance, max_iterations }.checked()
+    }
+
+    /// These settings if they are valid (the fields are public, so every solver checks).
+    pub(crate) fn checked(&self) -> Result<Self> {
+        crate::flow::ratio_within("solver absolute tolerance", self.absolute_tolerance, 0.0, f64::MAX)?;
+        crate::flow::ratio_within("solver relative tolerance", self.relative_tolerance, 0.0, f64::MAX)?;
+        if self.max_iterations == 0 {
+            return Err(Error::RatioOutOfRange {
+                quantity: "solver iteration budget",
+                value: 0.0,
+                min: 1.0,
+                max: f64::from(u32::MAX),
+            });
+        }
+        Ok(*self)
+    }
+}
+
+/// A root of `f` in the bracket [`lo`, `hi`], where `f(lo) = f_lo` and `f(hi) = f_hi`
+/// differ in sign (see the module docs for the method and its bound).
+///
+/// Callers check that the target lies between the end values before they call; if the
+/// two ends still agree in sign, that can only be rounding at one end, and the end whose
+/// residual is smaller is returned. A residual that is not finite is an error.
+pub(crate) fn solve_bracketed<F>(
+    solver: &'static str,
+    mut f: F,
+    lo: f64,
+    hi: f64,
+    f_lo: f64,
+    f_hi: f64,
+    settings: &SolverSettings,
+) -> Result<f64>
+where
+    F: FnMut(f64) -> Result<f64>,
+{
+    let (mut a, mut b, mut fa, mut fb) = if lo <= hi { (lo, hi, f_lo, f_hi) } else { (hi, lo, f_hi, f_lo) };
+    finite(solver, fa)?;
+    finite(solver, fb)?;
+    if fa == 0.0 {
+        return Ok(a);
+    }
+    if fb == 0.0 {
+        return Ok(b);
+    }
+    if (fa > 0.0) == (fb > 0.0) {
+        return Ok(if fa.abs() <= fb.abs() { a } else { b });
+    }
+    // The true residuals at the ends (the Illinois step scales the working copies).
+    let (mut true_fa, mut true_fb) = (fa, fb);
+    // Which end the last step replaced: -1 for a, +1 for b, 0 for none yet.
+    let mut replaced = 0i8;
+    let mut checkpoint_width = b - a;
+    for iteration in 1..=settings.max_iterations {
+        let width = b - a;
+        let scale = a.abs().max(b.abs());
+        let middle = a + 0.5 * width;
+        if width <= settings.absolute_tolerance + settings.relative_tolerance * scale
+            || middle <= a
+            || middle >= b
+        {
+            return Ok(if true_fa.abs() <= true_fb.abs() { a } else { b });
+        }
+        if iteration % 3 == 1 {
+            checkpoint_width = width;
+        }
+        let force_bisection = iteration % 3 == 0 && width > 0.5 * checkpoint_width;
+        let interpolated = b - fb * (b - a) / (fb - fa);
+        let x =
+            if force_bisection || !(interpolated > a && interpolated < b) { middle } else { interpolated };
+        let fx = f(x)?;
+        finite(solver, fx)?;
+        if fx == 0.0 {
+            return Ok(x);
+        }
+        if (fx > 0.0) == (fa > 0.0) {
+            a = x;
+            fa = fx;
+            true_fa = fx;
+            if replaced == -1 {
+                fb *= 0.5;
+            }
+            replaced = -1;
+        } else {
+            b = x;
+            fb = fx;
+            true_fb = fx;
+            if replaced == 1 {
+                fa *= 0.5;
+            }
+            replaced = 1;
+        }
+    }
+    Err(Error::NoConvergence { solver, iterations: settings.max_iterations })
+}
+
+/// A property of the air that falls strictly with altitude in every hydrostatic model,
+/// for [`altitude_of`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum Property {
+    /// Pressure, Pa.
+    Pressure,
+    /// Density, kg/m^3.
+    Density,
+    /// Number density, 1/m^3.
+    NumberDensity,
+}
+
+impl Property {
+    /// The property's value for `air`.
+    pub fn of(self, air: &Air) -> f64 {
+        match self {
+            Property::Pressure => air.pressure_pa(),
+            Property::Density => air.density_kg_m3(),
+            Property::NumberDensity => air.number_density_m3(),
+        }
+    }
+
+    /// The property's name, as error messages give it.
+    pub fn name(self) -> &'static str {
+        match self {
+            Property::Pressure => "pressure",
+            Property::Density => "density",
+            Property::NumberDensity => "number density",
+        }
+    }
+
+    /// The property's SI unit.
+    pub fn unit(self) -> &'static str {
+        match self {
+            Property::Pressure => "Pa",
+            Property::Density => "kg/m^3",
+            Property::NumberDensity => "1/m^3",
+        }
+    }
+}
+
+/// The geometric altitude where `property` of `atmosphere` equals `value`, with the
+/// default settings ([`SolverSettings::ALTITUDE`]).
+///
+/// Solved for ln(property) (nearly linear in altitude, so the solver converges in a few
+/// steps) over the model's whole [`Atmosphere::range`], so it serves any model, including
+/// parts added later (such as the standard above 86 km).
+///
+/// ```
+/// use aerostrata::inverse::{altitude_of, Property};
+/// use aerostrata::{Altitude, Atmosphere, Isothermal};
+/// // An invented isothermal planet-side profile; its density at 12 km, found again.
+/// let air = Isothermal::new(250.0, 95_000.0)?;
+/// let rho = air.density_kg_m3(Altitude::geometric_m(12_000.0)?)?;
+/// let z = altitude_of(&air, Property::Density, rho)?;
+/// assert!((z.meters() - 12_000.0).abs() < 1e-6);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// [`Error::NotFinite`] or [`Error::NotPositive`] for a value that is not finite and
+/// positive; [`Error::OutOfRange`] naming the property and the values it takes at the
+/// ends of the model's range when `value` lies outside them; the model's own errors.
+pub fn altitude_of<A: Atmosphere + ?Sized>(
+    atmosphere: &A,
+    property: Property,
+    value: f64,
+) -> Result<GeometricAltitude> {
+    altitude_of_with(atmosphere, property, value, &SolverSettings::ALTITUDE)
+}
+
+/// As [`altitude_of`] with explicit solver settings.
+///
+/// # Errors
+/// As [`altitude_of`], and [`Error::NoConvergence`] when `settings` allow too few
+/// iterations for their tolerance.
+pub fn altitude_of_with<A: Atmosphere + ?Sized>(
+    atmosphere: &A,
+    property: Property,
+    value: f64,
+    settings: &SolverSettings,
+) -> Result<GeometricAltitude> {
+    let range = atmosphere.range();
+    altitude_of_between(atmosphere, property, value, range.geometric_min_m, range.geometric_max_m, settings)
+}
+
+/// As [`altitude_of_with`] between two geometric altitudes inside the model's range.
+fn altitude_of_between<A: Atmosphere + ?Sized>(
+    atmosphere: &A,
+    property: Property,
+    value: f64,
+    lo_m: f64,
+    hi_m: f64,
+    settings: &SolverSettings,
+) -> Result<GeometricAltitude> {
+    let settings = settings.checked()?;
+    let value = positive(property.name(), property.unit(), value)?;
+    let at = |z: f64| -> Result<f64> { Ok(property.of(&atmosphere.air(Altitude::geometric_m(z)?)?)) };
+    let (v_lo, v_hi) = (at(lo_m)?, at(hi_m)?);
+    let (min, max) = (v_lo.min(v_hi), v_lo.max(v_hi));
+    within(property.name(), property.unit(), value, min, max)?;
+    let target = ln(value);
+    let residual = |z: f64| -> Result<f64> { Ok(ln(at(z)?) - target) };
+    let z = solve_bracketed(
+        "altitude solver",
+        residual,
+        lo_m,
+        hi_m,
+        ln(v_lo) - target,
+        ln(v_hi) - target,
+        &settings,
+    )?;
+    GeometricAltitude::new(z)
+}
+
+/// The geometric altitude where an arbitrary property of the air, `property`, equals
+/// `value`, searched over the model's whole range with the bracketed solver.
+///
+/// `quantity` and `unit` name the property in errors. For a property that is monotone
+/// in altitude the answer is unique; for any other, the solver returns one altitude where
+/// the property takes the value, provided the values at the two ends of the range bracket
+/// it (not necessarily the lowest such altitude).
+///
+/// # Errors
+/// [`Error::NotFinite`] for a value or a property value that is not finite;
+/// [`Error::OutOfRange`] naming `quantity` and the values at the ends of the range when
+/// they do not bracket `value`; [`Error::NoConvergence`] as for [`altitude_of_with`]; the
+/// model's own errors.
+pub fn altitude_where<A, F>(
+    atmosphere: &A,
+    quantity: &'static str,
+    unit: &'static str,
+    property: F,
+    value: f64,
+    settings: &SolverSettings,
+) -> Result<GeometricAltitude>
+where
+    A: Atmosphere + ?Sized,
+    F: Fn(&Air) -> f64,
+{
+    let settings = settings.checked()?;
+    let value = finite(quantity, value)?;
+    let range = atmosphere.range();
+    let at =
+        |z: f64| -> Result<f64> { finite(quantity, property(&atmosphere.air(Altitude::geometric_m(z)?)?)) };
+    let (lo, hi) = (range.geometric_min_m, range.geometric_max_m);
+    let (v_lo, v_hi) = (at(lo)?, at(hi)?);
+    within(quantity, unit, value, v_lo.min(v_hi), v_lo.max(v_hi))?;
+    let residual = |z: f64| -> Result<f64> { Ok(at(z)? - value) };
+    let z = solve_bracketed("altitude solver", residual, lo, hi, v_lo - value, v_hi - value, &settings)?;
+    GeometricAltitude::new(z)
+}
+
+/// The band of the closed forms: the lower 1976 standard, -5 km to 86 km geometric.
+const LOWER: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
+
+/// The standard's layer that holds `value` of a property falling with altitude, given the
+/// property's value at each layer base (`base_value`); the first layer also serves below
+/// its base (the range below sea level).
+fn layer_holding(value: f64, base_value: impl Fn(&Layer) -> f64) -> &'static Layer {
+    let layers = US1976.layers();
+    let index = layers.partition_point(|layer| base_value(layer) >= value);
+    &layers[index.saturating_sub(1)]
+}
+
+/// Geopotential altitude in `layer` where the pressure is `pressure_pa`.
+///
+/// ```text
+/// H = Hb + (Tb / L) ((p / pb)^(-L R* / (g0 M0)) - 1)     L != 0
+/// H = Hb - (R* Tb / (g0 M0)) ln(p / pb)                  L == 0
+/// ```
+fn layer_altitude_from_pressure(layer: &Layer, pressure_pa: f64) -> f64 {
+    let log_ratio = ln(pressure_pa / layer.base_pressure_pa);
+    if layer.lapse_rate_k_m == 0.0 {
+        layer.base_geopotential_m - layer.base_temperature_k / GMR_K_M * log_ratio
+    } else {
+        let lapse = layer.lapse_rate_k_m;
+        layer.base_geopotential_m + layer.base_temperature_k / lapse * exp_m1(-lapse / GMR_K_M * log_ratio)
+    }
+}
+
+/// Density at a layer's base, kg/m^3 (dry air of sea-level composition, T = T_M).
+fn base_density(layer: &Layer) -> f64 {
+    layer.base_pressure_pa * SEA_LEVEL_MOLAR_MASS_KG_KMOL / (GAS_CONSTANT_J_KMOL_K * layer.base_temperature_k)
+}
+
+/// Geopotential altitude in `layer` where the density is `density_kg_m3`.
+///
+/// ```text
+/// H = Hb + (Tb / L) ((rho / rhob)^(-1 / (1 + g0 M0 / (R* L))) - 1)   L != 0
+/// H = Hb - (R* Tb / (g0 M0)) ln(rho / rhob)                          L == 0
+/// ```
+fn layer_altitude_from_density(layer: &Layer, density_kg_m3: f64) -> f64 {
+    let log_ratio = ln(density_kg_m3 / base_density(layer));
+    if layer.lapse_rate_k_m == 0.0 {
+        layer.base_geopotential_m - layer.base_temperature_k / GMR_K_M * log_ratio
+    } else {
+        let lapse = layer.lapse_rate_k_m;
+        let exponent = -1.0 / (1.0 + GMR_K_M / lapse);
+        layer.base_geopotential_m + layer.base_temperature_k / lapse * exp_m1(exponent * log_ratio)
+    }
+}
+
+/// A property of the standard at a geometric altitude (the band ends, for errors).
+fn standard_property_at(property: Property, z_m: f64) -> Result<f64> {
+    Ok(property.of(&US1976.air(Altitude::geometric_m(z_m)?)?))
+}
+
+/// The closed form of the lower standard for `property`, or the solver above 86 km.
+fn standard_inverse(
+    property: Property,
+    value: f64,
+    base_value: impl Fn(&Layer) -> f64,
+    in_layer: impl Fn(&Layer, f64) -> f64,
+) -> Result<GeopotentialAltitude> {
+    let value = positive(property.name(), property.unit(), value)?;
+    let h = in_layer(layer_holding(value, base_value), value);
+    let range = US1976.range();
+    let out_of_range = || -> Result<GeopotentialAltitude> {
+        let min = standard_property_at(property, range.geometric_max_m)?;
+        let max = standard_property_at(property, range.geometric_min_m)?;
+        within(property.name(), property.unit(), value, min, max)?;
+        // Inside by a rounding hair: the nearer end of the band.
+        GeopotentialAltitude::new(if value >= max {
+            LOWER.geopotential_min_m
+        } else {
+            LOWER.geopotential_max_m
+        })
+    };
+    if h < LOWER.geopotential_min_m {
+        return out_of_range();
+    }
+    if h <= LOWER.geopotential_max_m {
+        return GeopotentialAltitude::new(h);
+    }
+    if range.geometric_max_m <= LOWER.geometric_max_m {
+        return out_of_range();
+    }
+    // Above the lower standard: the model's upper part, solved.
+    let top = standard_property_at(property, range.geometric_max_m)?;
+    if value < top {
+        return out_of_range();
+    }
+    let z = altitude_of_between(
+        &US1976,
+        property,
+        value,
+        LOWER.geometric_max_m,
+        range.geometric_max_m,
+        &SolverSettings::ALTITUDE,
+    )?;
+    Ok(z.to_geopotential())
+}
+
+/// Pressure altitude: the geopotential altitude at which the U.S. Standard Atmosphere
+/// 1976 has the pressure `pressure_pa`.
+///
+/// This is what an altimeter set to 1013.25 hPa indicates: the standard's altitude for
+/// the measured static pressure, in geopotential metres (the altitude the standard's
+/// tables, and flight levels, are given in). Closed form per layer from -5 km to 86 km
+/// geometric, including below sea level (the first layer carried down); above 86 km, where
+/// the model provides it, the bracketed solver.
+///
+/// ```text
+/// H = Hb + (Tb / L) ((p / pb)^(-L R* / (g0 M0)) - 1)     L != 0
+/// H = Hb - (R* Tb / (g0 M0)) ln(p / pb)                  L == 0
+/// ```
+/// Source: the layer equations of U.S. Standard Atmosphere 1976, Part 1, solved for H.
+///
+/// ```
+/// use aerostrata::inverse::pressure_altitude;
+/// // The standard's tropopause: 22 632.06 Pa at 11 000 m' (U.S. Standard Atmosphere
+/// // 1976, Table 4; from memory of the printed table, 7 digits).
+/// let h = pressure_altitude(22_632.06)?;
+/// assert!((h.meters() - 11_000.0).abs() < 0.01);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// [`Error::NotFinite`] or [`Error::NotPositive`] for a pressure that is not finite and
+/// positive; [`Error::OutOfRange`] naming the pressures at the top and the bottom of the
+/// standard's range when the pressure lies outside them.
+pub fn pressure_altitude(pressure_pa: f64) -> Result<GeopotentialAltitude> {
+    standard_inverse(Property::Pressure, pressure_pa, |l| l.base_pressure_pa, layer_altitude_from_pressure)
+}
+
+/// Density altitude: the geopotential altitude at which the U.S. Standard Atmosphere
+/// 1976 has the density `density_kg_m3`.
+///
+/// Closed form per layer from -5 km to 86 km geometric (the density of a layer is a power
+/// of its temperature, rho = rhob (T/Tb)^(-(1 + g0 M0/(R* L)))), the solver above.
+///
+/// ```text
+/// H = Hb + (Tb / L) ((rho / rhob)^(-1 / (1 + g0 M0 / (R* L))) - 1)   L != 0
+/// H = Hb - (R* Tb / (g0 M0)) ln(rho / rhob)                          L == 0
+/// ```
+/// Source: the layer equations of U.S. Standard Atmosphere 1976, Part 1, with the gas
+/// law, solved for H.
+///
+/// ```
+/// use aerostrata::inverse::density_altitude;
+/// // 1.2250 kg/m^3 is standard sea level (the standard's Table I, 5 digits).
+/// let h = density_altitude(1.2250)?;
+/// assert!(h.meters().abs() < 0.5);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// As [`pressure_altitude`], for density.
+pub fn density_altitude(density_kg_m3: f64) -> Result<GeopotentialAltitude> {
+    standard_inverse(Property::Density, density_kg_m3, base_density, layer_altitude_from_density)
+}
+
+/// Density altitude from a measured static pressure `pressure_pa` and outside air
+/// temperature `temperature_k`: the standard's altitude of the dry-air density
+/// rho = p M0 / (R* T). Humidity, which lowers the density a little, is not included.
+///
+/// ```
+/// use aerostrata::inverse::{density_altitude_from, pressure_altitude};
+/// // A hot day at a field at standard sea-level pressure (invented): ISA + 20 K puts the
+/// // density altitude 693.5136 m above the pressure altitude (computed with mpmath from
+/// // the layer equation: H = (T0/L) ((T0/T)^(-1/(1 + g0 M0/(R* L))) - 1)).
+/// let h = density_altitude_from(101_325.0, 308.15)?;
+/// assert!((h.meters() - 693.5136).abs() < 1e-4);
+/// assert_eq!(pressure_altitude(101_325.0)?.meters(), 0.0);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// As [`crate::Air::standard_composition`] for the pressure and temperature, and as
+/// [`density_altitude`].
+pub fn density_altitude_from(pressure_pa: f64, temperature_k: f64) -> Result<GeopotentialAltitude> {
+    density_altitude(Air::standard_composition(temperature_k, pressure_pa)?.density_kg_m3())
+}
+
+/// What a barometric altitude is measured from.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub enum BarometricReference {
+    /// The standard's sea level, 101 325 Pa: the result is the pressure altitude (an
+    /// altimeter set to 1013.25 hPa; flight levels).
+    StandardSeaLevel,
+    /// An altimeter setting (QNH), Pa: the result is the altitude above mean sea level
+    /// an altimeter set to it indicates (field elevation on the ground at that field).
+    Qnh {
+        /// The setting, Pa (1013.25 hPa is 101 325 Pa).
+        setting_pa: f64,
+    },
+    /// The pad's own static pressure at launch, Pa: the result is the height above the
+    /// pad, the way rocketry flight computers zero themselves on the pad.
+    Pad {
+        /// The pressure measured on the pad before launch, Pa.
+        pressure_pa: f64,
+    },
+}
+
+/// Barometric altitude, m: the pressure altitude of `pressure_pa` minus the pressure
+/// altitude of the reference pressure.
+///
+/// ```text
+/// h = Hp(p) - Hp(p_ref)      Hp = pressure_altitude, p_ref = 101 325 Pa, QNH or pad
+/// ```
+/// Convention (common practice, no source): the altimeter's scale is the standard
+/// atmosphere's pressure-altitude curve, and the reference setting shifts that curve so
+/// that the reference pressure reads zero (pad) or the field's elevation (QNH). The
+/// result is in the standard's geopotential metres; on a day that is not standard it
+/// differs from the true height by the usual altimeter temperature error (about 4 % per
+/// 10 K of deviation), which this function does not correct.
+///
+/// ```
+/// use aerostrata::inverse::{barometric_altitude_m, BarometricReference};
+/// // A pad at 98 000 Pa (invented): the pad itself reads 0 above the pad.
+/// let pad = BarometricReference::Pad { pressure_pa: 98_000.0 };
+/// assert_eq!(barometric_altitude_m(98_000.0, pad)?, 0.0);
+/// // With QNH 1013.25 hPa the altimeter reads the pressure altitude.
+/// let qnh = BarometricReference::Qnh { setting_pa: 101_325.0 };
+/// let standard = barometric_altitude_m(90_000.0, BarometricReference::StandardSeaLevel)?;
+/// assert_eq!(barometric_altitude_m(90_000.0, qnh)?, standard);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// As [`pressure_altitude`] for `pressure_pa`; [`Error::NotFinite`] or
+/// [`Error::OutOfRange`] for a QNH setting or pad pressure outside the pressures of the
+/// lower standard (its values at 86 km and at -5 km).
+pub fn barometric_altitude_m(pressure_pa: f64, reference: BarometricReference) -> Result<f64> {
+    let reference_m = match reference {
+        BarometricReference::StandardSeaLevel => 0.0,
+        BarometricReference::Qnh { setting_pa } => reference_altitude("QNH setting", setting_pa)?,
+        BarometricReference::Pad { pressure_pa } => reference_altitude("pad pressure", pressure_pa)?,
+    };
+    Ok(pressure_altitude(pressure_pa)?.meters() - reference_m)
+}
+
+/// The pressure altitude of a reference pressure, which must lie in the lower standard.
+fn reference_altitude(quantity: &'static str, pressure_pa: f64) -> Result<f64> {
+    let pressure_pa = finite(quantity, pressure_pa)?;
+    let min = standard_property_at(Property::Pressure, LOWER.geometric_max_m)?;
+    let max = standard_property_at(Property::Pressure, LOWER.geometric_min_m)?;
+    within(quantity, "Pa", pressure_pa, min, max)?;
+    Ok(pressure_altitude(pressure_pa)?.meters())
+}
