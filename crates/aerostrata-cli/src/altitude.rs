@@ -51,8 +51,6 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     if args.temperature.is_some() {
         header.push("density_altitude_m");
     }
-    let mut out = BufWriter::new(io::stdout().lock());
-    writeln!(out, "{}", header.join(","))?;
     let row = |pressure: f64| -> Result<String, String> {
         let h = pressure_altitude(pressure).map_err(|e| e.to_string())?;
         let mut cells = vec![exact(pressure), exact(h.meters()), exact(h.to_geometric().meters())];
@@ -65,8 +63,12 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
         }
         Ok(cells.join(","))
     };
-    if let Some(pressure) = args.pressure {
-        let line = row(pressure).map_err(|m| Failure::Input(format!("--pressure: {m}")))?;
+    // A single pressure is checked before anything is written, so a bad one leaves stdout empty.
+    let single =
+        args.pressure.map(|p| row(p).map_err(|m| Failure::Input(format!("--pressure: {m}")))).transpose()?;
+    let mut out = BufWriter::new(io::stdout().lock());
+    writeln!(out, "{}", header.join(","))?;
+    if let Some(line) = single {
         writeln!(out, "{line}")?;
     } else if let Some(path) = &args.file {
         let input: Box<dyn BufRead> = if path.as_os_str() == "-" {
