@@ -10,8 +10,8 @@ use core::f64::consts::{LN_10, PI, SQRT_2};
 
 use crate::constants::{
     AVOGADRO_PER_KMOL, BOLTZMANN_J_K, COLLISION_DIAMETER_M, CONDUCTIVITY_COEFFICIENT,
-    CONDUCTIVITY_EXPONENT_K, CONDUCTIVITY_TEMPERATURE_K, GAMMA, GAS_CONSTANT_J_KMOL_K,
-    SEA_LEVEL_MOLAR_MASS_KG_KMOL, SUTHERLAND_BETA, SUTHERLAND_S_K,
+    CONDUCTIVITY_EXPONENT_K, CONDUCTIVITY_TEMPERATURE_K, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL,
+    SUTHERLAND_BETA, SUTHERLAND_S_K,
 };
 use crate::error::{positive, within, Result};
 
@@ -206,6 +206,12 @@ impl Air {
         1.0 / self.molar_mass_kg_kmol
     }
 
+    /// sqrt(T / M), shared by the speed of sound and the mean particle speed.
+    #[inline]
+    fn root_t_over_m(&self) -> f64 {
+        sqrt(self.temperature_k * self.per_molar_mass())
+    }
+
     /// Density, kg/m^3: rho = p M / (R* T) for [`Air::new`], as given for
     /// [`Air::from_number_density`].
     ///
@@ -243,8 +249,7 @@ impl Air {
     /// ```
     #[inline]
     pub fn speed_of_sound_m_s(&self) -> Option<f64> {
-        self.continuum
-            .then(|| sqrt(GAMMA * GAS_CONSTANT_J_KMOL_K * self.temperature_k * self.per_molar_mass()))
+        self.continuum.then(|| SQRT_GAMMA_R * self.root_t_over_m())
     }
 
     /// Dynamic viscosity by Sutherland's law, Pa s, or `None` for rarefied air.
@@ -274,7 +279,7 @@ impl Air {
     /// ```
     #[inline]
     pub fn mean_particle_speed_m_s(&self) -> f64 {
-        sqrt(8.0 * GAS_CONSTANT_J_KMOL_K / PI * self.temperature_k * self.per_molar_mass())
+        SQRT_8R_OVER_PI * self.root_t_over_m()
     }
 
     /// Mean free path, m.
@@ -297,6 +302,12 @@ impl Air {
         GAS_CONSTANT_J_KMOL_K * self.temperature_k * self.per_molar_mass() / gravity_m_s2
     }
 }
+
+/// sqrt(gamma R*), (J/(kmol K))^1/2: the speed of sound over sqrt(T / M). The value is
+/// `sqrt(1.4 * 8314.32)` rounded to f64 (a unit test holds it to libm's square root).
+const SQRT_GAMMA_R: f64 = 107.889_054_125_059_42;
+/// sqrt(8 R* / pi): the mean particle speed over sqrt(T / M); `sqrt(8 * 8314.32 / pi)`.
+const SQRT_8R_OVER_PI: f64 = 145.506_845_279_405_72;
 
 /// 1 / (sqrt(2) pi sigma^2), 1/m^2: the mean free path times number density.
 const FREE_PATH_NUMERATOR_M2: f64 = 1.0 / (SQRT_2 * PI * COLLISION_DIAMETER_M * COLLISION_DIAMETER_M);
@@ -343,5 +354,17 @@ impl TryFrom<AirParameters> for Air {
         } else {
             Self::from_number_density(p.temperature_k, p.number_density_m3, p.density_kg_m3)
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::constants::GAMMA;
+
+    #[test]
+    fn square_root_constants_are_the_rounded_roots() {
+        assert_eq!(SQRT_GAMMA_R, libm::sqrt(GAMMA * GAS_CONSTANT_J_KMOL_K));
+        assert_eq!(SQRT_8R_OVER_PI, libm::sqrt(8.0 * GAS_CONSTANT_J_KMOL_K / PI));
     }
 }

@@ -29,7 +29,7 @@
 
 use aerostrata::constants::{G0_M_S2, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use aerostrata::humidity::{self, saturation_vapour_pressure_pa};
-use aerostrata::model::sounding_io::{parse_csv, rows_to_csv, to_csv};
+use aerostrata::model::sounding_io::{parse_csv, rows_to_csv};
 use aerostrata::{
     Air, Altitude, AltitudeKind, Atmosphere, Error, Exponential, GeopotentialAltitude, Isothermal, LayerSpec,
     Layered, OutsideTable, SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, US1976,
@@ -274,7 +274,7 @@ fn json_round_trip_gives_the_same_table() {
         assert_eq!(back.moist_state(alt).unwrap(), table.moist_state(alt).unwrap(), "at {z} m");
     }
     // And the CSV writer writes the same rows.
-    assert_eq!(parse_csv(&to_csv(&table)).unwrap().levels(), table.levels());
+    assert_eq!(parse_csv(&aerostrata::model::sounding_io::to_csv(&table)).unwrap().levels(), table.levels());
 }
 
 #[cfg(feature = "serde")]
