@@ -50,7 +50,8 @@ pub trait Atmosphere {
     /// # Errors
     /// As [`Atmosphere::air`].
     fn state(&self, altitude: Altitude) -> Result<State> {
-        Ok(State::new(altitude, self.air(altitude)?))
+        // `map`, not `Ok(..?)`: the state is built in place instead of copied (measured).
+        self.air(altitude).map(|air| State::new(altitude, air))
     }
 
     /// Density at `altitude`, kg/m^3, without the rest of the state.
