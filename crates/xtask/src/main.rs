@@ -5,10 +5,13 @@
 //! cargo xtask validate [--check] write docs/validation.md (or fail if it is stale)
 //! cargo xtask upper-table [--check] regenerate the 86-1000 km table (or fail if stale)
 //! cargo xtask flash             the upper-atmosphere table's flash cost on Cortex-M4F
+//! cargo xtask header [--check]  regenerate bindings/c/include/aerostrata.h (or fail if stale)
+//! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! ```
 
 mod bench;
+mod c;
 mod flash;
 mod setup;
 mod test;
@@ -29,7 +32,9 @@ fn main() -> ExitCode {
             Some("bench") => bench::run(&root),
             Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
             Some("flash") => flash::check(&root, &[], &[]),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | bench"
+        Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
+        Some("c-test") => c::test(&root),
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | bench"
                 .to_owned()),
         };
     match result {

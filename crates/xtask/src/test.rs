@@ -67,6 +67,8 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::validate::run(root, true),
     );
 
+    step("C header is fresh (cargo xtask header --check)", crate::c::header(root, true));
+    step("C library: C99 static/shared, C++17 header, ASan+UBSan, Valgrind, ctypes", crate::c::test(root));
     let failed_count = failed.len();
     eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
     println!("{passed} passed, {failed_count} failed");

@@ -1,0 +1,374 @@
+//! Drag-coefficient curves as opaque handles, and the flight scan over arrays.
+
+use aerostrata_core::flight::{samples_from_slices, FlightPoint, FlightScan, FlightSummary};
+use aerostrata_core::{DragCurve, Interpolation, Vehicle};
+
+use crate::error::{guard, require, AerostrataStatus, Failure};
+use crate::model::model_ref;
+use crate::{slice, slice_mut, write, AerostrataModel};
+
+/// `interpolation` value: straight lines between the table's points.
+pub const AEROSTRATA_LINEAR: u32 = 0;
+/// `interpolation` value: a monotone cubic that never overshoots the points.
+pub const AEROSTRATA_MONOTONE_CUBIC: u32 = 1;
+
+enum Curve {
+    Constant(f64),
+    Table { mach: Vec<f64>, cd: Vec<f64>, interpolation: Interpolation },
+}
+
+/// A drag coefficient as a function of Mach number: a constant or a table. Opaque; made
+/// by `aerostrata_drag_curve_new_constant` or `aerostrata_drag_curve_new_table`,
+/// released with `aerostrata_drag_curve_free`.
+///
+/// A curve never changes after it is made, so it may be used from any number of threads
+/// at once; it must not be used during or after `aerostrata_drag_curve_free`.
+pub struct AerostrataDragCurve {
+    curve: Curve,
+}
+
+impl AerostrataDragCurve {
+    fn get(&self) -> Result<DragCurve<'_>, Failure> {
+        Ok(match &self.curve {
+            Curve::Constant(cd) => DragCurve::constant(*cd)?,
+            Curve::Table { mach, cd, interpolation } => DragCurve::table(mach, cd, *interpolation)?,
+        })
+    }
+}
+
+fn publish(curve: Curve, out: *mut *mut AerostrataDragCurve) -> Result<(), Failure> {
+    let handle = AerostrataDragCurve { curve };
+    handle.get()?; // validated before anything is written
+    write(out, Box::into_raw(Box::new(handle)));
+    Ok(())
+}
+
+/// Makes a Mach-independent drag coefficient `drag_coefficient` (above 0, at most 100).
+///
+/// On success writes a new curve to `*out`; the caller owns it and releases it with
+/// `aerostrata_drag_curve_free`. On failure `*out` is unchanged.
+///
+/// Errors: NOT_FINITE, RATIO_NOT_POSITIVE, RATIO_OUT_OF_RANGE; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_drag_curve_new_constant(
+    drag_coefficient: f64,
+    out: *mut *mut AerostrataDragCurve,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        publish(Curve::Constant(drag_coefficient), out)
+    })
+}
+
+/// Makes a table of `count` drag coefficients `cd` at Mach numbers `mach` (strictly
+/// increasing, 0 to 1000), read by `interpolation` (`AEROSTRATA_LINEAR` or
+/// `AEROSTRATA_MONOTONE_CUBIC`); the end values are held outside the table.
+///
+/// Both arrays are copied: the caller may free or change them as soon as this returns.
+/// Ownership of the curve as `aerostrata_drag_curve_new_constant`.
+///
+/// Errors: INVALID_POINT (the detail's `index` names the point) for fewer than 2
+/// points, a NaN, a Mach number out of order or range, or a Cd not in (0, 100];
+/// INVALID_ARGUMENT for an unknown interpolation; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
+    mach: *const f64,
+    cd: *const f64,
+    count: usize,
+    interpolation: u32,
+    out: *mut *mut AerostrataDragCurve,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let interpolation = match interpolation {
+            AEROSTRATA_LINEAR => Interpolation::Linear,
+            AEROSTRATA_MONOTONE_CUBIC => Interpolation::MonotoneCubic,
+            other => {
+                return Err(Failure::invalid_argument(
+                    "interpolation",
+                    "must be AEROSTRATA_LINEAR (0) or AEROSTRATA_MONOTONE_CUBIC (1)",
+                    f64::from(other),
+                ))
+            }
+        };
+        let mach = slice("mach", mach, count)?.to_vec();
+        let cd = slice("cd", cd, count)?.to_vec();
+        publish(Curve::Table { mach, cd, interpolation }, out)
+    })
+}
+
+/// Releases a curve. NULL is accepted and does nothing. The curve must not be used
+/// afterwards, nor freed twice, nor be in use by another thread.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_drag_curve_free(curve: *mut AerostrataDragCurve) {
+    if !curve.is_null() {
+        let _ = std::panic::catch_unwind(|| {
+            // SAFETY: made by Box::into_raw in `publish` and released once (the caller's
+            // contract).
+            drop(unsafe { Box::from_raw(curve) });
+        });
+    }
+}
+
+fn curve_ref<'a>(curve: *const AerostrataDragCurve) -> Result<&'a AerostrataDragCurve, Failure> {
+    require("curve", curve)?;
+    // SAFETY: non-NULL and a live handle (the caller's contract).
+    Ok(unsafe { &*curve })
+}
+
+/// The drag coefficient of `curve` at Mach `mach`, written to `*out`.
+///
+/// Errors: NOT_FINITE, RATIO_OUT_OF_RANGE (Mach 0 to 1000); NULL_POINTER. Thread-safe
+/// for a shared curve.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_drag_curve_cd(
+    curve: *const AerostrataDragCurve,
+    mach: f64,
+    out: *mut f64,
+) -> AerostrataStatus {
+    guard(|| {
+        let c = curve_ref(curve)?;
+        require("out", out)?;
+        let cd = c.get()?.cd(mach)?;
+        write(out, cd);
+        Ok(())
+    })
+}
+
+/// `AerostrataFlightPoint::defined` bit: `speed_of_sound_m_s` and `mach` are set.
+pub const AEROSTRATA_POINT_MACH: u32 = 1;
+/// `AerostrataFlightPoint::defined` bit: `reynolds_per_m` is set.
+pub const AEROSTRATA_POINT_REYNOLDS_PER_M: u32 = 2;
+/// `AerostrataFlightPoint::defined` bit: `reynolds_number` is set.
+pub const AEROSTRATA_POINT_REYNOLDS_NUMBER: u32 = 4;
+/// `AerostrataFlightPoint::defined` bit: `drag_coefficient` and `drag_n` are set.
+pub const AEROSTRATA_POINT_DRAG: u32 = 8;
+
+/// The values at one sample of a flight. A field that is not defined at the sample (no
+/// speed of sound above 86 km, no drag without a drag curve, no Reynolds number without
+/// a reference length) is NaN, with its bit clear in `defined`.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataFlightPoint {
+    /// Time, s.
+    pub time_s: f64,
+    /// Geometric altitude, m.
+    pub altitude_m: f64,
+    /// Velocity as given, m/s.
+    pub velocity_m_s: f64,
+    /// Density, kg/m^3.
+    pub density_kg_m3: f64,
+    /// Static pressure, Pa.
+    pub pressure_pa: f64,
+    /// Kinetic temperature, K.
+    pub temperature_k: f64,
+    /// Speed of sound, m/s.
+    pub speed_of_sound_m_s: f64,
+    /// Mach number.
+    pub mach: f64,
+    /// Dynamic pressure, Pa.
+    pub dynamic_pressure_pa: f64,
+    /// Unit Reynolds number, 1/m.
+    pub reynolds_per_m: f64,
+    /// Reynolds number for the reference length.
+    pub reynolds_number: f64,
+    /// Drag coefficient at this Mach number.
+    pub drag_coefficient: f64,
+    /// Drag, N.
+    pub drag_n: f64,
+    /// `AEROSTRATA_POINT_*` bits of the fields that are set.
+    pub defined: u32,
+}
+
+impl From<&FlightPoint> for AerostrataFlightPoint {
+    fn from(p: &FlightPoint) -> Self {
+        let nan = |v: Option<f64>| v.unwrap_or(f64::NAN);
+        let mut defined = 0;
+        if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
+            defined |= AEROSTRATA_POINT_MACH;
+        }
+        if p.reynolds_per_m.is_some() {
+            defined |= AEROSTRATA_POINT_REYNOLDS_PER_M;
+        }
+        if p.reynolds_number.is_some() {
+            defined |= AEROSTRATA_POINT_REYNOLDS_NUMBER;
+        }
+        if p.drag_coefficient.is_some() && p.drag_n.is_some() {
+            defined |= AEROSTRATA_POINT_DRAG;
+        }
+        Self {
+            time_s: p.time_s,
+            altitude_m: p.altitude_m,
+            velocity_m_s: p.velocity_m_s,
+            density_kg_m3: p.density_kg_m3,
+            pressure_pa: p.pressure_pa,
+            temperature_k: p.temperature_k,
+            speed_of_sound_m_s: nan(p.speed_of_sound_m_s),
+            mach: nan(p.mach),
+            dynamic_pressure_pa: p.dynamic_pressure_pa,
+            reynolds_per_m: nan(p.reynolds_per_m),
+            reynolds_number: nan(p.reynolds_number),
+            drag_coefficient: nan(p.drag_coefficient),
+            drag_n: nan(p.drag_n),
+            defined,
+        }
+    }
+}
+
+/// The summary of a flight. Each `has_*` flag is 1 when its group of fields is set; the
+/// fields of an unset group are NaN (and their `*_sample_index` 0). Times of Mach 1
+/// crossings are interpolated between samples; NaN when `count` is 0.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataFlightSummary {
+    /// Samples scanned.
+    pub samples: u64,
+    /// 1 when the `max_q_*` fields are set (at least one sample).
+    pub has_max_q: u32,
+    /// 1 when the maximum was refined between samples (a parabola through three
+    /// samples), 0 when it is a sample's own value.
+    pub max_q_refined: u32,
+    /// Maximum dynamic pressure, Pa.
+    pub max_q_pa: f64,
+    /// Its time, s.
+    pub max_q_time_s: f64,
+    /// Its geometric altitude, m.
+    pub max_q_altitude_m: f64,
+    /// Its velocity, m/s.
+    pub max_q_velocity_m_s: f64,
+    /// Its Mach number (NaN where undefined).
+    pub max_q_mach: f64,
+    /// The index of the largest sample.
+    pub max_q_sample_index: u64,
+    /// 1 when the `max_mach*` fields are set.
+    pub has_max_mach: u32,
+    /// 1 when the `max_drag*` fields are set (a drag curve was given).
+    pub has_max_drag: u32,
+    /// Maximum Mach number.
+    pub max_mach: f64,
+    /// Its time, s.
+    pub max_mach_time_s: f64,
+    /// Its geometric altitude, m.
+    pub max_mach_altitude_m: f64,
+    /// Its sample index.
+    pub max_mach_sample_index: u64,
+    /// Maximum drag, N.
+    pub max_drag_n: f64,
+    /// Its time, s.
+    pub max_drag_time_s: f64,
+    /// Its geometric altitude, m.
+    pub max_drag_altitude_m: f64,
+    /// Its sample index.
+    pub max_drag_sample_index: u64,
+    /// Crossings from below Mach 1 to Mach 1 or above.
+    pub mach_one_up_count: u32,
+    /// Crossings from Mach 1 or above to below Mach 1.
+    pub mach_one_down_count: u32,
+    /// Time of the first upward crossing, s.
+    pub mach_one_up_first_time_s: f64,
+    /// Time of the last upward crossing, s.
+    pub mach_one_up_last_time_s: f64,
+    /// Time of the first downward crossing, s.
+    pub mach_one_down_first_time_s: f64,
+    /// Time of the last downward crossing, s.
+    pub mach_one_down_last_time_s: f64,
+}
+
+impl From<&FlightSummary> for AerostrataFlightSummary {
+    fn from(s: &FlightSummary) -> Self {
+        let nan = f64::NAN;
+        let index = |i: usize| u64::try_from(i).unwrap_or(u64::MAX);
+        let q = s.max_dynamic_pressure;
+        let m = s.max_mach;
+        let d = s.max_drag;
+        Self {
+            samples: index(s.samples),
+            has_max_q: u32::from(q.is_some()),
+            max_q_refined: u32::from(q.is_some_and(|q| q.refined)),
+            max_q_pa: q.map_or(nan, |q| q.dynamic_pressure_pa),
+            max_q_time_s: q.map_or(nan, |q| q.time_s),
+            max_q_altitude_m: q.map_or(nan, |q| q.altitude_m),
+            max_q_velocity_m_s: q.map_or(nan, |q| q.velocity_m_s),
+            max_q_mach: q.and_then(|q| q.mach).unwrap_or(nan),
+            max_q_sample_index: q.map_or(0, |q| index(q.sample_index)),
+            has_max_mach: u32::from(m.is_some()),
+            has_max_drag: u32::from(d.is_some()),
+            max_mach: m.map_or(nan, |e| e.value),
+            max_mach_time_s: m.map_or(nan, |e| e.time_s),
+            max_mach_altitude_m: m.map_or(nan, |e| e.altitude_m),
+            max_mach_sample_index: m.map_or(0, |e| index(e.sample_index)),
+            max_drag_n: d.map_or(nan, |e| e.value),
+            max_drag_time_s: d.map_or(nan, |e| e.time_s),
+            max_drag_altitude_m: d.map_or(nan, |e| e.altitude_m),
+            max_drag_sample_index: d.map_or(0, |e| index(e.sample_index)),
+            mach_one_up_count: s.mach_one_up.count,
+            mach_one_down_count: s.mach_one_down.count,
+            mach_one_up_first_time_s: s.mach_one_up.first_time_s.unwrap_or(nan),
+            mach_one_up_last_time_s: s.mach_one_up.last_time_s.unwrap_or(nan),
+            mach_one_down_first_time_s: s.mach_one_down.first_time_s.unwrap_or(nan),
+            mach_one_down_last_time_s: s.mach_one_down.last_time_s.unwrap_or(nan),
+        }
+    }
+}
+
+/// Scans a flight of `count` samples (`time_s[i]` strictly increasing, geometric
+/// `altitude_m[i]`, `velocity_m_s[i]` relative to the air, sign ignored) through
+/// `model`, writing each sample's values to `points[i]` (or nothing, if `points` is
+/// NULL) and the summary to `*summary`.
+///
+/// With a `drag` curve (NULL for none) drag is computed on the reference area
+/// `reference_area_m2`, and with a `reference_length_m` above 0 the Reynolds number too
+/// (0 for none); without a curve both numbers are ignored.
+///
+/// All or nothing: on failure neither `points` nor `*summary` is written and the
+/// detail's `index` names the first failing sample. The arrays are only read during the
+/// call. Errors: INVALID_POINT for a time not after the previous one; NOT_FINITE,
+/// OUT_OF_RANGE for a velocity or altitude; NOT_POSITIVE for a bad area or length; the
+/// model's errors; NULL_POINTER for a NULL model, summary, or a NULL array with `count`
+/// above 0. Thread-safe for shared model and curve.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_flight_scan(
+    model: *const AerostrataModel,
+    drag: *const AerostrataDragCurve,
+    reference_area_m2: f64,
+    reference_length_m: f64,
+    time_s: *const f64,
+    altitude_m: *const f64,
+    velocity_m_s: *const f64,
+    count: usize,
+    points: *mut AerostrataFlightPoint,
+    summary: *mut AerostrataFlightSummary,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        require("summary", summary)?;
+        let t = slice("time_s", time_s, count)?;
+        let z = slice("altitude_m", altitude_m, count)?;
+        let v = slice("velocity_m_s", velocity_m_s, count)?;
+        let curve = if drag.is_null() { None } else { Some(curve_ref(drag)?.get()?) };
+        let vehicle = match curve {
+            None => None,
+            Some(curve) => {
+                let vehicle = Vehicle::new(curve, reference_area_m2)?;
+                Some(if reference_length_m == 0.0 {
+                    vehicle
+                } else {
+                    vehicle.with_reference_length(reference_length_m)?
+                })
+            }
+        };
+        let mut scan = FlightScan::new(m, vehicle);
+        let mut computed = Vec::with_capacity(if points.is_null() { 0 } else { count });
+        for (i, sample) in samples_from_slices(t, z, v)?.enumerate() {
+            let point = scan.push(sample).map_err(|e| Failure::from(e).at_element(i))?;
+            if !points.is_null() {
+                computed.push(AerostrataFlightPoint::from(&point));
+            }
+        }
+        if !points.is_null() {
+            slice_mut("points", points, count)?.copy_from_slice(&computed);
+        }
+        write(summary, AerostrataFlightSummary::from(&scan.summary()));
+        Ok(())
+    })
+}

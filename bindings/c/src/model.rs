@@ -1,0 +1,623 @@
+//! Atmosphere models behind one opaque handle, and the full state as a C struct.
+
+use aerostrata_core::{
+    Air, Altitude, AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, LayerSpec, Layered,
+    SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, US1976,
+};
+
+use crate::error::{guard, require, AerostrataStatus, Failure};
+use crate::{slice, slice_mut, write};
+
+/// `altitude_kind` value: geometric altitude above mean sea level, m.
+pub const AEROSTRATA_GEOMETRIC: u32 = 0;
+/// `altitude_kind` value: geopotential altitude, geopotential m.
+pub const AEROSTRATA_GEOPOTENTIAL: u32 = 1;
+
+/// `AerostrataState::defined` bit: speed of sound, dynamic and kinematic viscosity and
+/// thermal conductivity are defined (the continuum properties; not above 86 km).
+pub const AEROSTRATA_DEFINED_CONTINUUM: u32 = 1;
+
+pub(crate) fn altitude(meters: f64, kind: u32) -> Result<Altitude, Failure> {
+    Ok(match kind {
+        AEROSTRATA_GEOMETRIC => Altitude::geometric_m(meters)?,
+        AEROSTRATA_GEOPOTENTIAL => Altitude::geopotential_m(meters)?,
+        other => {
+            return Err(Failure::invalid_argument(
+                "altitude_kind",
+                "must be AEROSTRATA_GEOMETRIC (0) or AEROSTRATA_GEOPOTENTIAL (1)",
+                f64::from(other),
+            ))
+        }
+    })
+}
+
+fn altitude_kind(kind: u32) -> Result<AltitudeKind, Failure> {
+    match kind {
+        AEROSTRATA_GEOMETRIC => Ok(AltitudeKind::Geometric),
+        AEROSTRATA_GEOPOTENTIAL => Ok(AltitudeKind::Geopotential),
+        other => Err(Failure::invalid_argument(
+            "altitude_kind",
+            "must be AEROSTRATA_GEOMETRIC (0) or AEROSTRATA_GEOPOTENTIAL (1)",
+            f64::from(other),
+        )),
+    }
+}
+
+/// The full state of the atmosphere at one altitude, SI units named in each field.
+///
+/// The four continuum properties (`speed_of_sound_m_s`, `dynamic_viscosity_pa_s`,
+/// `kinematic_viscosity_m2_s`, `thermal_conductivity_w_m_k`) are not defined in the
+/// free-molecular air above 86 km: there they are NaN and the bit
+/// `AEROSTRATA_DEFINED_CONTINUUM` of `defined` is clear. Every other field is always a
+/// finite number.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataState {
+    /// Geometric altitude, m.
+    pub geometric_altitude_m: f64,
+    /// Geopotential altitude, geopotential m.
+    pub geopotential_altitude_m: f64,
+    /// Kinetic temperature, K.
+    pub temperature_k: f64,
+    /// Molecular-scale temperature, K.
+    pub molecular_temperature_k: f64,
+    /// Pressure, Pa.
+    pub pressure_pa: f64,
+    /// Density, kg/m^3.
+    pub density_kg_m3: f64,
+    /// Speed of sound, m/s (NaN above 86 km).
+    pub speed_of_sound_m_s: f64,
+    /// Dynamic viscosity, Pa s (NaN above 86 km).
+    pub dynamic_viscosity_pa_s: f64,
+    /// Kinematic viscosity, m^2/s (NaN above 86 km).
+    pub kinematic_viscosity_m2_s: f64,
+    /// Thermal conductivity, W/(m K) (NaN above 86 km).
+    pub thermal_conductivity_w_m_k: f64,
+    /// Acceleration of gravity, m/s^2.
+    pub gravity_m_s2: f64,
+    /// Pressure scale height, m.
+    pub pressure_scale_height_m: f64,
+    /// Number density, 1/m^3.
+    pub number_density_m3: f64,
+    /// Mean particle speed, m/s.
+    pub mean_particle_speed_m_s: f64,
+    /// Mean free path, m.
+    pub mean_free_path_m: f64,
+    /// Collision frequency, 1/s.
+    pub collision_frequency_hz: f64,
+    /// Mean molar mass, kg/kmol.
+    pub mean_molar_mass_kg_kmol: f64,
+    /// Temperature over the standard's sea-level temperature.
+    pub temperature_ratio: f64,
+    /// Pressure over the standard's sea-level pressure.
+    pub pressure_ratio: f64,
+    /// Density over the standard's sea-level density.
+    pub density_ratio: f64,
+    /// Bit set: `AEROSTRATA_DEFINED_CONTINUUM` when the continuum properties are defined.
+    pub defined: u32,
+}
+
+impl From<State> for AerostrataState {
+    fn from(s: State) -> Self {
+        let continuum = s.speed_of_sound_m_s.is_some()
+            && s.dynamic_viscosity_pa_s.is_some()
+            && s.kinematic_viscosity_m2_s.is_some()
+            && s.thermal_conductivity_w_m_k.is_some();
+        let or_nan = |v: Option<f64>| if continuum { v.unwrap_or(f64::NAN) } else { f64::NAN };
+        Self {
+            geometric_altitude_m: s.geometric_altitude_m,
+            geopotential_altitude_m: s.geopotential_altitude_m,
+            temperature_k: s.temperature_k,
+            molecular_temperature_k: s.molecular_temperature_k,
+            pressure_pa: s.pressure_pa,
+            density_kg_m3: s.density_kg_m3,
+            speed_of_sound_m_s: or_nan(s.speed_of_sound_m_s),
+            dynamic_viscosity_pa_s: or_nan(s.dynamic_viscosity_pa_s),
+            kinematic_viscosity_m2_s: or_nan(s.kinematic_viscosity_m2_s),
+            thermal_conductivity_w_m_k: or_nan(s.thermal_conductivity_w_m_k),
+            gravity_m_s2: s.gravity_m_s2,
+            pressure_scale_height_m: s.pressure_scale_height_m,
+            number_density_m3: s.number_density_m3,
+            mean_particle_speed_m_s: s.mean_particle_speed_m_s,
+            mean_free_path_m: s.mean_free_path_m,
+            collision_frequency_hz: s.collision_frequency_hz,
+            mean_molar_mass_kg_kmol: s.mean_molar_mass_kg_kmol,
+            temperature_ratio: s.temperature_ratio,
+            pressure_ratio: s.pressure_ratio,
+            density_ratio: s.density_ratio,
+            defined: if continuum { AEROSTRATA_DEFINED_CONTINUUM } else { 0 },
+        }
+    }
+}
+
+/// The models a handle can hold.
+#[derive(Debug, Clone)]
+pub(crate) enum Model {
+    /// The standard itself (offset 0: the same bits as `aerostrata_us1976_state`).
+    Us1976,
+    Standard(TemperatureOffset<aerostrata_core::Us1976>),
+    Exponential(Exponential),
+    Isothermal(Isothermal),
+    Layers(Layered<Vec<aerostrata_core::Layer>>),
+    Sounding(Tabulated<Vec<SoundingLevel>>),
+}
+
+impl Atmosphere for Model {
+    fn range(&self) -> AltitudeRange {
+        match self {
+            Self::Us1976 => US1976.range(),
+            Self::Standard(m) => m.range(),
+            Self::Exponential(m) => m.range(),
+            Self::Isothermal(m) => m.range(),
+            Self::Layers(m) => m.range(),
+            Self::Sounding(m) => m.range(),
+        }
+    }
+
+    fn air(&self, altitude: Altitude) -> aerostrata_core::Result<Air> {
+        match self {
+            Self::Us1976 => US1976.air(altitude),
+            Self::Standard(m) => m.air(altitude),
+            Self::Exponential(m) => m.air(altitude),
+            Self::Isothermal(m) => m.air(altitude),
+            Self::Layers(m) => m.air(altitude),
+            Self::Sounding(m) => m.air(altitude),
+        }
+    }
+}
+
+/// An atmosphere model: the 1976 standard with a temperature offset, an exponential or
+/// isothermal profile, user layers or a sounding. Opaque; made by an
+/// `aerostrata_model_new_*` function and released with `aerostrata_model_free`.
+///
+/// A model never changes after it is made, so one model may be used from any number of
+/// threads at once; it must not be used during or after `aerostrata_model_free`.
+pub struct AerostrataModel {
+    pub(crate) model: Model,
+}
+
+/// The standard with an offset; the standard itself for 0, so that a model and the
+/// handle-free functions give the same bits.
+fn standard(offset_k: f64) -> Result<Model, Failure> {
+    let offset = TemperatureOffset::new(US1976, offset_k)?;
+    Ok(if offset_k == 0.0 { Model::Us1976 } else { Model::Standard(offset) })
+}
+
+fn publish(model: Model, out: *mut *mut AerostrataModel) {
+    write(out, Box::into_raw(Box::new(AerostrataModel { model })));
+}
+
+/// Makes the 1976 standard atmosphere (-5 km to 1000 km geometric) with every
+/// temperature shifted by `offset_k` kelvin at the standard's pressure (0 for the
+/// standard itself; +15 for ISA+15).
+///
+/// On success writes a new model to `*out`; the caller owns it and releases it with
+/// `aerostrata_model_free`. On failure `*out` is left unchanged.
+///
+/// Errors: NOT_FINITE for a NaN or infinite offset; NULL_POINTER for a NULL `out`.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_us1976(
+    offset_k: f64,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        publish(standard(offset_k)?, out);
+        Ok(())
+    })
+}
+
+/// Makes an exponential atmosphere: density `sea_level_density_kg_m3` at 0 m falling by
+/// e every `scale_height_m`, at the constant temperature `temperature_k`.
+///
+/// Ownership as `aerostrata_model_new_us1976`. Errors: NOT_FINITE or NOT_POSITIVE for a
+/// parameter that is not finite and above 0; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_exponential(
+    sea_level_density_kg_m3: f64,
+    scale_height_m: f64,
+    temperature_k: f64,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let model = Exponential::new(sea_level_density_kg_m3, scale_height_m, temperature_k)?;
+        publish(Model::Exponential(model), out);
+        Ok(())
+    })
+}
+
+/// Makes an isothermal atmosphere at `temperature_k` with pressure
+/// `sea_level_pressure_pa` at geopotential altitude 0.
+///
+/// Ownership as `aerostrata_model_new_us1976`. Errors: NOT_FINITE or NOT_POSITIVE for a
+/// parameter that is not finite and above 0; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_isothermal(
+    temperature_k: f64,
+    sea_level_pressure_pa: f64,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        publish(Model::Isothermal(Isothermal::new(temperature_k, sea_level_pressure_pa)?), out);
+        Ok(())
+    })
+}
+
+/// One user layer: where it ends and its constant lapse rate.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataLayerSpec {
+    /// Geopotential altitude of the layer's top, m.
+    pub top_geopotential_m: f64,
+    /// dT/dH, K per geopotential metre (negative when temperature falls with height).
+    pub lapse_rate_k_m: f64,
+}
+
+/// Makes a model of `count` layers of constant lapse rate stacked from a base at
+/// geopotential altitude `base_geopotential_m` with temperature `base_temperature_k` and
+/// pressure `base_pressure_pa`; `layers` lists them lowest first.
+///
+/// The `count` layers are copied: the caller may free or change `layers` as soon as this
+/// returns. Ownership of the model as `aerostrata_model_new_us1976`.
+///
+/// Errors: INVALID_LAYER (the detail's `index` names the layer) for no layers, a NaN, a
+/// top not above its base, a temperature reaching 0 K or a pressure underflowing;
+/// NULL_POINTER for a NULL `out`, or a NULL `layers` with `count` above 0.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_layers(
+    base_geopotential_m: f64,
+    base_temperature_k: f64,
+    base_pressure_pa: f64,
+    layers: *const AerostrataLayerSpec,
+    count: usize,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let given = slice("layers", layers, count)?;
+        let specs: Vec<LayerSpec> = given
+            .iter()
+            .map(|l| LayerSpec { top_geopotential_m: l.top_geopotential_m, lapse_rate_k_m: l.lapse_rate_k_m })
+            .collect();
+        let model =
+            Layered::from_lapse_rates_vec(base_geopotential_m, base_temperature_k, base_pressure_pa, &specs)?;
+        publish(Model::Layers(model), out);
+        Ok(())
+    })
+}
+
+/// `AerostrataSoundingRow::fields` bit: the row gives `pressure_pa`.
+pub const AEROSTRATA_ROW_PRESSURE: u32 = 1;
+/// `AerostrataSoundingRow::fields` bit: the row gives `density_kg_m3`.
+pub const AEROSTRATA_ROW_DENSITY: u32 = 2;
+/// `AerostrataSoundingRow::fields` bit: the row gives `dew_point_k`.
+pub const AEROSTRATA_ROW_DEW_POINT: u32 = 4;
+/// `AerostrataSoundingRow::fields` bit: the row gives `relative_humidity_percent`.
+pub const AEROSTRATA_ROW_RELATIVE_HUMIDITY: u32 = 8;
+
+/// One row of a sounding. `altitude_m` and `temperature_k` are always read; each of the
+/// other four values is read only when its bit is set in `fields` (otherwise its value is
+/// ignored, so it may be anything). Which rows must give what is described at
+/// `aerostrata_model_new_sounding`.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataSoundingRow {
+    /// Altitude, m, of the kind the sounding declares.
+    pub altitude_m: f64,
+    /// Kinetic temperature, K.
+    pub temperature_k: f64,
+    /// Pressure, Pa (read with `AEROSTRATA_ROW_PRESSURE`).
+    pub pressure_pa: f64,
+    /// Density of the (moist) air, kg/m^3 (read with `AEROSTRATA_ROW_DENSITY`).
+    pub density_kg_m3: f64,
+    /// Dew point, K (read with `AEROSTRATA_ROW_DEW_POINT`).
+    pub dew_point_k: f64,
+    /// Relative humidity over water, % (read with `AEROSTRATA_ROW_RELATIVE_HUMIDITY`).
+    pub relative_humidity_percent: f64,
+    /// Which of the four optional values the row gives: `AEROSTRATA_ROW_*` bits.
+    pub fields: u32,
+}
+
+/// Makes a model from a sounding of `count` rows at altitudes of `altitude_kind`
+/// (`AEROSTRATA_GEOMETRIC` or `AEROSTRATA_GEOPOTENTIAL`), lowest first. The rows give a
+/// pressure on every row, a density on every row, or a pressure on the first row only
+/// (the rest then follows from hydrostatic balance); each may give a dew point or a
+/// relative humidity. The model is defined from the first row's altitude to the last's.
+///
+/// The rows are copied: the caller may free or change `rows` as soon as this returns.
+/// Ownership of the model as `aerostrata_model_new_us1976`.
+///
+/// Errors: TOO_FEW_ROWS below 2 rows; ROW_NOT_FINITE, ALTITUDE_NOT_INCREASING,
+/// ROW_TEMPERATURE_NOT_POSITIVE, ROW_NOT_POSITIVE, PRESSURE_NOT_DECREASING,
+/// RELATIVE_HUMIDITY_OUT_OF_RANGE, DEW_POINT_ABOVE_TEMPERATURE, ROW_OUT_OF_RANGE,
+/// ROW_COLUMNS, NOT_HYDROSTATIC, VAPOUR_PRESSURE_TOO_HIGH for a bad row (the detail's
+/// `index` names it); INVALID_ARGUMENT for an unknown `altitude_kind` or unknown bits in
+/// `fields`; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_sounding(
+    altitude_kind: u32,
+    rows: *const AerostrataSoundingRow,
+    count: usize,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let kind = self::altitude_kind(altitude_kind)?;
+        let given = slice("rows", rows, count)?;
+        let all = AEROSTRATA_ROW_PRESSURE
+            | AEROSTRATA_ROW_DENSITY
+            | AEROSTRATA_ROW_DEW_POINT
+            | AEROSTRATA_ROW_RELATIVE_HUMIDITY;
+        let mut converted = Vec::with_capacity(given.len());
+        for (index, r) in given.iter().enumerate() {
+            if r.fields & !all != 0 {
+                return Err(Failure::invalid_argument(
+                    "fields",
+                    "unknown AEROSTRATA_ROW_* bits",
+                    f64::from(r.fields),
+                )
+                .at_element(index));
+            }
+            let mut row = SoundingRow::new(r.altitude_m, r.temperature_k);
+            let has = |bit: u32| r.fields & bit != 0;
+            row.pressure_pa = has(AEROSTRATA_ROW_PRESSURE).then_some(r.pressure_pa);
+            row.density_kg_m3 = has(AEROSTRATA_ROW_DENSITY).then_some(r.density_kg_m3);
+            row.dew_point_k = has(AEROSTRATA_ROW_DEW_POINT).then_some(r.dew_point_k);
+            row.relative_humidity_percent =
+                has(AEROSTRATA_ROW_RELATIVE_HUMIDITY).then_some(r.relative_humidity_percent);
+            converted.push(row);
+        }
+        publish(Model::Sounding(Tabulated::from_rows_vec(kind, &converted)?), out);
+        Ok(())
+    })
+}
+
+/// Releases a model made by an `aerostrata_model_new_*` function. NULL is accepted and
+/// does nothing. The model must not be used afterwards, nor freed twice, nor be in use
+/// by another thread.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_free(model: *mut AerostrataModel) {
+    if !model.is_null() {
+        let _ = std::panic::catch_unwind(|| {
+            // SAFETY: made by Box::into_raw in `publish`, and released once (the caller's
+            // contract).
+            drop(unsafe { Box::from_raw(model) });
+        });
+    }
+}
+
+pub(crate) fn model_ref<'a>(model: *const AerostrataModel) -> Result<&'a Model, Failure> {
+    require("model", model)?;
+    // SAFETY: non-NULL, and a live handle from `publish` (the caller's contract).
+    Ok(unsafe { &(*model).model })
+}
+
+/// The geometric altitude range of `model`, m: writes the lowest and highest altitudes
+/// the model accepts to `*min_m` and `*max_m`.
+///
+/// Errors: NULL_POINTER. Thread-safe for a shared model.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_range_geometric_m(
+    model: *const AerostrataModel,
+    min_m: *mut f64,
+    max_m: *mut f64,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        require("min_m", min_m)?;
+        require("max_m", max_m)?;
+        let range = m.range();
+        write(min_m, range.geometric_min_m);
+        write(max_m, range.geometric_max_m);
+        Ok(())
+    })
+}
+
+/// The full state of `model` at `altitude_m` metres of `altitude_kind`
+/// (`AEROSTRATA_GEOMETRIC` or `AEROSTRATA_GEOPOTENTIAL`), written to `*out` on success.
+///
+/// Errors: NOT_FINITE or OUT_OF_RANGE for an altitude outside the model's range (the
+/// detail gives the range); INVALID_ARGUMENT for an unknown kind; NULL_POINTER; a
+/// model's own errors. Thread-safe for a shared model.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_state(
+    model: *const AerostrataModel,
+    altitude_m: f64,
+    altitude_kind: u32,
+    out: *mut AerostrataState,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        require("out", out)?;
+        let state = m.state(altitude(altitude_m, altitude_kind)?)?;
+        write(out, state.into());
+        Ok(())
+    })
+}
+
+/// The full state of `model` at each of the `count` altitudes `altitudes_m` (all of
+/// `altitude_kind`), written to `out[0]` .. `out[count - 1]`.
+///
+/// All or nothing: if any altitude fails, nothing is written and the detail's `index`
+/// names the first failing element. `altitudes_m` and `out` may be NULL only when
+/// `count` is 0. Errors: as `aerostrata_model_state`. Thread-safe for a shared model.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_states(
+    model: *const AerostrataModel,
+    altitudes_m: *const f64,
+    count: usize,
+    altitude_kind: u32,
+    out: *mut AerostrataState,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        let input = slice("altitudes_m", altitudes_m, count)?;
+        let output = slice_mut("out", out, count)?;
+        let states = evaluate_all(m, input, altitude_kind)?;
+        for (slot, state) in output.iter_mut().zip(states) {
+            *slot = state.into();
+        }
+        Ok(())
+    })
+}
+
+/// One output column of `aerostrata_model_columns`: what it takes from the air.
+type Column = fn(&Air) -> f64;
+
+fn evaluate_all(m: &Model, altitudes: &[f64], kind: u32) -> Result<Vec<State>, Failure> {
+    altitudes
+        .iter()
+        .enumerate()
+        .map(|(i, &a)| {
+            altitude(a, kind).and_then(|h| m.state(h).map_err(Failure::from)).map_err(|f| f.at_element(i))
+        })
+        .collect()
+}
+
+/// Temperature (K), pressure (Pa) and density (kg/m^3) of `model` at each of the `count`
+/// altitudes `altitudes_m` of `altitude_kind`, as three columns: `temperature_k[i]`,
+/// `pressure_pa[i]`, `density_kg_m3[i]`. Any of the three output arrays may be NULL
+/// when that column is not wanted.
+///
+/// All or nothing, as `aerostrata_model_states`. Thread-safe for a shared model.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_columns(
+    model: *const AerostrataModel,
+    altitudes_m: *const f64,
+    count: usize,
+    altitude_kind: u32,
+    temperature_k: *mut f64,
+    pressure_pa: *mut f64,
+    density_kg_m3: *mut f64,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        let input = slice("altitudes_m", altitudes_m, count)?;
+        let airs: Vec<Air> = input
+            .iter()
+            .enumerate()
+            .map(|(i, &a)| {
+                altitude(a, altitude_kind)
+                    .and_then(|h| m.air(h).map_err(Failure::from))
+                    .map_err(|f| f.at_element(i))
+            })
+            .collect::<Result<_, _>>()?;
+        let columns: [(*mut f64, Column); 3] = [
+            (temperature_k, Air::temperature_k),
+            (pressure_pa, Air::pressure_pa),
+            (density_kg_m3, Air::density_kg_m3),
+        ];
+        for (column, value) in columns {
+            if !column.is_null() {
+                for (slot, air) in slice_mut("column", column, count)?.iter_mut().zip(&airs) {
+                    *slot = value(air);
+                }
+            }
+        }
+        Ok(())
+    })
+}
+
+/// The full state of the 1976 standard with temperature offset `offset_k` (0 for the
+/// standard itself) at `altitude_m` metres of `altitude_kind`, without making a model.
+/// Allocates nothing.
+///
+/// Errors: NOT_FINITE for a NaN offset or altitude; OUT_OF_RANGE outside -5 km to
+/// 1000 km geometric; INVALID_ARGUMENT for an unknown kind; NULL_POINTER. Thread-safe.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_us1976_state(
+    altitude_m: f64,
+    altitude_kind: u32,
+    offset_k: f64,
+    out: *mut AerostrataState,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let h = altitude(altitude_m, altitude_kind)?;
+        let state = if offset_k == 0.0 {
+            US1976.state(h)?
+        } else {
+            TemperatureOffset::new(US1976, offset_k)?.state(h)?
+        };
+        write(out, state.into());
+        Ok(())
+    })
+}
+
+/// As `aerostrata_model_states` for the 1976 standard with temperature offset `offset_k`.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_us1976_states(
+    altitudes_m: *const f64,
+    count: usize,
+    altitude_kind: u32,
+    offset_k: f64,
+    out: *mut AerostrataState,
+) -> AerostrataStatus {
+    guard(|| {
+        let input = slice("altitudes_m", altitudes_m, count)?;
+        let output = slice_mut("out", out, count)?;
+        let model = standard(offset_k)?;
+        let states = evaluate_all(&model, input, altitude_kind)?;
+        for (slot, state) in output.iter_mut().zip(states) {
+            *slot = state.into();
+        }
+        Ok(())
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use core::ptr;
+
+    #[test]
+    fn standard_sea_level_through_the_handle_and_directly() {
+        let mut model = ptr::null_mut();
+        // SAFETY: valid out-pointers; the model is freed once.
+        unsafe {
+            assert_eq!(aerostrata_model_new_us1976(0.0, &mut model), AerostrataStatus::Ok);
+            let mut a = core::mem::zeroed::<AerostrataState>();
+            let mut b = core::mem::zeroed::<AerostrataState>();
+            assert_eq!(
+                aerostrata_model_state(model, 0.0, AEROSTRATA_GEOMETRIC, &mut a),
+                AerostrataStatus::Ok
+            );
+            assert_eq!(aerostrata_us1976_state(0.0, AEROSTRATA_GEOMETRIC, 0.0, &mut b), AerostrataStatus::Ok);
+            assert_eq!(a, b);
+            assert_eq!(a.pressure_pa, 101_325.0);
+            assert_eq!(a.defined, AEROSTRATA_DEFINED_CONTINUUM);
+            aerostrata_model_free(model);
+        }
+    }
+
+    #[test]
+    fn above_86_km_the_continuum_fields_are_nan_and_flagged() {
+        // SAFETY: valid out-pointer.
+        let s = unsafe {
+            let mut s = core::mem::zeroed::<AerostrataState>();
+            assert_eq!(
+                aerostrata_us1976_state(200_000.0, AEROSTRATA_GEOMETRIC, 0.0, &mut s),
+                AerostrataStatus::Ok
+            );
+            s
+        };
+        assert_eq!(s.defined, 0);
+        assert!(s.speed_of_sound_m_s.is_nan() && s.dynamic_viscosity_pa_s.is_nan());
+        assert!(s.density_kg_m3 > 0.0);
+    }
+
+    #[test]
+    fn a_failed_batch_writes_nothing() {
+        let alts = [0.0, 1000.0, f64::NAN];
+        let sentinel = AerostrataState::from(US1976.state(Altitude::geometric_m(5.0).unwrap()).unwrap());
+        let mut out = [sentinel; 3];
+        // SAFETY: three altitudes and three states.
+        let status = unsafe {
+            aerostrata_us1976_states(alts.as_ptr(), 3, AEROSTRATA_GEOMETRIC, 0.0, out.as_mut_ptr())
+        };
+        assert_eq!(status, AerostrataStatus::NotFinite);
+        assert!(out.iter().all(|s| *s == sentinel));
+    }
+}
