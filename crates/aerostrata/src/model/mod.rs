@@ -59,7 +59,7 @@ pub trait Atmosphere {
     /// # Errors
     /// As [`Atmosphere::air`].
     fn density_kg_m3(&self, altitude: Altitude) -> Result<f64> {
-        Ok(self.air(altitude)?.density_kg_m3())
+        self.air(altitude).map(|air| air.density_kg_m3())
     }
 
     /// Pressure at `altitude`, Pa.
@@ -67,7 +67,7 @@ pub trait Atmosphere {
     /// # Errors
     /// As [`Atmosphere::air`].
     fn pressure_pa(&self, altitude: Altitude) -> Result<f64> {
-        Ok(self.air(altitude)?.pressure_pa())
+        self.air(altitude).map(|air| air.pressure_pa())
     }
 
     /// Kinetic temperature at `altitude`, K.
@@ -75,7 +75,7 @@ pub trait Atmosphere {
     /// # Errors
     /// As [`Atmosphere::air`].
     fn temperature_k(&self, altitude: Altitude) -> Result<f64> {
-        Ok(self.air(altitude)?.temperature_k())
+        self.air(altitude).map(|air| air.temperature_k())
     }
 }
 
