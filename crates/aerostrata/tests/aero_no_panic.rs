@@ -17,26 +17,8 @@ use aerostrata::inverse::{
 use aerostrata::{Air, Altitude, Atmosphere, Isothermal, SolverSettings, State, US1976};
 use proptest::prelude::*;
 
-/// Any f64 at all, weighted toward the ones that break code.
-fn wild() -> impl Strategy<Value = f64> {
-    prop_oneof![
-        Just(f64::NAN),
-        Just(f64::INFINITY),
-        Just(f64::NEG_INFINITY),
-        Just(0.0),
-        Just(-0.0),
-        Just(1.0),
-        Just(f64::MIN_POSITIVE),
-        Just(5e-324),
-        Just(1e300),
-        Just(-1e300),
-        Just(f64::MAX),
-        -2.0..6.0f64,
-        0.0..2e5f64,
-        -1e7..1e7f64,
-        any::<f64>(),
-    ]
-}
+mod common;
+use common::wild;
 
 fn ok_finite(result: aerostrata::Result<f64>) {
     if let Ok(value) = result {

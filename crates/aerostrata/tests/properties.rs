@@ -15,6 +15,9 @@ use aerostrata::{
 };
 use proptest::prelude::*;
 
+mod common;
+use common::wild;
+
 const GAS_LAW_TOLERANCE: f64 = 1e-14;
 const HYDROSTATIC_TOLERANCE: f64 = 1e-7;
 const CONTINUITY_TOLERANCE: f64 = 1e-12;
@@ -26,24 +29,6 @@ fn standard_at(z: f64) -> State {
 
 fn relative(a: f64, b: f64) -> f64 {
     ((a - b) / b).abs()
-}
-
-/// Any f64 at all, weighted toward the ones that break code.
-fn wild() -> impl Strategy<Value = f64> {
-    prop_oneof![
-        Just(f64::NAN),
-        Just(f64::INFINITY),
-        Just(f64::NEG_INFINITY),
-        Just(0.0),
-        Just(-0.0),
-        Just(f64::MIN_POSITIVE),
-        Just(5e-324),
-        Just(1e300),
-        Just(-1e300),
-        Just(f64::MAX),
-        -1e7..1e7f64,
-        any::<f64>(),
-    ]
 }
 
 /// A state that came out Ok must be wholly finite: no silent NaN or infinity.

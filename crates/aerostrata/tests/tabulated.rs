@@ -36,6 +36,9 @@ use aerostrata::{
 };
 use proptest::prelude::*;
 
+mod common;
+use common::wild;
+
 const SELF_REPRODUCTION: f64 = 1e-5;
 const HYDROSTATIC_SOURCE_BETWEEN_ROWS: f64 = 1e-13;
 const CONTINUITY: f64 = 1e-9;
@@ -721,24 +724,6 @@ fn units_are_converted() {
 // ---------------------------------------------------------------------------------
 // Properties.
 // ---------------------------------------------------------------------------------
-
-/// Any f64, weighted toward the ones that break code.
-fn wild() -> impl Strategy<Value = f64> {
-    prop_oneof![
-        Just(f64::NAN),
-        Just(f64::INFINITY),
-        Just(f64::NEG_INFINITY),
-        Just(0.0),
-        Just(-0.0),
-        Just(5e-324),
-        Just(1e300),
-        Just(-1e300),
-        -1e6..1e6f64,
-        0.0..400.0f64,
-        1.0..1.2e5f64,
-        any::<f64>(),
-    ]
-}
 
 fn wild_row() -> impl Strategy<Value = SoundingRow> {
     (
