@@ -202,11 +202,14 @@ proptest! {
         let ratio = gas.area_ratio(m).unwrap();
         let back = gas.mach_from_area_ratio(ratio, branch).unwrap();
         // A/A* is flat at Mach 1 (dA/dM = 0), so the inverse loses half the digits there:
-        // |dM| ~ sqrt(eps) near M = 1. Away from it, SOLVED.
-        let tolerance = if (m - 1.0).abs() < 0.1 { 2e-7 } else { SOLVED * m };
+        // |dM| ~ sqrt(eps) near M = 1. Away from it, SOLVED, but never below twice the
+        // Mach solvers' absolute tolerance of 1e-14 (which dominates at small Mach).
+        let absolute_floor = 2e-14;
+        let tolerance = if (m - 1.0).abs() < 0.1 { 2e-7 } else { (SOLVED * m).max(absolute_floor) };
         prop_assert!((back - m).abs() <= tolerance, "{m} -> A/A* {ratio} -> {back}");
-        // In the ratio itself the round trip is always tight.
-        prop_assert!(relative(gas.area_ratio(back).unwrap(), ratio) < SOLVED);
+        // In the ratio itself the round trip is tight; at small Mach A/A* ~ 0.58 / M, so the
+        // solver's absolute floor shows up relatively as floor / M.
+        prop_assert!(relative(gas.area_ratio(back).unwrap(), ratio) < SOLVED.max(absolute_floor / m));
     }
 
     #[test]
