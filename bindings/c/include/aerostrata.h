@@ -776,6 +776,37 @@ typedef struct AerostrataState {
   uint32_t defined;
 } AerostrataState;
 
+/**
+ * The number densities of the six species of the 1976 standard's upper part, 1/m^3, in
+ * the standard's order.
+ */
+typedef struct AerostrataSpecies {
+  /**
+   * Molecular nitrogen, 1/m^3.
+   */
+  double n2_m3;
+  /**
+   * Atomic oxygen, 1/m^3.
+   */
+  double o_m3;
+  /**
+   * Molecular oxygen, 1/m^3.
+   */
+  double o2_m3;
+  /**
+   * Argon, 1/m^3.
+   */
+  double ar_m3;
+  /**
+   * Helium, 1/m^3.
+   */
+  double he_m3;
+  /**
+   * Atomic hydrogen, 1/m^3 (zero below 150 km).
+   */
+  double h_m3;
+} AerostrataSpecies;
+
 #ifdef __cplusplus
 extern "C" {
 #endif // __cplusplus
@@ -1219,6 +1250,17 @@ enum AerostrataStatus aerostrata_us1976_state(double altitude_m,
                                               uint32_t altitude_kind,
                                               double offset_k,
                                               struct AerostrataState *out);
+
+/**
+ * The six species' number densities of the 1976 standard at `altitude_m` metres of
+ * `altitude_kind`, from 86 km to 1000 km geometric. Allocates nothing.
+ *
+ * Errors: NOT_FINITE for a NaN altitude; OUT_OF_RANGE outside 86 km to 1000 km
+ * geometric; INVALID_ARGUMENT for an unknown kind; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_us1976_species(double altitude_m,
+                                                uint32_t altitude_kind,
+                                                struct AerostrataSpecies *out);
 
 /**
  * As `aerostrata_model_states` for the 1976 standard with temperature offset `offset_k`.

@@ -546,6 +546,54 @@ pub unsafe extern "C" fn aerostrata_us1976_state(
     })
 }
 
+/// The number densities of the six species of the 1976 standard's upper part, 1/m^3, in
+/// the standard's order.
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataSpecies {
+    /// Molecular nitrogen, 1/m^3.
+    pub n2_m3: f64,
+    /// Atomic oxygen, 1/m^3.
+    pub o_m3: f64,
+    /// Molecular oxygen, 1/m^3.
+    pub o2_m3: f64,
+    /// Argon, 1/m^3.
+    pub ar_m3: f64,
+    /// Helium, 1/m^3.
+    pub he_m3: f64,
+    /// Atomic hydrogen, 1/m^3 (zero below 150 km).
+    pub h_m3: f64,
+}
+
+/// The six species' number densities of the 1976 standard at `altitude_m` metres of
+/// `altitude_kind`, from 86 km to 1000 km geometric. Allocates nothing.
+///
+/// Errors: NOT_FINITE for a NaN altitude; OUT_OF_RANGE outside 86 km to 1000 km
+/// geometric; INVALID_ARGUMENT for an unknown kind; NULL_POINTER. Thread-safe.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_us1976_species(
+    altitude_m: f64,
+    altitude_kind: u32,
+    out: *mut AerostrataSpecies,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        let n = US1976.species(altitude(altitude_m, altitude_kind)?)?;
+        write(
+            out,
+            AerostrataSpecies {
+                n2_m3: n.n2_m3,
+                o_m3: n.o_m3,
+                o2_m3: n.o2_m3,
+                ar_m3: n.ar_m3,
+                he_m3: n.he_m3,
+                h_m3: n.h_m3,
+            },
+        );
+        Ok(())
+    })
+}
+
 /// As `aerostrata_model_states` for the 1976 standard with temperature offset `offset_k`.
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_us1976_states(

@@ -822,6 +822,28 @@ static void test_spreadsheet(void) {
     CHECK(isnan(aerostrata_xl_dynamic_pressure(INFINITY, 1.0)));
 }
 
+static void test_species(void) {
+    AerostrataSpecies n, before;
+    AerostrataState s;
+    double total;
+    /* The standard's boundary values at 86 km. */
+    STATUS(aerostrata_us1976_species(86000.0, AEROSTRATA_GEOMETRIC, &n), AEROSTRATA_STATUS_OK);
+    CHECK(fabs(n.n2_m3 / 1.129794e20 - 1.0) < 1e-12 && fabs(n.o_m3 / 8.6e16 - 1.0) < 1e-12);
+    CHECK(n.h_m3 == 0.0 && n.o2_m3 > 0.0 && n.ar_m3 > 0.0 && n.he_m3 > 0.0);
+    /* Consistent with the full state's number density. */
+    STATUS(aerostrata_us1976_species(300000.0, AEROSTRATA_GEOMETRIC, &n), AEROSTRATA_STATUS_OK);
+    STATUS(aerostrata_us1976_state(300000.0, AEROSTRATA_GEOMETRIC, 0.0, &s), AEROSTRATA_STATUS_OK);
+    total = n.n2_m3 + n.o_m3 + n.o2_m3 + n.ar_m3 + n.he_m3 + n.h_m3;
+    CHECK(fabs(total / s.number_density_m3 - 1.0) < 1e-9 && n.h_m3 > 0.0 && n.o_m3 > n.n2_m3);
+    /* Errors leave the output alone. */
+    before = n;
+    STATUS(aerostrata_us1976_species(50000.0, AEROSTRATA_GEOMETRIC, &n), AEROSTRATA_STATUS_OUT_OF_RANGE);
+    STATUS(aerostrata_us1976_species(NAN, AEROSTRATA_GEOMETRIC, &n), AEROSTRATA_STATUS_NOT_FINITE);
+    STATUS(aerostrata_us1976_species(100000.0, 9, &n), AEROSTRATA_STATUS_INVALID_ARGUMENT);
+    CHECK(memcmp(&n, &before, sizeof n) == 0);
+    STATUS(aerostrata_us1976_species(100000.0, AEROSTRATA_GEOMETRIC, NULL), AEROSTRATA_STATUS_NULL_POINTER);
+}
+
 int main(int argc, char **argv) {
     const char *dir = argc > 1 ? argv[1] : "tests/vectors";
     int cells = 0;
@@ -833,6 +855,7 @@ int main(int argc, char **argv) {
     test_helpers();
     test_flight();
     test_spreadsheet();
+    test_species();
     cells += check_vector_file(dir, "usa76_lower.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper_high.csv", MODEL_US1976);

@@ -7,6 +7,7 @@
 //! cargo xtask flash             the upper-atmosphere table's flash cost on Cortex-M4F
 //! cargo xtask header [--check]  regenerate bindings/c/include/aerostrata.h (or fail if stale)
 //! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
+//! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! ```
 
@@ -34,7 +35,8 @@ fn main() -> ExitCode {
             Some("flash") => flash::check(&root, &[], &[]),
         Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
         Some("c-test") => c::test(&root),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | bench"
+        Some("spreadsheet") => c::spreadsheet(&root),
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench"
                 .to_owned()),
         };
     match result {
