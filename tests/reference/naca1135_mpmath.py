@@ -25,9 +25,10 @@ failure. Standard library + mpmath only.
 import argparse
 import csv
 import sys
-from decimal import Decimal
 
 from mpmath import mp, mpf, sqrt
+
+from vector_tools import half_unit_of_last_digit
 
 mp.dps = 30
 
@@ -93,12 +94,6 @@ def parse_model(text):
     return MODELS[words[0]], gamma
 
 
-def half_unit_of_last_digit(written):
-    """Half a unit of the last digit as written: '.99303' -> 5e-6, '1.311E-02' -> 5e-6."""
-    d = Decimal(written)
-    return mpf(5) * mpf(10) ** (d.as_tuple().exponent - 1)
-
-
 # ---------------------------------------------------------------------------
 # Modes.
 # ---------------------------------------------------------------------------
@@ -137,7 +132,7 @@ def check_vectors(paths):
                 rule = rules[column]
                 reference = mpf(written)
                 if rule[0] == "printed":
-                    tolerance = half_unit_of_last_digit(written)
+                    tolerance = half_unit_of_last_digit(written, mpf)
                 elif rule[0] == "rel":
                     tolerance = mpf(rule[1]) * abs(reference)
                 else:

@@ -27,9 +27,10 @@ import random
 import subprocess
 import sys
 import tempfile
-from decimal import Decimal
 
 from mpmath import mp, mpf
+
+from vector_tools import Tally, allowed_error, half_unit_of_last_digit, read_vector_file
 
 mp.dps = 30
 
@@ -181,31 +182,6 @@ def layer_base_altitudes():
 # ---------------------------------------------------------------------------
 # Small shared helpers
 # ---------------------------------------------------------------------------
-class Tally:
-    def __init__(self):
-        self.passed = 0
-        self.failed = 0
-
-    def record(self, ok):
-        if ok:
-            self.passed += 1
-        else:
-            self.failed += 1
-
-    def close(self):
-        print("%d passed, %d failed" % (self.passed, self.failed))
-        return 1 if self.failed else 0
-
-
-def half_unit_of_last_digit(text):
-    """Half a unit in the last written digit: '1.01325E+05' -> 0.5, '288.150' -> 0.0005.
-
-    Decimal keeps the written exponent, so trailing zeros count as printed
-    digits, which is what a printed table means by them.
-    """
-    return mpf(str(Decimal(5).scaleb(Decimal(text.strip()).as_tuple().exponent - 1)))
-
-
 def rel_err(value, ref, floor=0):
     """|value - ref| relative to |ref|, but never to less than `floor`.
 
@@ -372,7 +348,7 @@ def self_test():
     print("reference vs printed values (from memory of the printed table):")
     for desc, fn, printed in PRINTED_FACTS:
         value = fn()
-        tol = half_unit_of_last_digit(printed)
+        tol = half_unit_of_last_digit(printed, mpf)
         diff = abs(value - mpf(printed))
         ok = diff <= tol
         tally.record(ok)
@@ -398,45 +374,11 @@ def self_test():
 # ---------------------------------------------------------------------------
 # Mode 3: check a vector file against mpmath
 # ---------------------------------------------------------------------------
-def read_vector_file(path):
-    """Return (meta, tolerances, header, rows) of a tests/vectors file."""
-    meta, tolerances, data = {}, {}, []
-    with open(path, newline="") as f:
-        for line in f:
-            if line.startswith("#"):
-                body = line[1:].strip()
-                key, sep, rest = body.partition(":")
-                if not sep:
-                    continue
-                key = key.strip()
-                if key == "tolerance":
-                    col, rule = rest.strip().split(None, 1)
-                    tolerances[col] = rule.split()
-                elif key == "model":
-                    meta["model"] = rest.strip()
-            elif line.strip():
-                data.append(line)
-    reader = csv.reader(data)
-    header = next(reader)
-    return meta, tolerances, header, list(reader)
-
-
-def allowed_error(rule, text, ref):
-    kind = rule[0]
-    if kind == "printed":
-        return half_unit_of_last_digit(text)
-    if kind == "rel":
-        return mpf(rule[1]) * abs(ref)
-    if kind == "abs":
-        return mpf(rule[1])
-    raise ValueError("unknown tolerance rule %r" % " ".join(rule))
-
-
 def check_vectors(path):
     tally = Tally()
-    meta, tolerances, header, rows = read_vector_file(path)
-    if meta.get("model") != "us1976":
-        print("%s: model %r is not checked by this script" % (path, meta.get("model")))
+    model, tolerances, header, rows = read_vector_file(path)
+    if model != "us1976":
+        print("%s: model %r is not checked by this script" % (path, model))
         tally.record(False)
         return tally.close()
     empty = 0
@@ -447,7 +389,7 @@ def check_vectors(path):
                 empty += 1
                 continue
             diff = abs(mpf(text) - ref[col])
-            limit = allowed_error(tolerances[col], text, ref[col])
+            limit = allowed_error(tolerances[col], text, ref[col], mpf)
             ok = diff <= limit
             tally.record(ok)
             if not ok:

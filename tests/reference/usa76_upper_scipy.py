@@ -43,10 +43,11 @@ import os
 import subprocess
 import sys
 import tempfile
-from decimal import Decimal
 
 import numpy as np
 from scipy.integrate import solve_ivp
+
+from vector_tools import Tally, allowed_error, half_unit_of_last_digit, read_vector_file
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
@@ -270,27 +271,6 @@ BULK_COLS = ["number_density_m3", "pressure_Pa", "density_kg_m3",
 # ---------------------------------------------------------------------------
 # Small shared helpers
 # ---------------------------------------------------------------------------
-class Tally:
-    def __init__(self):
-        self.passed = 0
-        self.failed = 0
-
-    def record(self, ok):
-        if ok:
-            self.passed += 1
-        else:
-            self.failed += 1
-
-    def close(self):
-        print("%d passed, %d failed" % (self.passed, self.failed))
-        return 1 if self.failed else 0
-
-
-def half_unit_of_last_digit(text):
-    """'1.01325E+05' -> 0.5, '288.150' -> 0.0005 (trailing zeros count)."""
-    return float(Decimal(5).scaleb(Decimal(text.strip()).as_tuple().exponent - 1))
-
-
 def rel(value, ref):
     return abs(value - ref) / abs(ref)
 
@@ -432,37 +412,6 @@ def self_check():
 # ---------------------------------------------------------------------------
 # Mode 3: check a vector file
 # ---------------------------------------------------------------------------
-def read_vector_file(path):
-    """Return (model, tolerances, header, rows) of a tests/vectors file."""
-    model, tolerances, data = None, {}, []
-    with open(path, newline="") as f:
-        for line in f:
-            if line.startswith("#"):
-                key, sep, rest = line[1:].strip().partition(":")
-                if not sep:
-                    continue
-                if key.strip() == "tolerance":
-                    col, rule = rest.strip().split(None, 1)
-                    tolerances[col] = rule.split()
-                elif key.strip() == "model":
-                    model = rest.strip()
-            elif line.strip():
-                data.append(line)
-    reader = csv.reader(data)
-    header = next(reader)
-    return model, tolerances, header, list(reader)
-
-
-def allowed_error(rule, text, ref):
-    if rule[0] == "printed":
-        return half_unit_of_last_digit(text)
-    if rule[0] == "rel":
-        return float(rule[1]) * abs(ref)
-    if rule[0] == "abs":
-        return float(rule[1])
-    raise ValueError("unknown tolerance rule %r" % " ".join(rule))
-
-
 def _lower_state(z):
     """The crate's value at or below 86 km comes from the layers (usa76_mpmath.py)."""
     sys.path.insert(0, HERE)

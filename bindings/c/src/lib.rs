@@ -49,12 +49,9 @@ pub(crate) fn write<T>(out: *mut T, value: T) {
     unsafe { out.write(value) }
 }
 
-/// A slice over `count` elements at `data`, or NULL-pointer status. A zero count accepts
-/// any pointer, NULL included (there is nothing to read).
-pub(crate) fn slice<'a, T>(name: &'static str, data: *const T, count: usize) -> Result<&'a [T], Failure> {
-    if count == 0 {
-        return Ok(&[]);
-    }
+/// Checks `count` elements at `data` before a slice is made over them: NULL is fine
+/// only for a zero count, and the byte length must fit the address space.
+fn check_elements<T>(name: &'static str, data: *const T, count: usize) -> Result<(), Failure> {
     error::require(name, data)?;
     if count > isize::MAX as usize / core::mem::size_of::<T>().max(1) {
         return Err(Failure::invalid_argument(
@@ -63,6 +60,16 @@ pub(crate) fn slice<'a, T>(name: &'static str, data: *const T, count: usize) -> 
             count as f64,
         ));
     }
+    Ok(())
+}
+
+/// A slice over `count` elements at `data`, or NULL-pointer status. A zero count accepts
+/// any pointer, NULL included (there is nothing to read).
+pub(crate) fn slice<'a, T>(name: &'static str, data: *const T, count: usize) -> Result<&'a [T], Failure> {
+    if count == 0 {
+        return Ok(&[]);
+    }
+    check_elements(name, data, count)?;
     // SAFETY: non-NULL (checked above), and the caller promises `count` valid elements.
     Ok(unsafe { core::slice::from_raw_parts(data, count) })
 }
@@ -76,14 +83,7 @@ pub(crate) fn slice_mut<'a, T>(
     if count == 0 {
         return Ok(&mut []);
     }
-    error::require(name, data)?;
-    if count > isize::MAX as usize / core::mem::size_of::<T>().max(1) {
-        return Err(Failure::invalid_argument(
-            name,
-            "the element count is too large for memory",
-            count as f64,
-        ));
-    }
+    check_elements(name, data.cast_const(), count)?;
     // SAFETY: non-NULL (checked above), and the caller promises `count` writable elements
     // that nothing else reads or writes during the call.
     Ok(unsafe { core::slice::from_raw_parts_mut(data, count) })
