@@ -9,6 +9,7 @@
 //! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
+//! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
 //! ```
 
 mod bench;
@@ -36,7 +37,12 @@ fn main() -> ExitCode {
         Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
         Some("c-test") => c::test(&root),
         Some("spreadsheet") => c::spreadsheet(&root),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench"
+        Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
+            for line in lines {
+                println!("{line}");
+            }
+        }),
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits"
                 .to_owned()),
         };
     match result {

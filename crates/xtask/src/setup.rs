@@ -81,27 +81,45 @@ pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
     Ok(TargetToolchain::DebianBuildStd)
 }
 
-/// Makes `python3 -c "import mpmath, scipy, numpy"` work: pip first, then Debian's
-/// python3-mpmath, python3-scipy and python3-numpy.
+/// The Python modules of the independent checks, pinned: the scipy integration's last
+/// digits differ between scipy releases, and docs/validation.md quotes them, so a fresh
+/// machine must get the very versions the committed report was written with.
+const PYTHON_MODULES: [(&str, &str, &str); 3] = [
+    ("mpmath", "1.3.0", "python3-mpmath"),
+    ("scipy", "1.17.1", "python3-scipy"),
+    ("numpy", "2.4.6", "python3-numpy"),
+];
+
+/// Makes `python3 -c "import mpmath, scipy, numpy"` work at the pinned versions: pip
+/// first, then (when pip cannot reach its registry) Debian's python3-mpmath,
+/// python3-scipy and python3-numpy, whose other versions may change the last digits of
+/// the scipy section of docs/validation.md.
 pub fn python_modules(root: &Path) -> Result<(), String> {
-    const MODULES: [(&str, &str); 3] =
-        [("mpmath", "python3-mpmath"), ("scipy", "python3-scipy"), ("numpy", "python3-numpy")];
-    let importable = |module: &str| quiet_success("python3", &["-c", &format!("import {module}")]);
+    let pinned = |module: &str, version: &str| {
+        quiet_success(
+            "python3",
+            &["-c", &format!("import sys, {module}; sys.exit({module}.__version__ != '{version}')")],
+        )
+    };
     if !quiet_success("python3", &["--version"]) {
         apt_install(root, &["python3"])?;
     }
-    let missing: Vec<(&str, &str)> = MODULES.iter().copied().filter(|(m, _)| !importable(m)).collect();
+    let missing: Vec<(&str, &str, &str)> =
+        PYTHON_MODULES.iter().copied().filter(|(m, v, _)| !pinned(m, v)).collect();
     if missing.is_empty() {
         return Ok(());
     }
+    let specs: Vec<String> = missing.iter().map(|(m, v, _)| format!("{m}=={v}")).collect();
     let mut pip = vec!["-m", "pip", "install", "--quiet"];
-    pip.extend(missing.iter().map(|(m, _)| *m));
+    pip.extend(specs.iter().map(String::as_str));
     if run_command(root, "python3", &pip, &[]).is_err() {
-        let packages: Vec<&str> = missing.iter().map(|(_, p)| *p).collect();
+        eprintln!("pip could not install {specs:?}; falling back to Debian's packages");
+        let packages: Vec<&str> = missing.iter().map(|(_, _, p)| *p).collect();
         apt_install(root, &packages)?;
     }
-    match MODULES.iter().find(|(m, _)| !importable(m)) {
+    let importable = |module: &str| quiet_success("python3", &["-c", &format!("import {module}")]);
+    match PYTHON_MODULES.iter().find(|(m, _, _)| !importable(m)) {
         None => Ok(()),
-        Some((module, _)) => Err(format!("python3 still cannot import {module}")),
+        Some((module, _, _)) => Err(format!("python3 still cannot import {module}")),
     }
 }

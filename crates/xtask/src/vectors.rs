@@ -321,6 +321,34 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
     Ok(results)
 }
 
+/// The bit pattern of every quantity of every row of every file, one line each:
+/// `FILE INPUT COLUMN BITS`, where FILE is the file's stem, INPUT the row's input cell as
+/// written, COLUMN the header name and BITS the f64 as 16 lower-case hex digits (or
+/// `undefined` where the model defines no value there). Every host (native, wasm,
+/// firmware) writes this same format, so that a plain line comparison proves or refutes
+/// bit identity. Empty reference cells are included: identity is about our outputs.
+pub fn bit_lines(files: &[VectorFile]) -> Result<Vec<String>, String> {
+    let mut lines = Vec::new();
+    for file in files {
+        let name = file.path.display();
+        let stem = file.path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
+        let evaluator = Evaluator::for_model(&file.model).map_err(|e| format!("{name}: {e}"))?;
+        for (line, cells) in &file.rows {
+            let input: f64 =
+                cells[0].parse().map_err(|_| format!("{name}:{line}: bad {} '{}'", file.input, cells[0]))?;
+            let row = evaluator.row(&file.input, input).map_err(|e| format!("{name}:{line}: {e}"))?;
+            for column in &file.columns {
+                let value = row
+                    .value(column)
+                    .ok_or_else(|| format!("{name}: no quantity named {column} for model {}", file.model))?;
+                let bits = value.map_or_else(|| "undefined".to_owned(), |v| format!("{:016x}", v.to_bits()));
+                lines.push(format!("{stem} {} {column} {bits}", cells[0]));
+            }
+        }
+    }
+    Ok(lines)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -367,6 +395,18 @@ mod tests {
         fs::write(&path, "# model: isentropic\n# tolerance: p_p0 printed\naltitude_m,p_p0\n1,1\n").unwrap();
         assert!(check(&read(&path).unwrap()).unwrap_err().contains("expected mach"));
         fs::remove_dir_all(&dir).unwrap();
+    }
+
+    #[test]
+    fn bit_lines_cover_every_cell_in_one_format() {
+        let files = read_all(&crate::workspace_root()).unwrap();
+        let lines = bit_lines(&files).unwrap();
+        let cells: usize = files.iter().map(|f| f.rows.len() * f.columns.len()).sum();
+        assert_eq!(lines.len(), cells);
+        // Sea level of the standard is 288.15 K exactly (the standard's defining value).
+        let sea_level = format!("usa76_lower 0 temperature_K {:016x}", 288.15f64.to_bits());
+        assert!(lines.contains(&sea_level), "no line {sea_level}");
+        assert!(lines.iter().all(|l| l.split(' ').count() == 4));
     }
 
     /// Every vector of every file within its tolerance: the Rust door's reference test.
