@@ -8,7 +8,7 @@
 #[non_exhaustive]
 pub enum Error {
     /// An input was NaN or infinite.
-    #[error("{quantity} must be a finite number, got {value}")]
+    #[error("{quantity} must be a finite number, got {}", num(.value))]
     NotFinite {
         /// What the value was, in the trade's words ("geometric altitude").
         quantity: &'static str,
@@ -16,7 +16,7 @@ pub enum Error {
         value: f64,
     },
     /// A finite input lay outside the closed range a model or formula accepts.
-    #[error("{quantity} {value} {unit} is outside the allowed range {min} to {max} {unit}")]
+    #[error("{quantity} {} {unit} is outside the allowed range {} to {} {unit}", num(.value), num(.min), num(.max))]
     OutOfRange {
         /// What the value was.
         quantity: &'static str,
@@ -30,7 +30,7 @@ pub enum Error {
         max: f64,
     },
     /// An input that must be strictly positive was zero or negative.
-    #[error("{quantity} must be greater than 0 {unit}, got {value} {unit}")]
+    #[error("{quantity} must be greater than 0 {unit}, got {} {unit}", num(.value))]
     NotPositive {
         /// What the value was.
         quantity: &'static str,
@@ -60,7 +60,7 @@ pub enum Error {
     },
     /// A dimensionless finite input (a Mach number, a pressure ratio, a ratio of specific
     /// heats) lay outside the closed range a formula accepts.
-    #[error("{quantity} {value} is outside the allowed range {min} to {max}")]
+    #[error("{quantity} {} is outside the allowed range {} to {}", num(.value), num(.min), num(.max))]
     RatioOutOfRange {
         /// What the value was ("Mach number", "total-to-static pressure ratio").
         quantity: &'static str,
@@ -73,7 +73,7 @@ pub enum Error {
     },
     /// A dimensionless input that must be strictly positive (a drag coefficient) was zero
     /// or negative.
-    #[error("{quantity} must be greater than 0, got {value}")]
+    #[error("{quantity} must be greater than 0, got {}", num(.value))]
     RatioNotPositive {
         /// What the value was.
         quantity: &'static str,
@@ -180,7 +180,7 @@ pub enum Error {
         temperature_k: f64,
     },
     /// A finite value of a table row lies outside the closed range the model accepts.
-    #[error("row {row}: {quantity} {value} {unit} is outside the allowed range {min} to {max} {unit}")]
+    #[error("row {row}: {quantity} {} {unit} is outside the allowed range {} to {} {unit}", num(.value), num(.min), num(.max))]
     RowOutOfRange {
         /// Which row (0 is the first).
         row: usize,
@@ -241,6 +241,26 @@ pub enum Error {
     },
 }
 
+/// A number as a message shows it: the shortest digits that read back to the same f64,
+/// in exponent form when very small or very large (so that a limit of 7.5e-9 Pa does not
+/// print as 0.0000000075...).
+pub(crate) struct Num(f64);
+
+impl core::fmt::Display for Num {
+    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
+        let magnitude = self.0.abs();
+        if magnitude != 0.0 && magnitude.is_finite() && !(1e-4..1e9).contains(&magnitude) {
+            write!(f, "{:e}", self.0)
+        } else {
+            write!(f, "{}", self.0)
+        }
+    }
+}
+
+fn num(value: &f64) -> Num {
+    Num(*value)
+}
+
 /// Shorthand for results of the core.
 pub type Result<T> = core::result::Result<T, Error>;
 
@@ -279,5 +299,23 @@ pub(crate) fn within(
         Ok(value)
     } else {
         Err(Error::OutOfRange { quantity, unit, value, min, max })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn messages_show_tiny_and_huge_limits_in_exponent_form() {
+        let e =
+            Error::OutOfRange { quantity: "pressure", unit: "Pa", value: 2e6, min: 7.5e-9, max: 177_761.5 };
+        assert_eq!(e.to_string(), "pressure 2000000 Pa is outside the allowed range 7.5e-9 to 177761.5 Pa");
+        let e = Error::RatioOutOfRange { quantity: "Mach number", value: -0.5, min: 0.0, max: 1e12 };
+        assert_eq!(e.to_string(), "Mach number -0.5 is outside the allowed range 0 to 1e12");
+        let e = Error::NotFinite { quantity: "altitude", value: f64::NAN };
+        assert_eq!(e.to_string(), "altitude must be a finite number, got NaN");
+        // The digits still read back to the very value.
+        assert_eq!(Num(6.633232327863704e-8).to_string().parse::<f64>(), Ok(6.633232327863704e-8));
     }
 }

@@ -139,13 +139,10 @@ fn isentropic_and_area_inverses_refuse_their_outside() {
             air.mach_from_area_ratio(0.5, MachBranch::Supersonic),
             "area ratio A/A* 0.5 is outside the allowed range 1 to",
         ),
-        (air.mach_from_area_ratio(1e10, MachBranch::Subsonic), "area ratio A/A* 10000000000 is outside"),
+        (air.mach_from_area_ratio(1e10, MachBranch::Subsonic), "area ratio A/A* 1e10 is outside"),
         (air.mach_from_impact_pressure_ratio(-0.1), "impact-to-static pressure ratio -0.1 is outside"),
-        (
-            air.mach_from_impact_pressure_ratio(1e12),
-            "impact-to-static pressure ratio 1000000000000 is outside",
-        ),
-        (air.area_ratio(0.0), "Mach number 0 is outside the allowed range 0.000000001 to 1000"),
+        (air.mach_from_impact_pressure_ratio(1e12), "impact-to-static pressure ratio 1e12 is outside"),
+        (air.area_ratio(0.0), "Mach number 0 is outside the allowed range 1e-9 to 1000"),
         (air.pressure_ratio(-1.0), "Mach number -1 is outside the allowed range 0 to 1000"),
     ] {
         let e = result.unwrap_err();
