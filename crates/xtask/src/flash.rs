@@ -47,8 +47,10 @@ pub fn table_sizes(
         if !member.name().ends_with(b".o") {
             continue;
         }
-        let bytes = member.data(&*data).map_err(|e| e.to_string())?;
-        let file = object::File::parse(bytes).map_err(|e| format!("object in {}: {e}", rlib.display()))?;
+        // A copy: ar aligns members to 2 bytes only, and the ELF reader needs its headers
+        // aligned (a fresh allocation is, with the system allocator's 16 bytes).
+        let bytes = member.data(&*data).map_err(|e| e.to_string())?.to_vec();
+        let file = object::File::parse(&*bytes).map_err(|e| format!("object in {}: {e}", rlib.display()))?;
         for symbol in file.symbols() {
             let name = symbol.name().unwrap_or_default();
             if name.contains("upper_table") {
