@@ -1009,6 +1009,10 @@ enum AerostrataStatus aerostrata_barometric_altitude_m(double pressure_pa,
                                                        double reference_pa,
                                                        double *out);
 
+extern void *malloc(size_t size);
+
+extern void free(void *pointer);
+
 /**
  * A static, NUL-terminated English sentence for `status` (an `AerostrataStatus` value
  * given as an int, so that any number is safe to pass); an unknown number gives
@@ -1024,7 +1028,9 @@ const char *aerostrata_status_message(int status);
  * `AEROSTRATA_STATUS_NULL_POINTER` if `out` is NULL, else `AEROSTRATA_STATUS_OK`.
  *
  * Thread-safety: each thread has its own detail; a call on one thread never changes
- * another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it.
+ * another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it. In the
+ * bare-metal build (no std) there is one detail for the whole program, and a call made
+ * from an interrupt handler while another call is storing its detail leaves no detail.
  */
 enum AerostrataStatus aerostrata_last_error(struct AerostrataErrorDetail *out);
 
@@ -1072,6 +1078,28 @@ void aerostrata_drag_curve_free(struct AerostrataDragCurve *curve);
 enum AerostrataStatus aerostrata_drag_curve_cd(const struct AerostrataDragCurve *curve,
                                                double mach,
                                                double *out);
+
+/**
+ * The terminal velocity, m/s, of a body of `mass_kg` with drag curve `curve` referred to
+ * `reference_area_m2`, falling through `model` at `altitude_m` metres of `altitude_kind`:
+ * the speed at which drag equals weight (the local gravity of the state), written to
+ * `*out`. For a Mach-dependent curve the speed is solved for, bracketed between the
+ * curve's extreme coefficients.
+ *
+ * Formula: 1/2 rho V^2 Cd(V / a) A = m g.
+ *
+ * Errors: NOT_FINITE, NOT_POSITIVE or OUT_OF_RANGE for the mass, area or an altitude
+ * outside the model; UNDEFINED for a Mach-dependent curve above 86 km (no speed of
+ * sound); OUT_OF_RANGE when the speed would exceed 1e8 m/s; INVALID_ARGUMENT for an
+ * unknown kind; NULL_POINTER. Thread-safe for a shared model and curve.
+ */
+enum AerostrataStatus aerostrata_terminal_velocity_m_s(const struct AerostrataModel *model,
+                                                       double altitude_m,
+                                                       uint32_t altitude_kind,
+                                                       double mass_kg,
+                                                       double reference_area_m2,
+                                                       const struct AerostrataDragCurve *curve,
+                                                       double *out);
 
 /**
  * Scans a flight of `count` samples (`time_s[i]` strictly increasing, geometric

@@ -5,10 +5,15 @@
 //! "last error" would be overwritten by other threads. A thread-local slot is written by
 //! each status-returning call on the calling thread only, so threads never see each
 //! other's failures and no signature grows.
+//!
+//! Without `std` (the bare-metal build) there are no threads to speak of and no
+//! unwinding: the detail lives in one static slot behind a try-lock (a call from an
+//! interrupt handler that lands while the main loop is writing it skips the write rather
+//! than wait), and the panic boundary is inert because panics abort there.
 
+use alloc::format;
+use alloc::string::{String, ToString};
 use core::ffi::{c_char, c_int};
-use std::cell::RefCell;
-use std::fmt::Write as _;
 
 use aerostrata_core::Error;
 
@@ -210,10 +215,6 @@ impl From<Error> for Failure {
     }
 }
 
-thread_local! {
-    static LAST: RefCell<AerostrataErrorDetail> = const { RefCell::new(AerostrataErrorDetail::ok()) };
-}
-
 fn record(failure: Option<&Failure>) {
     let mut detail = AerostrataErrorDetail::ok();
     if let Some(f) = failure {
@@ -231,12 +232,95 @@ fn record(failure: Option<&Failure>) {
             *slot = *byte as c_char;
         }
     }
-    // `try_with`: during thread teardown the slot may be gone; the status still reaches C.
-    let _ = LAST.try_with(|last| {
-        if let Ok(mut last) = last.try_borrow_mut() {
-            *last = detail;
-        }
-    });
+    slot::store(detail);
+}
+
+#[cfg(feature = "std")]
+use thread_slot as slot;
+
+#[cfg(not(feature = "std"))]
+use static_slot as slot;
+
+/// Where the detail lives: one slot per thread with `std`.
+#[cfg(feature = "std")]
+mod thread_slot {
+    use super::AerostrataErrorDetail;
+    use std::cell::RefCell;
+
+    thread_local! {
+        static LAST: RefCell<AerostrataErrorDetail> = const { RefCell::new(AerostrataErrorDetail::ok()) };
+    }
+
+    pub fn store(detail: AerostrataErrorDetail) {
+        // `try_with`: during thread teardown the slot may be gone; the status still reaches C.
+        let _ = LAST.try_with(|last| {
+            if let Ok(mut last) = last.try_borrow_mut() {
+                *last = detail;
+            }
+        });
+    }
+
+    pub fn load() -> AerostrataErrorDetail {
+        LAST.try_with(|last| last.try_borrow().map(|d| *d).unwrap_or(AerostrataErrorDetail::ok()))
+            .unwrap_or(AerostrataErrorDetail::ok())
+    }
+}
+
+/// Where the detail lives: one static slot without `std` (bare metal: one core, no
+/// threads). A try-lock guards it: whoever finds it busy (an interrupt handler that
+/// interrupted a store) skips its store, or reads "no detail", instead of spinning on a
+/// lock its own interruptee holds.
+#[cfg(any(not(feature = "std"), test))]
+mod static_slot {
+    use super::AerostrataErrorDetail;
+    use core::cell::UnsafeCell;
+    use core::sync::atomic::{AtomicBool, Ordering};
+
+    struct Slot {
+        busy: AtomicBool,
+        detail: UnsafeCell<AerostrataErrorDetail>,
+    }
+
+    // SAFETY: `detail` is only touched by whoever set `busy` from false to true.
+    unsafe impl Sync for Slot {}
+
+    static LAST: Slot =
+        Slot { busy: AtomicBool::new(false), detail: UnsafeCell::new(AerostrataErrorDetail::ok()) };
+
+    pub(super) fn with<R>(f: impl FnOnce(&mut AerostrataErrorDetail) -> R) -> Option<R> {
+        LAST.busy.compare_exchange(false, true, Ordering::Acquire, Ordering::Relaxed).ok()?;
+        // SAFETY: the successful exchange above gives exclusive access until the release.
+        let result = f(unsafe { &mut *LAST.detail.get() });
+        LAST.busy.store(false, Ordering::Release);
+        Some(result)
+    }
+
+    pub fn store(detail: AerostrataErrorDetail) {
+        let _ = with(|last| *last = detail);
+    }
+
+    pub fn load() -> AerostrataErrorDetail {
+        with(|last| *last).unwrap_or(AerostrataErrorDetail::ok())
+    }
+}
+
+/// Runs `f`; with `std`, a panic inside it is caught and returned as its message. Without
+/// `std` panics abort (the firmware's panic handler runs), so this only calls `f`.
+pub(crate) fn catch<R>(f: impl FnOnce() -> R) -> Result<R, String> {
+    #[cfg(feature = "std")]
+    {
+        std::panic::catch_unwind(std::panic::AssertUnwindSafe(f)).map_err(|payload| {
+            payload
+                .downcast_ref::<&str>()
+                .map(|s| (*s).into())
+                .or_else(|| payload.downcast_ref::<String>().cloned())
+                .unwrap_or_else(|| "a panic without a message".into())
+        })
+    }
+    #[cfg(not(feature = "std"))]
+    {
+        Ok(f())
+    }
 }
 
 /// `Ok(())` if `pointer` is not NULL, else a NULL-pointer failure naming it.
@@ -251,15 +335,8 @@ pub(crate) fn require<T>(name: &str, pointer: *const T) -> Result<(), Failure> {
 /// Runs `body` inside the panic boundary, records its detail for this thread and returns
 /// its status.
 pub(crate) fn guard(body: impl FnOnce() -> Result<(), Failure>) -> AerostrataStatus {
-    let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(body)).unwrap_or_else(|payload| {
-        let text = payload
-            .downcast_ref::<&str>()
-            .map(|s| (*s).to_owned())
-            .or_else(|| payload.downcast_ref::<String>().cloned())
-            .unwrap_or_else(|| "a panic without a message".to_owned());
-        let mut message = String::from("internal error (a bug in aerostrata): ");
-        let _ = write!(message, "{text}");
-        Err(Failure::bare(AerostrataStatus::Panic, message))
+    let outcome = catch(body).unwrap_or_else(|text| {
+        Err(Failure::bare(AerostrataStatus::Panic, format!("internal error (a bug in aerostrata): {text}")))
     });
     match outcome {
         Ok(()) => {
@@ -280,7 +357,7 @@ pub(crate) fn guard(body: impl FnOnce() -> Result<(), Failure>) -> AerostrataSta
 /// Ownership: static; never free it. Thread-safe.
 #[no_mangle]
 pub extern "C" fn aerostrata_status_message(status: c_int) -> *const c_char {
-    let text: &'static str = std::panic::catch_unwind(|| status_text(status)).unwrap_or("unknown status\0");
+    let text: &'static str = catch(|| status_text(status)).unwrap_or("unknown status\0");
     text.as_ptr().cast()
 }
 
@@ -322,16 +399,15 @@ fn status_text(status: c_int) -> &'static str {
 /// `AEROSTRATA_STATUS_NULL_POINTER` if `out` is NULL, else `AEROSTRATA_STATUS_OK`.
 ///
 /// Thread-safety: each thread has its own detail; a call on one thread never changes
-/// another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it.
+/// another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it. In the
+/// bare-metal build (no std) there is one detail for the whole program, and a call made
+/// from an interrupt handler while another call is storing its detail leaves no detail.
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_last_error(out: *mut AerostrataErrorDetail) -> AerostrataStatus {
     if out.is_null() {
         return AerostrataStatus::NullPointer;
     }
-    let copied = std::panic::catch_unwind(|| {
-        LAST.try_with(|last| last.try_borrow().map(|d| *d).unwrap_or(AerostrataErrorDetail::ok()))
-            .unwrap_or(AerostrataErrorDetail::ok())
-    });
+    let copied = catch(slot::load);
     match copied {
         Ok(detail) => {
             crate::write(out, detail);
@@ -344,6 +420,7 @@ pub unsafe extern "C" fn aerostrata_last_error(out: *mut AerostrataErrorDetail) 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use alloc::vec::Vec;
 
     fn last() -> AerostrataErrorDetail {
         let mut d = AerostrataErrorDetail::ok();
@@ -394,6 +471,29 @@ mod tests {
         }
         assert_eq!(status_text(27), "unknown status\0");
         assert_eq!(status_text(-1), "unknown status\0");
+    }
+
+    /// The bare-metal slot (tested here on the host, on one thread): a store and a load
+    /// while the slot is busy (as in an interrupt handler that lands mid-store) neither
+    /// wait nor tear the detail; they skip the store and read "no detail".
+    #[test]
+    fn the_static_slot_skips_rather_than_waits_when_busy() {
+        let mut failed = AerostrataErrorDetail::ok();
+        failed.status = AerostrataStatus::OutOfRange;
+        failed.index = 3;
+        static_slot::store(failed);
+        assert_eq!(static_slot::load().status, AerostrataStatus::OutOfRange);
+        let inner = static_slot::with(|_| {
+            static_slot::store(AerostrataErrorDetail::ok());
+            static_slot::load().status
+        });
+        assert_eq!(inner, Some(AerostrataStatus::Ok), "a busy slot reads as no detail");
+        let kept = static_slot::load();
+        assert_eq!(
+            (kept.status, kept.index),
+            (AerostrataStatus::OutOfRange, 3),
+            "the busy store was skipped"
+        );
     }
 
     #[test]

@@ -1,10 +1,13 @@
 //! Drag-coefficient curves as opaque handles, and the flight scan over arrays.
 
+use aerostrata_core::aero::terminal_velocity_m_s;
 use aerostrata_core::flight::{samples_from_slices, FlightPoint, FlightScan, FlightSummary};
-use aerostrata_core::{DragCurve, Interpolation, Vehicle};
+use aerostrata_core::{Atmosphere, DragCurve, Interpolation, Vehicle};
+use alloc::boxed::Box;
+use alloc::vec::Vec;
 
 use crate::error::{guard, require, AerostrataStatus, Failure};
-use crate::model::model_ref;
+use crate::model::{altitude, model_ref};
 use crate::{slice, slice_mut, write, AerostrataModel};
 
 /// `interpolation` value: straight lines between the table's points.
@@ -102,7 +105,7 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_drag_curve_free(curve: *mut AerostrataDragCurve) {
     if !curve.is_null() {
-        let _ = std::panic::catch_unwind(|| {
+        let _ = crate::error::catch(|| {
             // SAFETY: made by Box::into_raw in `publish` and released once (the caller's
             // contract).
             drop(unsafe { Box::from_raw(curve) });
@@ -131,6 +134,39 @@ pub unsafe extern "C" fn aerostrata_drag_curve_cd(
         require("out", out)?;
         let cd = c.get()?.cd(mach)?;
         write(out, cd);
+        Ok(())
+    })
+}
+
+/// The terminal velocity, m/s, of a body of `mass_kg` with drag curve `curve` referred to
+/// `reference_area_m2`, falling through `model` at `altitude_m` metres of `altitude_kind`:
+/// the speed at which drag equals weight (the local gravity of the state), written to
+/// `*out`. For a Mach-dependent curve the speed is solved for, bracketed between the
+/// curve's extreme coefficients.
+///
+/// Formula: 1/2 rho V^2 Cd(V / a) A = m g.
+///
+/// Errors: NOT_FINITE, NOT_POSITIVE or OUT_OF_RANGE for the mass, area or an altitude
+/// outside the model; UNDEFINED for a Mach-dependent curve above 86 km (no speed of
+/// sound); OUT_OF_RANGE when the speed would exceed 1e8 m/s; INVALID_ARGUMENT for an
+/// unknown kind; NULL_POINTER. Thread-safe for a shared model and curve.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_terminal_velocity_m_s(
+    model: *const AerostrataModel,
+    altitude_m: f64,
+    altitude_kind: u32,
+    mass_kg: f64,
+    reference_area_m2: f64,
+    curve: *const AerostrataDragCurve,
+    out: *mut f64,
+) -> AerostrataStatus {
+    guard(|| {
+        let m = model_ref(model)?;
+        let c = curve_ref(curve)?;
+        require("out", out)?;
+        let state = m.state(altitude(altitude_m, altitude_kind)?)?;
+        let v = terminal_velocity_m_s(&state, mass_kg, reference_area_m2, &c.get()?)?;
+        write(out, v);
         Ok(())
     })
 }

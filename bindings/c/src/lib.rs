@@ -10,14 +10,26 @@
 //!   [`AerostrataStatus::Panic`] (the spreadsheet functions return NaN instead);
 //! - the detail of a failure (message, value, allowed range, index) is kept per thread and
 //!   read with [`aerostrata_last_error`]; see `error.rs` for why a thread-local.
+//!
+//! Features: `std` (default) for the panic boundary and the per-thread detail; without
+//! it the crate is `no_std` + `alloc` for bare-metal static libraries, where `malloc`
+//! routes the handles' allocations to the C library's `malloc`/`free` and
+//! `panic-handler` supplies the `#[panic_handler]` (both for a C firmware, neither when
+//! a Rust firmware links this crate and brings its own). `upper` (default) adds the
+//! standard above 86 km.
 
+#![cfg_attr(not(feature = "std"), no_std)]
 #![warn(missing_docs)]
 // Every export checks its pointers for NULL before it dereferences them; the safety
 // contract (valid, aligned, `count` elements) is stated in each doc comment instead of a
 // `# Safety` section that C readers of the header would not understand.
 #![allow(clippy::missing_safety_doc)]
 
+extern crate alloc;
+
 mod aero;
+#[cfg(feature = "malloc")]
+mod allocator;
 mod error;
 mod flight;
 mod model;
@@ -30,6 +42,16 @@ pub use model::*;
 pub use spreadsheet::*;
 
 use core::ffi::c_char;
+
+#[cfg(feature = "panic-handler")]
+#[panic_handler]
+fn panic(_: &core::panic::PanicInfo<'_>) -> ! {
+    // No input reaches a panic (the tests prove it for every export); should a bug ever
+    // get here on bare metal, stop in a way a debugger or watchdog sees.
+    loop {
+        core::hint::spin_loop();
+    }
+}
 
 /// The library's version as a NUL-terminated string, for example "0.1.0". It equals
 /// `AEROSTRATA_VERSION_STRING` of the header the program was compiled with unless the

@@ -4,6 +4,8 @@ use aerostrata_core::{
     Air, Altitude, AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, LayerSpec, Layered,
     SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, US1976,
 };
+use alloc::boxed::Box;
+use alloc::vec::Vec;
 
 use crate::error::{guard, require, AerostrataStatus, Failure};
 use crate::{slice, slice_mut, write};
@@ -380,7 +382,7 @@ pub unsafe extern "C" fn aerostrata_model_new_sounding(
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_model_free(model: *mut AerostrataModel) {
     if !model.is_null() {
-        let _ = std::panic::catch_unwind(|| {
+        let _ = crate::error::catch(|| {
             // SAFETY: made by Box::into_raw in `publish`, and released once (the caller's
             // contract).
             drop(unsafe { Box::from_raw(model) });

@@ -9,7 +9,7 @@ use aerostrata_core::airspeed::{AirData, Airspeed};
 use aerostrata_core::{aero, inverse, Altitude, Atmosphere, State, TemperatureOffset, US1976};
 
 fn nan_on_error(f: impl FnOnce() -> aerostrata_core::Result<f64>) -> f64 {
-    std::panic::catch_unwind(std::panic::AssertUnwindSafe(f)).ok().and_then(Result::ok).unwrap_or(f64::NAN)
+    crate::error::catch(f).ok().and_then(Result::ok).unwrap_or(f64::NAN)
 }
 
 /// As `aerostrata_us1976_state`: the standard itself for a zero offset, so that a sheet

@@ -791,6 +791,41 @@ static void test_flight(void) {
     STATUS(aerostrata_flight_scan(model, NULL, 0.0, 0.0, NULL, NULL, NULL, 0, NULL, &summary), AEROSTRATA_STATUS_OK);
     CHECK(summary.samples == 0 && summary.has_max_q == 0 && isnan(summary.max_q_pa));
 
+    /* Terminal velocity. A constant Cd has the closed form V = sqrt(2 m g / (rho Cd A))
+     * (common practice, no source), with rho and g of the same state. */
+    {
+        AerostrataState sl;
+        double vt = 0.0, closed, before = -7.0;
+        STATUS(aerostrata_model_state(model, 0.0, AEROSTRATA_GEOMETRIC, &sl), AEROSTRATA_STATUS_OK);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 0.0, AEROSTRATA_GEOMETRIC, 0.5, 0.8, constant, &vt),
+               AEROSTRATA_STATUS_OK);
+        closed = sqrt(2.0 * 0.5 * sl.gravity_m_s2 / (sl.density_kg_m3 * 0.5 * 0.8));
+        CHECK(fabs(vt - closed) <= 1e-14 * closed);
+        /* With the drag rise: at the speed found, drag balances weight. */
+        STATUS(aerostrata_model_state(model, 3000.0, AEROSTRATA_GEOMETRIC, &sl), AEROSTRATA_STATUS_OK);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 3000.0, AEROSTRATA_GEOMETRIC, 40.0, 0.00785, curve, &vt),
+               AEROSTRATA_STATUS_OK);
+        {
+            double cd_at = 0.0;
+            STATUS(aerostrata_drag_curve_cd(curve, vt / sl.speed_of_sound_m_s, &cd_at), AEROSTRATA_STATUS_OK);
+            CHECK(fabs(0.5 * sl.density_kg_m3 * vt * vt * cd_at * 0.00785 / (40.0 * sl.gravity_m_s2) - 1.0) < 1e-9);
+        }
+        vt = before;
+        STATUS(aerostrata_terminal_velocity_m_s(model, 120000.0, AEROSTRATA_GEOMETRIC, 40.0, 0.00785, curve, &vt),
+               AEROSTRATA_STATUS_UNDEFINED);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 0.0, AEROSTRATA_GEOMETRIC, -1.0, 0.8, constant, &vt),
+               AEROSTRATA_STATUS_NOT_POSITIVE);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 0.0, 7, 1.0, 0.8, constant, &vt),
+               AEROSTRATA_STATUS_INVALID_ARGUMENT);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 0.0, AEROSTRATA_GEOMETRIC, 1.0, 0.8, NULL, &vt),
+               AEROSTRATA_STATUS_NULL_POINTER);
+        STATUS(aerostrata_terminal_velocity_m_s(NULL, 0.0, AEROSTRATA_GEOMETRIC, 1.0, 0.8, constant, &vt),
+               AEROSTRATA_STATUS_NULL_POINTER);
+        STATUS(aerostrata_terminal_velocity_m_s(model, 0.0, AEROSTRATA_GEOMETRIC, 1.0, 0.8, constant, NULL),
+               AEROSTRATA_STATUS_NULL_POINTER);
+        CHECK(vt == before);
+    }
+
     aerostrata_drag_curve_free(curve);
     aerostrata_drag_curve_free(constant);
     aerostrata_drag_curve_free(NULL);

@@ -106,29 +106,33 @@ fn tally(label: &str, stdout: &str) -> Result<String, String> {
     }
 }
 
-/// Builds libaerostrata.a and libaerostrata.so (release) and returns their directory.
-fn build_libraries(root: &Path) -> Result<PathBuf, String> {
-    run_command(root, "cargo", &["build", "--release", "-p", "aerostrata-c"], &[])?;
-    Ok(target_dir(root).join("release"))
+/// Builds the host's C package (release) at its default prefix.
+fn build_package(root: &Path) -> Result<crate::c_package::Package, String> {
+    let prefix = crate::c_package::default_prefix(root, None);
+    crate::c_package::package(root, None, &prefix, &[], &[])
 }
 
-/// Builds both libraries (release), compiles the C tests against each with gcc as
-/// strict C99 and the header as C++17, runs them plain, under ASan+UBSan and under
-/// Valgrind, and runs the ctypes test. Every step must pass with zero errors and leaks.
+/// Builds the C package (release), compiles the C tests against its static and shared
+/// library with gcc as strict C99 and the header as C++17, runs them plain, under
+/// ASan+UBSan and under Valgrind, runs the ctypes test and builds and checks the
+/// altimeter example. Every step must pass with zero errors and leaks.
 pub fn test(root: &Path) -> Result<(), String> {
-    let lib_dir = build_libraries(root)?;
+    crate::setup::apt_install(root, &BUILD_PACKAGES)?;
+    let package = build_package(root)?;
+    let lib_dir = package.prefix.join("lib");
     let work = target_dir(root).join("c-tests");
     std::fs::create_dir_all(&work).map_err(|e| format!("cannot create {}: {e}", work.display()))?;
     let s = |p: &Path| p.to_string_lossy().into_owned();
-    let include = format!("-I{}", s(&root.join("bindings/c/include")));
+    let include = format!("-I{}", s(&package.prefix.join("include")));
     let source = s(&root.join(C_TEST));
     let vectors = s(&root.join("tests/vectors"));
-    let static_lib = s(&lib_dir.join("libaerostrata.a"));
+    let static_lib = s(&package.static_lib);
     let lib_dir_arg = format!("-L{}", s(&lib_dir));
     // DT_RPATH, not RUNPATH: `cargo run` (and so `cargo xtask`) puts target/debug/deps on
-    // LD_LIBRARY_PATH, which a RUNPATH yields to, and a stale debug libaerostrata.so
-    // there would be loaded instead of the fresh release one.
+    // LD_LIBRARY_PATH, which a RUNPATH yields to; the package's library must be the one
+    // loaded.
     let rpath = format!("-Wl,--disable-new-dtags,-rpath,{}", s(&lib_dir));
+    let system_libs: Vec<&str> = package.native_static_libs.iter().map(String::as_str).collect();
     let mut results = Vec::new();
 
     // The header alone, as C++17 (its C++ guards and types must compile there too).
@@ -139,30 +143,15 @@ pub fn test(root: &Path) -> Result<(), String> {
     )
     .map_err(|e| format!("cannot write {}: {e}", cpp.display()))?;
     let cpp_exe = s(&work.join("header_cpp"));
-    run_command(
-        root,
-        "g++",
-        &[
-            "-std=c++17",
-            "-Wall",
-            "-Wextra",
-            "-Werror",
-            "-pedantic",
-            &include,
-            &s(&cpp),
-            &static_lib,
-            "-lpthread",
-            "-ldl",
-            "-lm",
-            "-o",
-            &cpp_exe,
-        ],
-        &[],
-    )?;
+    let cpp_source = s(&cpp);
+    let mut cpp_args = vec!["-std=c++17", "-Wall", "-Wextra", "-Werror", "-pedantic", &include, &cpp_source];
+    cpp_args.push(&static_lib);
+    cpp_args.extend_from_slice(&system_libs);
+    cpp_args.extend_from_slice(&["-o", &cpp_exe]);
+    run_command(root, "g++", &cpp_args, &[])?;
     run_command(root, &cpp_exe, &[], &[])?;
     results.push("header compiles and links as C++17".to_owned());
 
-    let system_libs = ["-lm", "-lpthread", "-ldl"];
     let compile = |exe: &str, extra: &[&str], link: &[&str]| -> Result<String, String> {
         let out = s(&work.join(exe));
         let mut args: Vec<&str> = C_FLAGS.to_vec();
@@ -212,15 +201,129 @@ pub fn test(root: &Path) -> Result<(), String> {
         )?;
         results.push(tally(&format!("C tests under Valgrind ({exe})"), &out)?);
     }
-    let so = s(&lib_dir.join("libaerostrata.so"));
+    let so = s(package.shared_lib.as_deref().ok_or("the host package has no shared library")?);
     results.push(tally(
         "Python ctypes test",
         &run_captured(root, "python3", &[&s(&root.join(CTYPES_TEST)), &so, &vectors], &[])?,
     )?);
+    results.push(altimeter_example(root, &package, &work)?);
     for line in &results {
         eprintln!("  {line}");
     }
     Ok(())
+}
+
+/// What the C tests and the example's two builds need besides gcc.
+const BUILD_PACKAGES: [&str; 3] = ["make", "pkg-config", "cmake"];
+
+const ALTIMETER_DIR: &str = "examples/c-altimeter";
+
+/// examples/c-altimeter built as a C project would build it, from the installed package:
+/// with its Makefile through pkg-config (shared library) and with its CMakeLists.txt
+/// through the CMake package (shared and static). The three programs must print the
+/// same CSV, find the invented log's true apogee and maximum dynamic pressure (its
+/// comment lines, written by make_log.py) within the tolerances below, and reject a bad
+/// line with exit status 2.
+fn altimeter_example(
+    root: &Path,
+    package: &crate::c_package::Package,
+    work: &Path,
+) -> Result<String, String> {
+    // The log is sampled at 20 Hz: apogee time within 4 samples; its altitude within
+    // 2 m (the 3 Pa noise is about 0.25 m, and the fit's window straddles the top). The
+    // 11-sample window rounds the speed's peak at burnout off, so the maximum dynamic
+    // pressure comes out low: within 6 %, and within 0.3 s of the true time.
+    const APOGEE_M: f64 = 2.0;
+    const APOGEE_S: f64 = 0.2;
+    const MAX_Q_REL: f64 = 0.06;
+    const MAX_Q_S: f64 = 0.3;
+    let s = |p: &Path| p.to_string_lossy().into_owned();
+    let dir = root.join(ALTIMETER_DIR);
+    let log = dir.join("flight_log.csv");
+    let out = work.join("altimeter");
+    if out.exists() {
+        std::fs::remove_dir_all(&out).map_err(|e| format!("cannot remove {}: {e}", out.display()))?;
+    }
+    std::fs::create_dir_all(&out).map_err(|e| format!("cannot create {}: {e}", out.display()))?;
+    let pkg_config_path = format!("PKG_CONFIG_PATH={}", s(&package.prefix.join("lib/pkgconfig")));
+    run_command(root, "make", &["-s", "-C", &s(&dir), &pkg_config_path, &format!("OUT={}", s(&out))], &[])?;
+    let cmake_build = out.join("cmake");
+    run_command(
+        root,
+        "cmake",
+        &[
+            "-S",
+            &s(&dir),
+            "-B",
+            &s(&cmake_build),
+            &format!("-DCMAKE_PREFIX_PATH={}", s(&package.prefix)),
+            "-DCMAKE_BUILD_TYPE=Release",
+        ],
+        &[],
+    )?;
+    run_command(root, "cmake", &["--build", &s(&cmake_build)], &[])?;
+    let mut runs = Vec::new();
+    for exe in [out.join("altimeter"), cmake_build.join("altimeter"), cmake_build.join("altimeter_static")] {
+        let output = Command::new(&exe)
+            .arg(&log)
+            .output()
+            .map_err(|e| format!("cannot start {}: {e}", exe.display()))?;
+        if !output.status.success() {
+            return Err(format!("{} failed: {}", exe.display(), String::from_utf8_lossy(&output.stderr)));
+        }
+        runs.push((exe, output.stdout, String::from_utf8_lossy(&output.stderr).into_owned()));
+    }
+    if runs.iter().any(|(_, stdout, _)| *stdout != runs[0].1) {
+        return Err("the pkg-config and CMake builds of the altimeter print different CSV".to_owned());
+    }
+    // "... : 1549.59 m above the pad at t = 17.651 s" -> (1549.59, 17.651)
+    let numbers = |text: &str, key: &str| -> Result<(f64, f64), String> {
+        let line = text.lines().find(|l| l.contains(key)).ok_or(format!("no line with '{key}'"))?;
+        let values: Vec<f64> =
+            line.split([' ', ':']).filter_map(|w| w.parse().ok()).filter(|v: &f64| v.is_finite()).collect();
+        match values[..] {
+            [value, time] => Ok((value, time)),
+            _ => Err(format!("cannot read '{line}'")),
+        }
+    };
+    let truth = std::fs::read_to_string(&log).map_err(|e| format!("cannot read {}: {e}", log.display()))?;
+    let summary = &runs[0].2;
+    let (true_apogee, true_apogee_t) = numbers(&truth, "# true apogee")?;
+    let (true_q, true_q_t) = numbers(&truth, "# true maximum dynamic pressure")?;
+    let (apogee, apogee_t) = numbers(summary, "apogee")?;
+    let (q, q_t) = numbers(summary, "maximum dynamic pressure")?;
+    let checks = [
+        ("apogee altitude, m", apogee, true_apogee, APOGEE_M),
+        ("apogee time, s", apogee_t, true_apogee_t, APOGEE_S),
+        ("maximum q, Pa", q, true_q, MAX_Q_REL * true_q),
+        ("time of maximum q, s", q_t, true_q_t, MAX_Q_S),
+    ];
+    for (what, got, want, tolerance) in checks {
+        if (got - want).abs() > tolerance {
+            return Err(format!(
+                "altimeter example: {what} {got} vs the log's true {want} (tolerance {tolerance})"
+            ));
+        }
+    }
+    let bad = Command::new(&runs[0].0)
+        .stdin(std::process::Stdio::piped())
+        .stdout(std::process::Stdio::null())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .and_then(|mut child| {
+            use std::io::Write as _;
+            child.stdin.take().map(|mut stdin| stdin.write_all(b"-1,96000\n0,not-a-pressure\n"));
+            child.wait_with_output()
+        })
+        .map_err(|e| format!("cannot run the altimeter: {e}"))?;
+    let message = String::from_utf8_lossy(&bad.stderr);
+    if bad.status.code() != Some(2) || !message.contains("line 2") {
+        return Err(format!("altimeter example: a bad line gave {} and '{message}'", bad.status));
+    }
+    Ok(format!(
+        "altimeter example (pkg-config and CMake, shared and static): apogee {apogee} m at {apogee_t} s \
+         (true {true_apogee} m at {true_apogee_t} s), max q {q} Pa at {q_t} s (true {true_q} Pa at {true_q_t} s)"
+    ))
 }
 
 /// The Debian packages of a headless LibreOffice Calc that runs Python macros.
@@ -241,7 +344,7 @@ const SPREADSHEET_ROWS: usize = 27;
 /// relative: the file carries 15 significant digits) and rho V^2 / 2 (1e-12 relative).
 pub fn spreadsheet(root: &Path) -> Result<(), String> {
     crate::setup::apt_install(root, &SPREADSHEET_PACKAGES)?;
-    let lib = build_libraries(root)?.join("libaerostrata.so");
+    let lib = build_package(root)?.prefix.join("lib").join("libaerostrata.so");
     let work = target_dir(root).join("spreadsheet");
     let err = |what: &str, p: &Path, e: std::io::Error| format!("cannot {what} {}: {e}", p.display());
     if work.exists() {

@@ -6,6 +6,7 @@
 //! cargo xtask upper-table [--check] regenerate the 86-1000 km table (or fail if stale)
 //! cargo xtask flash             the upper-atmosphere table's flash cost on Cortex-M4F
 //! cargo xtask header [--check]  regenerate bindings/c/include/aerostrata.h (or fail if stale)
+//! cargo xtask c-package [--prefix DIR] [--target TRIPLE]  the C library, header, pkg-config and CMake files
 //! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
@@ -14,6 +15,7 @@
 
 mod bench;
 mod c;
+mod c_package;
 mod flash;
 mod setup;
 mod test;
@@ -35,6 +37,7 @@ fn main() -> ExitCode {
             Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
             Some("flash") => flash::check(&root, &[], &[]),
         Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
+        Some("c-package") => c_package::run(&root, &args[1..]),
         Some("c-test") => c::test(&root),
         Some("spreadsheet") => c::spreadsheet(&root),
         Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
@@ -42,7 +45,7 @@ fn main() -> ExitCode {
                 println!("{line}");
             }
         }),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits"
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet | bench | bits"
                 .to_owned()),
         };
     match result {

@@ -60,6 +60,25 @@ pub fn run(root: &Path) -> Result<(), String> {
             TargetToolchain::DebianBuildStd => (&DEBIAN_ENVS[..], &["-Zbuild-std=core"][..]),
         };
         step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
+        // The C library allocates its handles, so it needs `alloc` as well as `core`.
+        let package_args: &[&str] = match toolchain {
+            TargetToolchain::Rustup => &[],
+            TargetToolchain::DebianBuildStd => {
+                &["-Zbuild-std=core,alloc", "--target-dir", "target/debian-rustc"]
+            }
+        };
+        let triple = FIRMWARE_TARGETS[0];
+        step(
+            "C library as a no_std static library for thumbv7em-none-eabihf (cargo xtask c-package --target)",
+            crate::c_package::package(
+                root,
+                Some(triple),
+                &crate::c_package::default_prefix(root, Some(triple)),
+                envs,
+                package_args,
+            )
+            .map(|_| ()),
+        );
     }
     step("upper-atmosphere table is fresh (cargo xtask upper-table --check)", crate::upper::run(root, true));
     step(
