@@ -10,10 +10,14 @@
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
+//! cargo xtask bits --compare FILE  another host's bit lines in FILE against the native ones
+//! cargo xtask firmware          the vectors in QEMU on Cortex-M4F and M3, bit for bit against
+//!                               native; flash, stack and heap budgets (docs/firmware.md)
 //! ```
 
 mod bench;
 mod c;
+mod firmware;
 mod flash;
 mod setup;
 mod test;
@@ -37,12 +41,17 @@ fn main() -> ExitCode {
         Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
         Some("c-test") => c::test(&root),
         Some("spreadsheet") => c::spreadsheet(&root),
+        Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
+            Some(file) => firmware::compare_file(&root, file, Path::new(file)),
+            None => Err("usage: cargo xtask bits --compare FILE".to_owned()),
+        },
+        Some("firmware") => firmware::run(&root),
         Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
             for line in lines {
                 println!("{line}");
             }
         }),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits"
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits [--compare FILE] | firmware"
                 .to_owned()),
         };
     match result {

@@ -73,6 +73,10 @@ pub fn run(root: &Path) -> Result<(), String> {
         "spreadsheet host: headless LibreOffice Calc through the shared library",
         crate::c::spreadsheet(root),
     );
+    step(
+        "firmware: vectors on emulated Cortex-M4F and M3 bit-identical to native, flash/stack/heap budgets",
+        crate::firmware::run(root),
+    );
     let failed_count = failed.len();
     eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
     println!("{passed} passed, {failed_count} failed");
@@ -88,7 +92,7 @@ pub fn run(root: &Path) -> Result<(), String> {
 const PROPTEST_SEED: &str = "19761976";
 
 /// Debian's rustc building `core` from source (the fallback of ../shared/notes/toolchains.md).
-const DEBIAN_ENVS: [(&str, &str); 3] =
+pub(crate) const DEBIAN_ENVS: [(&str, &str); 3] =
     [("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")];
 
 fn no_std_build(
