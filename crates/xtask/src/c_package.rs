@@ -18,6 +18,7 @@ use std::fs;
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
+use crate::setup::TargetToolchain;
 use crate::target_dir;
 
 /// The SONAME's version: major and minor until 1.0, when it becomes the major alone
@@ -185,6 +186,22 @@ pub fn package(
     fs::write(&version_path, config_version).map_err(|e| err("write", &version_path, e))?;
     eprintln!("C package in {}", prefix.display());
     Ok(Package { prefix: prefix.to_path_buf(), static_lib, shared_lib, native_static_libs })
+}
+
+/// The bare-metal package for `target` at its default prefix, built by rustup's target
+/// or, where rustup could not add it, by Debian's rustc building `core` and `alloc`.
+pub fn bare_metal(root: &Path, target: &str, toolchain: TargetToolchain) -> Result<Package, String> {
+    let prefix = default_prefix(root, Some(target));
+    match toolchain {
+        TargetToolchain::Rustup => package(root, Some(target), &prefix, &[], &[]),
+        TargetToolchain::DebianBuildStd => package(
+            root,
+            Some(target),
+            &prefix,
+            &crate::test::DEBIAN_ENVS,
+            &["-Zbuild-std=core,alloc", "--target-dir", "target/debian-rustc"],
+        ),
+    }
 }
 
 fn symlink(original: &str, link: &Path) -> Result<(), String> {

@@ -1,12 +1,13 @@
 //! What the upper-atmosphere table costs in flash on a Cortex-M4F: the core is built for
 //! `thumbv7em-none-eabihf` (release, no LTO so that the rlib holds machine code), and the
 //! sizes of the table's statics are read from the symbol table of the object in the rlib.
+//! The symbol and section readers here also serve the firmware budgets (firmware.rs).
 
 use std::fs;
 use std::path::Path;
 
 use object::read::archive::ArchiveFile;
-use object::{Object, ObjectSymbol};
+use object::{Object, ObjectSection, ObjectSymbol};
 
 use crate::run_command;
 
@@ -51,22 +52,43 @@ pub fn table_sizes(
         // aligned (a fresh allocation is, with the system allocator's 16 bytes).
         let bytes = member.data(&*data).map_err(|e| e.to_string())?.to_vec();
         let file = object::File::parse(&*bytes).map_err(|e| format!("object in {}: {e}", rlib.display()))?;
-        for symbol in file.symbols() {
-            let name = symbol.name().unwrap_or_default();
-            if name.contains("upper_table") {
-                let short = ["LN_DENSITY", "SLOPE", "SEGMENTS"]
-                    .iter()
-                    .find(|s| name.contains(*s))
-                    .unwrap_or(&"other");
-                sizes.push(((*short).to_owned(), symbol.size()));
-            }
-        }
+        sizes.extend(upper_table_symbols(&symbols(&file)));
     }
     if sizes.is_empty() {
         return Err(format!("no upper_table symbols found in {}", rlib.display()));
     }
     sizes.sort();
     Ok(sizes)
+}
+
+/// Every defined symbol of an object or ELF file with a size, as (name, size in bytes).
+pub fn symbols(file: &object::File) -> Vec<(String, u64)> {
+    file.symbols()
+        .filter(|s| s.is_definition() && s.size() > 0)
+        .map(|s| (s.name().unwrap_or_default().to_owned(), s.size()))
+        .collect()
+}
+
+/// The statics of `model::upper_table` among `symbols`, named by their short name.
+pub fn upper_table_symbols(symbols: &[(String, u64)]) -> Vec<(String, u64)> {
+    symbols
+        .iter()
+        .filter(|(name, _)| name.contains("upper_table"))
+        .map(|(name, size)| {
+            let short =
+                ["LN_DENSITY", "SLOPE", "SEGMENTS"].iter().find(|s| name.contains(*s)).unwrap_or(&"other");
+            ((*short).to_owned(), *size)
+        })
+        .collect()
+}
+
+/// Bytes of flash an ELF firmware image gives its code and constants: .text + .rodata
+/// (the vector table, .data's load image and the other sections are reported apart).
+pub fn code_and_constants_bytes(file: &object::File) -> Result<u64, String> {
+    let size = |name: &str| {
+        file.section_by_name(name).map(|s| s.size()).ok_or_else(|| format!("the ELF has no {name} section"))
+    };
+    Ok(size(".text")? + size(".rodata")?)
 }
 
 /// Fails when the table exceeds its budget; prints the figures.

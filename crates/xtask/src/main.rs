@@ -11,11 +11,16 @@
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
+//! cargo xtask bits --compare FILE  another host's bit lines in FILE against the native ones
+//! cargo xtask firmware          the vectors in QEMU on Cortex-M4F and M3, bit for bit against
+//!                               native; flash, stack and heap budgets (docs/firmware.md)
 //! ```
 
 mod bench;
 mod c;
 mod c_package;
+mod firmware;
+mod firmware_c;
 mod flash;
 mod setup;
 mod test;
@@ -26,28 +31,35 @@ mod vectors;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
+const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
+                     | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
+                     | bench | bits [--compare FILE] | firmware";
+
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
     let root = workspace_root();
-    let result =
-        match args.first().map(String::as_str) {
-            Some("test") => test::run(&root),
-            Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
-            Some("bench") => bench::run(&root),
-            Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
-            Some("flash") => flash::check(&root, &[], &[]),
+    let result = match args.first().map(String::as_str) {
+        Some("test") => test::run(&root),
+        Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
+        Some("bench") => bench::run(&root),
+        Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
+        Some("flash") => flash::check(&root, &[], &[]),
         Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
         Some("c-package") => c_package::run(&root, &args[1..]),
         Some("c-test") => c::test(&root),
         Some("spreadsheet") => c::spreadsheet(&root),
+        Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
+            Some(file) => firmware::compare_file(&root, file, Path::new(file)),
+            None => Err("usage: cargo xtask bits --compare FILE".to_owned()),
+        },
+        Some("firmware") => firmware::run(&root),
         Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
             for line in lines {
                 println!("{line}");
             }
         }),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet | bench | bits"
-                .to_owned()),
-        };
+        _ => Err(USAGE.to_owned()),
+    };
     match result {
         Ok(()) => ExitCode::SUCCESS,
         Err(message) => {

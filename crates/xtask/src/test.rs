@@ -60,25 +60,6 @@ pub fn run(root: &Path) -> Result<(), String> {
             TargetToolchain::DebianBuildStd => (&DEBIAN_ENVS[..], &["-Zbuild-std=core"][..]),
         };
         step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
-        // The C library allocates its handles, so it needs `alloc` as well as `core`.
-        let package_args: &[&str] = match toolchain {
-            TargetToolchain::Rustup => &[],
-            TargetToolchain::DebianBuildStd => {
-                &["-Zbuild-std=core,alloc", "--target-dir", "target/debian-rustc"]
-            }
-        };
-        let triple = FIRMWARE_TARGETS[0];
-        step(
-            "C library as a no_std static library for thumbv7em-none-eabihf (cargo xtask c-package --target)",
-            crate::c_package::package(
-                root,
-                Some(triple),
-                &crate::c_package::default_prefix(root, Some(triple)),
-                envs,
-                package_args,
-            )
-            .map(|_| ()),
-        );
     }
     step("upper-atmosphere table is fresh (cargo xtask upper-table --check)", crate::upper::run(root, true));
     step(
@@ -91,6 +72,11 @@ pub fn run(root: &Path) -> Result<(), String> {
     step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
         crate::c::spreadsheet(root),
+    );
+    step(
+        "firmware: vectors on emulated Cortex-M4F and M3 and the C library in C firmware, bit-identical \
+         to native; flash/stack/heap budgets",
+        crate::firmware::run(root),
     );
     let failed_count = failed.len();
     eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
@@ -107,7 +93,7 @@ pub fn run(root: &Path) -> Result<(), String> {
 const PROPTEST_SEED: &str = "19761976";
 
 /// Debian's rustc building `core` from source (the fallback of ../shared/notes/toolchains.md).
-const DEBIAN_ENVS: [(&str, &str); 3] =
+pub(crate) const DEBIAN_ENVS: [(&str, &str); 3] =
     [("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")];
 
 fn no_std_build(

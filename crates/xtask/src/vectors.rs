@@ -327,7 +327,7 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
 /// `undefined` where the model defines no value there). Every host (native, wasm,
 /// firmware) writes this same format, so that a plain line comparison proves or refutes
 /// bit identity. Empty reference cells are included: identity is about our outputs.
-pub fn bit_lines(files: &[VectorFile]) -> Result<Vec<String>, String> {
+pub fn bit_lines<'a>(files: impl IntoIterator<Item = &'a VectorFile>) -> Result<Vec<String>, String> {
     let mut lines = Vec::new();
     for file in files {
         let name = file.path.display();

@@ -1,0 +1,617 @@
+//! `cargo xtask firmware`: the core on emulated Cortex-M (tests/firmware in QEMU), bit for
+//! bit against the native build, within its flash, stack and heap budgets.
+//!
+//! For each of the two targets (Cortex-M4F on the MPS2 AN386 board, Cortex-M3 on the
+//! LM3S6965 board) it builds the vector harness and the budget firmwares, runs them in
+//! QEMU under `timeout`, reads the bit lines and the harness lines they print over
+//! semihosting, compares every bit line with `vectors::bit_lines` evaluated natively, and
+//! checks the budgets: flash (.text + .rodata of `budget-state` less `budget-empty`) for
+//! the lower standard alone and with the upper atmosphere, the stack high-water mark of a
+//! full-state evaluation (painted stack, plus the result the caller holds), and no heap
+//! (no allocator symbol in any image). docs/firmware.md explains each figure.
+
+use std::fmt::Write as _;
+use std::fs;
+use std::path::{Path, PathBuf};
+use std::process::Command;
+use std::time::Instant;
+
+use crate::flash;
+use crate::setup::{self, TargetToolchain, FIRMWARE_TARGETS};
+use crate::vectors;
+
+/// Flash budget of a firmware that uses only the lower standard atmosphere, bytes.
+pub const LOWER_FLASH_BUDGET_BYTES: u64 = 12 * 1024;
+/// Flash budget with the upper atmosphere (86-1000 km) as well, bytes.
+pub const UPPER_FLASH_BUDGET_BYTES: u64 = 40 * 1024;
+/// Stack budget of one full-state evaluation, the result included, bytes.
+pub const STACK_BUDGET_BYTES: u64 = 1024;
+
+/// Seconds a QEMU run may take before `timeout` ends it (the runs take well under one).
+const QEMU_TIMEOUT_S: &str = "120";
+
+/// The emulated board and CPU of each firmware target.
+fn machine(target: &str) -> Result<(&'static str, &'static str), String> {
+    match target {
+        "thumbv7em-none-eabihf" => Ok(("mps2-an386", "cortex-m4")),
+        "thumbv7m-none-eabi" => Ok(("lm3s6965evb", "cortex-m3")),
+        other => Err(format!("no QEMU machine for {other}")),
+    }
+}
+
+/// QEMU's arguments before the ELF path; tests/firmware/.cargo/config.toml's runners use
+/// the same (a unit test keeps them in step).
+fn qemu_args(target: &str) -> Result<Vec<String>, String> {
+    let (machine, cpu) = machine(target)?;
+    let args = [
+        "-machine",
+        machine,
+        "-cpu",
+        cpu,
+        "-nographic",
+        "-monitor",
+        "none",
+        "-serial",
+        "none",
+        "-semihosting-config",
+        "enable=on,target=native",
+        "-kernel",
+    ];
+    Ok(args.iter().map(|a| (*a).to_owned()).collect())
+}
+
+/// Symbols that only a program with a heap contains: Rust's allocator shims and C's malloc.
+const ALLOCATOR_SYMBOLS: [&str; 6] =
+    ["__rust_alloc", "__rdl_alloc", "__rg_alloc", "__rust_alloc_error_handler", "malloc", "_malloc_r"];
+
+/// What one target gave.
+struct TargetReport {
+    target: String,
+    values: usize,
+    checked: usize,
+    identical: usize,
+    harness_seconds: f64,
+    lower_flash: Flash,
+    upper_flash: Flash,
+    /// Worst stack of a full-state evaluation, bytes: the harness over every us1976 row,
+    /// the lower-only budget firmware and the upper one.
+    stack_state: [u64; 3],
+    stack_result: u64,
+    stack_species: u64,
+    stack_row: u64,
+}
+
+/// The flash of a budget firmware pair, bytes.
+struct Flash {
+    empty: u64,
+    state: u64,
+    /// Of the difference: libm's functions, the soft-float routines, the upper table.
+    libm: u64,
+    soft_float: u64,
+    table: u64,
+}
+
+impl Flash {
+    fn cost(&self) -> u64 {
+        self.state.saturating_sub(self.empty)
+    }
+}
+
+/// `cargo xtask firmware`.
+pub fn run(root: &Path) -> Result<(), String> {
+    let toolchain = setup::firmware_targets(root)?;
+    setup::apt_install(root, &["qemu-system-arm"])?;
+    let firmware = root.join("tests/firmware");
+    let native = vectors::bit_lines(&vectors::read_all(root)?)?;
+
+    let mut reports = Vec::new();
+    let mut failures = Vec::new();
+    if let Err(message) = lint(&firmware, toolchain) {
+        failures.push(format!("lints: {message}"));
+    }
+    for target in FIRMWARE_TARGETS {
+        match run_target(root, toolchain, target, &native) {
+            Ok(report) => reports.push(report),
+            Err(message) => failures.push(format!("{target}: {message}")),
+        }
+    }
+    for report in &reports {
+        failures.extend(budget_failures(report));
+    }
+    eprintln!("{}", summary(&reports));
+    match crate::firmware_c::run(root, toolchain) {
+        Ok(report) => eprintln!(
+            "C firmware on Cortex-M4F (QEMU {:.2} s): {} values bit-identical to native; its checks: {}",
+            report.seconds, report.identical, report.tally
+        ),
+        Err(message) => failures.push(format!("C firmware: {message}")),
+    }
+    // The comparison with the wasm module's bit lines (`compare_bits` on its output)
+    // joins here once the wasm module exists.
+    if failures.is_empty() {
+        Ok(())
+    } else {
+        Err(failures.join("\n"))
+    }
+}
+
+/// How cargo builds for the thumb targets on this machine: (extra environment, extra
+/// arguments, target directory).
+fn build_settings(root: &Path, toolchain: TargetToolchain) -> (Vec<(String, String)>, Vec<String>, PathBuf) {
+    let target_dir = crate::target_dir(root);
+    match toolchain {
+        TargetToolchain::Rustup => (Vec::new(), Vec::new(), target_dir.join("firmware")),
+        TargetToolchain::DebianBuildStd => {
+            let mut envs: Vec<(String, String)> =
+                crate::test::DEBIAN_ENVS.iter().map(|(k, v)| ((*k).to_owned(), (*v).to_owned())).collect();
+            // Debian's rustc has no rust-lld of its own.
+            for target in FIRMWARE_TARGETS {
+                let key = format!("CARGO_TARGET_{}_LINKER", target.to_uppercase().replace('-', "_"));
+                envs.push((key, "ld.lld-16".to_owned()));
+            }
+            (envs, vec!["-Zbuild-std=core".to_owned()], target_dir.join("firmware-debian"))
+        }
+    }
+}
+
+/// Runs cargo in tests/firmware (so that its .cargo/config.toml applies).
+fn cargo(firmware: &Path, toolchain: TargetToolchain, args: &[&str]) -> Result<(), String> {
+    let root = firmware.ancestors().nth(2).ok_or("tests/firmware has no root")?;
+    let (envs, extra, target_dir) = build_settings(root, toolchain);
+    let mut all: Vec<String> = args.iter().map(|a| (*a).to_owned()).collect();
+    if args.first().is_some_and(|a| *a != "fmt") {
+        // Cargo's own options go before a `--` that hands the rest to the compiler.
+        let at = all.iter().position(|a| a == "--").unwrap_or(all.len());
+        let mut own = vec!["--target-dir".to_owned(), target_dir.display().to_string()];
+        own.extend(extra);
+        all.splice(at..at, own);
+    }
+    eprintln!("+ (tests/firmware) cargo {}", all.join(" "));
+    let status = Command::new("cargo")
+        .args(&all)
+        .envs(envs)
+        .current_dir(firmware)
+        .status()
+        .map_err(|e| format!("cannot start cargo: {e}"))?;
+    if status.success() {
+        Ok(())
+    } else {
+        Err(format!("`cargo {}` in tests/firmware failed ({status})", all.join(" ")))
+    }
+}
+
+/// rustfmt and clippy (`-D warnings`) on the firmware crate, for both thumb targets and
+/// both feature sets. Clippy needs rustup's standard library for the targets, so with
+/// Debian's rustc (the fallback) only the format is checked.
+fn lint(firmware: &Path, toolchain: TargetToolchain) -> Result<(), String> {
+    cargo(firmware, toolchain, &["fmt", "--", "--check"])?;
+    if toolchain == TargetToolchain::DebianBuildStd {
+        eprintln!("clippy for the thumb targets needs rustup's targets; skipped with Debian's rustc");
+        return Ok(());
+    }
+    for target in FIRMWARE_TARGETS {
+        for features in [&[][..], &["--features", "upper"][..]] {
+            let mut args = vec!["clippy", "--quiet", "--release", "--target", target, "--bins", "--lib"];
+            args.extend(features);
+            args.extend(["--", "-D", "warnings"]);
+            cargo(firmware, toolchain, &args)?;
+        }
+    }
+    Ok(())
+}
+
+/// One QEMU run: exit status, stdout, seconds.
+pub(crate) struct QemuRun {
+    pub success: bool,
+    pub status: String,
+    pub stdout: String,
+    pub stderr: String,
+    pub seconds: f64,
+}
+
+pub(crate) fn qemu(target: &str, elf: &Path) -> Result<QemuRun, String> {
+    let mut args = vec![QEMU_TIMEOUT_S.to_owned(), "qemu-system-arm".to_owned()];
+    args.extend(qemu_args(target)?);
+    args.push(elf.display().to_string());
+    eprintln!("+ timeout {}", args.join(" "));
+    let started = Instant::now();
+    let output =
+        Command::new("timeout").args(&args).output().map_err(|e| format!("cannot start timeout: {e}"))?;
+    let seconds = started.elapsed().as_secs_f64();
+    let status = match output.status.code() {
+        Some(124) => format!("timed out after {QEMU_TIMEOUT_S} s"),
+        _ => output.status.to_string(),
+    };
+    Ok(QemuRun {
+        success: output.status.success(),
+        status,
+        stdout: String::from_utf8_lossy(&output.stdout).into_owned(),
+        stderr: String::from_utf8_lossy(&output.stderr).into_owned(),
+        seconds,
+    })
+}
+
+/// A firmware's output split into harness lines (`# ...`, without the prefix) and bit lines.
+pub(crate) fn split_output(stdout: &str) -> (Vec<String>, Vec<String>) {
+    let mut harness = Vec::new();
+    let mut bits = Vec::new();
+    for line in stdout.lines().map(str::trim_end).filter(|l| !l.is_empty()) {
+        match line.strip_prefix("# ") {
+            Some(rest) => harness.push(rest.to_owned()),
+            None => bits.push(line.to_owned()),
+        }
+    }
+    (harness, bits)
+}
+
+/// The number N of the harness line `PREFIX N ...` (e.g. `stack state 740 B`).
+fn figure(harness: &[String], prefix: &str) -> Result<u64, String> {
+    harness
+        .iter()
+        .filter_map(|l| l.strip_prefix(prefix))
+        .filter_map(|rest| rest.split_whitespace().next().and_then(|n| n.parse::<u64>().ok()))
+        .max()
+        .ok_or_else(|| format!("no line '# {prefix} N' in the firmware's output"))
+}
+
+/// Reads an ELF image and fails if it links an allocator.
+fn read_elf(path: &Path) -> Result<Vec<u8>, String> {
+    let data = fs::read(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let file = object::File::parse(&*data).map_err(|e| format!("{}: {e}", path.display()))?;
+    let names: Vec<String> = flash::symbols(&file).into_iter().map(|(name, _)| name).collect();
+    no_heap(&names).map_err(|e| format!("{}: {e}", path.display()))?;
+    Ok(data)
+}
+
+/// Err naming every allocator symbol among `names`.
+fn no_heap(names: &[String]) -> Result<(), String> {
+    let found: Vec<&str> = names
+        .iter()
+        .map(String::as_str)
+        .filter(|name| ALLOCATOR_SYMBOLS.iter().any(|a| name == a || name.starts_with(&format!("{a}."))))
+        .collect();
+    if found.is_empty() {
+        Ok(())
+    } else {
+        Err(format!("links a heap allocator: {}", found.join(", ")))
+    }
+}
+
+/// The flash figures of one budget firmware pair, from the two ELF images.
+fn flash_pair(empty: &[u8], state: &[u8]) -> Result<Flash, String> {
+    let empty = object::File::parse(empty).map_err(|e| e.to_string())?;
+    let state = object::File::parse(state).map_err(|e| e.to_string())?;
+    let empty_names: Vec<String> = flash::symbols(&empty).into_iter().map(|(n, _)| n).collect();
+    let added: Vec<(String, u64)> =
+        flash::symbols(&state).into_iter().filter(|(n, _)| !empty_names.contains(n)).collect();
+    let sum =
+        |keep: &dyn Fn(&str) -> bool| -> u64 { added.iter().filter(|(n, _)| keep(n)).map(|(_, s)| s).sum() };
+    Ok(Flash {
+        empty: flash::code_and_constants_bytes(&empty)?,
+        state: flash::code_and_constants_bytes(&state)?,
+        libm: sum(&|n| n.contains("4libm")),
+        soft_float: sum(&|n| n.contains("compiler_builtins") || n.starts_with("__aeabi_")),
+        table: flash::upper_table_symbols(&added).iter().map(|(_, s)| s).sum(),
+    })
+}
+
+fn run_target(
+    root: &Path,
+    toolchain: TargetToolchain,
+    target: &str,
+    native: &[String],
+) -> Result<TargetReport, String> {
+    let firmware = root.join("tests/firmware");
+    let (_, _, target_dir) = build_settings(root, toolchain);
+    let release = target_dir.join(target).join("release");
+
+    // With the upper atmosphere: the vector harness and the upper budget pair.
+    cargo(
+        &firmware,
+        toolchain,
+        &["build", "--quiet", "--release", "--target", target, "--features", "upper"],
+    )?;
+    let harness_elf = release.join("vectors");
+    read_elf(&harness_elf)?;
+    let harness = qemu(target, &harness_elf)?;
+    let (lines, bits) = split_output(&harness.stdout);
+    for line in lines.iter().filter(|l| l.starts_with("miss") || l.starts_with("error")) {
+        eprintln!("{target}: {line}");
+    }
+    if !harness.success {
+        return Err(format!(
+            "the vector harness failed in QEMU ({}); last output:\n{}{}",
+            harness.status,
+            tail(&harness.stdout, 10),
+            tail(&harness.stderr, 5)
+        ));
+    }
+    let identical = compare_bits(target, native, &bits)?;
+    let values = usize::try_from(figure(&lines, "summary")?).map_err(|e| e.to_string())?;
+    let checked = lines
+        .iter()
+        .find_map(|l| l.strip_prefix("summary"))
+        .and_then(|l| l.split(',').nth(1))
+        .and_then(|c| c.split_whitespace().next())
+        .and_then(|n| n.parse().ok())
+        .ok_or("no checked count in the summary line")?;
+    if values != native.len() {
+        return Err(format!("the harness evaluated {values} values, the native build {}", native.len()));
+    }
+    let upper = budget_pair(&release, target)?;
+
+    // The lower standard alone.
+    cargo(
+        &firmware,
+        toolchain,
+        &[
+            "build",
+            "--quiet",
+            "--release",
+            "--target",
+            target,
+            "--bin",
+            "budget-empty",
+            "--bin",
+            "budget-state",
+        ],
+    )?;
+    let lower = budget_pair(&release, target)?;
+
+    Ok(TargetReport {
+        target: target.to_owned(),
+        values,
+        checked,
+        identical,
+        harness_seconds: harness.seconds,
+        lower_flash: lower.0,
+        upper_flash: upper.0,
+        stack_state: [figure(&lines, "stack state")?, lower.1, upper.1],
+        stack_result: figure(&lines, "stack result")?,
+        stack_species: figure(&lines, "stack species")?,
+        stack_row: figure(&lines, "stack row")?,
+    })
+}
+
+/// Reads and runs the budget firmware pair just built: its flash figures and the deepest
+/// stack of a state evaluation `budget-state` measured.
+fn budget_pair(release: &Path, target: &str) -> Result<(Flash, u64), String> {
+    let empty = read_elf(&release.join("budget-empty"))?;
+    let state_elf = release.join("budget-state");
+    let state = read_elf(&state_elf)?;
+    let flash = flash_pair(&empty, &state)?;
+    let run = qemu(target, &state_elf)?;
+    if !run.success {
+        return Err(format!("budget-state failed in QEMU ({}):\n{}", run.status, tail(&run.stdout, 10)));
+    }
+    let (lines, _) = split_output(&run.stdout);
+    Ok((flash, figure(&lines, "stack state")?))
+}
+
+pub(crate) fn tail(text: &str, lines: usize) -> String {
+    let all: Vec<&str> = text.lines().collect();
+    all[all.len().saturating_sub(lines)..].iter().map(|l| format!("  {l}\n")).collect()
+}
+
+/// Compares another host's bit lines with the native ones, line by line, and returns how
+/// many are identical; Err names, for every difference, the vector (file and input), the
+/// quantity and both values (bits and decimal).
+pub fn compare_bits(host: &str, native: &[String], other: &[String]) -> Result<usize, String> {
+    let mut differences = Vec::new();
+    let mut identical = 0usize;
+    for (index, (ours, theirs)) in native.iter().zip(other).enumerate() {
+        let (key_native, bits_native) = ours.rsplit_once(' ').unwrap_or((ours, ""));
+        let (key_other, bits_other) = theirs.rsplit_once(' ').unwrap_or((theirs, ""));
+        if key_native != key_other {
+            differences.push(format!(
+                "line {}: the native build has '{key_native}', {host} has '{key_other}' (the lists are out of step)",
+                index + 1
+            ));
+            break;
+        }
+        if bits_native == bits_other {
+            identical += 1;
+            continue;
+        }
+        let mut words = key_native.splitn(3, ' ');
+        let (file, input, quantity) =
+            (words.next().unwrap_or(""), words.next().unwrap_or(""), words.next().unwrap_or(""));
+        differences.push(format!(
+            "{file} at input {input}, {quantity}: native {}, {host} {}",
+            describe(bits_native),
+            describe(bits_other)
+        ));
+    }
+    if native.len() != other.len() {
+        differences.push(format!("the native build gave {} values, {host} {}", native.len(), other.len()));
+    }
+    if differences.is_empty() {
+        Ok(identical)
+    } else {
+        let shown = differences.len().min(50);
+        let mut message =
+            format!("{} bit difference(s) between the native build and {host}:\n", differences.len());
+        for difference in &differences[..shown] {
+            let _ = writeln!(message, "  {difference}");
+        }
+        if shown < differences.len() {
+            let _ = writeln!(message, "  ... and {} more", differences.len() - shown);
+        }
+        Err(message)
+    }
+}
+
+/// A bit field of a bit line, with its decimal value: `0x40d61a0000000000 (22632.0)`.
+fn describe(bits: &str) -> String {
+    match u64::from_str_radix(bits, 16) {
+        Ok(b) if bits.len() == 16 => format!("0x{bits} ({:?})", f64::from_bits(b)),
+        _ => format!("'{bits}'"),
+    }
+}
+
+/// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,
+/// written by its Node script) against the native ones.
+pub fn compare_file(root: &Path, host: &str, path: &Path) -> Result<(), String> {
+    let text = fs::read_to_string(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let (_, other) = split_output(&text);
+    let native = vectors::bit_lines(&vectors::read_all(root)?)?;
+    let identical = compare_bits(host, &native, &other)?;
+    eprintln!("{host}: {identical} values bit-identical to the native build");
+    Ok(())
+}
+
+/// Every budget a target's figures exceed, as messages.
+fn budget_failures(report: &TargetReport) -> Vec<String> {
+    let mut failures = Vec::new();
+    let target = &report.target;
+    for (name, flash, budget) in [
+        ("lower standard only", &report.lower_flash, LOWER_FLASH_BUDGET_BYTES),
+        ("with the upper atmosphere", &report.upper_flash, UPPER_FLASH_BUDGET_BYTES),
+    ] {
+        if flash.cost() > budget {
+            failures
+                .push(format!("{target}: flash {name} is {} B, over the {budget} B budget", flash.cost()));
+        }
+    }
+    let deepest = report.stack_state.iter().max().copied().unwrap_or(u64::MAX);
+    if deepest + report.stack_result > STACK_BUDGET_BYTES {
+        failures.push(format!(
+            "{target}: a full-state evaluation takes {deepest} B of stack plus its {} B result, over the {STACK_BUDGET_BYTES} B budget",
+            report.stack_result
+        ));
+    }
+    failures
+}
+
+fn kib(bytes: u64) -> String {
+    format!("{bytes} B ({:.1} KiB)", bytes as f64 / 1024.0)
+}
+
+/// The figures of every target, as printed at the end of the run.
+fn summary(reports: &[TargetReport]) -> String {
+    let mut text = String::from("\nfirmware figures:\n");
+    for r in reports {
+        let [harness, lower, upper] = r.stack_state;
+        let _ = writeln!(
+            text,
+            "{}: {} of {} values bit-identical to native; {} reference values checked; vector run {:.2} s in QEMU",
+            r.target, r.identical, r.values, r.checked, r.harness_seconds
+        );
+        for (name, f, budget) in [
+            ("lower only", &r.lower_flash, LOWER_FLASH_BUDGET_BYTES),
+            ("with upper", &r.upper_flash, UPPER_FLASH_BUDGET_BYTES),
+        ] {
+            let _ = writeln!(
+                text,
+                "  flash {name}: {} (budget {}); of which libm {} B, soft-float routines {} B, upper table {} B; baseline firmware {} B",
+                kib(f.cost()),
+                kib(budget),
+                f.libm,
+                f.soft_float,
+                f.table,
+                f.empty
+            );
+        }
+        let _ = writeln!(
+            text,
+            "  stack of a full-state evaluation: {harness} B (every vector altitude), {lower} B (lower only), {upper} B (with upper); + {} B result = {} B (budget {STACK_BUDGET_BYTES} B)",
+            r.stack_result,
+            harness.max(lower).max(upper) + r.stack_result
+        );
+        let _ = writeln!(
+            text,
+            "  stack of the species: {} B; of the harness's generic row evaluation: {} B; heap: none",
+            r.stack_species, r.stack_row
+        );
+    }
+    text
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn lines(text: &str) -> Vec<String> {
+        text.lines().map(str::to_owned).collect()
+    }
+
+    #[test]
+    fn identical_lines_are_counted() {
+        let native = lines("usa76_lower 0 temperature_K 4072026666666666\nf 1 q undefined");
+        assert_eq!(compare_bits("m4", &native, &native.clone()), Ok(2));
+    }
+
+    #[test]
+    fn a_difference_names_vector_quantity_and_both_values() {
+        let native = lines("usa76_lower 11000 pressure_Pa 40d61a0000000000");
+        let other = lines("usa76_lower 11000 pressure_Pa 40d61a0000000001");
+        let error = compare_bits("thumbv7m-none-eabi", &native, &other).unwrap_err();
+        assert!(error.contains("usa76_lower at input 11000, pressure_Pa"), "{error}");
+        assert!(error.contains("native 0x40d61a0000000000 (22632.0)"), "{error}");
+        assert!(error.contains("thumbv7m-none-eabi 0x40d61a0000000001"), "{error}");
+    }
+
+    #[test]
+    fn missing_extra_and_shifted_lines_fail() {
+        let native = lines("a 1 x 0000000000000000\na 2 x 0000000000000000");
+        assert!(compare_bits("h", &native, &native[..1]).unwrap_err().contains("gave 2 values, h 1"));
+        let shifted = lines("a 2 x 0000000000000000\na 1 x 0000000000000000");
+        assert!(compare_bits("h", &native, &shifted).unwrap_err().contains("out of step"));
+        let undefined = lines("a 1 x undefined\na 2 x 0000000000000000");
+        assert!(compare_bits("h", &native, &undefined).unwrap_err().contains("h 'undefined'"));
+    }
+
+    #[test]
+    fn harness_lines_are_told_from_bit_lines() {
+        let (harness, bits) =
+            split_output("# stack state 740 B\nf 1 q 0000000000000000\n# summary 1 values\n");
+        assert_eq!(harness, ["stack state 740 B", "summary 1 values"]);
+        assert_eq!(bits, ["f 1 q 0000000000000000"]);
+        assert_eq!(figure(&harness, "stack state"), Ok(740));
+        assert!(figure(&harness, "stack row").is_err());
+    }
+
+    #[test]
+    fn allocator_symbols_are_found() {
+        let clean = lines("main\n__aeabi_dadd\nlibm_malloc_free_helper");
+        assert!(no_heap(&clean).is_ok());
+        let heap = lines("main\n__rust_alloc\nmalloc");
+        assert_eq!(no_heap(&heap), Err("links a heap allocator: __rust_alloc, malloc".to_owned()));
+    }
+
+    #[test]
+    fn budgets_fail_when_exceeded() {
+        let flash = |cost: u64| Flash { empty: 1000, state: 1000 + cost, libm: 0, soft_float: 0, table: 0 };
+        let report = |lower: u64, upper: u64, stack: u64| TargetReport {
+            target: "t".to_owned(),
+            values: 1,
+            checked: 1,
+            identical: 1,
+            harness_seconds: 0.0,
+            lower_flash: flash(lower),
+            upper_flash: flash(upper),
+            stack_state: [stack, 0, 0],
+            stack_result: 192,
+            stack_species: 0,
+            stack_row: 0,
+        };
+        assert!(budget_failures(&report(12 * 1024, 40 * 1024, 1024 - 192)).is_empty());
+        assert_eq!(budget_failures(&report(12 * 1024 + 1, 0, 0)).len(), 1);
+        assert_eq!(budget_failures(&report(0, 40 * 1024 + 1, 0)).len(), 1);
+        assert!(budget_failures(&report(0, 0, 1024 - 191))[0].contains("stack"));
+    }
+
+    /// The runners a person uses (`cargo run` in tests/firmware) start QEMU as this does.
+    #[test]
+    fn cargo_runners_match_the_qemu_arguments() {
+        let config =
+            fs::read_to_string(crate::workspace_root().join("tests/firmware/.cargo/config.toml")).unwrap();
+        for target in FIRMWARE_TARGETS {
+            let section = config.split(&format!("[target.{target}]")).nth(1).unwrap();
+            let runner = section.lines().find(|l| l.starts_with("runner")).unwrap();
+            let expected = format!("qemu-system-arm {}\"", qemu_args(target).unwrap().join(" "));
+            assert!(runner.starts_with("runner = \"timeout "), "{runner}");
+            assert!(runner.ends_with(&expected), "{runner} should end with {expected}");
+        }
+    }
+}
