@@ -325,13 +325,15 @@ where
             }
         }
     }
-    for marker in &panel.markers {
+    for (number, marker) in panel.markers.iter().enumerate() {
         let colour = color(marker.color);
         let (x_range, _) = (chart.x_range(), ());
         let in_right_half = (marker.at.0 - x_range.start) > 0.55 * (x_range.end - x_range.start);
         // plotters' estimate of text width is about 0.46 em per character.
         let width = (marker.text.chars().count() as f64 * 13.0 * 0.5) as i32;
-        let offset = if in_right_half { (-10 - width, -18) } else { (10, -18) };
+        // Notes alternate above and below their points, so that two close ones stay apart.
+        let dy = if number % 2 == 0 { -18 } else { 8 };
+        let offset = if in_right_half { (-10 - width, dy) } else { (10, dy) };
         let dot = EmptyElement::at(marker.at)
             + Circle::new((0, 0), 5, colour.filled())
             + Circle::new((0, 0), 5, BLACK.stroke_width(1))
