@@ -478,7 +478,7 @@ fn man(args: &ManArgs) -> Result<(), Failure> {
         name = format!("{name}-{word}");
         page = found;
     }
-    let page = page.display_name(name);
+    let page = page.display_name(name).version(env!("CARGO_PKG_VERSION"));
     let mut destination = Destination::open(args.output.as_deref())?;
     clap_mangen::Man::new(page).render(&mut destination)?;
     destination.commit()

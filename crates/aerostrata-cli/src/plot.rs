@@ -360,7 +360,7 @@ where
 }
 
 /// At most this many points are kept of a flight for plotting.
-pub const FLIGHT_PLOT_POINTS: usize = 4096;
+pub const FLIGHT_PLOT_POINTS: usize = 1024;
 
 /// A flight kept for plotting, with bounded memory: every sample is offered, and when
 /// the buffer is full every other kept point is dropped and the stride doubles, so a

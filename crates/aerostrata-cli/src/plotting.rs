@@ -124,7 +124,7 @@ impl PlotQuantity {
 /// The most panels a profile figure holds.
 const MAX_PANELS: usize = 4;
 /// Altitudes per model line.
-const PROFILE_POINTS: usize = 600;
+const PROFILE_POINTS: usize = 300;
 
 pub fn run(command: &PlotCommand) -> Result<(), Failure> {
     let (figure, out) = match command {

@@ -86,6 +86,25 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
             std::fs::write(root.join("docs/images").join(name), &svg)?;
         }
     }
+    if std::env::args().any(|a| a == "--docs") {
+        // Small copies of the two flights (every 0.5 s) for docs/cli.md's examples.
+        for (label, flight) in &flown {
+            let mut text = format!(
+                "# The invented AS-1 demonstrator, {label}, every 0.5 s (examples/ascent; written by\n\
+                 # `cargo run -p ascent --release -- --docs`). Invented data, for demonstrations only.\n\
+                 time_s,altitude_m,velocity_m_s,throttle\n"
+            );
+            for p in flight.points.iter().step_by((0.5 / STEP_S).round() as usize) {
+                writeln!(
+                    text,
+                    "{},{},{},{}",
+                    p.time_s, p.state.altitude_m, p.state.velocity_m_s, p.conditions.throttle
+                )?;
+            }
+            let name = format!("as1_{}.csv", label.replace(' ', "_"));
+            std::fs::write(root.join("examples/data").join(name), text)?;
+        }
+    }
     eprintln!("wrote {}", out.display());
     Ok(())
 }
@@ -138,7 +157,7 @@ fn trajectory_figure(flown: &[(&str, Flight)]) -> Figure {
         let r: Results = flight.results();
         let series = |f: &dyn Fn(&ascent::Point) -> f64| Series {
             label: (*label).to_owned(),
-            points: flight.points.iter().step_by(5).map(|p| (p.time_s, f(p))).collect(),
+            points: flight.points.iter().step_by(20).map(|p| (p.time_s, f(p))).collect(),
             dashed: false,
             color: index,
         };
@@ -148,6 +167,7 @@ fn trajectory_figure(flown: &[(&str, Flight)]) -> Figure {
             .points
             .iter()
             .take_while(|p| p.time_s <= r.burnout.time_s)
+            .step_by(5)
             .map(|p| (p.time_s, p.conditions.throttle))
             .collect();
         throttle.series.push(Series {

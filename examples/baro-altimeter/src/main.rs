@@ -101,13 +101,13 @@ fn figure(
     });
     height.series.push(Series {
         label: "barometric, filtered".to_owned(),
-        points: rows.iter().map(|r| (r.time_s, r.filtered_height_m)).collect(),
+        points: rows.iter().step_by(2).map(|r| (r.time_s, r.filtered_height_m)).collect(),
         dashed: false,
         color: 0,
     });
     height.series.push(Series {
         label: "true (geometric)".to_owned(),
-        points: truth.points.iter().map(|p| (p.time_s, p.altitude_m - pad_m)).collect(),
+        points: truth.points.iter().step_by(5).map(|p| (p.time_s, p.altitude_m - pad_m)).collect(),
         dashed: true,
         color: 1,
     });
@@ -134,7 +134,7 @@ fn figure(
     });
     speed.series.push(Series {
         label: "true".to_owned(),
-        points: truth.points.iter().map(|p| (p.time_s, p.velocity_m_s)).collect(),
+        points: truth.points.iter().step_by(5).map(|p| (p.time_s, p.velocity_m_s)).collect(),
         dashed: true,
         color: 1,
     });
