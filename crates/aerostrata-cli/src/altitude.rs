@@ -2,97 +2,130 @@
 //! barometric altitude relative to a QNH setting or the pad's pressure) from static
 //! pressures given on the command line or read one per line.
 
-use std::fs::File;
-use std::io::{self, BufRead, BufReader, BufWriter, Write};
-use std::path::PathBuf;
-
 use aerostrata::inverse::{
     barometric_altitude_m, density_altitude_from, pressure_altitude, BarometricReference,
 };
+use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{ArgGroup, Args};
 
-use crate::output::exact;
-use crate::Failure;
+use crate::output::{Column, Destination, Format, RowWriter, Style};
+use crate::{Failure, OutputArgs};
 
 #[derive(Args)]
 #[command(group(ArgGroup::new("input").required(true).args(["pressure", "file"])))]
 pub struct AltitudeArgs {
-    /// Static pressure, Pa.
-    #[arg(long, value_name = "PA", allow_negative_numbers = true)]
+    /// Static pressure, Pa (inHg with --units us).
+    #[arg(long, value_name = "P", allow_negative_numbers = true)]
     pressure: Option<f64>,
-    /// File of static pressures in Pa, one per line, instead of --pressure; `-` reads
-    /// stdin. Blank lines and lines starting with `#` are skipped.
-    file: Option<PathBuf>,
-    /// Altimeter setting QNH, Pa: adds the altitude an altimeter set to it reads.
-    #[arg(long, value_name = "PA", allow_negative_numbers = true, conflicts_with = "pad")]
+    /// File of static pressures (Pa, or inHg with --units us), one per line, instead of
+    /// --pressure; `-` reads stdin. Blank lines and lines starting with `#` are skipped.
+    file: Option<std::path::PathBuf>,
+    /// Altimeter setting QNH, Pa or inHg: adds the altitude an altimeter set to it reads.
+    #[arg(long, value_name = "P", allow_negative_numbers = true, conflicts_with = "pad")]
     qnh: Option<f64>,
-    /// The pad's pressure at launch, Pa: adds the height above the pad.
-    #[arg(long, value_name = "PA", allow_negative_numbers = true)]
+    /// The pad's pressure at launch, Pa or inHg: adds the height above the pad.
+    #[arg(long, value_name = "P", allow_negative_numbers = true)]
     pad: Option<f64>,
-    /// Outside air temperature, K: adds the density altitude (dry air).
-    #[arg(long, value_name = "K", allow_negative_numbers = true)]
+    /// Outside air temperature, K or degF: adds the density altitude (dry air).
+    #[arg(long, value_name = "T", allow_negative_numbers = true)]
     temperature: Option<f64>,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Csv)]
+    format: Format,
+    #[command(flatten)]
+    out: OutputArgs,
 }
 
 pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
+    let units = args.out.units;
+    let pressure_unit = units.unit(Quantity::AltimeterPressure);
+    let length = units.unit(Quantity::Length);
     let reference = match (args.qnh, args.pad) {
-        (Some(setting_pa), _) => Some(("qnh_altitude_m", "--qnh", BarometricReference::Qnh { setting_pa })),
-        (_, Some(pressure_pa)) => {
-            Some(("height_above_pad_m", "--pad", BarometricReference::Pad { pressure_pa }))
-        }
+        (Some(setting), _) => Some((
+            "qnh_altitude",
+            "QNH",
+            "--qnh",
+            BarometricReference::Qnh { setting_pa: pressure_unit.to_si(setting) },
+        )),
+        (_, Some(pressure)) => Some((
+            "height_above_pad",
+            "h pad",
+            "--pad",
+            BarometricReference::Pad { pressure_pa: pressure_unit.to_si(pressure) },
+        )),
         _ => None,
     };
     // Check the reference once, up front, so that its error names its option.
-    if let Some((_, option, reference)) = reference {
+    if let Some((_, _, option, reference)) = reference {
         barometric_altitude_m(101_325.0, reference).map_err(|e| Failure::Input(format!("{option}: {e}")))?;
     }
-    let mut header = vec!["pressure_Pa", "pressure_altitude_m", "pressure_altitude_geometric_m"];
-    header.extend(reference.map(|(name, _, _)| name));
-    if args.temperature.is_some() {
-        header.push("density_altitude_m");
+    let temperature = args.temperature.map(|t| units.to_si(Quantity::Temperature, t));
+    let mut columns = vec![
+        Column::new(units, "pressure", "p", Quantity::AltimeterPressure, Style::Significant),
+        Column::new(units, "pressure_altitude", "Hp", Quantity::Length, Style::Fixed(1)),
+        Column::new(units, "pressure_altitude_geometric", "Zp", Quantity::Length, Style::Fixed(1)),
+    ];
+    if let Some((base, heading, _, _)) = reference {
+        columns.push(Column::new(units, base, heading, Quantity::Length, Style::Fixed(1)));
     }
-    let row = |pressure: f64| -> Result<String, String> {
-        let h = pressure_altitude(pressure).map_err(|e| e.to_string())?;
-        let mut cells = vec![exact(pressure), exact(h.meters()), exact(h.to_geometric().meters())];
-        if let Some((_, _, reference)) = reference {
-            cells.push(exact(barometric_altitude_m(pressure, reference).map_err(|e| e.to_string())?));
+    if temperature.is_some() {
+        columns.push(Column::new(units, "density_altitude", "Hd", Quantity::Length, Style::Fixed(1)));
+    }
+    let row = |pressure: f64| -> Result<Vec<Option<f64>>, String> {
+        let pa = pressure_unit.to_si(pressure);
+        // In US units the core's message (in Pa) follows the value as the user gave it.
+        let given = |e: aerostrata::Error| match units {
+            UnitSystem::Si => e.to_string(),
+            UnitSystem::Us => format!("{pressure} inHg: {e}"),
+        };
+        let h = pressure_altitude(pa).map_err(given)?;
+        let mut cells = vec![
+            Some(pressure),
+            Some(length.from_si(h.meters())),
+            Some(length.from_si(h.to_geometric().meters())),
+        ];
+        if let Some((_, _, _, reference)) = reference {
+            cells.push(Some(length.from_si(barometric_altitude_m(pa, reference).map_err(given)?)));
         }
-        if let Some(t) = args.temperature {
-            let d = density_altitude_from(pressure, t).map_err(|e| format!("--temperature: {e}"))?;
-            cells.push(exact(d.meters()));
+        if let Some(t) = temperature {
+            let d = density_altitude_from(pa, t).map_err(|e| format!("--temperature: {e}"))?;
+            cells.push(Some(length.from_si(d.meters())));
         }
-        Ok(cells.join(","))
+        Ok(cells)
     };
     // A single pressure is checked before anything is written, so a bad one leaves stdout empty.
     let single =
         args.pressure.map(|p| row(p).map_err(|m| Failure::Input(format!("--pressure: {m}")))).transpose()?;
-    let mut out = BufWriter::new(io::stdout().lock());
-    writeln!(out, "{}", header.join(","))?;
-    if let Some(line) = single {
-        writeln!(out, "{line}")?;
-    } else if let Some(path) = &args.file {
-        let input: Box<dyn BufRead> = if path.as_os_str() == "-" {
-            Box::new(io::stdin().lock())
-        } else {
-            Box::new(BufReader::new(
-                File::open(path)
-                    .map_err(|e| Failure::Input(format!("cannot open {}: {e}", path.display())))?,
-            ))
-        };
-        for (index, line) in input.lines().enumerate() {
-            let line_number = index + 1;
-            let line = line.map_err(|e| Failure::Input(format!("line {line_number}: cannot read: {e}")))?;
+    let mut input = match (&single, &args.file) {
+        (None, Some(path)) => Some(crate::open_input(Some(path), crate::progress::When::Never)?),
+        _ => None,
+    };
+    let destination = Destination::open(args.out.output.as_deref())?;
+    let mut writer = RowWriter::new(destination, args.format, columns)?;
+    if let Some(values) = single {
+        writer.row(&values)?;
+    } else if let Some(input) = &mut input {
+        let unit = if units == UnitSystem::Si { "Pa" } else { "inHg" };
+        let mut line = String::new();
+        let mut line_number = 0;
+        loop {
+            line.clear();
+            line_number += 1;
+            let read = std::io::BufRead::read_line(input, &mut line)
+                .map_err(|e| Failure::Input(format!("line {line_number}: cannot read: {e}")))?;
+            if read == 0 {
+                break;
+            }
             let text = line.trim();
             if text.is_empty() || text.starts_with('#') {
                 continue;
             }
             let pressure: f64 = text.parse().map_err(|_| {
-                Failure::Input(format!("line {line_number}: '{text}' is not a pressure (a number of Pa)"))
+                Failure::Input(format!("line {line_number}: '{text}' is not a pressure (a number of {unit})"))
             })?;
-            let line = row(pressure).map_err(|m| Failure::Input(format!("line {line_number}: {m}")))?;
-            writeln!(out, "{line}")?;
+            let values = row(pressure).map_err(|m| Failure::Input(format!("line {line_number}: {m}")))?;
+            writer.row(&values)?;
         }
     }
-    out.flush()?;
-    Ok(())
+    writer.finish()?.commit()
 }

@@ -1,36 +1,20 @@
-//! Writing states as CSV, JSON and aligned terminal tables.
+//! Writing rows: CSV, JSON, an aligned terminal table or a Markdown table, to stdout or
+//! to `--output FILE`, one row at a time so that any number of rows streams through.
 //!
-//! Column names are the core's state fields with their SI unit spelled out
-//! (`temperature_K`, `pressure_Pa`); CSV and JSON print every value with the shortest
-//! digits that read back to the same f64, so nothing is lost between programs.
+//! Column names are quantities with the unit actually used spelled out
+//! (`temperature_K`, `temperature_degF`); CSV and JSON print every value with the
+//! shortest digits that read back to the same f64, so nothing is lost between programs.
+//! The terminal and Markdown tables show rounded values for people.
 
-use std::io::{self, Write};
+use std::fs::File;
+use std::io::{self, BufWriter, Write};
+use std::path::{Path, PathBuf};
 
 use aerostrata::State;
+use aerostrata_cli::units::{Quantity, UnitSystem};
+use clap::ValueEnum;
 
-/// Header names, in the order of [`State::fields`].
-pub const COLUMNS: [&str; 20] = [
-    "geometric_altitude_m",
-    "geopotential_altitude_m",
-    "temperature_K",
-    "molecular_temperature_K",
-    "pressure_Pa",
-    "density_kg_m3",
-    "speed_of_sound_m_s",
-    "dynamic_viscosity_Pa_s",
-    "kinematic_viscosity_m2_s",
-    "thermal_conductivity_W_m_K",
-    "gravity_m_s2",
-    "pressure_scale_height_m",
-    "number_density_m3",
-    "mean_particle_speed_m_s",
-    "mean_free_path_m",
-    "collision_frequency_Hz",
-    "mean_molar_mass_kg_kmol",
-    "temperature_ratio",
-    "pressure_ratio",
-    "density_ratio",
-];
+use crate::Failure;
 
 /// The shortest decimal that reads back to `value` exactly; exponent form for very large
 /// or small magnitudes.
@@ -43,74 +27,65 @@ pub fn exact(value: f64) -> String {
     }
 }
 
-/// Header names of the species columns that `eval --species` adds.
-pub const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
-
-pub fn write_csv_header(out: &mut impl Write, species: bool) -> io::Result<()> {
-    let extra: &[&str] = if species { &SPECIES_COLUMNS } else { &[] };
-    writeln!(out, "{}", [&COLUMNS[..], extra].concat().join(","))
+/// Output format of a tabular command.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum Format {
+    /// Aligned columns for a terminal (rounded values).
+    Table,
+    /// Comma-separated values with a header of quantities and units (exact values).
+    Csv,
+    /// An array of objects keyed like the CSV header (exact values).
+    Json,
+    /// A Markdown table for reports (rounded values).
+    Markdown,
 }
 
-/// One row; `species` is `None` for no species columns, `Some(None)` for empty ones.
-pub fn write_csv_row(
-    out: &mut impl Write,
-    state: &State,
-    species: Option<Option<[f64; 6]>>,
-) -> io::Result<()> {
-    let mut cells: Vec<String> =
-        state.fields().iter().map(|(_, v)| v.map(exact).unwrap_or_default()).collect();
-    match species {
-        Some(Some(n)) => cells.extend(n.iter().map(|v| exact(*v))),
-        Some(None) => cells.extend(core::iter::repeat_n(String::new(), SPECIES_COLUMNS.len())),
-        None => {}
+/// How a column's values are rounded for people (CSV and JSON are always exact).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Style {
+    /// A fixed number of decimals.
+    Fixed(usize),
+    /// Six significant digits as `1.22500E+00`, the way printed tables show them.
+    Scientific,
+    /// Six significant digits, plain where that is short.
+    Significant,
+}
+
+/// One output column.
+#[derive(Clone, Debug)]
+pub struct Column {
+    /// The CSV and JSON name, with its unit (`pressure_Pa`).
+    pub key: String,
+    /// The short heading of the terminal and Markdown tables (`p`).
+    pub heading: String,
+    /// The unit's symbol for those tables (`Pa`).
+    pub unit: String,
+    /// Shown in the terminal and Markdown tables (CSV and JSON show every column).
+    pub shown: bool,
+    /// Rounding for the terminal and Markdown tables.
+    pub style: Style,
+}
+
+impl Column {
+    /// A column of `quantity` named `base` in `units`.
+    pub fn new(units: UnitSystem, base: &str, heading: &str, quantity: Quantity, style: Style) -> Self {
+        let unit = units.unit(quantity);
+        Column {
+            key: unit.key(base),
+            heading: heading.to_owned(),
+            unit: unit.symbol.to_owned(),
+            shown: true,
+            style,
+        }
     }
-    writeln!(out, "{}", cells.join(","))
-}
 
-pub fn write_json(out: &mut impl Write, states: &[State]) -> io::Result<()> {
-    let rows: Vec<serde_json::Value> = states
-        .iter()
-        .map(|state| {
-            let object = COLUMNS
-                .iter()
-                .zip(state.fields())
-                .map(|(name, (_, value))| {
-                    ((*name).to_owned(), value.map_or(serde_json::Value::Null, Into::into))
-                })
-                .collect();
-            serde_json::Value::Object(object)
-        })
-        .collect();
-    serde_json::to_writer_pretty(&mut *out, &rows)?;
-    writeln!(out)
-}
-
-/// The columns a terminal table shows: (field index, heading, unit, format).
-const TERMINAL: [(usize, &str, &str); 11] = [
-    (0, "Z", "m"),
-    (1, "H", "m"),
-    (2, "T", "K"),
-    (4, "p", "Pa"),
-    (5, "rho", "kg/m3"),
-    (6, "a", "m/s"),
-    (7, "mu", "Pa s"),
-    (8, "nu", "m2/s"),
-    (9, "k", "W/(m K)"),
-    (10, "g", "m/s2"),
-    (14, "mfp", "m"),
-];
-
-/// Six significant digits, fixed for the altitudes and temperatures, exponent otherwise.
-fn readable(index: usize, value: f64) -> String {
-    match index {
-        0 | 1 => format!("{value:.1}"),
-        2 | 3 => format!("{value:.3}"),
-        6 | 10 => format!("{value:.4}"),
-        _ => scientific(value),
+    /// The same column, left out of the terminal and Markdown tables.
+    pub fn hidden(self) -> Self {
+        Column { shown: false, ..self }
     }
 }
 
-/// Six significant digits as `1.22500E+00`, the way printed tables show them.
+/// Six significant digits as `1.22500E+00`.
 fn scientific(value: f64) -> String {
     let text = format!("{value:.5e}");
     match text.split_once('e') {
@@ -123,34 +98,316 @@ fn scientific(value: f64) -> String {
     }
 }
 
-pub fn write_table(out: &mut impl Write, states: &[State]) -> io::Result<()> {
-    let cells: Vec<Vec<String>> = states
+fn readable(style: Style, value: f64) -> String {
+    match style {
+        Style::Fixed(decimals) => format!("{value:.decimals$}"),
+        Style::Scientific => scientific(value),
+        Style::Significant => {
+            let magnitude = if value == 0.0 { 0 } else { value.abs().log10().floor() as i32 };
+            if (-3..7).contains(&magnitude) {
+                let decimals = (5 - magnitude).max(0) as usize;
+                format!("{value:.decimals$}")
+            } else {
+                scientific(value)
+            }
+        }
+    }
+}
+
+/// Rows a terminal table holds back to size its columns; later rows use those widths.
+const TABLE_SIZING_ROWS: usize = 1000;
+
+/// Writes rows in one format, streaming.
+pub struct RowWriter<W: Write> {
+    out: W,
+    format: Format,
+    columns: Vec<Column>,
+    rows: usize,
+    /// Terminal table: rows held back until the widths are known.
+    pending: Vec<Vec<String>>,
+    widths: Option<Vec<usize>>,
+}
+
+impl<W: Write> RowWriter<W> {
+    /// Starts the output (CSV header, JSON bracket, Markdown heading).
+    ///
+    /// # Errors
+    /// Writing fails.
+    pub fn new(mut out: W, format: Format, columns: Vec<Column>) -> io::Result<Self> {
+        match format {
+            Format::Csv => {
+                let keys: Vec<&str> = columns.iter().map(|c| c.key.as_str()).collect();
+                writeln!(out, "{}", keys.join(","))?;
+            }
+            Format::Json => write!(out, "[")?,
+            Format::Markdown => {
+                let shown = columns.iter().filter(|c| c.shown);
+                let headings: Vec<String> = shown
+                    .clone()
+                    .map(|c| {
+                        if c.unit.is_empty() {
+                            c.heading.clone()
+                        } else {
+                            format!("{} ({})", c.heading, c.unit)
+                        }
+                    })
+                    .collect();
+                writeln!(out, "| {} |", headings.join(" | "))?;
+                writeln!(out, "|{}", shown.map(|_| " ---: |").collect::<String>())?;
+            }
+            Format::Table => {}
+        }
+        Ok(RowWriter { out, format, columns, rows: 0, pending: Vec::new(), widths: None })
+    }
+
+    /// One row, a value (or nothing) per column.
+    ///
+    /// # Errors
+    /// Writing fails.
+    pub fn row(&mut self, values: &[Option<f64>]) -> io::Result<()> {
+        debug_assert_eq!(values.len(), self.columns.len());
+        match self.format {
+            Format::Csv => {
+                let cells: Vec<String> = values.iter().map(|v| v.map(exact).unwrap_or_default()).collect();
+                writeln!(self.out, "{}", cells.join(","))?;
+            }
+            Format::Json => {
+                let separator = if self.rows == 0 { "\n  " } else { ",\n  " };
+                let fields: Vec<String> = self
+                    .columns
+                    .iter()
+                    .zip(values)
+                    .map(|(c, v)| {
+                        let key = serde_json::Value::from(c.key.as_str());
+                        format!("{key}: {}", v.map_or_else(|| "null".to_owned(), exact))
+                    })
+                    .collect();
+                write!(self.out, "{separator}{{{}}}", fields.join(", "))?;
+            }
+            Format::Markdown => {
+                let cells = self.shown_cells(values);
+                writeln!(self.out, "| {} |", cells.join(" | "))?;
+            }
+            Format::Table => {
+                let cells = self.shown_cells(values);
+                match &self.widths {
+                    Some(_) => self.table_line(&cells)?,
+                    None => {
+                        self.pending.push(cells);
+                        if self.pending.len() == TABLE_SIZING_ROWS {
+                            self.flush_pending()?;
+                        }
+                    }
+                }
+            }
+        }
+        self.rows += 1;
+        Ok(())
+    }
+
+    fn shown_cells(&self, values: &[Option<f64>]) -> Vec<String> {
+        self.columns
+            .iter()
+            .zip(values)
+            .filter(|(c, _)| c.shown)
+            .map(|(c, v)| v.map_or_else(|| "-".to_owned(), |v| readable(c.style, v)))
+            .collect()
+    }
+
+    fn table_line(&mut self, cells: &[String]) -> io::Result<()> {
+        let widths = self.widths.as_deref().unwrap_or(&[]);
+        let padded: Vec<String> =
+            cells.iter().zip(widths).map(|(text, width)| format!("{text:>width$}")).collect();
+        writeln!(self.out, "{}", padded.join("  "))
+    }
+
+    /// Sizes the terminal table's columns from the rows held back and writes them.
+    fn flush_pending(&mut self) -> io::Result<()> {
+        let shown: Vec<&Column> = self.columns.iter().filter(|c| c.shown).collect();
+        let widths: Vec<usize> = shown
+            .iter()
+            .enumerate()
+            .map(|(i, c)| {
+                self.pending
+                    .iter()
+                    .map(|row| row[i].len())
+                    .chain([c.heading.len(), c.unit.len()])
+                    .max()
+                    .unwrap_or(0)
+            })
+            .collect();
+        let headings: Vec<String> = shown.iter().map(|c| c.heading.clone()).collect();
+        let units: Vec<String> = shown.iter().map(|c| c.unit.clone()).collect();
+        self.widths = Some(widths);
+        self.table_line(&headings)?;
+        self.table_line(&units)?;
+        for row in std::mem::take(&mut self.pending) {
+            self.table_line(&row)?;
+        }
+        Ok(())
+    }
+
+    /// Ends the output (JSON bracket, held-back table rows) and returns the writer.
+    ///
+    /// # Errors
+    /// Writing fails.
+    pub fn finish(mut self) -> io::Result<W> {
+        match self.format {
+            Format::Json => writeln!(self.out, "{}]", if self.rows == 0 { "" } else { "\n" })?,
+            Format::Table if self.widths.is_none() => self.flush_pending()?,
+            _ => {}
+        }
+        Ok(self.out)
+    }
+}
+
+/// Where a command writes: stdout, or a file that appears only when the command succeeds
+/// (it is written beside its final name and renamed at the end, so a failed run never
+/// leaves a half-written file, nor clobbers an old one).
+pub struct Destination {
+    writer: BufWriter<Box<dyn Write>>,
+    file: Option<(PathBuf, PathBuf)>,
+}
+
+impl Destination {
+    /// Stdout, or the file `path`.
+    ///
+    /// # Errors
+    /// [`Failure::Input`] naming the file when it cannot be created.
+    pub fn open(path: Option<&Path>) -> Result<Self, Failure> {
+        match path {
+            None => Ok(Destination { writer: BufWriter::new(Box::new(io::stdout().lock())), file: None }),
+            Some(path) => {
+                let name = path.file_name().ok_or_else(|| {
+                    Failure::Input(format!("--output: '{}' is not a file name", path.display()))
+                })?;
+                let mut partial = name.to_os_string();
+                partial.push(format!(".partial-{}", std::process::id()));
+                let temporary = path.with_file_name(partial);
+                let file = File::create(&temporary).map_err(|e| {
+                    Failure::Input(format!("--output: cannot create {}: {e}", path.display()))
+                })?;
+                Ok(Destination {
+                    writer: BufWriter::with_capacity(1 << 16, Box::new(file)),
+                    file: Some((temporary, path.to_path_buf())),
+                })
+            }
+        }
+    }
+
+    /// Flushes and, for a file, gives it its final name.
+    ///
+    /// # Errors
+    /// Writing or renaming fails.
+    pub fn commit(mut self) -> Result<(), Failure> {
+        self.writer.flush()?;
+        if let Some((temporary, path)) = self.file.take() {
+            std::fs::rename(&temporary, &path).map_err(|e| {
+                let _ = std::fs::remove_file(&temporary);
+                Failure::Io(io::Error::new(e.kind(), format!("cannot write {}: {e}", path.display())))
+            })?;
+        }
+        Ok(())
+    }
+}
+
+impl Write for Destination {
+    fn write(&mut self, buf: &[u8]) -> io::Result<usize> {
+        self.writer.write(buf)
+    }
+
+    fn write_all(&mut self, buf: &[u8]) -> io::Result<()> {
+        self.writer.write_all(buf)
+    }
+
+    fn flush(&mut self) -> io::Result<()> {
+        self.writer.flush()
+    }
+}
+
+impl Drop for Destination {
+    fn drop(&mut self) {
+        if let Some((temporary, _)) = self.file.take() {
+            let _ = std::fs::remove_file(temporary);
+        }
+    }
+}
+
+/// The state's columns: (base name, table heading, quantity, rounding, shown in tables),
+/// in the order of [`State::fields`].
+const STATE: [(&str, &str, Quantity, Style, bool); 20] = [
+    ("geometric_altitude", "Z", Quantity::Length, Style::Fixed(1), true),
+    ("geopotential_altitude", "H", Quantity::Length, Style::Fixed(1), true),
+    ("temperature", "T", Quantity::Temperature, Style::Fixed(3), true),
+    ("molecular_temperature", "TM", Quantity::Temperature, Style::Fixed(3), false),
+    ("pressure", "p", Quantity::Pressure, Style::Scientific, true),
+    ("density", "rho", Quantity::Density, Style::Scientific, true),
+    ("speed_of_sound", "a", Quantity::Speed, Style::Fixed(4), true),
+    ("dynamic_viscosity", "mu", Quantity::DynamicViscosity, Style::Scientific, true),
+    ("kinematic_viscosity", "nu", Quantity::KinematicViscosity, Style::Scientific, true),
+    ("thermal_conductivity", "k", Quantity::ThermalConductivity, Style::Scientific, true),
+    ("gravity", "g", Quantity::Acceleration, Style::Fixed(4), true),
+    ("pressure_scale_height", "Hp", Quantity::Length, Style::Fixed(1), false),
+    ("number_density", "n", Quantity::NumberDensity, Style::Scientific, false),
+    ("mean_particle_speed", "V", Quantity::Speed, Style::Fixed(2), false),
+    ("mean_free_path", "mfp", Quantity::Length, Style::Scientific, true),
+    ("collision_frequency", "nu_c", Quantity::Frequency, Style::Scientific, false),
+    ("mean_molar_mass", "M", Quantity::MolarMass, Style::Fixed(4), false),
+    ("temperature_ratio", "theta", Quantity::Dimensionless, Style::Scientific, false),
+    ("pressure_ratio", "delta", Quantity::Dimensionless, Style::Scientific, false),
+    ("density_ratio", "sigma", Quantity::Dimensionless, Style::Scientific, false),
+];
+
+/// The base name (without unit) and quantity of the state's field `index`.
+pub fn state_field(index: usize) -> (&'static str, Quantity) {
+    (STATE[index].0, STATE[index].2)
+}
+
+/// The species' names, as `eval --species` adds them.
+const SPECIES: [&str; 6] = ["N2", "O", "O2", "Ar", "He", "H"];
+
+/// The columns of a state, and with `species` the standard's six number densities.
+pub fn state_columns(units: UnitSystem, species: bool) -> Vec<Column> {
+    let mut columns: Vec<Column> = STATE
         .iter()
-        .map(|state| {
-            let fields = state.fields();
-            TERMINAL
-                .iter()
-                .map(|&(index, _, _)| fields[index].1.map_or_else(|| "-".to_owned(), |v| readable(index, v)))
-                .collect()
+        .map(|&(base, heading, quantity, style, shown)| {
+            let column = Column::new(units, base, heading, quantity, style);
+            if shown {
+                column
+            } else {
+                column.hidden()
+            }
         })
         .collect();
-    let widths: Vec<usize> = TERMINAL
+    if species {
+        for name in SPECIES {
+            columns.push(Column::new(
+                units,
+                &format!("n_{name}"),
+                name,
+                Quantity::NumberDensity,
+                Style::Scientific,
+            ));
+        }
+    }
+    columns
+}
+
+/// A state's values in `units`, and with `species` the six number densities (in 1/m^3
+/// from the core; `Some(None)` for empty cells below 86 km).
+pub fn state_values(state: &State, units: UnitSystem, species: Option<Option<[f64; 6]>>) -> Vec<Option<f64>> {
+    let mut values: Vec<Option<f64>> = state
+        .fields()
         .iter()
         .enumerate()
-        .map(|(column, (_, name, unit))| {
-            cells.iter().map(|row| row[column].len()).chain([name.len(), unit.len()]).max().unwrap_or(0)
-        })
+        .map(|(index, (_, value))| value.map(|v| units.from_si(STATE[index].2, v)))
         .collect();
-    let line = |out: &mut dyn Write, texts: &mut dyn Iterator<Item = String>| -> io::Result<()> {
-        let padded: Vec<String> = texts.zip(&widths).map(|(text, width)| format!("{text:>width$}")).collect();
-        writeln!(out, "{}", padded.join("  "))
-    };
-    line(out, &mut TERMINAL.iter().map(|(_, name, _)| (*name).to_owned()))?;
-    line(out, &mut TERMINAL.iter().map(|(_, _, unit)| (*unit).to_owned()))?;
-    for row in cells {
-        line(out, &mut row.into_iter())?;
+    match species {
+        Some(Some(n)) => values.extend(n.iter().map(|v| Some(units.from_si(Quantity::NumberDensity, *v)))),
+        Some(None) => values.extend([None; 6]),
+        None => {}
     }
-    Ok(())
+    values
 }
 
 #[cfg(test)]
@@ -161,8 +418,8 @@ mod tests {
     #[test]
     fn columns_follow_the_state_fields() {
         let state = US1976.state(Altitude::geometric_m(0.0).unwrap()).unwrap();
-        for (column, (field, _)) in COLUMNS.iter().zip(state.fields()) {
-            assert_eq!(column.to_lowercase(), field, "column {column} against field {field}");
+        for (column, (field, _)) in state_columns(UnitSystem::Si, false).iter().zip(state.fields()) {
+            assert_eq!(column.key.to_lowercase(), field, "column {} against field {field}", column.key);
         }
     }
 
@@ -171,6 +428,9 @@ mod tests {
         assert_eq!(scientific(1.2249991558877122), "1.22500E+00");
         assert_eq!(scientific(6.633232327863704e-8), "6.63323E-08");
         assert_eq!(scientific(101_325.0), "1.01325E+05");
+        assert_eq!(readable(Style::Significant, 34_512.345_6), "34512.3");
+        assert_eq!(readable(Style::Significant, 1.234_567_89), "1.23457");
+        assert_eq!(readable(Style::Significant, 0.0), "0.00000");
     }
 
     #[test]
@@ -178,5 +438,32 @@ mod tests {
         for value in [101_325.0, 1.0 / 3.0, 6.6e-8, 2.547e25, -5000.0, 0.0, 1e-3, 9_999_999.5] {
             assert_eq!(exact(value).parse::<f64>().unwrap(), value);
         }
+    }
+
+    fn written(format: Format, rows: usize) -> String {
+        let columns = vec![
+            Column::new(UnitSystem::Si, "x", "x", Quantity::Length, Style::Fixed(1)),
+            Column::new(UnitSystem::Si, "y", "y", Quantity::Dimensionless, Style::Significant).hidden(),
+        ];
+        let mut writer = RowWriter::new(Vec::new(), format, columns).unwrap();
+        for i in 0..rows {
+            writer.row(&[Some(i as f64 * 1000.0), (i % 2 == 0).then_some(0.5)]).unwrap();
+        }
+        String::from_utf8(writer.finish().unwrap()).unwrap()
+    }
+
+    #[test]
+    fn every_format_writes_rows() {
+        assert_eq!(written(Format::Csv, 2), "x_m,y\n0,0.5\n1000,\n");
+        assert_eq!(written(Format::Json, 0), "[]\n");
+        let json: serde_json::Value = serde_json::from_str(&written(Format::Json, 2)).unwrap();
+        assert_eq!(json[1]["x_m"], 1000.0);
+        assert!(json[1]["y"].is_null());
+        assert_eq!(written(Format::Markdown, 1), "| x (m) |\n| ---: |\n| 0.0 |\n");
+        assert_eq!(written(Format::Table, 2), "     x\n     m\n   0.0\n1000.0\n");
+        // Past the sizing rows the widths stay; a wider value pushes its line out.
+        let long = written(Format::Table, TABLE_SIZING_ROWS + 1);
+        assert_eq!(long.lines().count(), TABLE_SIZING_ROWS + 3);
+        assert!(long.lines().all(|l| l.len() >= 8));
     }
 }

@@ -82,6 +82,23 @@ pub mod units {
     pub const SLUG_KG: f64 = POUND_FORCE_N / FOOT_M;
     /// One slug per cubic foot, kg/m^3.
     pub const SLUG_FT3_KG_M3: f64 = SLUG_KG / (FOOT_M * FOOT_M * FOOT_M);
+    /// One foot per second, m/s (exact: one international foot per second).
+    pub const FOOT_PER_SECOND_M_S: f64 = FOOT_M;
+    /// One foot per second squared, m/s^2 (exact: one international foot per second squared).
+    pub const FOOT_PER_SECOND_SQUARED_M_S2: f64 = FOOT_M;
+    /// One square foot, m^2 (exact: the square of the international foot).
+    pub const SQUARE_FOOT_M2: f64 = FOOT_M * FOOT_M;
+    /// One cubic foot, m^3 (exact: the cube of the international foot).
+    pub const CUBIC_FOOT_M3: f64 = FOOT_M * FOOT_M * FOOT_M;
+    /// One square foot per second (kinematic viscosity), m^2/s (exact, as [`SQUARE_FOOT_M2`]).
+    pub const SQUARE_FOOT_PER_SECOND_M2_S: f64 = SQUARE_FOOT_M2;
+    /// One pound-force second per square foot (dynamic viscosity, slug/(ft s)), Pa s
+    /// (exact ratio of the definitions, as [`PSF_PA`]).
+    pub const POUND_FORCE_SECOND_PER_SQUARE_FOOT_PA_S: f64 = PSF_PA;
+    /// One foot pound-force per second, per foot, per degree Rankine (thermal
+    /// conductivity, lbf/(s degR)), W/(m K) (exact ratio of the definitions:
+    /// N m / (s m K) = N / (s K)).
+    pub const POUND_FORCE_PER_SECOND_RANKINE_W_M_K: f64 = POUND_FORCE_N / RANKINE_K;
     /// One degree Rankine (or Fahrenheit interval), K (exact: 5/9).
     pub const RANKINE_K: f64 = 5.0 / 9.0;
     /// Kelvin at 0 degC (exact).
@@ -97,5 +114,27 @@ pub mod units {
     #[inline]
     pub fn kelvin_to_fahrenheit(kelvin: f64) -> f64 {
         kelvin / RANKINE_K - 459.67
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::units::*;
+
+    /// The factors against NIST SP 811 (2008), appendix B.8, which prints them to 7
+    /// significant digits (an asterisk there marks the exact ones).
+    #[test]
+    fn unit_factors_match_nist_sp_811() {
+        let close = |value: f64, printed: f64| (value / printed - 1.0).abs() < 1e-6;
+        assert_eq!(SQUARE_FOOT_M2, 9.290_304e-2); // exact in SP 811
+        assert!(close(CUBIC_FOOT_M3, 2.831_685e-2));
+        assert_eq!(SQUARE_FOOT_PER_SECOND_M2_S, 9.290_304e-2); // exact in SP 811
+        assert!(close(POUND_FORCE_SECOND_PER_SQUARE_FOOT_PA_S, 4.788_026e1));
+        assert!(close(SLUG_FT3_KG_M3, 5.153_788e2));
+        assert!(close(PSF_PA, 4.788_026e1));
+        assert_eq!(FOOT_PER_SECOND_M_S, 3.048e-1); // exact in SP 811
+        assert_eq!(FOOT_PER_SECOND_SQUARED_M_S2, 3.048e-1); // exact in SP 811
+                                                            // lbf/(s degR) is not printed there: it is lbf (4.448222 N) over 5/9 K per second.
+        assert!(close(POUND_FORCE_PER_SECOND_RANKINE_W_M_K, 4.448_222 * 1.8));
     }
 }

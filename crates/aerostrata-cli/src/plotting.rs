@@ -1,0 +1,344 @@
+//! `aerostrata plot profile` (state quantities against altitude, several models on the
+//! same axes) and `aerostrata plot flight` (q and Mach number against time, the maximum
+//! q marked), written as SVG through the figures of `aerostrata_cli::plot`.
+
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+use aerostrata::{Atmosphere, FlightScan};
+use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, LegendPosition, Panel, Series};
+use aerostrata_cli::units::{tidy, Quantity, UnitSystem};
+use clap::{Args, Subcommand, ValueEnum};
+
+use crate::flight::{SampleReader, VehicleArgs};
+use crate::output::{state_field, Destination};
+use crate::{Failure, OutputArgs};
+
+#[derive(Subcommand)]
+pub enum PlotCommand {
+    /// State quantities against altitude, one panel per quantity, every model on the same
+    /// axes (a log scale where a quantity spans decades).
+    #[command(
+        after_help = "Example:\n  aerostrata plot profile temperature density --model standard --model offset=15 \\\n    \
+                            --model sounding=examples/data/vessaro_key_hot_humid.csv --to 30000 -o profile.svg"
+    )]
+    Profile(ProfileArgs),
+    /// Dynamic pressure and Mach number against time for one or more flights (CSV as for
+    /// `aerostrata flight`), each flight's maximum q marked.
+    #[command(
+        after_help = "Example:\n  aerostrata plot flight full.csv throttled.csv --label 'full thrust' --label throttled \\\n    \
+                            --cd-table 0:0.4,1:0.6,2:0.45 --area 0.03 -o q.svg"
+    )]
+    Flight(FlightPlotArgs),
+}
+
+#[derive(Args)]
+pub struct ProfileArgs {
+    /// Quantities to plot, each on its own panel (at most 4) [default: temperature
+    /// pressure density].
+    #[arg(value_enum)]
+    quantities: Vec<PlotQuantity>,
+    /// A model, repeatable: `standard`, `offset=DT` (the standard with T + DT at its
+    /// pressure; K or degF) or `sounding=FILE` [default: standard].
+    #[arg(long = "model", value_name = "MODEL")]
+    models: Vec<String>,
+    /// Legend names, in the order of the models [default: from the models].
+    #[arg(long = "label", value_name = "TEXT")]
+    labels: Vec<String>,
+    /// Lowest altitude, m or ft [default: 0, or the lowest model bottom if higher].
+    #[arg(long, value_name = "Z", allow_negative_numbers = true)]
+    from: Option<f64>,
+    /// Highest altitude, m or ft [default: the highest model top, at most 86 km].
+    #[arg(long, value_name = "Z", allow_negative_numbers = true)]
+    to: Option<f64>,
+    /// Altitudes as geopotential instead of geometric.
+    #[arg(long)]
+    geopotential: bool,
+    /// The quantity axes' scale.
+    #[arg(long, value_enum, default_value_t = Scale::Auto)]
+    scale: Scale,
+    /// The title [default: the quantities against altitude].
+    #[arg(long, value_name = "TEXT")]
+    title: Option<String>,
+    #[command(flatten)]
+    out: OutputArgs,
+}
+
+#[derive(Args)]
+pub struct FlightPlotArgs {
+    /// Flight files (CSV as for `aerostrata flight`), each its own line; `-` reads stdin.
+    #[arg(required = true)]
+    files: Vec<PathBuf>,
+    /// Legend names, in the order of the files [default: the file names].
+    #[arg(long = "label", value_name = "TEXT")]
+    labels: Vec<String>,
+    #[command(flatten)]
+    vehicle: VehicleArgs,
+    /// The title.
+    #[arg(long, value_name = "TEXT", default_value = "Dynamic pressure and Mach number")]
+    title: String,
+    #[command(flatten)]
+    out: OutputArgs,
+}
+
+#[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum Scale {
+    /// Logarithmic where a quantity spans more than a decade and a half, linear otherwise.
+    Auto,
+    /// Linear.
+    Linear,
+    /// Logarithmic.
+    Log,
+}
+
+/// The state quantities that can be plotted.
+#[derive(Clone, Copy, PartialEq, Eq, Debug, ValueEnum)]
+pub enum PlotQuantity {
+    Temperature,
+    MolecularTemperature,
+    Pressure,
+    Density,
+    SpeedOfSound,
+    DynamicViscosity,
+    KinematicViscosity,
+    ThermalConductivity,
+    Gravity,
+    PressureScaleHeight,
+    NumberDensity,
+    MeanParticleSpeed,
+    MeanFreePath,
+    CollisionFrequency,
+    MeanMolarMass,
+    TemperatureRatio,
+    PressureRatio,
+    DensityRatio,
+}
+
+impl PlotQuantity {
+    /// Its index in `State::fields`.
+    fn field(self) -> usize {
+        self as usize + 2
+    }
+}
+
+/// The most panels a profile figure holds.
+const MAX_PANELS: usize = 4;
+/// Altitudes per model line.
+const PROFILE_POINTS: usize = 300;
+
+pub fn run(command: &PlotCommand) -> Result<(), Failure> {
+    let (figure, out) = match command {
+        PlotCommand::Profile(args) => (profile(args)?, &args.out),
+        PlotCommand::Flight(args) => (flights(args)?, &args.out),
+    };
+    let svg = figure.to_svg().map_err(Failure::Input)?;
+    let mut destination = Destination::open(out.output.as_deref())?;
+    destination.write_all(svg.as_bytes())?;
+    destination.commit()
+}
+
+struct Model {
+    label: String,
+    atmosphere: Box<dyn Atmosphere>,
+}
+
+fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
+    let bad = |why: &str| Failure::Input(format!("--model '{spec}': {why}"));
+    let (kind, value) = spec.split_once('=').map_or((spec, None), |(k, v)| (k, Some(v)));
+    match (kind, value) {
+        ("standard", None) => {
+            Ok(Model { label: "US 1976 standard".to_owned(), atmosphere: Box::new(aerostrata::US1976) })
+        }
+        ("offset", Some(value)) => {
+            let offset: f64 = value.parse().map_err(|_| bad("the offset is not a number"))?;
+            let model = crate::offset_model(offset, units).map_err(|f| match f {
+                Failure::Input(m) => bad(&m),
+                other => other,
+            })?;
+            let unit = units.symbol(Quantity::TemperatureDifference);
+            Ok(Model { label: format!("standard {offset:+} {unit}"), atmosphere: Box::new(model) })
+        }
+        ("sounding", Some(path)) => {
+            let table = crate::sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
+            let name = Path::new(path).file_stem().map_or(path.into(), |n| n.to_string_lossy());
+            Ok(Model { label: format!("sounding {name}"), atmosphere: Box::new(table) })
+        }
+        _ => Err(bad("expected standard, offset=DT or sounding=FILE")),
+    }
+}
+
+fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
+    let units = args.out.units;
+    let quantities = if args.quantities.is_empty() {
+        vec![PlotQuantity::Temperature, PlotQuantity::Pressure, PlotQuantity::Density]
+    } else {
+        args.quantities.clone()
+    };
+    if quantities.len() > MAX_PANELS {
+        return Err(Failure::Input(format!(
+            "{} quantities given; a profile plot holds 1 to {MAX_PANELS}",
+            quantities.len()
+        )));
+    }
+    let specs = if args.models.is_empty() { vec!["standard".to_owned()] } else { args.models.clone() };
+    let mut models = specs.iter().map(|s| parse_model(s, units)).collect::<Result<Vec<_>, _>>()?;
+    if args.labels.len() > models.len() {
+        return Err(Failure::Input(format!("{} labels for {} models", args.labels.len(), models.len())));
+    }
+    for (model, label) in models.iter_mut().zip(&args.labels) {
+        model.label.clone_from(label);
+    }
+    let band = |m: &Model| {
+        let r = m.atmosphere.range();
+        if args.geopotential {
+            (r.geopotential_min_m, r.geopotential_max_m)
+        } else {
+            (r.geometric_min_m, r.geometric_max_m)
+        }
+    };
+    let length = units.unit(Quantity::Length);
+    let lowest = models.iter().map(|m| band(m).0).fold(f64::INFINITY, f64::min);
+    let highest = models.iter().map(|m| band(m).1).fold(f64::NEG_INFINITY, f64::max);
+    let from = args.from.map_or(lowest.max(0.0), |z| length.to_si(z));
+    let to = args.to.map_or(highest.min(86_000.0), |z| length.to_si(z));
+    let unit = length.symbol;
+    for (option, value) in [("--from", args.from), ("--to", args.to)] {
+        if let Some(v) = value.filter(|v| !v.is_finite()) {
+            return Err(Failure::Input(format!("{option} must be a finite altitude in {unit}, got {v}")));
+        }
+    }
+    if to <= from {
+        return Err(Failure::Input(format!(
+            "--to {} {unit} must be above --from {} {unit}",
+            tidy(length.from_si(to)),
+            tidy(length.from_si(from))
+        )));
+    }
+    // Altitudes on the plot: km in SI, ft in US units.
+    let (altitude_scale, altitude_unit) = match units {
+        UnitSystem::Si => (1e-3, "km"),
+        UnitSystem::Us => (1.0 / aerostrata::constants::units::FOOT_M, "ft"),
+    };
+    let kind = if args.geopotential { "geopotential" } else { "geometric" };
+    let mut panels: Vec<Panel> = quantities
+        .iter()
+        .map(|q| {
+            let (base, quantity) = state_field(q.field());
+            let symbol = units.symbol(quantity);
+            let name = base.replace('_', " ");
+            Panel {
+                x_label: if symbol.is_empty() { name } else { format!("{name} ({symbol})") },
+                y_label: format!("{kind} altitude ({altitude_unit})"),
+                // Low and to the left is where profiles of the air leave room.
+                legend: LegendPosition::LowerLeft,
+                ..Panel::default()
+            }
+        })
+        .collect();
+    for (index, model) in models.iter().enumerate() {
+        let (bottom, top) = band(model);
+        let (lo, hi) = (from.max(bottom), to.min(top));
+        if hi <= lo {
+            return Err(Failure::Input(format!(
+                "--model '{}' covers {} to {} {unit}, outside --from {} to --to {} {unit}",
+                specs[index],
+                tidy(length.from_si(bottom)),
+                tidy(length.from_si(top)),
+                tidy(length.from_si(from)),
+                tidy(length.from_si(to))
+            )));
+        }
+        let mut lines = vec![Vec::with_capacity(PROFILE_POINTS + 1); quantities.len()];
+        for i in 0..=PROFILE_POINTS {
+            let z = (lo + (hi - lo) * i as f64 / PROFILE_POINTS as f64).min(hi);
+            let altitude = if args.geopotential {
+                aerostrata::Altitude::geopotential_m(z)
+            } else {
+                aerostrata::Altitude::geometric_m(z)
+            };
+            let state = altitude
+                .and_then(|a| model.atmosphere.state(a))
+                .map_err(|e| Failure::Input(format!("--model '{}': {e}", specs[index])))?;
+            let fields = state.fields();
+            for (line, q) in lines.iter_mut().zip(&quantities) {
+                let (_, quantity) = state_field(q.field());
+                let value = fields[q.field()].1.map_or(f64::NAN, |v| units.from_si(quantity, v));
+                line.push((value, z * altitude_scale));
+            }
+        }
+        for (panel_index, (panel, points)) in panels.iter_mut().zip(lines).enumerate() {
+            // The legend once, on the first panel: the colours are the same on every one.
+            let label = if panel_index == 0 { model.label.clone() } else { String::new() };
+            panel.series.push(Series { label, points, dashed: false, color: index });
+        }
+    }
+    for panel in &mut panels {
+        panel.log_x = match args.scale {
+            Scale::Linear => false,
+            Scale::Log => true,
+            Scale::Auto => spans_decades(panel),
+        };
+    }
+    let title = args.title.clone().unwrap_or_else(|| {
+        let names: Vec<String> =
+            quantities.iter().map(|q| state_field(q.field()).0.replace('_', " ")).collect();
+        let mut title = names.join(", ");
+        if let Some(first) = title.get_mut(0..1) {
+            first.make_ascii_uppercase();
+        }
+        format!("{title} against altitude")
+    });
+    let width = 120 + 380 * panels.len() as u32;
+    Ok(Figure { title, layout: Layout::SideBySide, panels, size: (width.max(560), 640) })
+}
+
+/// Whether a panel's values are all positive and span more than a decade and a half.
+fn spans_decades(panel: &Panel) -> bool {
+    let values = panel.series.iter().flat_map(|s| s.points.iter().map(|p| p.0)).filter(|v| v.is_finite());
+    let (mut lo, mut hi) = (f64::INFINITY, 0.0f64);
+    for v in values {
+        if v <= 0.0 {
+            return false;
+        }
+        lo = lo.min(v);
+        hi = hi.max(v);
+    }
+    hi > 0.0 && hi / lo > 30.0
+}
+
+fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
+    let units = args.out.units;
+    if args.labels.len() > args.files.len() {
+        return Err(Failure::Input(format!("{} labels for {} files", args.labels.len(), args.files.len())));
+    }
+    let table = args.vehicle.table()?;
+    let vehicle = args.vehicle.vehicle(&table, units)?;
+    let mut traces = Vec::with_capacity(args.files.len());
+    for (index, path) in args.files.iter().enumerate() {
+        let name = path.display().to_string();
+        let label = args.labels.get(index).cloned().unwrap_or_else(|| {
+            path.file_stem().map_or_else(|| name.clone(), |s| s.to_string_lossy().into_owned())
+        });
+        let atmosphere = crate::offset_model(args.vehicle.offset(), units)?;
+        let mut scan = FlightScan::new(atmosphere, vehicle);
+        let input = crate::open_input(Some(path), crate::progress::When::Never)?;
+        let mut reader = SampleReader::new(input, units);
+        let mut trace = FlightTrace::new(label);
+        let in_file = |f: Failure| match f {
+            Failure::Input(m) => Failure::Input(format!("{name}: {m}")),
+            other => other,
+        };
+        while let Some(sample) = reader.next_sample().map_err(in_file)? {
+            let point = scan
+                .push(sample)
+                .map_err(|e| Failure::Input(format!("{name}: line {}: {e}", reader.line_number())))?;
+            trace.offer(point.time_s, point.dynamic_pressure_pa, point.mach);
+        }
+        if trace.is_empty() {
+            return Err(Failure::Input(format!("{name}: no samples to plot")));
+        }
+        trace.summary = Some(scan.summary());
+        traces.push(trace);
+    }
+    Ok(flight_figure(&args.title, &traces, units))
+}
