@@ -1,34 +1,9 @@
 //! `aerostrata flight`, `airspeed` and `altitude` as a user runs them: outputs, formats
 //! and every error path (exit status 2, one line on stderr).
 
-use assert_cmd::Command;
+mod common;
 
-fn aerostrata() -> Command {
-    Command::cargo_bin("aerostrata").unwrap()
-}
-
-/// stdout and stderr of a successful run.
-fn run(args: &[&str], stdin: &str) -> (String, String) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert!(output.status.success(), "{args:?}: {stderr}");
-    (String::from_utf8(output.stdout).unwrap(), stderr)
-}
-
-/// Exit status 2 and exactly one line on stderr, containing `words`.
-fn fails_with(args: &[&str], stdin: &str, words: &str) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert_eq!(output.status.code(), Some(2), "{args:?}: {stderr}");
-    assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
-    assert!(stderr.contains(words), "{args:?}: {stderr:?} should contain {words:?}");
-}
-
-fn column(csv: &str, name: &str) -> Vec<Option<f64>> {
-    let mut lines = csv.lines();
-    let index = lines.next().unwrap().split(',').position(|c| c == name).unwrap_or_else(|| panic!("{name}"));
-    lines.map(|line| line.split(',').nth(index).unwrap().parse().ok()).collect()
-}
+use common::*;
 
 /// An invented boost and coast, every 0.25 s: 25 m/s^2 for 30 s, then ballistic.
 fn ascent() -> String {

@@ -1,31 +1,8 @@
 //! The `aerostrata` binary as a user runs it: outputs, formats and every error path.
 
-use assert_cmd::Command;
+mod common;
 
-fn aerostrata() -> Command {
-    Command::cargo_bin("aerostrata").unwrap()
-}
-
-fn stdout_of(args: &[&str], stdin: &str) -> String {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    assert!(output.status.success(), "{args:?}: {}", String::from_utf8_lossy(&output.stderr));
-    String::from_utf8(output.stdout).unwrap()
-}
-
-/// Exit status 2 and exactly one line on stderr, containing `words`.
-fn fails_with(args: &[&str], stdin: &str, words: &str) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert_eq!(output.status.code(), Some(2), "{args:?}: {stderr}");
-    assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
-    assert!(stderr.contains(words), "{args:?}: {stderr:?} should contain {words:?}");
-}
-
-fn column(csv: &str, name: &str) -> Vec<f64> {
-    let mut lines = csv.lines();
-    let index = lines.next().unwrap().split(',').position(|c| c == name).unwrap();
-    lines.map(|line| line.split(',').nth(index).unwrap().parse().unwrap()).collect()
-}
+use common::*;
 
 #[test]
 fn default_table_covers_0_to_86_km() {
@@ -43,18 +20,18 @@ fn table_csv_and_json_agree() {
     let csv = stdout_of(&[&args[..], &["--format", "csv"]].concat(), "");
     let json = stdout_of(&[&args[..], &["--format", "json"]].concat(), "");
     let rows: serde_json::Value = serde_json::from_str(&json).unwrap();
-    let pressures = column(&csv, "pressure_Pa");
+    let pressures = values(&csv, "pressure_Pa");
     assert_eq!(pressures.len(), 15);
     for (row, p) in rows.as_array().unwrap().iter().zip(&pressures) {
         assert_eq!(row["pressure_Pa"].as_f64().unwrap(), *p);
     }
-    assert_eq!(column(&csv, "geometric_altitude_m")[0], -5000.0);
+    assert_eq!(values(&csv, "geometric_altitude_m")[0], -5000.0);
 }
 
 #[test]
 fn eval_reads_stdin_and_files_and_skips_blanks() {
     let csv = stdout_of(&["eval"], "0\n\n# a comment\n11000\n");
-    assert_eq!(column(&csv, "temperature_K"), vec![288.15, 216.77351270445553]);
+    assert_eq!(values(&csv, "temperature_K"), vec![288.15, 216.77351270445553]);
     let dir = std::env::temp_dir().join(format!("aerostrata-cli-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let file = dir.join("altitudes.txt");
@@ -84,13 +61,13 @@ fn eval_header_names_quantities_and_units() {
 #[test]
 fn offset_and_geopotential_options() {
     let hot = stdout_of(&["eval", "--offset", "15"], "0\n");
-    assert_eq!(column(&hot, "temperature_K"), vec![303.15]);
-    assert_eq!(column(&hot, "pressure_Pa"), vec![101_325.0]);
+    assert_eq!(values(&hot, "temperature_K"), vec![303.15]);
+    assert_eq!(values(&hot, "pressure_Pa"), vec![101_325.0]);
     let cold = stdout_of(&["eval", "--offset", "-15"], "0\n");
-    assert_eq!(column(&cold, "temperature_K"), vec![273.15]);
+    assert_eq!(values(&cold, "temperature_K"), vec![273.15]);
     let geo = stdout_of(&["eval", "--geopotential"], "11000\n");
-    assert_eq!(column(&geo, "temperature_K"), vec![216.65]);
-    assert_eq!(column(&geo, "pressure_Pa"), vec![22_632.063_973_462_93]);
+    assert_eq!(values(&geo, "temperature_K"), vec![216.65]);
+    assert_eq!(values(&geo, "pressure_Pa"), vec![22_632.063_973_462_93]);
 }
 
 #[test]

@@ -2,9 +2,9 @@
 //! SI -> US -> SI agreeing to 1e-12), `--output`, `--version`, completions, the man page,
 //! plots, and the error paths of all of these (exit status and one stderr line).
 
-use std::path::PathBuf;
+mod common;
 
-use assert_cmd::Command;
+use common::*;
 
 /// Exact factors, as the published definitions give them (the international foot and
 /// nautical mile of 1959, the pound-force from the avoirdupois pound and g0; NIST SP 811
@@ -13,30 +13,6 @@ const FOOT_M: f64 = 0.3048;
 const KNOT_M_S: f64 = 1852.0 / 3600.0;
 const INHG_PA: f64 = 3386.389;
 const POUND_FORCE_N: f64 = 0.453_592_37 * 9.806_65;
-
-fn aerostrata() -> Command {
-    Command::cargo_bin("aerostrata").unwrap()
-}
-
-fn run(args: &[&str], stdin: &str) -> (String, String) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert!(output.status.success(), "{args:?}: {stderr}");
-    (String::from_utf8(output.stdout).unwrap(), stderr)
-}
-
-fn stdout_of(args: &[&str], stdin: &str) -> String {
-    run(args, stdin).0
-}
-
-/// Exit status `code` and exactly one line on stderr, containing `words`.
-fn fails(code: i32, args: &[&str], stdin: &str, words: &str) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert_eq!(output.status.code(), Some(code), "{args:?}: {stderr}");
-    assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
-    assert!(stderr.contains(words), "{args:?}: {stderr:?} should contain {words:?}");
-}
 
 /// Header and rows of CSV; empty cells are NaN.
 fn csv(text: &str) -> (Vec<String>, Vec<Vec<f64>>) {
@@ -55,12 +31,6 @@ fn texts(svg: &str) -> Vec<String> {
             Some(body[..body.find("</text>")?].trim().to_owned())
         })
         .collect()
-}
-
-fn scratch(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("aerostrata-formats-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
 }
 
 /// The SI value of a column named `key` in US units, by its unit suffix.

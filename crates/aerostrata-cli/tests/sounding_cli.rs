@@ -3,11 +3,9 @@
 
 use std::path::PathBuf;
 
-use assert_cmd::Command;
+mod common;
 
-fn aerostrata() -> Command {
-    Command::cargo_bin("aerostrata").unwrap()
-}
+use common::*;
 
 fn demo() -> String {
     let path =
@@ -15,58 +13,28 @@ fn demo() -> String {
     path.to_str().unwrap().to_owned()
 }
 
-fn stdout_of(args: &[&str], stdin: &str) -> String {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    assert!(output.status.success(), "{args:?}: {}", String::from_utf8_lossy(&output.stderr));
-    String::from_utf8(output.stdout).unwrap()
-}
-
-/// Exit status 2 and exactly one line on stderr, containing every one of `words`.
-fn fails_with(args: &[&str], stdin: &str, words: &[&str]) {
-    let output = aerostrata().args(args).write_stdin(stdin).output().unwrap();
-    let stderr = String::from_utf8(output.stderr).unwrap();
-    assert_eq!(output.status.code(), Some(2), "{args:?}: {stderr}");
-    assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
-    for word in words {
-        assert!(stderr.contains(word), "{args:?}: {stderr:?} should contain {word:?}");
-    }
-}
-
-fn column(csv: &str, name: &str) -> Vec<f64> {
-    let mut lines = csv.lines();
-    let index = lines.next().unwrap().split(',').position(|c| c == name).unwrap();
-    lines.map(|line| line.split(',').nth(index).unwrap().parse().unwrap()).collect()
-}
-
-/// A scratch directory for this test process.
-fn scratch(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("aerostrata-sounding-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
 #[test]
 fn eval_gives_the_demo_soundings_rows_exactly() {
     let csv = stdout_of(&["eval", "--sounding", &demo()], "4\n1000\n30000\n");
-    assert_eq!(column(&csv, "temperature_K"), vec![33.4 + 273.15, 25.3 + 273.15, -42.1 + 273.15]);
-    assert_eq!(column(&csv, "pressure_Pa"), vec![1008.60 * 100.0, 902.35 * 100.0, 12.33 * 100.0]);
+    assert_eq!(values(&csv, "temperature_K"), vec![33.4 + 273.15, 25.3 + 273.15, -42.1 + 273.15]);
+    assert_eq!(values(&csv, "pressure_Pa"), vec![1008.60 * 100.0, 902.35 * 100.0, 12.33 * 100.0]);
     // A humid row: the state's molecular-scale temperature is the virtual temperature. By
     // hand: e = 1.0041 x 611.21 Pa exp(17.502 x 26.1 / 267.07) = 3386 Pa at the 26.1 degC
     // dew point, e / p = 0.03357, T_v = T / (1 - 0.378 e / p) = T + 3.95 K; aloft, dry air.
-    let virtual_temperature = column(&csv, "molecular_temperature_K");
+    let virtual_temperature = values(&csv, "molecular_temperature_K");
     assert!((virtual_temperature[0] - (306.55 + 3.95)).abs() < 0.01, "{virtual_temperature:?}");
     assert_eq!(virtual_temperature[2], -42.1 + 273.15);
-    let molar_mass = column(&csv, "mean_molar_mass_kg_kmol");
+    let molar_mass = values(&csv, "mean_molar_mass_kg_kmol");
     assert!(molar_mass[0] < 28.6 && molar_mass[2] == 28.9644, "{molar_mass:?}");
 }
 
 #[test]
 fn table_defaults_to_the_soundings_band() {
     let csv = stdout_of(&["table", "--sounding", &demo(), "--step", "1000", "--format", "csv"], "");
-    let z = column(&csv, "geometric_altitude_m");
+    let z = values(&csv, "geometric_altitude_m");
     assert_eq!(z.first(), Some(&4.0));
     assert_eq!(z.last(), Some(&29_004.0));
-    let p = column(&csv, "pressure_Pa");
+    let p = values(&csv, "pressure_Pa");
     assert!(p.windows(2).all(|w| w[1] < w[0]), "pressure falls");
     let text =
         stdout_of(&["table", "--sounding", &demo(), "--from", "4", "--to", "30000", "--step", "29996"], "");
@@ -94,13 +62,14 @@ fn json_and_csv_soundings_agree() {
     let from_json =
         stdout_of(&["eval", "--geopotential", "--sounding", json_path.to_str().unwrap()], heights);
     assert_eq!(from_csv, from_json);
-    assert_eq!(column(&from_csv, "pressure_Pa")[2], 84_350.0);
+    assert_eq!(values(&from_csv, "pressure_Pa")[2], 84_350.0);
     std::fs::remove_dir_all(&dir).unwrap();
 }
 
 #[test]
 fn outside_the_sounding_is_an_error_unless_blended() {
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", &demo()],
         "0\n",
         &["line 1: geometric altitude 0 m is outside the allowed range 4 to 30000 m"],
@@ -109,7 +78,7 @@ fn outside_the_sounding_is_an_error_unless_blended() {
     let blended = stdout_of(&["eval", "--sounding", &demo(), "--blend", "5000"], "40000\n0\n");
     let standard = stdout_of(&["eval"], "40000\n");
     assert_eq!(blended.lines().nth(1), standard.lines().nth(1));
-    let t = column(&blended, "temperature_K");
+    let t = values(&blended, "temperature_K");
     assert!((t[1] - 306.55).abs() < 0.1, "4 m below the first row: {t:?}");
 }
 
@@ -123,19 +92,22 @@ fn bad_soundings_exit_2_naming_file_line_column_and_value() {
     )
     .unwrap();
     let file = path.to_str().unwrap();
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", file],
         "0\n",
         &[file, "line 4, column 2 (temperature_degC), value '-290'", "temperature must be above 0 K"],
     );
     let json = dir.join("bad.json");
     std::fs::write(&json, "{\"altitude\": \"geometric\", \"rows\": [\n  {\"altitude_m\": 0, \"temperature_k\": 300, \"pressure_pa\": 100000},\n  {\"altitude_m\": 0, \"temperature_k\": 299, \"pressure_pa\": 99000}\n]}").unwrap();
-    fails_with(
+    fails_with_all(
+        2,
         &["table", "--sounding", json.to_str().unwrap()],
         "",
         &["row 1: altitude 0 m must be at least", "line 3"],
     );
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", "/no/such/sounding.csv"],
         "",
         &["cannot read sounding /no/such/sounding.csv"],
@@ -145,17 +117,20 @@ fn bad_soundings_exit_2_naming_file_line_column_and_value() {
 
 #[test]
 fn options_that_do_not_apply_to_a_sounding() {
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", &demo(), "--offset", "10"],
         "4\n",
         &["cannot be combined with --sounding"],
     );
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", &demo(), "--species"],
         "4\n",
         &["cannot be combined with --offset or --sounding"],
     );
-    fails_with(
+    fails_with_all(
+        2,
         &["eval", "--sounding", &demo(), "--blend", "0"],
         "4\n",
         &["--blend: blend depth must be greater than 0 m"],

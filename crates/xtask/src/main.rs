@@ -26,6 +26,7 @@ mod setup;
 mod test;
 mod upper;
 mod validate;
+mod vector_file;
 mod vectors;
 
 use std::path::{Path, PathBuf};
