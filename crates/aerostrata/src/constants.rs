@@ -104,22 +104,37 @@ pub mod units {
     /// Kelvin at 0 degC (exact).
     pub const CELSIUS_ZERO_K: f64 = 273.15;
 
-    /// Fahrenheit temperature to kelvin (exact formula).
+    /// Fahrenheit temperature to kelvin (exact formula), through degrees Celsius so that
+    /// round Fahrenheit values of the trade (59 degF) give their round kelvin (288.15 K).
     #[inline]
     pub fn fahrenheit_to_kelvin(degrees_f: f64) -> f64 {
-        (degrees_f + 459.67) * RANKINE_K
+        (degrees_f - 32.0) / 1.8 + CELSIUS_ZERO_K
     }
 
-    /// Kelvin to Fahrenheit temperature (exact formula).
+    /// Kelvin to Fahrenheit temperature (exact formula), through degrees Celsius so that
+    /// 288.15 K prints as 59 degF, not 58.99999999999994.
     #[inline]
     pub fn kelvin_to_fahrenheit(kelvin: f64) -> f64 {
-        kelvin / RANKINE_K - 459.67
+        (kelvin - CELSIUS_ZERO_K) * 1.8 + 32.0
     }
 }
 
 #[cfg(test)]
 mod tests {
     use super::units::*;
+
+    /// The fixed points of the two scales (common practice, no source): water freezes at
+    /// 32 degF = 273.15 K; the standard's sea level is 59 degF = 288.15 K.
+    #[test]
+    fn fahrenheit_round_values_stay_round() {
+        for (f, k) in [(32.0, 273.15), (59.0, 288.15), (212.0, 373.15)] {
+            assert_eq!(kelvin_to_fahrenheit(k), f, "{k} K");
+            assert!((fahrenheit_to_kelvin(f) - k).abs() <= 1e-13 * k, "{f} degF");
+        }
+        assert!((kelvin_to_fahrenheit(0.0) + 459.67).abs() < 1e-12);
+        // The tropopause's 216.65 K (-56.5 degC) is -69.7 degF to the last bits.
+        assert!((kelvin_to_fahrenheit(216.65) + 69.7).abs() < 1e-13);
+    }
 
     /// The factors against NIST SP 811 (2008), appendix B.8, which prints them to 7
     /// significant digits (an asterisk there marks the exact ones).
