@@ -10,6 +10,10 @@
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
+//! cargo xtask wasm              build the npm package (target/wasm/pkg), check its size budget
+//! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
+//! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
+//! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! ```
 
 mod bench;
@@ -20,6 +24,8 @@ mod test;
 mod upper;
 mod validate;
 mod vectors;
+mod wasm;
+mod wasm_bench;
 
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -42,7 +48,15 @@ fn main() -> ExitCode {
                 println!("{line}");
             }
         }),
-            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits"
+            Some("wasm") => wasm::run(&root),
+            Some("wasm-test") => wasm::build(&root).and_then(|package| {
+                wasm::node_tests(&root, &package)?;
+                wasm::rust_tests(&root)?;
+                wasm::bits(&root, &package).map(|_| ())
+            }),
+            Some("browser-test") => wasm::browser(&root),
+            Some("wasm-bench") => wasm_bench::run(&root),
+            _ => Err("usage: cargo xtask test | validate [--check] | upper-table [--check] | flash | header [--check] | c-test | spreadsheet | bench | bits | wasm | wasm-test | browser-test | wasm-bench"
                 .to_owned()),
         };
     match result {
