@@ -31,6 +31,21 @@ pub fn zeroed(len: usize) -> Result<Vec<f64>, Failure> {
     Ok(out)
 }
 
+/// Most rows a table (a sounding) and most layers a layered model may have (262 144):
+/// each row costs a few hundred bytes of the module's memory, and no sounding comes near.
+pub const MAX_TABLE_ROWS: usize = 1 << 18;
+
+/// A `RangeError` unless `count` rows of `name` are within [`MAX_TABLE_ROWS`].
+pub fn table_rows(name: &str, count: usize) -> Result<(), JsValue> {
+    if count <= MAX_TABLE_ROWS {
+        return Ok(());
+    }
+    Err(Failure::range(
+        Text::new(name).s(" has ").u(count).s(" rows; the allowed range is 0 to ").u(MAX_TABLE_ROWS).done(),
+    )
+    .into())
+}
+
 /// `name[index]`, for messages.
 pub fn place(name: &str, index: usize) -> String {
     Text::new(name).s("[").u(index).s("]").done()

@@ -147,12 +147,14 @@ export function get(object, key) {
   return object === undefined ? undefined : object[key];
 }
 
-// Rows of objects with the comma-separated `keys` (numbers or null), the first
-// `required` of them required: 2 n k numbers, the values row by row, then 1 or 0 for
-// given or not.
-export function rows(name, value, keys, required) {
+// At most `max` rows of objects with the comma-separated `keys` (numbers or null), the
+// first `required` of them required: 2 n k numbers, the values row by row, then 1 or 0
+// for given or not.
+export function rows(name, value, keys, required, max) {
   if (!Array.isArray(value)) throw typeError(name, "an array of objects", value);
-  checkLength(name, value.length);
+  if (value.length > max) {
+    throw new RangeError(name + " has " + value.length + " rows; the allowed range is 0 to " + max);
+  }
   const names = keys.split(",");
   const k = names.length;
   const n = value.length;

@@ -55,10 +55,16 @@ extern "C" {
     #[wasm_bindgen(catch)]
     pub fn get(object: &JsValue, key: &str) -> Result<JsValue, JsValue>;
 
-    /// Rows of objects with the comma-separated `keys`, the first `required` of them
-    /// required: the values row by row, then 1 or 0 for given or not.
+    /// At most `max` rows of objects with the comma-separated `keys`, the first `required`
+    /// of them required: the values row by row, then 1 or 0 for given or not.
     #[wasm_bindgen(catch)]
-    pub fn rows(name: &str, value: &JsValue, keys: &str, required: u32) -> Result<Vec<f64>, JsValue>;
+    pub fn rows(
+        name: &str,
+        value: &JsValue,
+        keys: &str,
+        required: u32,
+        max: usize,
+    ) -> Result<Vec<f64>, JsValue>;
 
     /// The sounding's JSON form: JSON text parsed, or the object itself.
     #[wasm_bindgen(catch)]

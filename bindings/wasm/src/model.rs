@@ -257,6 +257,7 @@ impl AtmosphereModel {
         let pressure = js::number("basePressurePa", &pressure)?;
         let tops = js::numbers("topsGeopotentialM", &tops)?;
         let lapse_rates = js::numbers("lapseRatesKPerM", &lapse_rates)?;
+        args::table_rows("topsGeopotentialM", tops.len())?;
         if tops.len() != lapse_rates.len() {
             return Err(Failure::plain(
                 Text::new("topsGeopotentialM has ")
@@ -308,6 +309,7 @@ impl AtmosphereModel {
             "pressurePa,densityKgM3,dewPointK,relativeHumidityPercent,blendBelowM,blendAboveM",
         )?;
         let count = altitudes.len();
+        args::table_rows("altitudesM", count)?;
         let length_error = |name: &str, len: usize| -> JsValue {
             Failure::plain(
                 Text::new(name)
@@ -365,7 +367,7 @@ impl AtmosphereModel {
     ) -> Result<AtmosphereModel, JsValue> {
         let object = js::json("sounding", &json)?;
         let kind = args::altitude_kind("sounding.altitude", &js::get(&object, "altitude")?, false)?;
-        let flat = js::rows("sounding.rows", &js::get(&object, "rows")?, ROW_KEYS, 2)?;
+        let flat = js::rows("sounding.rows", &js::get(&object, "rows")?, ROW_KEYS, 2, args::MAX_TABLE_ROWS)?;
         // Six values per row, then six given-flags per row.
         let (values, given) = flat.split_at(flat.len() / 2);
         let field = |row: &[f64], flags: &[f64], j: usize| (flags.get(j) == Some(&1.0)).then(|| row[j]);

@@ -42,6 +42,13 @@ test("arrays must be Float64Array or arrays of numbers; the element is named", (
   throwsWith(() => standard.batch(new Float32Array(2), ["temperatureK"]), TypeError, /^altitudesM must be a Float64Array/);
   throwsWith(() => standard.batch(new Array(2 ** 24 + 1), ["temperatureK"]), RangeError, /^altitudesM has 16777217 elements; the allowed range is 0 to 16777216$/);
   throwsWith(() => standard.batch([0], "temperatureK"), TypeError, /^quantities must be an array of names/);
+  // Tables and layers: at most 262 144 rows.
+  const many = new Float64Array(2 ** 18 + 1);
+  throwsWith(() => AtmosphereModel.tabulated("geometric", many, many), RangeError, /^altitudesM has 262145 rows; the allowed range is 0 to 262144$/);
+  throwsWith(() => AtmosphereModel.layered(0, 288, 1e5, many, many), RangeError, /^topsGeopotentialM has 262145 rows/);
+  throwsWith(() => AtmosphereModel.fromSoundingJson({ altitude: "geometric", rows: new Array(2 ** 18 + 1) }), RangeError, /^sounding\.rows has 262145 rows/);
+  // A batch too large for the module's memory is a RangeError, not a trap.
+  throwsWith(() => standard.batch(new Float64Array(2 ** 24), Object.keys(standard.state(0))), RangeError, /^the result needs 335544320 numbers, more than the module's memory can hold$/);
 });
 
 test("values outside the allowed range are RangeErrors naming the value and the range", () => {
