@@ -508,7 +508,10 @@ impl CdSegment {
         let t = (m - self.x0) / self.h;
         let [c0, c1, c2, c3] = self.c;
         // Mathematically inside [lo, hi] (see `DragCurve`); keep rounding there too.
-        (c0 + t * (c1 + t * (c2 + t * c3))).clamp(self.lo, self.hi)
+        // max/min, not f64::clamp: the same result for lo <= hi, without clamp's panic
+        // branch (whose message formatting would link float formatting into every
+        // firmware and wasm binary).
+        (c0 + t * (c1 + t * (c2 + t * c3))).max(self.lo).min(self.hi)
     }
 }
 
@@ -529,7 +532,8 @@ fn slope(mach: &[f64], cd: &[f64], k: usize) -> f64 {
     let (h_left, h_right) = (mach[k] - mach[k - 1], mach[k + 1] - mach[k]);
     let parabolic = (h_right * left + h_left * right) / (h_left + h_right);
     let cap = 3.0 * left.abs().min(right.abs());
-    parabolic.clamp(-cap, cap)
+    // max/min rather than f64::clamp, as in `CdSegment::cd`.
+    parabolic.max(-cap).min(cap)
 }
 
 /// Terminal velocity, m/s: the speed of steady fall at which drag balances weight, for a

@@ -481,11 +481,13 @@ fn refine(before: &Kept, peak: &Kept, after: &Kept) -> Option<Vertex> {
     if !(c < 0.0 && b.is_finite() && s0 < 0.0 && s2 > 0.0) {
         return None;
     }
-    let s = (-b / (2.0 * c)).clamp(0.5 * s0, 0.5 * s2);
+    // max/min, not f64::clamp: the same for these ordered, finite bounds, without clamp's
+    // panic branch and the float formatting its message would link in.
+    let s = (-b / (2.0 * c)).max(0.5 * s0).min(0.5 * s2);
     let q = (q1 + b * s + c * s * s).max(q1);
     let weights =
         [s * (s - s2) / (s0 * (s0 - s2)), (s - s0) * (s - s2) / (s0 * s2), s * (s - s0) / (s2 * (s2 - s0))];
-    let time_s = (peak.time_s + s * h).clamp(before.time_s, after.time_s);
+    let time_s = (peak.time_s + s * h).max(before.time_s).min(after.time_s);
     (q.is_finite() && weights.iter().all(|w| w.is_finite())).then_some(Vertex {
         time_s,
         dynamic_pressure_pa: q,

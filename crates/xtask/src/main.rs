@@ -14,6 +14,10 @@
 //! cargo xtask bits --compare FILE  another host's bit lines in FILE against the native ones
 //! cargo xtask firmware          the vectors in QEMU on Cortex-M4F and M3, bit for bit against
 //!                               native; flash, stack and heap budgets (docs/firmware.md)
+//! cargo xtask wasm              build the npm package (target/wasm/pkg), check its size budget
+//! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
+//! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
+//! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! ```
 
 mod bench;
@@ -28,13 +32,15 @@ mod upper;
 mod validate;
 mod vector_file;
 mod vectors;
+mod wasm;
+mod wasm_bench;
 
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
-                     | bench | bits [--compare FILE] | firmware";
+                     | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -59,6 +65,14 @@ fn main() -> ExitCode {
                 println!("{line}");
             }
         }),
+        Some("wasm") => wasm::run(&root),
+        Some("wasm-test") => wasm::build(&root).and_then(|package| {
+            wasm::node_tests(&root, &package)?;
+            wasm::rust_tests(&root)?;
+            wasm::bits(&root, &package).map(|_| ())
+        }),
+        Some("browser-test") => wasm::browser(&root),
+        Some("wasm-bench") => wasm_bench::run(&root),
         _ => Err(USAGE.to_owned()),
     };
     match result {

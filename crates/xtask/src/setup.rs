@@ -123,3 +123,33 @@ pub fn python_modules(root: &Path) -> Result<(), String> {
         Some((module, _, _)) => Err(format!("python3 still cannot import {module}")),
     }
 }
+
+/// The WebAssembly target of the wasm module.
+pub const WASM_TARGET: &str = "wasm32-unknown-unknown";
+
+/// Makes `wasm32-unknown-unknown` buildable and says how: rustup first, then (when rustup
+/// cannot download) Debian's rustc building `core` and `alloc` per target, linking with
+/// `wasm-ld-16` (../shared/notes/toolchains.md).
+pub fn wasm_target(root: &Path) -> Result<TargetToolchain, String> {
+    let installed = Command::new("rustup")
+        .args(["target", "list", "--installed"])
+        .output()
+        .is_ok_and(|o| String::from_utf8_lossy(&o.stdout).lines().any(|l| l == WASM_TARGET));
+    if installed || run_command(root, "rustup", &["target", "add", WASM_TARGET], &[]).is_ok() {
+        return Ok(TargetToolchain::Rustup);
+    }
+    eprintln!("rustup could not add {WASM_TARGET}; falling back to Debian's rustc with -Zbuild-std");
+    apt_install(root, &["rustc-web", "rust-web-src", "lld-16"])?;
+    Ok(TargetToolchain::DebianBuildStd)
+}
+
+/// Makes `node` and `npm` available (Debian's `nodejs` and `npm` when missing).
+pub fn node(root: &Path) -> Result<(), String> {
+    if !quiet_success("node", &["--version"]) {
+        apt_install(root, &["nodejs"])?;
+    }
+    if !quiet_success("npm", &["--version"]) {
+        apt_install(root, &["npm"])?;
+    }
+    Ok(())
+}

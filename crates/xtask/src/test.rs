@@ -78,6 +78,25 @@ pub fn run(root: &Path) -> Result<(), String> {
          to native; flash/stack/heap budgets",
         crate::firmware::run(root),
     );
+    // The WebAssembly module: the npm package within its size budget, its Node tests, bit
+    // identity with the native core, its wasm-bindgen tests, the calculator in Chromium.
+    match crate::wasm::build(root) {
+        Ok(package) => {
+            eprintln!("  {}", package.size_line());
+            step("wasm package within its size budget (cargo xtask wasm)", package.check_budget());
+            step("wasm: Node tests against the built package", crate::wasm::node_tests(root, &package));
+            step(
+                "wasm: bit identity with the native core, every vector",
+                crate::wasm::bits(root, &package).map(drop),
+            );
+            step("wasm: wasm-bindgen tests under Node", crate::wasm::rust_tests(root));
+            step(
+                "web calculator in headless Chromium (cargo xtask browser-test)",
+                crate::wasm::browser(root),
+            );
+        }
+        Err(message) => step("wasm package build (cargo xtask wasm)", Err(message)),
+    }
     let failed_count = failed.len();
     eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
     println!("{passed} passed, {failed_count} failed");

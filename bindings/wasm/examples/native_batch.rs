@@ -1,0 +1,66 @@
+//! The native side of `cargo xtask wasm-bench`: the same batch the wasm module's
+//! `AtmosphereModel.batch` computes (the full state of the 1976 standard at every
+//! altitude, five quantities kept, column after column), on the same altitudes, timed
+//! the same way, so that the ratio of the two is the cost of running in wasm.
+//!
+//! Usage: native_batch ALTITUDES_FILE RUNS
+//! ALTITUDES_FILE holds little-endian f64 geometric altitudes (m); prints one JSON line:
+//! the milliseconds of each timed run and an FNV-1a checksum of the outputs' bytes.
+
+use std::time::Instant;
+
+use aerostrata::{Altitude, Atmosphere, State, US1976};
+
+/// The quantities of the benchmark, in the order of bench.mjs's `QUANTITIES`.
+const QUANTITIES: [fn(&State) -> f64; 5] = [
+    |s| s.temperature_k,
+    |s| s.pressure_pa,
+    |s| s.density_kg_m3,
+    |s| s.speed_of_sound_m_s.unwrap_or(f64::NAN),
+    |s| s.dynamic_viscosity_pa_s.unwrap_or(f64::NAN),
+];
+
+fn batch(altitudes: &[f64]) -> Result<Vec<f64>, aerostrata::Error> {
+    let n = altitudes.len();
+    let mut out = vec![0.0; QUANTITIES.len() * n];
+    for (i, &z) in altitudes.iter().enumerate() {
+        let state = US1976.state(Altitude::geometric_m(z)?)?;
+        for (c, read) in QUANTITIES.iter().enumerate() {
+            out[c * n + i] = read(&state);
+        }
+    }
+    Ok(out)
+}
+
+/// FNV-1a (32 bits) over the little-endian bytes of `values`, as bench.mjs computes it.
+fn checksum(values: &[f64]) -> u32 {
+    let mut hash: u32 = 0x811c_9dc5;
+    for v in values {
+        for byte in v.to_le_bytes() {
+            hash ^= u32::from(byte);
+            hash = hash.wrapping_mul(0x0100_0193);
+        }
+    }
+    hash
+}
+
+fn main() -> Result<(), String> {
+    let args: Vec<String> = std::env::args().collect();
+    let (Some(path), Some(runs)) = (args.get(1), args.get(2).and_then(|r| r.parse::<usize>().ok())) else {
+        return Err("usage: native_batch ALTITUDES_FILE RUNS".to_owned());
+    };
+    let bytes = std::fs::read(path).map_err(|e| format!("cannot read {path}: {e}"))?;
+    let altitudes: Vec<f64> =
+        bytes.chunks_exact(8).map(|c| f64::from_le_bytes(c.try_into().unwrap_or([0; 8]))).collect();
+    let warm = batch(&altitudes).map_err(|e| e.to_string())?;
+    let mut times = Vec::with_capacity(runs);
+    for _ in 0..runs {
+        let started = Instant::now();
+        let out = std::hint::black_box(batch(std::hint::black_box(&altitudes)).map_err(|e| e.to_string())?);
+        times.push(started.elapsed().as_secs_f64() * 1e3);
+        drop(out);
+    }
+    let runs_ms: Vec<String> = times.iter().map(|t| format!("{t:.3}")).collect();
+    println!("{{\"runs_ms\": [{}], \"checksum\": \"{:08x}\"}}", runs_ms.join(", "), checksum(&warm));
+    Ok(())
+}

@@ -1,0 +1,284 @@
+// The JS side of the aerostrata wasm module: reading JS arguments and building result
+// objects. Rust calls these through wasm-bindgen imports (src/js.rs).
+//
+// Why here and not in Rust: checking JS types, walking option objects and making plain
+// objects are JS's own business; done from Rust each property read or write is a call
+// across the boundary and several times the code, and the module has a size budget.
+// No physics here: numbers are only checked to be JS numbers; every range check, every
+// formula and every number of a result comes from the Rust core.
+//
+// Plain `export function` declarations only: `cargo xtask wasm` turns this file into
+// CommonJS for the Node build by rewriting exactly those.
+
+// Most elements any array argument may have (the Rust side's MAX_ELEMENTS).
+const MAX_ELEMENTS = 16777216;
+
+function describe(value) {
+  if (typeof value === "string") {
+    const shown = value.length > 40 ? value.slice(0, 40) + "..." : value;
+    return "the string " + JSON.stringify(shown);
+  }
+  if (value === null) return "null";
+  if (value === undefined) return "undefined";
+  if (Array.isArray(value)) return "an array";
+  if (typeof value === "boolean") return "the boolean " + value;
+  if (typeof value === "bigint") return "a bigint";
+  if (typeof value === "symbol") return "a symbol";
+  if (typeof value === "function") return "a function";
+  if (typeof value === "number") return "the number " + value;
+  return "an object";
+}
+
+function typeError(name, expected, value) {
+  return new TypeError(name + " must be " + expected + ", got " + describe(value));
+}
+
+// A JS error of `kind` (0 TypeError, 1 RangeError, 2 Error) with `message`.
+export function error(kind, message) {
+  return kind === 0 ? new TypeError(message) : kind === 1 ? new RangeError(message) : new Error(message);
+}
+
+// A number as JS prints it, for messages.
+export function numberText(value) {
+  return String(value);
+}
+
+export function number(name, value) {
+  if (typeof value !== "number") throw typeError(name, "a number", value);
+  return value;
+}
+
+// `undefined` (an omitted argument) reads as `fallback`.
+export function numberOr(name, value, fallback) {
+  return value === undefined ? fallback : number(name, value);
+}
+
+// `undefined` and `null` read as "not given" (`undefined` to Rust's Option).
+export function optionalNumber(name, value) {
+  return value === undefined || value === null ? undefined : number(name, value);
+}
+
+function checkLength(name, length) {
+  if (length > MAX_ELEMENTS) {
+    throw new RangeError(name + " has " + length + " elements; the allowed range is 0 to " + MAX_ELEMENTS);
+  }
+}
+
+// A Float64Array or an array of numbers, as a Float64Array (copied into the module's
+// memory by the caller).
+export function numbers(name, value) {
+  if (value instanceof Float64Array) {
+    checkLength(name, value.length);
+    return value;
+  }
+  if (!Array.isArray(value)) throw typeError(name, "a Float64Array or an array of numbers", value);
+  checkLength(name, value.length);
+  const out = new Float64Array(value.length);
+  for (let i = 0; i < value.length; i++) {
+    const v = value[i];
+    if (typeof v !== "number") throw typeError(name + "[" + i + "]", "a number", v);
+    out[i] = v;
+  }
+  return out;
+}
+
+// Optional numbers, one per row: a Float64Array (all given) or an array of numbers with
+// `null` or `undefined` for "not given". Returned as 2n numbers: the values (0 where not
+// given), then 1 or 0 for given or not.
+export function optionalNumbers(name, value) {
+  if (value instanceof Float64Array) {
+    checkLength(name, value.length);
+    const out = new Float64Array(2 * value.length);
+    out.set(value);
+    out.fill(1, value.length);
+    return out;
+  }
+  if (!Array.isArray(value)) throw typeError(name, "a Float64Array or an array of numbers and nulls", value);
+  checkLength(name, value.length);
+  const n = value.length;
+  const out = new Float64Array(2 * n);
+  for (let i = 0; i < n; i++) {
+    const v = value[i];
+    if (v === null || v === undefined) continue;
+    if (typeof v !== "number") throw typeError(name + "[" + i + "]", "a number or null", v);
+    out[i] = v;
+    out[n + i] = 1;
+  }
+  return out;
+}
+
+// The index of `value` among the comma-separated `options`; `fallback` (if not -1) when
+// it is `undefined`. A non-string is a TypeError, an unknown name a RangeError.
+export function choice(name, value, options, fallback) {
+  if (value === undefined && fallback >= 0) return fallback;
+  const names = options.split(",");
+  const list = names.map((n) => '"' + n + '"').join(", ");
+  const index = typeof value === "string" ? names.indexOf(value) : -1;
+  if (index >= 0) return index;
+  const message = name + " must be one of " + list + ", got " + describe(value);
+  throw typeof value === "string" ? new RangeError(message) : new TypeError(message);
+}
+
+// For an array of strings, the index of each among the comma-separated `options`.
+export function choices(name, value, options) {
+  if (!Array.isArray(value)) throw typeError(name, "an array of names", value);
+  checkLength(name, value.length);
+  return Uint32Array.from(value, (v, i) => choice(name + "[" + i + "]", v, options, -1));
+}
+
+// An options object with only the comma-separated `allowed` keys; `undefined` for
+// `undefined` or `null`.
+export function options(name, value, allowed) {
+  if (value === undefined || value === null) return undefined;
+  if (typeof value !== "object" || Array.isArray(value)) throw typeError(name, "an object", value);
+  const keys = allowed.split(",");
+  for (const key of Object.keys(value)) {
+    if (!keys.includes(key)) {
+      throw new TypeError(
+        name + ' has an unknown property "' + key + '"; allowed: ' + keys.map((k) => '"' + k + '"').join(", "),
+      );
+    }
+  }
+  return value;
+}
+
+// Property `key` of an options object (`undefined` when there is no object).
+export function get(object, key) {
+  return object === undefined ? undefined : object[key];
+}
+
+// At most `max` rows of objects with the comma-separated `keys` (numbers or null), the
+// first `required` of them required: 2 n k numbers, the values row by row, then 1 or 0
+// for given or not.
+export function rows(name, value, keys, required, max) {
+  if (!Array.isArray(value)) throw typeError(name, "an array of objects", value);
+  if (value.length > max) {
+    throw new RangeError(name + " has " + value.length + " rows; the allowed range is 0 to " + max);
+  }
+  const names = keys.split(",");
+  const k = names.length;
+  const n = value.length;
+  const out = new Float64Array(2 * n * k);
+  for (let i = 0; i < n; i++) {
+    const row = options(name + "[" + i + "]", value[i], keys);
+    if (row === undefined) throw typeError(name + "[" + i + "]", "an object", value[i]);
+    for (let j = 0; j < k; j++) {
+      const place = name + "[" + i + "]." + names[j];
+      const v = j < required ? number(place, row[names[j]]) : optionalNumber(place, row[names[j]]);
+      if (v !== undefined) {
+        out[i * k + j] = v;
+        out[n * k + i * k + j] = 1;
+      }
+    }
+  }
+  return out;
+}
+
+// JSON text parsed, or an object as it is; anything else is a TypeError.
+export function json(name, value) {
+  if (typeof value === "string") {
+    try {
+      value = JSON.parse(value);
+    } catch (e) {
+      throw new Error(name + ": not valid JSON: " + e.message);
+    }
+  }
+  const object = options(name, value, "altitude,rows,below,above");
+  if (object === undefined) throw typeError(name, "a JSON string or an object", value);
+  return object;
+}
+
+function onlyKey(value) {
+  if (typeof value !== "object" || value === null || Array.isArray(value)) return "";
+  const keys = Object.keys(value);
+  return keys.length === 1 ? keys[0] : "";
+}
+
+// `below` or `above` of a sounding's JSON form: the blend depth, m, or `undefined` for
+// "error" (also when absent).
+export function outside(name, value) {
+  if (value === undefined || value === "error") return undefined;
+  if (onlyKey(value) === "blend_into_us1976" && onlyKey(value.blend_into_us1976) === "depth_m") {
+    return number(name + ".blend_into_us1976.depth_m", value.blend_into_us1976.depth_m);
+  }
+  throw typeError(name, '"error" or {"blend_into_us1976": {"depth_m": number}}', value);
+}
+
+// A barometric reference: [0, 0] for "standard" (or omitted), [1, p] for {qnhPa: p},
+// [2, p] for {padPressurePa: p}.
+export function reference(value) {
+  if (value === undefined || value === "standard") return new Float64Array([0, 0]);
+  const key = onlyKey(value);
+  if (key === "qnhPa") return new Float64Array([1, number("reference.qnhPa", value.qnhPa)]);
+  if (key === "padPressurePa") return new Float64Array([2, number("reference.padPressurePa", value.padPressurePa)]);
+  throw typeError("reference", '"standard", {qnhPa: number} or {padPressurePa: number}', value);
+}
+
+// A drag coefficient: a number as it is, or a table {mach, cd, interpolation} (checked
+// for its keys; its arrays are read by `numbers`).
+export function drag(name, value) {
+  if (typeof value === "number") return value;
+  if (typeof value !== "object" || value === null || Array.isArray(value)) {
+    throw typeError(name, "a drag coefficient (a number) or a table {mach, cd, interpolation}", value);
+  }
+  return options(name, value, "mach,cd,interpolation");
+}
+
+export function describeValue(value) {
+  return describe(value);
+}
+
+// --- results ---
+
+export function record(keys, values) {
+  const names = keys.split(",");
+  const out = {};
+  for (let i = 0; i < names.length; i++) {
+    const v = values[i];
+    out[names[i]] = Number.isNaN(v) ? null : v;
+  }
+  return out;
+}
+
+export function columns(keys, values, count) {
+  const names = keys.split(",");
+  const out = {};
+  for (let i = 0; i < names.length; i++) {
+    out[names[i]] = values.slice(i * count, (i + 1) * count);
+  }
+  return out;
+}
+
+// The flight summary, from the flat layout `flight.rs` writes (`summary_layout` there):
+// samples; then the maximum dynamic pressure (present flag, timeS, altitudeM, velocityMS,
+// mach, dynamicPressurePa, sampleIndex, refined); the maximum Mach number and the maximum
+// drag (present flag, value, timeS, altitudeM, velocityMS, sampleIndex); the Mach 1
+// crossings up and down (count, firstTimeS, lastTimeS).
+export function flightResult(points, defined, s) {
+  const orNull = (v) => (Number.isNaN(v) ? null : v);
+  const extreme = (i) =>
+    s[i] ? { value: s[i + 1], timeS: s[i + 2], altitudeM: s[i + 3], velocityMS: s[i + 4], sampleIndex: s[i + 5] } : null;
+  const crossings = (i) => ({ count: s[i], firstTimeS: orNull(s[i + 1]), lastTimeS: orNull(s[i + 2]) });
+  points.defined = defined.slice();
+  return {
+    points,
+    summary: {
+      samples: s[0],
+      maxDynamicPressure: s[1]
+        ? {
+            timeS: s[2],
+            altitudeM: s[3],
+            velocityMS: s[4],
+            mach: orNull(s[5]),
+            dynamicPressurePa: s[6],
+            sampleIndex: s[7],
+            refined: s[8] === 1,
+          }
+        : null,
+      maxMach: extreme(9),
+      machOneUp: crossings(21),
+      machOneDown: crossings(24),
+      maxDrag: extreme(15),
+    },
+  };
+}

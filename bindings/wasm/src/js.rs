@@ -1,0 +1,99 @@
+//! The imports from `glue.js`: reading JS arguments and building result objects on the
+//! JS side (see the comment at the top of that file for why). Those that can throw are
+//! declared `catch`, so that a JS exception comes back as an `Err` and the Rust frames
+//! return normally (an exception unwinding through them would skip their destructors).
+
+use alloc::string::String;
+use alloc::vec::Vec;
+
+use wasm_bindgen::prelude::*;
+
+#[wasm_bindgen(module = "/src/glue.js")]
+extern "C" {
+    /// A JS error: kind 0 `TypeError`, 1 `RangeError`, 2 `Error`.
+    pub fn error(kind: u32, message: &str) -> JsValue;
+
+    /// `String(value)`.
+    #[wasm_bindgen(js_name = numberText)]
+    pub fn number_text(value: f64) -> String;
+
+    /// `value` if it is a JS number, else a `TypeError` naming `name`.
+    #[wasm_bindgen(catch)]
+    pub fn number(name: &str, value: &JsValue) -> Result<f64, JsValue>;
+
+    /// As [`number`], `fallback` for `undefined`.
+    #[wasm_bindgen(catch, js_name = numberOr)]
+    pub fn number_or(name: &str, value: &JsValue, fallback: f64) -> Result<f64, JsValue>;
+
+    /// As [`number`], `None` for `undefined` and `null`.
+    #[wasm_bindgen(catch, js_name = optionalNumber)]
+    pub fn optional_number(name: &str, value: &JsValue) -> Result<Option<f64>, JsValue>;
+
+    /// A `Float64Array` or an array of numbers, copied; a `TypeError` or `RangeError`
+    /// naming `name` (and the element) otherwise.
+    #[wasm_bindgen(catch)]
+    pub fn numbers(name: &str, value: &JsValue) -> Result<Vec<f64>, JsValue>;
+
+    /// Optional numbers, one per row: the values, then 1 or 0 for given or not.
+    #[wasm_bindgen(catch, js_name = optionalNumbers)]
+    pub fn optional_numbers(name: &str, value: &JsValue) -> Result<Vec<f64>, JsValue>;
+
+    /// The index of `value` among the comma-separated `options` (`fallback` for
+    /// `undefined` if it is not -1).
+    #[wasm_bindgen(catch)]
+    pub fn choice(name: &str, value: &JsValue, options: &str, fallback: i32) -> Result<u32, JsValue>;
+
+    /// For an array of strings, the index of each among the comma-separated `options`.
+    #[wasm_bindgen(catch)]
+    pub fn choices(name: &str, value: &JsValue, options: &str) -> Result<Vec<u32>, JsValue>;
+
+    /// An options object with only the comma-separated `allowed` keys, or `undefined`.
+    #[wasm_bindgen(catch)]
+    pub fn options(name: &str, value: &JsValue, allowed: &str) -> Result<JsValue, JsValue>;
+
+    /// Property `key` of an options object.
+    #[wasm_bindgen(catch)]
+    pub fn get(object: &JsValue, key: &str) -> Result<JsValue, JsValue>;
+
+    /// At most `max` rows of objects with the comma-separated `keys`, the first `required`
+    /// of them required: the values row by row, then 1 or 0 for given or not.
+    #[wasm_bindgen(catch)]
+    pub fn rows(
+        name: &str,
+        value: &JsValue,
+        keys: &str,
+        required: u32,
+        max: usize,
+    ) -> Result<Vec<f64>, JsValue>;
+
+    /// The sounding's JSON form: JSON text parsed, or the object itself.
+    #[wasm_bindgen(catch)]
+    pub fn json(name: &str, value: &JsValue) -> Result<JsValue, JsValue>;
+
+    /// A sounding's `below` or `above`: the blend depth, or `None` for "error".
+    #[wasm_bindgen(catch)]
+    pub fn outside(name: &str, value: &JsValue) -> Result<Option<f64>, JsValue>;
+
+    /// A barometric reference as [kind, pressure]: 0 standard, 1 QNH, 2 pad.
+    #[wasm_bindgen(catch)]
+    pub fn reference(value: &JsValue) -> Result<Vec<f64>, JsValue>;
+
+    /// A drag coefficient (a number) or a checked drag-table object.
+    #[wasm_bindgen(catch)]
+    pub fn drag(name: &str, value: &JsValue) -> Result<JsValue, JsValue>;
+
+    /// A short description of a JS value for messages.
+    #[wasm_bindgen(js_name = describeValue)]
+    pub fn describe(value: &JsValue) -> String;
+
+    /// `{keys[i]: values[i]}` for the comma-separated `keys`, NaN read as `null`.
+    pub fn record(keys: &str, values: &[f64]) -> JsValue;
+
+    /// `{keys[i]: Float64Array of values[i * count .. (i + 1) * count]}`.
+    #[wasm_bindgen(catch)]
+    pub fn columns(keys: &str, values: &[f64], count: usize) -> Result<JsValue, JsValue>;
+
+    /// The flight scan's result object (see `flight::summary_layout`).
+    #[wasm_bindgen(catch, js_name = flightResult)]
+    pub fn flight_result(points: &JsValue, defined: &[u8], summary: &[f64]) -> Result<JsValue, JsValue>;
+}

@@ -1,0 +1,382 @@
+//! aerostrata's WebAssembly door: thin wasm-bindgen wrappers over the core crate, built
+//! by `cargo xtask wasm` into the npm package `aerostrata` (an ES module for browsers and
+//! bundlers, a Node build, TypeScript types). No formula lives here: every number comes
+//! from the core, so the module gives the native core's bits.
+//!
+//! The conventions, which every export follows:
+//! - JS names in camelCase through `js_name`, each with its unit in the name (`pressurePa`,
+//!   `densityKgM3`, `velocityMS`) or in the doc comment that becomes its JSDoc;
+//! - every argument arrives as a `JsValue` and is read through `glue.js` (modules `js` and
+//!   `args`): a number must be a JS number, an array a `Float64Array` or an array of
+//!   numbers (wasm-bindgen's own `f64` parameters would turn `null` into 0 without a
+//!   word); results are assembled into plain objects there too, so that the module makes
+//!   one call across the boundary per result rather than one per property;
+//! - every failure is a thrown JS error (`error`): `TypeError` for a wrong JS type,
+//!   `RangeError` for a value out of its range (the message names the value and the
+//!   range), `Error` otherwise;
+//! - nothing panics: no indexing that can fail, no `unwrap`, arrays bounded before they
+//!   are copied into the module's memory (a panic in wasm is a trap that leaves the
+//!   module unusable, so the Node tests throw garbage at every export).
+
+#![no_std]
+#![warn(missing_docs)]
+
+extern crate alloc;
+#[cfg(not(feature = "standalone"))]
+extern crate std;
+
+/// What `std` would otherwise provide (see the `standalone` feature in Cargo.toml).
+#[cfg(all(feature = "standalone", target_arch = "wasm32"))]
+mod standalone {
+    #[global_allocator]
+    static ALLOCATOR: talc::wasm::WasmDynamicTalc = talc::wasm::new_wasm_dynamic_allocator();
+
+    /// No panic is reachable (see the crate docs); if one were, it traps, and the JS
+    /// caller sees a `WebAssembly.RuntimeError`.
+    #[panic_handler]
+    fn panic(_: &core::panic::PanicInfo<'_>) -> ! {
+        core::arch::wasm32::unreachable()
+    }
+}
+
+mod aero;
+mod args;
+mod error;
+mod flight;
+mod js;
+mod model;
+mod text;
+
+pub use aero::*;
+pub use error::{Class, Failure};
+pub use model::{standard_species, standard_state, AtmosphereModel};
+
+use wasm_bindgen::prelude::*;
+
+/// The version of the package, for example "0.1.0" (the crate's version).
+#[wasm_bindgen(js_name = version)]
+pub fn version() -> alloc::string::String {
+    alloc::string::String::from(env!("CARGO_PKG_VERSION"))
+}
+
+#[wasm_bindgen(typescript_custom_section)]
+const TYPES: &'static str = r#"
+/** Which kind of altitude a number is: geometric (above mean sea level, m) or geopotential (geopotential m). */
+export type AltitudeKind = "geometric" | "geopotential";
+
+/** The kinds of model `AtmosphereModel` holds. */
+export type ModelKind = "standard" | "exponential" | "isothermal" | "layered" | "tabulated";
+
+/**
+ * The full state of the atmosphere at one altitude, SI units named in every field. The four
+ * continuum properties are `null` where the model does not define them (the 1976 standard
+ * above 86 km).
+ */
+export interface AtmosphereState {
+  /** Geometric altitude Z, m. */
+  geometricAltitudeM: number;
+  /** Geopotential altitude H, geopotential m. */
+  geopotentialAltitudeM: number;
+  /** Kinetic temperature T, K. */
+  temperatureK: number;
+  /** Molecular-scale temperature T M0 / M, K. */
+  molecularTemperatureK: number;
+  /** Pressure p, Pa. */
+  pressurePa: number;
+  /** Density rho, kg/m^3. */
+  densityKgM3: number;
+  /** Speed of sound a, m/s (`null` above 86 km). */
+  speedOfSoundMS: number | null;
+  /** Dynamic viscosity mu, Pa s (`null` above 86 km). */
+  dynamicViscosityPaS: number | null;
+  /** Kinematic viscosity nu = mu / rho, m^2/s (`null` above 86 km). */
+  kinematicViscosityM2S: number | null;
+  /** Thermal conductivity k, W/(m K) (`null` above 86 km). */
+  thermalConductivityWMK: number | null;
+  /** Acceleration of gravity g, m/s^2. */
+  gravityMS2: number;
+  /** Pressure scale height R* T / (M g), m. */
+  pressureScaleHeightM: number;
+  /** Number density n, 1/m^3. */
+  numberDensityM3: number;
+  /** Mean particle speed, m/s. */
+  meanParticleSpeedMS: number;
+  /** Mean free path, m. */
+  meanFreePathM: number;
+  /** Mean collision frequency, 1/s. */
+  collisionFrequencyHz: number;
+  /** Mean molar mass M, kg/kmol. */
+  meanMolarMassKgKmol: number;
+  /** T / T0 (T0 = 288.15 K). */
+  temperatureRatio: number;
+  /** p / P0 (P0 = 101 325 Pa). */
+  pressureRatio: number;
+  /** rho / rho0 (rho0 = 1.225 kg/m^3). */
+  densityRatio: number;
+}
+
+/** The name of one quantity of `AtmosphereState`, for `AtmosphereModel.batch`. */
+export type StateQuantity = keyof AtmosphereState;
+
+/** The altitudes a model accepts. */
+export interface AltitudeRange {
+  /** Lowest geometric altitude, m. */
+  geometricMinM: number;
+  /** Highest geometric altitude, m. */
+  geometricMaxM: number;
+  /** Lowest geopotential altitude, geopotential m. */
+  geopotentialMinM: number;
+  /** Highest geopotential altitude, geopotential m. */
+  geopotentialMaxM: number;
+}
+
+/** Number densities of the 1976 standard's six species above 86 km, 1/m^3. */
+export interface SpeciesNumberDensities {
+  /** Molecular nitrogen, 1/m^3. */
+  n2M3: number;
+  /** Atomic oxygen, 1/m^3. */
+  oM3: number;
+  /** Molecular oxygen, 1/m^3. */
+  o2M3: number;
+  /** Argon, 1/m^3. */
+  arM3: number;
+  /** Helium, 1/m^3. */
+  heM3: number;
+  /** Atomic hydrogen, 1/m^3 (zero below 150 km). */
+  hM3: number;
+}
+
+/**
+ * The optional columns of `AtmosphereModel.tabulated`, each with one entry per row and
+ * `null` where a row does not give the value.
+ */
+export interface TableColumns {
+  /** Pressure, Pa: on every row, or on the first row only. */
+  pressurePa?: Float64Array | (number | null)[];
+  /** Density of the (moist) air, kg/m^3, on every row (instead of pressure). */
+  densityKgM3?: Float64Array | (number | null)[];
+  /** Dew point, K. */
+  dewPointK?: Float64Array | (number | null)[];
+  /** Relative humidity over water, %. */
+  relativeHumidityPercent?: Float64Array | (number | null)[];
+  /** Below the first row, blend into the 1976 standard over this many geopotential metres. */
+  blendBelowM?: number;
+  /** Above the last row, blend into the 1976 standard over this many geopotential metres. */
+  blendAboveM?: number;
+}
+
+/** One row of a sounding's JSON form (SI units; absent or `null` is "not given"). */
+export interface SoundingJsonRow {
+  /** Altitude, m, of the table's kind. */
+  altitude_m: number;
+  /** Kinetic temperature, K. */
+  temperature_k: number;
+  /** Pressure, Pa. */
+  pressure_pa?: number | null;
+  /** Density, kg/m^3. */
+  density_kg_m3?: number | null;
+  /** Dew point, K. */
+  dew_point_k?: number | null;
+  /** Relative humidity over water, %. */
+  relative_humidity_percent?: number | null;
+}
+
+/** What a table does beyond its edge: an error, or a blend into the 1976 standard over `depth_m` geopotential metres. */
+export type SoundingOutside = "error" | { blend_into_us1976: { depth_m: number } };
+
+/** A sounding's JSON form, as the command-line tool reads it. */
+export interface SoundingJson {
+  altitude: AltitudeKind;
+  rows: SoundingJsonRow[];
+  below?: SoundingOutside;
+  above?: SoundingOutside;
+}
+
+/** A drag-coefficient table: Mach numbers (increasing, 0 to 1000) and their Cd (above 0, at most 100). */
+export interface DragTable {
+  mach: Float64Array | number[];
+  cd: Float64Array | number[];
+  /** Between points: a monotone cubic (the default) or straight lines. */
+  interpolation?: "monotoneCubic" | "linear";
+}
+
+/** A drag coefficient: a constant, or a table against Mach number. */
+export type DragSpec = number | DragTable;
+
+/** The vehicle of a flight scan. */
+export interface VehicleSpec {
+  /** Drag coefficient, constant or against Mach number. */
+  drag: DragSpec;
+  /** Reference area of the drag coefficient, m^2. */
+  referenceAreaM2: number;
+  /** Reference length for the Reynolds number, m. */
+  referenceLengthM?: number;
+}
+
+/** One column per quantity, one entry per sample; NaN where `defined` lacks the quantity's bit. */
+export interface FlightPoints {
+  /** Time, s. */
+  timeS: Float64Array;
+  /** Geometric altitude, m. */
+  altitudeM: Float64Array;
+  /** Velocity as given, m/s. */
+  velocityMS: Float64Array;
+  /** Density, kg/m^3. */
+  densityKgM3: Float64Array;
+  /** Static pressure, Pa. */
+  pressurePa: Float64Array;
+  /** Kinetic temperature, K. */
+  temperatureK: Float64Array;
+  /** Speed of sound, m/s (bit 1). */
+  speedOfSoundMS: Float64Array;
+  /** Mach number (bit 1). */
+  mach: Float64Array;
+  /** Dynamic pressure rho V^2 / 2, Pa. */
+  dynamicPressurePa: Float64Array;
+  /** Unit Reynolds number rho |V| / mu, 1/m (bit 2). */
+  reynoldsPerM: Float64Array;
+  /** Reynolds number for the reference length (bit 4). */
+  reynoldsNumber: Float64Array;
+  /** Drag coefficient (bit 8). */
+  dragCoefficient: Float64Array;
+  /** Drag q Cd A, N (bit 8). */
+  dragN: Float64Array;
+  /** Per sample: 1 Mach defined, 2 unit Reynolds number, 4 Reynolds number, 8 drag. */
+  defined: Uint8Array;
+}
+
+/** The maximum dynamic pressure, refined between samples by a parabola through the three largest. */
+export interface DynamicPressurePeak {
+  /** Time of the maximum, s. */
+  timeS: number;
+  /** Geometric altitude there, m. */
+  altitudeM: number;
+  /** Velocity there, m/s. */
+  velocityMS: number;
+  /** Mach number there (`null` where a sample has none). */
+  mach: number | null;
+  /** The maximum dynamic pressure, Pa. */
+  dynamicPressurePa: number;
+  /** Index of the largest sample. */
+  sampleIndex: number;
+  /** Whether the parabola refined it (false at the ends of the flight). */
+  refined: boolean;
+}
+
+/** The largest value of a quantity over the samples. */
+export interface FlightExtreme {
+  /** The value (Mach number, or drag in N). */
+  value: number;
+  /** Time of the sample, s. */
+  timeS: number;
+  /** Geometric altitude of the sample, m. */
+  altitudeM: number;
+  /** Velocity of the sample, m/s. */
+  velocityMS: number;
+  /** Index of the sample. */
+  sampleIndex: number;
+}
+
+/** Crossings of Mach 1 in one direction. */
+export interface MachCrossings {
+  count: number;
+  /** Time of the first, s. */
+  firstTimeS: number | null;
+  /** Time of the last, s. */
+  lastTimeS: number | null;
+}
+
+/** The summary of a scanned flight. */
+export interface FlightSummary {
+  samples: number;
+  maxDynamicPressure: DynamicPressurePeak | null;
+  maxMach: FlightExtreme | null;
+  machOneUp: MachCrossings;
+  machOneDown: MachCrossings;
+  /** Largest drag, N (with a vehicle). */
+  maxDrag: FlightExtreme | null;
+}
+
+/** What `AtmosphereModel.scanFlight` returns. */
+export interface FlightScanResult {
+  points: FlightPoints;
+  summary: FlightSummary;
+}
+
+/** Static-to-total ratios of isentropic flow. */
+export interface IsentropicRatios {
+  mach: number;
+  /** p / pt. */
+  pressureRatio: number;
+  /** T / Tt. */
+  temperatureRatio: number;
+  /** rho / rhot. */
+  densityRatio: number;
+}
+
+/** Normal-shock relations. */
+export interface NormalShockRatios {
+  upstreamMach: number;
+  downstreamMach: number;
+  /** p2 / p1. */
+  pressureRatio: number;
+  /** rho2 / rho1. */
+  densityRatio: number;
+  /** T2 / T1. */
+  temperatureRatio: number;
+  /** pt2 / pt1. */
+  totalPressureRatio: number;
+  /** pt2 / p1 (Rayleigh pitot). */
+  pitotPressureRatio: number;
+}
+
+/** The kind of an airspeed given to `airspeeds`. */
+export type AirspeedKind = "calibrated" | "equivalent" | "true" | "mach";
+
+/** Every airspeed of one flight condition. */
+export interface AirspeedSet {
+  /** Calibrated airspeed, m/s. */
+  calibratedMS: number;
+  /** Equivalent airspeed, m/s. */
+  equivalentMS: number;
+  /** True airspeed, m/s. */
+  trueMS: number;
+  mach: number;
+  /** Impact pressure pt - p, Pa. */
+  impactPressurePa: number;
+  /** Dynamic pressure rho V^2 / 2, Pa. */
+  dynamicPressurePa: number;
+}
+
+/** What a barometric altitude is measured from. */
+export type BarometricReferenceSpec = "standard" | { qnhPa: number } | { padPressurePa: number };
+
+/** Regimes of rarefied-gas dynamics by Knudsen number. */
+export type RarefactionRegime = "continuum" | "slip" | "transitional" | "freeMolecular";
+
+/** Exact factors to SI: a value in the unit times its factor is the SI value. */
+export interface UnitFactors {
+  /** International foot, m. */
+  footM: number;
+  /** Knot, m/s. */
+  knotMS: number;
+  /** Pound-force, N. */
+  poundForceN: number;
+  /** Pound-force per square foot, Pa. */
+  psfPa: number;
+  /** Pound-force per square inch, Pa. */
+  psiPa: number;
+  /** Inch of mercury (conventional), Pa. */
+  inHgPa: number;
+  /** Hectopascal, Pa. */
+  hPaPa: number;
+  /** Slug, kg. */
+  slugKg: number;
+  /** Slug per cubic foot, kg/m^3. */
+  slugPerFt3KgM3: number;
+  /** Degree Rankine (or Fahrenheit interval), K. */
+  rankineK: number;
+  /** 0 degC, K. */
+  celsiusZeroK: number;
+}
+"#;

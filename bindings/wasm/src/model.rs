@@ -1,0 +1,704 @@
+//! Atmosphere models behind one JS class, the full state as a plain object, and the batch
+//! evaluation over a `Float64Array` of altitudes.
+
+use alloc::string::String;
+use alloc::vec::Vec;
+
+use aerostrata::inverse::{altitude_of, Property};
+use aerostrata::model::upper::Species;
+use aerostrata::{
+    Air, Altitude, AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, Layer, LayerSpec,
+    Layered, OutsideTable, SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, Us1976, US1976,
+};
+use wasm_bindgen::prelude::*;
+
+use crate::aero::DragSpec;
+use crate::args::{self, altitude};
+use crate::error::{Failure, Js};
+use crate::js;
+use crate::text::Text;
+
+/// The models a handle can hold.
+#[derive(Debug, Clone)]
+pub(crate) enum Model {
+    /// The standard itself: an offset of 0 gives the very bits of the plain standard.
+    Us1976,
+    Standard(TemperatureOffset<Us1976>),
+    Exponential(Exponential),
+    Isothermal(Isothermal),
+    Layers(Layered<Vec<Layer>>),
+    Table(Tabulated<Vec<SoundingLevel>>),
+}
+
+impl Atmosphere for Model {
+    fn range(&self) -> AltitudeRange {
+        match self {
+            Self::Us1976 => US1976.range(),
+            Self::Standard(m) => m.range(),
+            Self::Exponential(m) => m.range(),
+            Self::Isothermal(m) => m.range(),
+            Self::Layers(m) => m.range(),
+            Self::Table(m) => m.range(),
+        }
+    }
+
+    fn air(&self, altitude: Altitude) -> aerostrata::Result<Air> {
+        match self {
+            Self::Us1976 => US1976.air(altitude),
+            Self::Standard(m) => m.air(altitude),
+            Self::Exponential(m) => m.air(altitude),
+            Self::Isothermal(m) => m.air(altitude),
+            Self::Layers(m) => m.air(altitude),
+            Self::Table(m) => m.air(altitude),
+        }
+    }
+}
+
+/// The standard with a temperature offset; the standard itself for 0.
+pub(crate) fn standard(offset_k: f64) -> Result<Model, Failure> {
+    let offset = TemperatureOffset::new(US1976, offset_k)?;
+    Ok(if offset_k == 0.0 { Model::Us1976 } else { Model::Standard(offset) })
+}
+
+/// One quantity of the state: its JS name and how it is read (the four continuum
+/// properties through the core's accessors, which name the altitude where they are not
+/// defined).
+type Quantity = (&'static str, fn(&State) -> aerostrata::Result<f64>);
+
+/// Every quantity of [`State`], in the order of `State::fields`, named as the JS state
+/// object names them.
+pub(crate) static QUANTITIES: [Quantity; 20] = [
+    ("geometricAltitudeM", |s| Ok(s.geometric_altitude_m)),
+    ("geopotentialAltitudeM", |s| Ok(s.geopotential_altitude_m)),
+    ("temperatureK", |s| Ok(s.temperature_k)),
+    ("molecularTemperatureK", |s| Ok(s.molecular_temperature_k)),
+    ("pressurePa", |s| Ok(s.pressure_pa)),
+    ("densityKgM3", |s| Ok(s.density_kg_m3)),
+    ("speedOfSoundMS", State::speed_of_sound),
+    ("dynamicViscosityPaS", State::dynamic_viscosity),
+    ("kinematicViscosityM2S", State::kinematic_viscosity),
+    ("thermalConductivityWMK", State::thermal_conductivity),
+    ("gravityMS2", |s| Ok(s.gravity_m_s2)),
+    ("pressureScaleHeightM", |s| Ok(s.pressure_scale_height_m)),
+    ("numberDensityM3", |s| Ok(s.number_density_m3)),
+    ("meanParticleSpeedMS", |s| Ok(s.mean_particle_speed_m_s)),
+    ("meanFreePathM", |s| Ok(s.mean_free_path_m)),
+    ("collisionFrequencyHz", |s| Ok(s.collision_frequency_hz)),
+    ("meanMolarMassKgKmol", |s| Ok(s.mean_molar_mass_kg_kmol)),
+    ("temperatureRatio", |s| Ok(s.temperature_ratio)),
+    ("pressureRatio", |s| Ok(s.pressure_ratio)),
+    ("densityRatio", |s| Ok(s.density_ratio)),
+];
+
+/// The names of [`QUANTITIES`], comma-separated, for `record`.
+const STATE_KEYS: &str = "geometricAltitudeM,geopotentialAltitudeM,temperatureK,molecularTemperatureK,\
+pressurePa,densityKgM3,speedOfSoundMS,dynamicViscosityPaS,kinematicViscosityM2S,thermalConductivityWMK,gravityMS2,\
+pressureScaleHeightM,numberDensityM3,meanParticleSpeedMS,meanFreePathM,collisionFrequencyHz,meanMolarMassKgKmol,\
+temperatureRatio,pressureRatio,densityRatio";
+
+/// The state as a plain object: every quantity by its JS name, `null` where the model does
+/// not define it (the continuum properties above 86 km).
+pub(crate) fn state_object(state: &State) -> JsValue {
+    let undefined = |v: Option<f64>| v.unwrap_or(f64::NAN);
+    let s = state;
+    js::record(
+        STATE_KEYS,
+        &[
+            s.geometric_altitude_m,
+            s.geopotential_altitude_m,
+            s.temperature_k,
+            s.molecular_temperature_k,
+            s.pressure_pa,
+            s.density_kg_m3,
+            undefined(s.speed_of_sound_m_s),
+            undefined(s.dynamic_viscosity_pa_s),
+            undefined(s.kinematic_viscosity_m2_s),
+            undefined(s.thermal_conductivity_w_m_k),
+            s.gravity_m_s2,
+            s.pressure_scale_height_m,
+            s.number_density_m3,
+            s.mean_particle_speed_m_s,
+            s.mean_free_path_m,
+            s.collision_frequency_hz,
+            s.mean_molar_mass_kg_kmol,
+            s.temperature_ratio,
+            s.pressure_ratio,
+            s.density_ratio,
+        ],
+    )
+}
+
+fn range_object(range: &AltitudeRange) -> JsValue {
+    js::record(
+        "geometricMinM,geometricMaxM,geopotentialMinM,geopotentialMaxM",
+        &[range.geometric_min_m, range.geometric_max_m, range.geopotential_min_m, range.geopotential_max_m],
+    )
+}
+
+fn species_object(n: &Species) -> JsValue {
+    js::record("n2M3,oM3,o2M3,arM3,heM3,hM3", &n.as_array())
+}
+
+/// An atmosphere model: the 1976 standard with a temperature offset, an exponential or
+/// isothermal profile, user lapse-rate layers, or a table (a sounding). Made by one of
+/// the static methods; call `free()` when done with it (or let the garbage collector's
+/// finaliser release it).
+#[wasm_bindgen]
+pub struct AtmosphereModel {
+    pub(crate) model: Model,
+    kind: &'static str,
+}
+
+impl AtmosphereModel {
+    fn new(model: Model, kind: &'static str) -> Self {
+        Self { model, kind }
+    }
+}
+
+/// What a table does beyond its edge: an error, or a blend into the standard over
+/// `depth_m` geopotential metres.
+fn outside(depth_m: Option<f64>) -> OutsideTable {
+    depth_m.map_or(OutsideTable::Error, |depth_m| OutsideTable::BlendIntoUs1976 { depth_m })
+}
+
+fn table(
+    kind: AltitudeKind,
+    rows: &[SoundingRow],
+    below: OutsideTable,
+    above: OutsideTable,
+) -> Result<AtmosphereModel, Failure> {
+    let table = Tabulated::from_rows_vec(kind, rows)?.with_below(below)?.with_above(above)?;
+    Ok(AtmosphereModel::new(Model::Table(table), "tabulated"))
+}
+
+/// The fields of a row of the sounding's JSON form (the core's `SoundingRow` names); the
+/// first two are required.
+const ROW_KEYS: &str =
+    "altitude_m,temperature_k,pressure_pa,density_kg_m3,dew_point_k,relative_humidity_percent";
+
+/// The optional columns of `tabulated`, in the order of the `SoundingRow` setters below.
+const TABLE_COLUMNS: [&str; 4] = ["pressurePa", "densityKgM3", "dewPointK", "relativeHumidityPercent"];
+
+#[wasm_bindgen]
+impl AtmosphereModel {
+    /// The U.S. Standard Atmosphere 1976, -5 km to 1000 km geometric, with every
+    /// temperature shifted by `offsetK` kelvin at the standard's pressure (0, the default,
+    /// for the standard itself; +15 for ISA+15). Above 86 km the continuum properties
+    /// (speed of sound, viscosities, conductivity) are not defined.
+    ///
+    /// Throws a `RangeError` for an offset that is not a finite number.
+    #[wasm_bindgen(js_name = standard)]
+    pub fn standard(
+        #[wasm_bindgen(js_name = offsetK, unchecked_optional_param_type = "number")] offset_k: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let offset_k = js::number_or("offsetK", &offset_k, 0.0)?;
+        Ok(Self::new(standard(offset_k)?, "standard"))
+    }
+
+    /// An exponential atmosphere: density `seaLevelDensityKgM3` (kg/m^3) at 0 m falling by
+    /// e every `scaleHeightM` metres, at the constant temperature `temperatureK` (K).
+    /// Defined from -5 km to 1000 km geometric.
+    ///
+    /// Throws a `RangeError` for a parameter that is not finite and above 0.
+    #[wasm_bindgen(js_name = exponential)]
+    pub fn exponential(
+        #[wasm_bindgen(js_name = seaLevelDensityKgM3, unchecked_param_type = "number")] density: JsValue,
+        #[wasm_bindgen(js_name = scaleHeightM, unchecked_param_type = "number")] scale_height: JsValue,
+        #[wasm_bindgen(js_name = temperatureK, unchecked_param_type = "number")] temperature: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let model = Exponential::new(
+            js::number("seaLevelDensityKgM3", &density)?,
+            js::number("scaleHeightM", &scale_height)?,
+            js::number("temperatureK", &temperature)?,
+        )
+        .js()?;
+        Ok(Self::new(Model::Exponential(model), "exponential"))
+    }
+
+    /// An isothermal atmosphere at `temperatureK` (K) with pressure `seaLevelPressurePa`
+    /// (Pa) at geopotential altitude 0. Defined from -5 km to 1000 km geometric.
+    ///
+    /// Throws a `RangeError` for a parameter that is not finite and above 0.
+    #[wasm_bindgen(js_name = isothermal)]
+    pub fn isothermal(
+        #[wasm_bindgen(js_name = temperatureK, unchecked_param_type = "number")] temperature: JsValue,
+        #[wasm_bindgen(js_name = seaLevelPressurePa, unchecked_param_type = "number")] pressure: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let model = Isothermal::new(
+            js::number("temperatureK", &temperature)?,
+            js::number("seaLevelPressurePa", &pressure)?,
+        )
+        .js()?;
+        Ok(Self::new(Model::Isothermal(model), "isothermal"))
+    }
+
+    /// User layers of constant lapse rate, stacked from a base at geopotential altitude
+    /// `baseGeopotentialM` (m) with temperature `baseTemperatureK` (K) and pressure
+    /// `basePressurePa` (Pa). Layer i ends at `topsGeopotentialM[i]` (geopotential m)
+    /// and has lapse rate `lapseRatesKPerM[i]` (dT/dH, K per geopotential metre; negative
+    /// when the temperature falls with height). The model runs from the base to the last
+    /// top.
+    ///
+    /// Throws a `TypeError` for arrays that are not arrays of numbers, an `Error` naming
+    /// the layer for arrays of different lengths, no layers, a top not above its base, a
+    /// temperature reaching 0 K or a pressure underflowing.
+    #[wasm_bindgen(js_name = layered)]
+    pub fn layered(
+        #[wasm_bindgen(js_name = baseGeopotentialM, unchecked_param_type = "number")] base: JsValue,
+        #[wasm_bindgen(js_name = baseTemperatureK, unchecked_param_type = "number")] temperature: JsValue,
+        #[wasm_bindgen(js_name = basePressurePa, unchecked_param_type = "number")] pressure: JsValue,
+        #[wasm_bindgen(js_name = topsGeopotentialM, unchecked_param_type = "Float64Array | number[]")]
+        tops: JsValue,
+        #[wasm_bindgen(js_name = lapseRatesKPerM, unchecked_param_type = "Float64Array | number[]")]
+        lapse_rates: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let base = js::number("baseGeopotentialM", &base)?;
+        let temperature = js::number("baseTemperatureK", &temperature)?;
+        let pressure = js::number("basePressurePa", &pressure)?;
+        let tops = js::numbers("topsGeopotentialM", &tops)?;
+        let lapse_rates = js::numbers("lapseRatesKPerM", &lapse_rates)?;
+        args::table_rows("topsGeopotentialM", tops.len())?;
+        if tops.len() != lapse_rates.len() {
+            return Err(Failure::plain(
+                Text::new("topsGeopotentialM has ")
+                    .u(tops.len())
+                    .s(" elements and lapseRatesKPerM ")
+                    .u(lapse_rates.len())
+                    .s("; they must have the same length")
+                    .done(),
+            )
+            .into());
+        }
+        let specs: Vec<LayerSpec> = tops
+            .iter()
+            .zip(&lapse_rates)
+            .map(|(&top_geopotential_m, &lapse_rate_k_m)| LayerSpec { top_geopotential_m, lapse_rate_k_m })
+            .collect();
+        let model = Layered::from_lapse_rates_vec(base, temperature, pressure, &specs).js()?;
+        Ok(Self::new(Model::Layers(model), "layered"))
+    }
+
+    /// A table of rows (a sounding, or a site's design day), interpolated
+    /// hydrostatically. `altitudeKind` says what `altitudesM` are (`"geometric"` or
+    /// `"geopotential"` metres); `temperaturesK` are the rows' kinetic temperatures (K).
+    /// `columns` gives the rest, each an array with one entry per row, `null` where a row
+    /// does not give the value: `pressurePa` (Pa) or `densityKgM3` (kg/m^3) on every row,
+    /// or a pressure on the first row only (the rest then follows from hydrostatic
+    /// balance); optionally `dewPointK` (K) or `relativeHumidityPercent` (%, over water);
+    /// and `blendBelowM` / `blendAboveM`: beyond the first / last row, blend into the 1976
+    /// standard over that many geopotential metres (without them, altitudes beyond the
+    /// rows are a `RangeError`).
+    ///
+    /// Throws a `TypeError` for arguments of the wrong type or an unknown column, and the
+    /// core's errors naming the row (counted from 0) for a bad row.
+    #[wasm_bindgen(js_name = tabulated)]
+    pub fn tabulated(
+        #[wasm_bindgen(js_name = altitudeKind, unchecked_param_type = "AltitudeKind")] kind: JsValue,
+        #[wasm_bindgen(js_name = altitudesM, unchecked_param_type = "Float64Array | number[]")]
+        altitudes: JsValue,
+        #[wasm_bindgen(js_name = temperaturesK, unchecked_param_type = "Float64Array | number[]")]
+        temperatures: JsValue,
+        #[wasm_bindgen(js_name = columns, unchecked_optional_param_type = "TableColumns")] columns: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let kind = args::altitude_kind("altitudeKind", &kind, false)?;
+        let altitudes = js::numbers("altitudesM", &altitudes)?;
+        let temperatures = js::numbers("temperaturesK", &temperatures)?;
+        let columns = js::options(
+            "columns",
+            &columns,
+            "pressurePa,densityKgM3,dewPointK,relativeHumidityPercent,blendBelowM,blendAboveM",
+        )?;
+        let count = altitudes.len();
+        args::table_rows("altitudesM", count)?;
+        let length_error = |name: &str, len: usize| -> JsValue {
+            Failure::plain(
+                Text::new(name)
+                    .s(" has ")
+                    .u(len)
+                    .s(" elements and altitudesM ")
+                    .u(count)
+                    .s("; they must have the same length")
+                    .done(),
+            )
+            .into()
+        };
+        if temperatures.len() != count {
+            return Err(length_error("temperaturesK", temperatures.len()));
+        }
+        let mut rows: Vec<SoundingRow> =
+            altitudes.iter().zip(&temperatures).map(|(&z, &t)| SoundingRow::new(z, t)).collect();
+        for (c, key) in TABLE_COLUMNS.iter().enumerate() {
+            let value = js::get(&columns, key)?;
+            if value.is_undefined() {
+                continue;
+            }
+            let name = Text::new("columns.").s(key).done();
+            let values = args::optional_numbers(&name, &value)?;
+            if values.len() != count {
+                return Err(length_error(&name, values.len()));
+            }
+            for (row, v) in rows.iter_mut().zip(values) {
+                match c {
+                    0 => row.pressure_pa = v,
+                    1 => row.density_kg_m3 = v,
+                    2 => row.dew_point_k = v,
+                    _ => row.relative_humidity_percent = v,
+                }
+            }
+        }
+        let below = outside(js::optional_number("columns.blendBelowM", &js::get(&columns, "blendBelowM")?)?);
+        let above = outside(js::optional_number("columns.blendAboveM", &js::get(&columns, "blendAboveM")?)?);
+        table(kind, &rows, below, above).js()
+    }
+
+    /// A table from its JSON form, the one the command-line tool reads
+    /// (docs/soundings.md): `{"altitude": "geometric", "rows": [{"altitude_m": 4,
+    /// "temperature_k": 306.55, "pressure_pa": 100860, "dew_point_k": 299.25}, ...],
+    /// "below": "error", "above": {"blend_into_us1976": {"depth_m": 5000}}}`, as a JSON
+    /// string or as the object `JSON.parse` gives. SI units; `null` or an absent field
+    /// is "not given"; unknown fields are errors.
+    ///
+    /// Throws an `Error` for text that is not JSON, a `TypeError` for an object of the
+    /// wrong shape (naming the row and field), and the core's errors naming the row for
+    /// a bad row.
+    #[wasm_bindgen(js_name = fromSoundingJson)]
+    pub fn from_sounding_json(
+        #[wasm_bindgen(js_name = json, unchecked_param_type = "string | SoundingJson")] json: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let object = js::json("sounding", &json)?;
+        let kind = args::altitude_kind("sounding.altitude", &js::get(&object, "altitude")?, false)?;
+        let flat = js::rows("sounding.rows", &js::get(&object, "rows")?, ROW_KEYS, 2, args::MAX_TABLE_ROWS)?;
+        // Six values per row, then six given-flags per row.
+        let (values, given) = flat.split_at(flat.len() / 2);
+        let field = |row: &[f64], flags: &[f64], j: usize| (flags.get(j) == Some(&1.0)).then(|| row[j]);
+        let rows: Vec<SoundingRow> = values
+            .chunks_exact(6)
+            .zip(given.chunks_exact(6))
+            .map(|(v, g)| SoundingRow {
+                altitude_m: v[0],
+                temperature_k: v[1],
+                pressure_pa: field(v, g, 2),
+                density_kg_m3: field(v, g, 3),
+                dew_point_k: field(v, g, 4),
+                relative_humidity_percent: field(v, g, 5),
+            })
+            .collect();
+        let below = outside(js::outside("sounding.below", &js::get(&object, "below")?)?);
+        let above = outside(js::outside("sounding.above", &js::get(&object, "above")?)?);
+        table(kind, &rows, below, above).js()
+    }
+
+    /// Which kind of model this is: `"standard"`, `"exponential"`, `"isothermal"`,
+    /// `"layered"` or `"tabulated"`.
+    #[wasm_bindgen(getter, js_name = kind, unchecked_return_type = "ModelKind")]
+    pub fn kind(&self) -> String {
+        String::from(self.kind)
+    }
+
+    /// The altitudes the model accepts, geometric and geopotential metres.
+    #[wasm_bindgen(js_name = range, unchecked_return_type = "AltitudeRange")]
+    pub fn range(&self) -> JsValue {
+        range_object(&self.model.range())
+    }
+
+    /// The full state at `altitudeM` metres of `altitudeKind` (`"geometric"`, the
+    /// default, or `"geopotential"`): every property the 1976 standard tabulates, in SI
+    /// units named in each field; the continuum properties are `null` where the model
+    /// does not define them (above 86 km).
+    ///
+    /// Throws a `RangeError` naming the model's range for an altitude outside it.
+    #[wasm_bindgen(js_name = state, unchecked_return_type = "AtmosphereState")]
+    pub fn state(
+        &self,
+        #[wasm_bindgen(js_name = altitudeM, unchecked_param_type = "number")] altitude_m: JsValue,
+        #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
+    ) -> Result<JsValue, JsValue> {
+        let state = self.model.state(altitude("altitudeM", &altitude_m, &kind)?).js()?;
+        Ok(state_object(&state))
+    }
+
+    /// Batch evaluation: the requested quantities of the state at every altitude of
+    /// `altitudesM` (metres of `altitudeKind`), one `Float64Array` per quantity, keyed by
+    /// its name (`quantities` lists names of `AtmosphereState`, such as
+    /// `["temperatureK", "pressurePa", "densityKgM3"]`). At most 16 777 216 altitudes.
+    ///
+    /// All or nothing: the first bad altitude throws (a `RangeError` naming its index), as
+    /// does a continuum quantity asked for where the model does not define it (an `Error`
+    /// naming the altitude).
+    #[wasm_bindgen(js_name = batch, unchecked_return_type = "Record<StateQuantity, Float64Array>")]
+    pub fn batch(
+        &self,
+        #[wasm_bindgen(js_name = altitudesM, unchecked_param_type = "Float64Array | number[]")]
+        altitudes: JsValue,
+        #[wasm_bindgen(js_name = quantities, unchecked_param_type = "StateQuantity[]")] quantities: JsValue,
+        #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
+    ) -> Result<JsValue, JsValue> {
+        let kind = args::altitude_kind("altitudeKind", &kind, true)?;
+        let columns = quantity_indices(&quantities)?;
+        let altitudes = js::numbers("altitudesM", &altitudes)?;
+        let values = batch_columns(&self.model, kind, &altitudes, &columns).js()?;
+        let mut keys = String::new();
+        for (i, &column) in columns.iter().enumerate() {
+            if i > 0 {
+                keys.push(',');
+            }
+            keys.push_str(QUANTITIES.get(column).map_or("", |q| q.0));
+        }
+        js::columns(&keys, &values, altitudes.len())
+    }
+
+    /// The geometric altitude (m) where `property` (`"pressure"` in Pa, `"density"` in
+    /// kg/m^3 or `"numberDensity"` in 1/m^3) of this model equals `value`, searched over
+    /// the model's whole range.
+    ///
+    /// Throws a `RangeError` naming the values at the ends of the range when `value` lies
+    /// outside them.
+    #[wasm_bindgen(js_name = altitudeOf)]
+    pub fn altitude_of(
+        &self,
+        #[wasm_bindgen(js_name = property, unchecked_param_type = "\"pressure\" | \"density\" | \"numberDensity\"")]
+        property: JsValue,
+        #[wasm_bindgen(js_name = value, unchecked_param_type = "number")] value: JsValue,
+    ) -> Result<f64, JsValue> {
+        let property = args::choice(
+            "property",
+            &property,
+            "pressure,density,numberDensity",
+            &[Property::Pressure, Property::Density, Property::NumberDensity],
+            None,
+        )?;
+        let value = js::number("value", &value)?;
+        Ok(altitude_of(&self.model, property, value).js()?.meters())
+    }
+
+    /// Terminal velocity (m/s) of a body of mass `massKg` (kg) and reference area
+    /// `referenceAreaM2` (m^2) with drag coefficient `drag` (a number, or a table of
+    /// Mach and Cd) at `altitudeM` metres of `altitudeKind`, where drag equals weight.
+    ///
+    /// Throws a `RangeError` for a mass, area or altitude out of range, an `Error` for a
+    /// Mach-dependent drag where the model defines no speed of sound.
+    #[wasm_bindgen(js_name = terminalVelocityMS)]
+    pub fn terminal_velocity_m_s(
+        &self,
+        #[wasm_bindgen(js_name = altitudeM, unchecked_param_type = "number")] altitude_m: JsValue,
+        #[wasm_bindgen(js_name = massKg, unchecked_param_type = "number")] mass: JsValue,
+        #[wasm_bindgen(js_name = referenceAreaM2, unchecked_param_type = "number")] area: JsValue,
+        #[wasm_bindgen(js_name = drag, unchecked_param_type = "DragSpec")] drag: JsValue,
+        #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
+    ) -> Result<f64, JsValue> {
+        let altitude = altitude("altitudeM", &altitude_m, &kind)?;
+        let mass = js::number("massKg", &mass)?;
+        let area = js::number("referenceAreaM2", &area)?;
+        let drag = DragSpec::read("drag", &drag)?;
+        let state = self.model.state(altitude).js()?;
+        let curve = drag.curve().js()?;
+        aerostrata::aero::terminal_velocity_m_s(&state, mass, area, &curve).js()
+    }
+}
+
+/// The indices in [`QUANTITIES`] of the names listed in `quantities`.
+fn quantity_indices(quantities: &JsValue) -> Result<Vec<usize>, JsValue> {
+    let indices = js::choices("quantities", quantities, STATE_KEYS)?;
+    if indices.is_empty() || indices.len() > QUANTITIES.len() {
+        return Err(Failure::range(
+            Text::new("quantities lists ")
+                .u(indices.len())
+                .s(" names; the allowed range is 1 to ")
+                .u(QUANTITIES.len())
+                .done(),
+        )
+        .into());
+    }
+    let mut out: Vec<usize> = Vec::with_capacity(indices.len());
+    for (i, &index) in indices.iter().enumerate() {
+        let index = index as usize;
+        if out.contains(&index) {
+            return Err(Failure::plain(
+                Text::new(&args::place("quantities", i))
+                    .s(": ")
+                    .s(QUANTITIES.get(index).map_or("", |q| q.0))
+                    .s(" is listed twice")
+                    .done(),
+            )
+            .into());
+        }
+        out.push(index);
+    }
+    Ok(out)
+}
+
+/// Quantity `column` of [`QUANTITIES`] of `state`, `None` where the model does not
+/// define it (the batch's hot path: no `Result` per value).
+#[inline]
+fn field(s: &State, column: usize) -> Option<f64> {
+    Some(match column {
+        0 => s.geometric_altitude_m,
+        1 => s.geopotential_altitude_m,
+        2 => s.temperature_k,
+        3 => s.molecular_temperature_k,
+        4 => s.pressure_pa,
+        5 => s.density_kg_m3,
+        6 => return s.speed_of_sound_m_s,
+        7 => return s.dynamic_viscosity_pa_s,
+        8 => return s.kinematic_viscosity_m2_s,
+        9 => return s.thermal_conductivity_w_m_k,
+        10 => s.gravity_m_s2,
+        11 => s.pressure_scale_height_m,
+        12 => s.number_density_m3,
+        13 => s.mean_particle_speed_m_s,
+        14 => s.mean_free_path_m,
+        15 => s.collision_frequency_hz,
+        16 => s.mean_molar_mass_kg_kmol,
+        17 => s.temperature_ratio,
+        18 => s.pressure_ratio,
+        19 => s.density_ratio,
+        _ => return None,
+    })
+}
+
+/// The batch itself, without JS: for every altitude the state, and from it each column,
+/// column after column in one vector (`columns.len()` times `altitudes.len()` values).
+pub(crate) fn batch_columns(
+    model: &Model,
+    kind: AltitudeKind,
+    altitudes: &[f64],
+    columns: &[usize],
+) -> Result<Vec<f64>, Failure> {
+    let count = altitudes.len();
+    let mut out = args::zeroed(columns.len() * count)?;
+    if count == 0 {
+        return Ok(out);
+    }
+    let mut outputs: Vec<(usize, &mut [f64])> = columns.iter().copied().zip(out.chunks_mut(count)).collect();
+    for (i, &meters) in altitudes.iter().enumerate() {
+        let state = kind
+            .altitude(meters)
+            .and_then(|altitude| model.state(altitude))
+            .map_err(|e| Failure::from(e).at(&args::place("altitudesM", i)))?;
+        for (column, values) in &mut outputs {
+            match (field(&state, *column), values.get_mut(i)) {
+                (Some(v), Some(slot)) => *slot = v,
+                (None, _) => {
+                    // The core's own error, naming the quantity and the altitude.
+                    let error = QUANTITIES.get(*column).map(|(_, read)| read(&state));
+                    let failure = match error {
+                        Some(Err(e)) => Failure::from(e),
+                        _ => Failure::plain("no such quantity"),
+                    };
+                    return Err(failure.at(&args::place("altitudesM", i)));
+                }
+                (Some(_), None) => {}
+            }
+        }
+    }
+    drop(outputs);
+    Ok(out)
+}
+
+/// The full state of the 1976 standard with temperature offset `offsetK` (K, default 0)
+/// at `altitudeM` metres of `altitudeKind`, without making a model.
+///
+/// Throws a `RangeError` outside -5 km to 1000 km geometric or for an offset that is not
+/// finite.
+#[wasm_bindgen(js_name = standardState, unchecked_return_type = "AtmosphereState")]
+pub fn standard_state(
+    #[wasm_bindgen(js_name = altitudeM, unchecked_param_type = "number")] altitude_m: JsValue,
+    #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
+    #[wasm_bindgen(js_name = offsetK, unchecked_optional_param_type = "number")] offset_k: JsValue,
+) -> Result<JsValue, JsValue> {
+    let altitude = altitude("altitudeM", &altitude_m, &kind)?;
+    let model = standard(js::number_or("offsetK", &offset_k, 0.0)?)?;
+    Ok(state_object(&model.state(altitude).js()?))
+}
+
+/// The number densities (1/m^3) of the six species of the 1976 standard above 86 km:
+/// N2, O, O2, Ar, He and H (zero below 150 km), at `altitudeM` metres of `altitudeKind`,
+/// from 86 km to 1000 km geometric.
+///
+/// Throws a `RangeError` outside 86 km to 1000 km geometric.
+#[wasm_bindgen(js_name = standardSpecies, unchecked_return_type = "SpeciesNumberDensities")]
+pub fn standard_species(
+    #[wasm_bindgen(js_name = altitudeM, unchecked_param_type = "number")] altitude_m: JsValue,
+    #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
+) -> Result<JsValue, JsValue> {
+    let altitude = altitude("altitudeM", &altitude_m, &kind)?;
+    Ok(species_object(&US1976.species(altitude).js()?))
+}
+
+#[cfg(test)]
+mod tests {
+    extern crate std;
+    use std::string::String;
+    use std::vec::Vec;
+
+    use super::*;
+
+    /// The JS names are the core's field names in camelCase, in the same order, and each
+    /// reads its own field.
+    #[test]
+    fn quantity_names_follow_the_core_fields() {
+        let camel = |snake: &str| {
+            let mut out = String::new();
+            let mut upper = false;
+            for c in snake.chars() {
+                if c == '_' {
+                    upper = true;
+                } else if upper {
+                    out.extend(c.to_uppercase());
+                    upper = false;
+                } else {
+                    out.push(c);
+                }
+            }
+            out
+        };
+        for altitude_m in [0.0, 11_000.0, 150_000.0] {
+            let state = US1976.state(Altitude::geometric_m(altitude_m).unwrap()).unwrap();
+            for (index, ((name, read), (field_name, value))) in
+                QUANTITIES.iter().zip(state.fields()).enumerate()
+            {
+                assert_eq!(*name, camel(field_name));
+                assert_eq!(read(&state).ok(), value, "{field_name} at {altitude_m} m");
+                assert_eq!(field(&state, index), value, "{field_name} at {altitude_m} m");
+            }
+        }
+    }
+
+    #[test]
+    fn the_state_keys_are_the_quantity_names() {
+        let keys: Vec<&str> = STATE_KEYS.split(',').collect();
+        let names: Vec<&str> = QUANTITIES.iter().map(|q| q.0).collect();
+        assert_eq!(keys, names);
+    }
+
+    #[test]
+    fn the_batch_gives_the_bits_of_single_states_and_names_a_bad_element() {
+        let model = standard(0.0).unwrap();
+        let altitudes = [0.0, 5_000.5, 86_000.0, 300_000.0];
+        let values = batch_columns(&model, AltitudeKind::Geometric, &altitudes, &[2, 5, 12]).unwrap();
+        let n = altitudes.len();
+        for (i, &z) in altitudes.iter().enumerate() {
+            let state = US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();
+            assert_eq!(values[i].to_bits(), state.temperature_k.to_bits());
+            assert_eq!(values[n + i].to_bits(), state.density_kg_m3.to_bits());
+            assert_eq!(values[2 * n + i].to_bits(), state.number_density_m3.to_bits());
+        }
+        let bad = batch_columns(&model, AltitudeKind::Geometric, &[0.0, f64::NAN], &[2]).unwrap_err();
+        assert!(
+            bad.message.starts_with("altitudesM[1]: geometric altitude must be a finite number"),
+            "{}",
+            bad.message
+        );
+        let undefined = batch_columns(&model, AltitudeKind::Geometric, &[0.0, 100_000.0], &[6]).unwrap_err();
+        assert_eq!(undefined.class, crate::error::Class::Plain);
+        assert!(undefined.message.contains("speed of sound is not defined"), "{}", undefined.message);
+    }
+
+    #[test]
+    fn an_offset_of_zero_is_the_standard_itself() {
+        assert!(matches!(standard(0.0).unwrap(), Model::Us1976));
+        assert!(matches!(standard(-0.0).unwrap(), Model::Us1976));
+        assert!(matches!(standard(15.0).unwrap(), Model::Standard(_)));
+        assert_eq!(standard(f64::NAN).unwrap_err().class, crate::error::Class::Range);
+    }
+}

@@ -1,0 +1,48 @@
+#!/usr/bin/env node
+// The wasm side of `cargo xtask wasm-bench`: one batch of many altitudes through
+// `AtmosphereModel.batch` of the Node build, timed. Not a test: it prints figures, and
+// `cargo xtask wasm-bench` compares them with the native core's in the same run.
+//
+// Usage: node bench.mjs PKGDIR ALTITUDES_FILE COUNT RUNS
+// Writes COUNT pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed),
+// to ALTITUDES_FILE as little-endian f64 (so that the native side reads the very same
+// inputs) and prints one JSON line: the milliseconds of each timed run (after one
+// warm-up) and an FNV-1a checksum of the outputs' bytes, column after column.
+
+import { writeFileSync } from "node:fs";
+import { performance } from "node:perf_hooks";
+
+import { loadNode, packageDir } from "./load.mjs";
+
+// The quantities of the benchmark, in the order of native_batch.rs's `QUANTITIES`.
+const QUANTITIES = ["temperatureK", "pressurePa", "densityKgM3", "speedOfSoundMS", "dynamicViscosityPaS"];
+
+const [dir, file, count, runs] = process.argv.slice(2);
+const aerostrata = loadNode(packageDir(dir));
+const n = Number(count);
+
+// A 32-bit linear congruential generator (Numerical Recipes' constants), fixed seed.
+const altitudes = new Float64Array(n);
+let x = 19761976;
+for (let i = 0; i < n; i++) {
+  x = (Math.imul(x, 1664525) + 1013904223) >>> 0;
+  altitudes[i] = (x / 4294967296) * 86000;
+}
+writeFileSync(file, new Uint8Array(altitudes.buffer));
+
+const model = aerostrata.AtmosphereModel.standard();
+const warm = model.batch(altitudes, QUANTITIES);
+const times = [];
+for (let r = 0; r < Number(runs); r++) {
+  const started = performance.now();
+  const out = model.batch(altitudes, QUANTITIES);
+  times.push(performance.now() - started);
+  if (out.temperatureK.length !== n) throw new Error("short batch");
+}
+
+let hash = 0x811c9dc5;
+for (const q of QUANTITIES) {
+  const bytes = new Uint8Array(warm[q].buffer, warm[q].byteOffset, warm[q].byteLength);
+  for (let i = 0; i < bytes.length; i++) hash = Math.imul(hash ^ bytes[i], 0x01000193) >>> 0;
+}
+console.log(JSON.stringify({ runs_ms: times.map((t) => Number(t.toFixed(3))), checksum: hash.toString(16).padStart(8, "0") }));

@@ -1,0 +1,104 @@
+// The built package as npm would ship it: its manifest, the two builds behind its
+// exports, and TypeScript types that carry the camelCase names and their units.
+
+import { test } from "node:test";
+import assert from "node:assert/strict";
+import { createRequire } from "node:module";
+import { existsSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+
+import { loadNode, loadWeb, packageDir, repoRoot } from "./load.mjs";
+
+const dir = packageDir();
+const manifest = JSON.parse(readFileSync(join(dir, "package.json"), "utf8"));
+
+test("package.json names the package and points at both builds", () => {
+  assert.equal(manifest.name, "aerostrata");
+  assert.match(manifest.version, /^\d+\.\d+\.\d+$/);
+  assert.equal(manifest.license, "MIT OR Apache-2.0");
+  for (const file of [
+    "README.md",
+    "LICENSE-MIT",
+    "LICENSE-APACHE",
+    "web/aerostrata.js",
+    "web/aerostrata.d.ts",
+    "web/aerostrata_bg.wasm",
+    "node/aerostrata.js",
+    "node/aerostrata.d.ts",
+    "node/aerostrata_bg.wasm",
+  ]) {
+    assert.ok(existsSync(join(dir, file)), file);
+  }
+  assert.equal(manifest.exports["."].node.default, "./node/aerostrata.js");
+  assert.equal(manifest.exports["."].default.default, "./web/aerostrata.js");
+});
+
+test("require() and import() in Node resolve to the Node build", async () => {
+  const require = createRequire(join(dir, "package.json"));
+  const viaRequire = require(dir);
+  assert.equal(viaRequire.version(), manifest.version);
+  const viaImport = await import(join(dir, "node", "aerostrata.js"));
+  assert.equal(typeof viaImport.AtmosphereModel.standard, "function");
+  assert.equal(viaImport.standardState(0).pressurePa, 101325);
+});
+
+test("the web build is an ES module that runs once initialised", async () => {
+  const source = readFileSync(join(dir, "web", "aerostrata.js"), "utf8");
+  assert.match(source, /__wbg_init as default/);
+  const web = await loadWeb();
+  assert.deepEqual(web.standardState(20000), loadNode().standardState(20000));
+});
+
+test("the types name every export in camelCase with units in the names and docs", () => {
+  const dts = readFileSync(join(dir, "web", "aerostrata.d.ts"), "utf8");
+  for (const declaration of [
+    "export function dynamicPressurePa(densityKgM3: number, velocityMS: number): number;",
+    "export function standardState(altitudeM: number, altitudeKind?: AltitudeKind, offsetK?: number): AtmosphereState;",
+    "batch(altitudesM: Float64Array | number[], quantities: StateQuantity[], altitudeKind?: AltitudeKind): Record<StateQuantity, Float64Array>;",
+    "scanFlight(timeS: Float64Array | number[], altitudeM: Float64Array | number[], velocityMS: Float64Array | number[], vehicle?: VehicleSpec): FlightScanResult;",
+    "static fromSoundingJson(json: string | SoundingJson): AtmosphereModel;",
+    "export interface AtmosphereState {",
+    "  /** Pressure p, Pa. */",
+    "  speedOfSoundMS: number | null;",
+  ]) {
+    assert.ok(dts.includes(declaration), `missing: ${declaration}`);
+  }
+  // Every function's doc names its units: "Dynamic pressure q = rho V^2 / 2, Pa, ...".
+  assert.match(dts, /Dynamic pressure q = rho V\^2 \/ 2, Pa, of air of density `densityKgM3` \(kg\/m\^3\)/);
+  // No snake_case parameter leaked into the API (the Node types: the web ones add
+  // wasm-bindgen's own `init(module_or_path)`).
+  const nodeDts = readFileSync(join(dir, "node", "aerostrata.d.ts"), "utf8");
+  const params = [...nodeDts.matchAll(/\(([^()]*)\)\s*:/g)].flatMap((m) => m[1].split(",").map((p) => p.trim().split(/[?:]/)[0]));
+  assert.deepEqual(params.filter((p) => p.includes("_")), []);
+});
+
+test("the Node build's glue snippet is CommonJS", () => {
+  const node = readFileSync(join(dir, "node", "aerostrata.js"), "utf8");
+  const snippet = node.match(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/);
+  assert.ok(snippet, "no snippet required");
+  const text = readFileSync(join(dir, "node", snippet[1]), "utf8");
+  assert.doesNotMatch(text, /^export /m);
+  assert.match(text, /^module\.exports = \{ .*record.* \};$/m);
+});
+
+test("the README's JavaScript example runs against the package and prints the standard's numbers", () => {
+  const readme = readFileSync(join(repoRoot, "README.md"), "utf8");
+  const block = readme.match(/```js\n([\s\S]*?)```/);
+  assert.ok(block, "the README has a ```js block");
+  const printed = [];
+  const require = (name) => {
+    assert.equal(name, "aerostrata");
+    return loadNode(dir);
+  };
+  const console = { log: (...values) => printed.push(values) };
+  new Function("require", "console", block[1])(require, console);
+  assert.equal(printed.length, 1);
+  const [temperature, pressure, q] = printed[0];
+  // ISA + 15 K at 11 km geometric: the standard's 216.774 K plus 15 K, at its 2.2700E+04 Pa
+  // (tests/vectors/usa76_lower.csv, from memory of the printed table; the offset keeps the
+  // standard's pressure), and q = rho V^2 / 2 at 250 m/s with rho = p / (R T).
+  assert.ok(Math.abs(temperature - 231.774) <= 0.0005, `${temperature}`);
+  assert.ok(Math.abs(pressure - 22_700) <= 0.5, `${pressure}`);
+  const rho = (pressure * 28.9644) / (8314.32 * temperature);
+  assert.ok(Math.abs(q / (0.5 * rho * 250 * 250) - 1) < 1e-12, `${q}`);
+});

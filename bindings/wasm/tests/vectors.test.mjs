@@ -1,0 +1,60 @@
+// Every reference vector of tests/vectors within its file's tolerance, through the wasm
+// module (the same files and rules as the Rust reference test in
+// crates/xtask/src/vectors.rs). Sources: the files' own headers (U.S. Standard
+// Atmosphere 1976 and NACA Report 1135, from memory of the printed tables, each cell
+// checked against 30-digit computations; see tests/vectors/README.md).
+
+import { test } from "node:test";
+import assert from "node:assert/strict";
+
+import { loadNode, loadWeb, vectorsDir } from "./load.mjs";
+import { bitLines, evaluator, halfUnitOfLastDigit, readVectorFiles } from "./vectors.mjs";
+
+const aerostrata = loadNode();
+const files = readVectorFiles(vectorsDir);
+
+test("the vector files are there", () => {
+  assert.ok(files.length >= 5, `only ${files.length} vector files`);
+});
+
+for (const file of files) {
+  test(`${file.stem}: every value within its tolerance`, () => {
+    const rowOf = evaluator(aerostrata, file);
+    let checked = 0;
+    const misses = [];
+    for (const { line, cells } of file.rows) {
+      const value = rowOf(Number(cells[0]));
+      file.columns.forEach((column, i) => {
+        const written = cells[i + 1];
+        if (written === "") return;
+        const reference = Number(written);
+        const ours = value(column);
+        const rule = file.rules[column];
+        const tolerance =
+          rule.kind === "printed"
+            ? halfUnitOfLastDigit(written)
+            : rule.kind === "rel"
+              ? rule.value * Math.abs(reference)
+              : rule.value;
+        checked++;
+        if (ours === undefined || !(Math.abs(ours - reference) <= tolerance)) {
+          misses.push(`${file.stem}:${line} ${column} at ${cells[0]}: ${ours} vs ${written} (tolerance ${tolerance})`);
+        }
+      });
+    }
+    assert.ok(checked > 0, "no value checked");
+    assert.deepEqual(misses, []);
+  });
+}
+
+test("the half unit of the last digit is read as the Rust reader reads it", () => {
+  assert.equal(halfUnitOfLastDigit("1.01325E+05"), 0.5);
+  assert.equal(halfUnitOfLastDigit("288.150"), 0.0005);
+  assert.equal(halfUnitOfLastDigit("86000"), 0.5);
+  assert.ok(Math.abs(halfUnitOfLastDigit(".99303") - 0.5e-5) < 1e-20);
+});
+
+test("the web build gives the Node build's bits for every vector", async () => {
+  const web = await loadWeb();
+  assert.deepEqual(bitLines(web, files), bitLines(aerostrata, files));
+});

@@ -1,0 +1,218 @@
+//! `cargo xtask wasm-bench`: one million altitudes through the wasm module's batch
+//! evaluation in Node, and the same altitudes through the native core, in one run; the
+//! states per second of each and their ratio go into docs/performance.md, in a section of
+//! its own between markers (`cargo xtask bench` keeps it when it rewrites the file).
+//!
+//! Both sides compute the same thing: the full state of the 1976 standard at every
+//! altitude, five quantities kept column after column (bindings/wasm/tests/bench.mjs,
+//! bindings/wasm/examples/native_batch.rs). Node writes the altitudes to a file so the
+//! native side reads the very same inputs; both print a checksum of their outputs'
+//! bytes, which must agree (a bit-identity check on five million values). The two
+//! alternate, round after round, so that a change in the machine's load falls on both.
+//! A benchmark, not a test: nothing fails on a slow machine.
+
+use std::fs;
+use std::path::Path;
+use std::process::Command;
+
+use crate::{command_output, run_command, target_dir};
+
+/// Altitudes in the batch.
+const COUNT: usize = 1_000_000;
+/// Rounds of the alternation, and timed runs per side in each round.
+const ROUNDS: usize = 3;
+const RUNS: usize = 5;
+/// The goal: the wasm module within this factor of the native core.
+const GOAL_RATIO: f64 = 2.5;
+
+const REPORT: &str = "docs/performance.md";
+pub const BEGIN: &str = "<!-- wasm-bench: begin (written by `cargo xtask wasm-bench`) -->";
+pub const END: &str = "<!-- wasm-bench: end -->";
+
+/// The milliseconds and checksum one side printed.
+fn parse(side: &str, json: &str) -> Result<(Vec<f64>, String), String> {
+    let value: serde_json::Value =
+        serde_json::from_str(json.trim()).map_err(|e| format!("{side}: not JSON ({e}): {json}"))?;
+    let runs = value["runs_ms"]
+        .as_array()
+        .ok_or(format!("{side}: no runs_ms"))?
+        .iter()
+        .filter_map(serde_json::Value::as_f64)
+        .collect::<Vec<_>>();
+    let checksum = value["checksum"].as_str().ok_or(format!("{side}: no checksum"))?.to_owned();
+    if runs.is_empty() {
+        return Err(format!("{side}: no timed runs"));
+    }
+    Ok((runs, checksum))
+}
+
+fn median(values: &[f64]) -> f64 {
+    let mut sorted = values.to_vec();
+    sorted.sort_by(f64::total_cmp);
+    let n = sorted.len();
+    if n % 2 == 1 {
+        sorted[n / 2]
+    } else {
+        0.5 * (sorted[n / 2 - 1] + sorted[n / 2])
+    }
+}
+
+fn min(values: &[f64]) -> f64 {
+    values.iter().copied().fold(f64::INFINITY, f64::min)
+}
+
+fn load_average() -> String {
+    fs::read_to_string("/proc/loadavg")
+        .map(|s| s.split_whitespace().take(3).collect::<Vec<_>>().join(", "))
+        .unwrap_or_else(|_| "unknown".to_owned())
+}
+
+fn cpu_model() -> String {
+    fs::read_to_string("/proc/cpuinfo")
+        .ok()
+        .and_then(|s| {
+            s.lines()
+                .find(|l| l.starts_with("model name"))
+                .and_then(|l| l.split_once(':'))
+                .map(|(_, v)| v.trim().to_owned())
+        })
+        .unwrap_or_else(|| "unknown".to_owned())
+}
+
+fn version_of(program: &str) -> String {
+    Command::new(program)
+        .arg("--version")
+        .output()
+        .ok()
+        .map(|o| String::from_utf8_lossy(&o.stdout).lines().next().unwrap_or("").trim().to_owned())
+        .filter(|v| !v.is_empty())
+        .unwrap_or_else(|| "unknown".to_owned())
+}
+
+/// Replaces the marked section of `report` with `section`, or appends it.
+pub fn splice(report: &str, section: &str) -> String {
+    match (report.find(BEGIN), report.find(END)) {
+        (Some(begin), Some(end)) if end > begin => {
+            format!("{}{section}{}", &report[..begin], &report[end + END.len()..])
+        }
+        _ => format!("{}\n\n{section}\n", report.trim_end()),
+    }
+}
+
+/// The marked section of `report`, markers included, if it has one.
+pub fn section_of(report: &str) -> Option<&str> {
+    let begin = report.find(BEGIN)?;
+    let end = report[begin..].find(END)? + begin;
+    Some(&report[begin..end + END.len()])
+}
+
+pub fn run(root: &Path) -> Result<(), String> {
+    let load_before = load_average();
+    let package = crate::wasm::build(root)?;
+    let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
+    run_command(
+        root,
+        &cargo,
+        &["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"],
+        &[],
+    )?;
+    let native = target_dir(root).join("release").join("examples").join("native_batch");
+    let altitudes = target_dir(root).join("wasm").join("bench-altitudes.f64");
+    let script = root.join("bindings/wasm/tests/bench.mjs");
+    let (s, p, a) = (
+        script.to_string_lossy().into_owned(),
+        package.dir.to_string_lossy().into_owned(),
+        altitudes.to_string_lossy().into_owned(),
+    );
+    let (count, runs) = (COUNT.to_string(), RUNS.to_string());
+    let mut wasm_ms = Vec::new();
+    let mut native_ms = Vec::new();
+    let mut checksums = Vec::new();
+    for round in 1..=ROUNDS {
+        eprintln!("round {round} of {ROUNDS}: wasm in Node, then native");
+        let (ms, sum) = parse("wasm", &command_output(root, "node", &[&s, &p, &a, &count, &runs])?)?;
+        wasm_ms.extend(ms);
+        checksums.push(("wasm", sum));
+        let (ms, sum) = parse("native", &command_output(root, &native.to_string_lossy(), &[&a, &runs])?)?;
+        native_ms.extend(ms);
+        checksums.push(("native", sum));
+    }
+    let load_after = load_average();
+    let first = checksums[0].1.clone();
+    if let Some((side, sum)) = checksums.iter().find(|(_, sum)| *sum != first) {
+        return Err(format!("the outputs differ: checksum {sum} ({side}) against {first}"));
+    }
+    let (wasm_median, native_median) = (median(&wasm_ms), median(&native_ms));
+    let ratio = wasm_median / native_median;
+    let fastest_ratio = min(&wasm_ms) / min(&native_ms);
+    let per_second = |ms: f64| COUNT as f64 / (ms / 1e3);
+    let verdict = if ratio <= GOAL_RATIO { "met" } else { "not met" };
+    let list = |v: &[f64]| v.iter().map(|x| format!("{x:.1}")).collect::<Vec<_>>().join(", ");
+    let section = format!(
+        "{BEGIN}
+## WebAssembly: batch evaluation in Node against the native core
+
+Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side times {RUNS} runs after one warm-up, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
+
+- Machine: {cpu}, {cpus} logical CPUs; Node {node}, {rustc}; load average (1, 5, 15 min) {load_before} before, {load_after} after.
+- Size of the module measured in the same run: {size}.
+
+| side | median ms per batch | fastest ms | states per second (median) |
+|---|---:|---:|---:|
+| wasm (Node) | {wm:.1} | {wf:.1} | {ws:.3e} |
+| native core | {nm:.1} | {nf:.1} | {ns:.3e} |
+
+| ratio | measured | fastest runs | goal | verdict |
+|---|---:|---:|---|---|
+| wasm / native, time per batch | {ratio:.2}x | {fastest_ratio:.2}x | at most {GOAL_RATIO}x | {verdict} |
+
+Every run's milliseconds, wasm: {wl}; native: {nl}. The outputs of both sides have the same FNV-1a checksum, `{first}`: the {values} values are bit-identical.
+
+Why the module is slower: it is optimised for size (its budget), and V8's code for wasm is not LLVM's for x86-64; the core's square root uses wasm's `f64x2.sqrt` instruction rather than libm's software square root, which on its own took a quarter of the module's time (crates/aerostrata/src/math.rs). Rerun `cargo xtask wasm-bench` to refresh this section; the rest of this file is `cargo xtask bench`'s.
+{END}",
+        cpu = cpu_model(),
+        cpus = std::thread::available_parallelism().map_or(0, usize::from),
+        node = version_of("node"),
+        rustc = version_of("rustc"),
+        size = package.size_line(),
+        wm = wasm_median,
+        wf = min(&wasm_ms),
+        ws = per_second(wasm_median),
+        nm = native_median,
+        nf = min(&native_ms),
+        ns = per_second(native_median),
+        wl = list(&wasm_ms),
+        nl = list(&native_ms),
+        values = 5 * COUNT,
+    );
+    let path = root.join(REPORT);
+    let report = fs::read_to_string(&path).unwrap_or_default();
+    fs::write(&path, splice(&report, &section)).map_err(|e| format!("cannot write {REPORT}: {e}"))?;
+    eprintln!(
+        "wasm {wasm_median:.1} ms, native {native_median:.1} ms per batch of {COUNT}: {ratio:.2}x (goal at most {GOAL_RATIO}x, {verdict}); wrote {REPORT}"
+    );
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_section_is_replaced_in_place_or_appended() {
+        let section = format!("{BEGIN}\nnew\n{END}");
+        let appended = splice("# Performance\n\nold text\n", &section);
+        assert!(appended.starts_with("# Performance\n\nold text\n\n<!-- wasm-bench: begin"));
+        let replaced = splice(&format!("head\n{BEGIN}\nold\n{END}\ntail\n"), &section);
+        assert_eq!(replaced, format!("head\n{section}\ntail\n"));
+        assert_eq!(section_of(&replaced), Some(section.as_str()));
+        assert_eq!(section_of("no markers"), None);
+    }
+
+    #[test]
+    fn medians() {
+        assert_eq!(median(&[3.0, 1.0, 2.0]), 2.0);
+        assert_eq!(median(&[4.0, 1.0, 2.0, 3.0]), 2.5);
+        assert_eq!(min(&[4.0, 1.5]), 1.5);
+    }
+}
