@@ -452,8 +452,14 @@ struct Vertex {
 }
 
 impl Vertex {
+    /// The quadratic through the three samples' `values` at the vertex's time, held
+    /// within the smallest and largest of them: maximum q often falls on a kink of the
+    /// velocity (burnout), where the quadratic would overshoot and report, say, a Mach
+    /// number at maximum q above the largest Mach number sampled.
     fn interpolate(&self, values: [f64; 3]) -> f64 {
-        self.weights[0] * values[0] + self.weights[1] * values[1] + self.weights[2] * values[2]
+        let [a, b, c] = values;
+        let value = self.weights[0] * a + self.weights[1] * b + self.weights[2] * c;
+        value.max(a.min(b).min(c)).min(a.max(b).max(c))
     }
 }
 

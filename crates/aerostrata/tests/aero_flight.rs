@@ -188,6 +188,31 @@ fn peaks_at_the_ends_are_reported_unrefined() {
 }
 
 #[test]
+fn values_carried_to_the_refined_peak_stay_within_the_samples() {
+    // A burnout kink at the largest sample (invented numbers): the quadratic through the
+    // velocities 300, 310, 100 m/s peaks near 333 m/s where the q parabola has its vertex;
+    // the refined peak must not report more speed, or Mach, than was sampled.
+    let t = [0.0, 1.0, 2.0, 3.0];
+    let z = [1000.0, 1000.0, 1000.0, 1000.0];
+    let v = [100.0, 300.0, 310.0, 100.0];
+    let mut sampled_q = Vec::new();
+    let summary = scan(US1976, None, samples_from_slices(&t, &z, &v).unwrap(), |p| {
+        sampled_q.push(p.dynamic_pressure_pa)
+    })
+    .unwrap();
+    let peak = summary.max_dynamic_pressure.unwrap();
+    let max_mach = summary.max_mach.unwrap();
+    assert!(peak.refined && peak.time_s < 2.0, "{peak:?}");
+    assert!(peak.velocity_m_s <= 310.0, "{peak:?}");
+    assert!(peak.mach.unwrap() <= max_mach.value, "{peak:?} against {max_mach:?}");
+    // The refined q itself is the parabola's vertex, at least the largest sample.
+    assert!(
+        peak.dynamic_pressure_pa >= sampled_q[2]
+            && sampled_q[2] == sampled_q.iter().copied().fold(0.0, f64::max)
+    );
+}
+
+#[test]
 fn above_86_km_q_is_given_and_mach_is_not() {
     let top = US1976.range().geometric_max_m;
     if top <= 86_000.0 {
