@@ -29,8 +29,9 @@ const REPORT: &str = "docs/performance.md";
 pub const BEGIN: &str = "<!-- wasm-bench: begin (written by `cargo xtask wasm-bench`) -->";
 pub const END: &str = "<!-- wasm-bench: end -->";
 
-/// The milliseconds and checksum one side printed.
-fn parse(side: &str, json: &str) -> Result<(Vec<f64>, String), String> {
+/// The milliseconds of the timed runs, of the first (cold) batch, and the checksum one
+/// side printed.
+fn parse(side: &str, json: &str) -> Result<(Vec<f64>, f64, String), String> {
     let value: serde_json::Value =
         serde_json::from_str(json.trim()).map_err(|e| format!("{side}: not JSON ({e}): {json}"))?;
     let runs = value["runs_ms"]
@@ -43,7 +44,8 @@ fn parse(side: &str, json: &str) -> Result<(Vec<f64>, String), String> {
     if runs.is_empty() {
         return Err(format!("{side}: no timed runs"));
     }
-    Ok((runs, checksum))
+    let first = value["first_ms"].as_f64().ok_or(format!("{side}: no first_ms"))?;
+    Ok((runs, first, checksum))
 }
 
 fn median(values: &[f64]) -> f64 {
@@ -127,14 +129,19 @@ pub fn run(root: &Path) -> Result<(), String> {
     let (count, runs) = (COUNT.to_string(), RUNS.to_string());
     let mut wasm_ms = Vec::new();
     let mut native_ms = Vec::new();
+    let mut wasm_first = Vec::new();
+    let mut native_first = Vec::new();
     let mut checksums = Vec::new();
     for round in 1..=ROUNDS {
         eprintln!("round {round} of {ROUNDS}: wasm in Node, then native");
-        let (ms, sum) = parse("wasm", &command_output(root, "node", &[&s, &p, &a, &count, &runs])?)?;
+        let (ms, first, sum) = parse("wasm", &command_output(root, "node", &[&s, &p, &a, &count, &runs])?)?;
         wasm_ms.extend(ms);
+        wasm_first.push(first);
         checksums.push(("wasm", sum));
-        let (ms, sum) = parse("native", &command_output(root, &native.to_string_lossy(), &[&a, &runs])?)?;
+        let (ms, first, sum) =
+            parse("native", &command_output(root, &native.to_string_lossy(), &[&a, &runs])?)?;
         native_ms.extend(ms);
+        native_first.push(first);
         checksums.push(("native", sum));
     }
     let load_after = load_average();
@@ -152,7 +159,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         "{BEGIN}
 ## WebAssembly: batch evaluation in Node against the native core
 
-Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side times {RUNS} runs after one warm-up, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
+Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
 
 - Machine: {cpu}, {cpus} logical CPUs; Node {node}, {rustc}; load average (1, 5, 15 min) {load_before} before, {load_after} after.
 - Size of the module measured in the same run: {size}.
@@ -166,7 +173,7 @@ Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch
 |---|---:|---:|---|---|
 | wasm / native, time per batch | {ratio:.2}x | {fastest_ratio:.2}x | at most {GOAL_RATIO}x | {verdict} |
 
-Every run's milliseconds, wasm: {wl}; native: {nl}. The outputs of both sides have the same FNV-1a checksum, `{first}`: the {values} values are bit-identical.
+Every run's milliseconds, wasm: {wl}; native: {nl}. The first batch of each round, before the warm-up, took {wfl} ms in wasm (the baseline tier) and {nfl} ms natively. The outputs of both sides have the same FNV-1a checksum, `{first}`: the {values} values are bit-identical.
 
 Why the module is slower: it is optimised for size (its budget), and V8's code for wasm is not LLVM's for x86-64; the core's square root uses wasm's `f64x2.sqrt` instruction rather than libm's software square root, which on its own took a quarter of the module's time (crates/aerostrata/src/math.rs). Rerun `cargo xtask wasm-bench` to refresh this section; the rest of this file is `cargo xtask bench`'s.
 {END}",
@@ -183,6 +190,8 @@ Why the module is slower: it is optimised for size (its budget), and V8's code f
         ns = per_second(native_median),
         wl = list(&wasm_ms),
         nl = list(&native_ms),
+        wfl = list(&wasm_first),
+        nfl = list(&native_first),
         values = 5 * COUNT,
     );
     let path = root.join(REPORT);
