@@ -126,8 +126,12 @@ pub fn run(root: &Path) -> Result<(), String> {
         ),
         Err(message) => failures.push(format!("C firmware: {message}")),
     }
-    // The comparison with the wasm module's bit lines (`compare_bits` on its output)
-    // joins here once the wasm module exists.
+    // The wasm module's bit lines against the same native ones: with the two firmware
+    // targets and the C firmware, every host then agrees with every other.
+    match crate::wasm::build(root).and_then(|package| crate::wasm::bits(root, &package)) {
+        Ok(identical) => eprintln!("wasm module in Node: {identical} values bit-identical to native"),
+        Err(message) => failures.push(format!("wasm: {message}")),
+    }
     if failures.is_empty() {
         Ok(())
     } else {
@@ -326,7 +330,7 @@ fn run_target(
             tail(&harness.stderr, 5)
         ));
     }
-    let identical = compare_bits(target, native, &bits)?;
+    let identical = vectors::compare_bits(target, native, &bits)?;
     let values = usize::try_from(figure(&lines, "summary")?).map_err(|e| e.to_string())?;
     let checked = lines
         .iter()
@@ -393,69 +397,13 @@ pub(crate) fn tail(text: &str, lines: usize) -> String {
     all[all.len().saturating_sub(lines)..].iter().map(|l| format!("  {l}\n")).collect()
 }
 
-/// Compares another host's bit lines with the native ones, line by line, and returns how
-/// many are identical; Err names, for every difference, the vector (file and input), the
-/// quantity and both values (bits and decimal).
-pub fn compare_bits(host: &str, native: &[String], other: &[String]) -> Result<usize, String> {
-    let mut differences = Vec::new();
-    let mut identical = 0usize;
-    for (index, (ours, theirs)) in native.iter().zip(other).enumerate() {
-        let (key_native, bits_native) = ours.rsplit_once(' ').unwrap_or((ours, ""));
-        let (key_other, bits_other) = theirs.rsplit_once(' ').unwrap_or((theirs, ""));
-        if key_native != key_other {
-            differences.push(format!(
-                "line {}: the native build has '{key_native}', {host} has '{key_other}' (the lists are out of step)",
-                index + 1
-            ));
-            break;
-        }
-        if bits_native == bits_other {
-            identical += 1;
-            continue;
-        }
-        let mut words = key_native.splitn(3, ' ');
-        let (file, input, quantity) =
-            (words.next().unwrap_or(""), words.next().unwrap_or(""), words.next().unwrap_or(""));
-        differences.push(format!(
-            "{file} at input {input}, {quantity}: native {}, {host} {}",
-            describe(bits_native),
-            describe(bits_other)
-        ));
-    }
-    if native.len() != other.len() {
-        differences.push(format!("the native build gave {} values, {host} {}", native.len(), other.len()));
-    }
-    if differences.is_empty() {
-        Ok(identical)
-    } else {
-        let shown = differences.len().min(50);
-        let mut message =
-            format!("{} bit difference(s) between the native build and {host}:\n", differences.len());
-        for difference in &differences[..shown] {
-            let _ = writeln!(message, "  {difference}");
-        }
-        if shown < differences.len() {
-            let _ = writeln!(message, "  ... and {} more", differences.len() - shown);
-        }
-        Err(message)
-    }
-}
-
-/// A bit field of a bit line, with its decimal value: `0x40d61a0000000000 (22632.0)`.
-fn describe(bits: &str) -> String {
-    match u64::from_str_radix(bits, 16) {
-        Ok(b) if bits.len() == 16 => format!("0x{bits} ({:?})", f64::from_bits(b)),
-        _ => format!("'{bits}'"),
-    }
-}
-
 /// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,
 /// written by its Node script) against the native ones.
 pub fn compare_file(root: &Path, host: &str, path: &Path) -> Result<(), String> {
     let text = fs::read_to_string(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
     let (_, other) = split_output(&text);
     let native = vectors::bit_lines(&vectors::read_all(root)?)?;
-    let identical = compare_bits(host, &native, &other)?;
+    let identical = vectors::compare_bits(host, &native, &other)?;
     eprintln!("{host}: {identical} values bit-identical to the native build");
     Ok(())
 }
@@ -533,32 +481,6 @@ mod tests {
 
     fn lines(text: &str) -> Vec<String> {
         text.lines().map(str::to_owned).collect()
-    }
-
-    #[test]
-    fn identical_lines_are_counted() {
-        let native = lines("usa76_lower 0 temperature_K 4072026666666666\nf 1 q undefined");
-        assert_eq!(compare_bits("m4", &native, &native.clone()), Ok(2));
-    }
-
-    #[test]
-    fn a_difference_names_vector_quantity_and_both_values() {
-        let native = lines("usa76_lower 11000 pressure_Pa 40d61a0000000000");
-        let other = lines("usa76_lower 11000 pressure_Pa 40d61a0000000001");
-        let error = compare_bits("thumbv7m-none-eabi", &native, &other).unwrap_err();
-        assert!(error.contains("usa76_lower at input 11000, pressure_Pa"), "{error}");
-        assert!(error.contains("native 0x40d61a0000000000 (22632.0)"), "{error}");
-        assert!(error.contains("thumbv7m-none-eabi 0x40d61a0000000001"), "{error}");
-    }
-
-    #[test]
-    fn missing_extra_and_shifted_lines_fail() {
-        let native = lines("a 1 x 0000000000000000\na 2 x 0000000000000000");
-        assert!(compare_bits("h", &native, &native[..1]).unwrap_err().contains("gave 2 values, h 1"));
-        let shifted = lines("a 2 x 0000000000000000\na 1 x 0000000000000000");
-        assert!(compare_bits("h", &native, &shifted).unwrap_err().contains("out of step"));
-        let undefined = lines("a 1 x undefined\na 2 x 0000000000000000");
-        assert!(compare_bits("h", &native, &undefined).unwrap_err().contains("h 'undefined'"));
     }
 
     #[test]

@@ -12,7 +12,7 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use crate::firmware::{compare_bits, qemu, split_output, tail};
+use crate::firmware::{qemu, split_output, tail};
 use crate::setup::{self, TargetToolchain};
 use crate::vectors::{self, VectorFile};
 
@@ -187,6 +187,6 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
             tail(&run.stderr, 5)
         ));
     }
-    let identical = compare_bits("the C firmware (Cortex-M4F)", &native, &bits)?;
+    let identical = vectors::compare_bits("the C firmware (Cortex-M4F)", &native, &bits)?;
     Ok(Report { identical, tally, seconds: run.seconds })
 }

@@ -6,6 +6,8 @@
 //! pressure), `normal_shock gamma=G` the columns `m2`, `p2_p1`, `rho2_rho1`, `t2_t1`,
 //! `p02_p01`, `p02_p1` (Rayleigh pitot) and `p1_p02`.
 
+use std::fmt::Write as _;
+
 use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
 pub use crate::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
@@ -223,6 +225,62 @@ pub fn bit_lines<'a>(files: impl IntoIterator<Item = &'a VectorFile>) -> Result<
     Ok(lines)
 }
 
+/// Compares another host's bit lines with the native ones, line by line, and returns how
+/// many are identical; Err names, for every difference, the vector (file and input), the
+/// quantity and both values (bits and decimal).
+pub fn compare_bits(host: &str, native: &[String], other: &[String]) -> Result<usize, String> {
+    let mut differences = Vec::new();
+    let mut identical = 0usize;
+    for (index, (ours, theirs)) in native.iter().zip(other).enumerate() {
+        let (key_native, bits_native) = ours.rsplit_once(' ').unwrap_or((ours, ""));
+        let (key_other, bits_other) = theirs.rsplit_once(' ').unwrap_or((theirs, ""));
+        if key_native != key_other {
+            differences.push(format!(
+                "line {}: the native build has '{key_native}', {host} has '{key_other}' (the lists are out of step)",
+                index + 1
+            ));
+            break;
+        }
+        if bits_native == bits_other {
+            identical += 1;
+            continue;
+        }
+        let mut words = key_native.splitn(3, ' ');
+        let (file, input, quantity) =
+            (words.next().unwrap_or(""), words.next().unwrap_or(""), words.next().unwrap_or(""));
+        differences.push(format!(
+            "{file} at input {input}, {quantity}: native {}, {host} {}",
+            describe(bits_native),
+            describe(bits_other)
+        ));
+    }
+    if native.len() != other.len() {
+        differences.push(format!("the native build gave {} values, {host} {}", native.len(), other.len()));
+    }
+    if differences.is_empty() {
+        Ok(identical)
+    } else {
+        let shown = differences.len().min(50);
+        let mut message =
+            format!("{} bit difference(s) between the native build and {host}:\n", differences.len());
+        for difference in &differences[..shown] {
+            let _ = writeln!(message, "  {difference}");
+        }
+        if shown < differences.len() {
+            let _ = writeln!(message, "  ... and {} more", differences.len() - shown);
+        }
+        Err(message)
+    }
+}
+
+/// A bit field of a bit line, with its decimal value: `0x40d61a0000000000 (22632.0)`.
+fn describe(bits: &str) -> String {
+    match u64::from_str_radix(bits, 16) {
+        Ok(b) if bits.len() == 16 => format!("0x{bits} ({:?})", f64::from_bits(b)),
+        _ => format!("'{bits}'"),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -270,6 +328,36 @@ mod tests {
         fs::write(&path, "# model: isentropic\n# tolerance: p_p0 printed\naltitude_m,p_p0\n1,1\n").unwrap();
         assert!(check(&read(&path).unwrap()).unwrap_err().contains("expected mach"));
         fs::remove_dir_all(&dir).unwrap();
+    }
+
+    #[test]
+    fn identical_lines_are_counted() {
+        let native = lines("usa76_lower 0 temperature_K 4072026666666666\nf 1 q undefined");
+        assert_eq!(compare_bits("m4", &native, &native.clone()), Ok(2));
+    }
+
+    fn lines(text: &str) -> Vec<String> {
+        text.lines().map(str::to_owned).collect()
+    }
+
+    #[test]
+    fn a_difference_names_vector_quantity_and_both_values() {
+        let native = lines("usa76_lower 11000 pressure_Pa 40d61a0000000000");
+        let other = lines("usa76_lower 11000 pressure_Pa 40d61a0000000001");
+        let error = compare_bits("thumbv7m-none-eabi", &native, &other).unwrap_err();
+        assert!(error.contains("usa76_lower at input 11000, pressure_Pa"), "{error}");
+        assert!(error.contains("native 0x40d61a0000000000 (22632.0)"), "{error}");
+        assert!(error.contains("thumbv7m-none-eabi 0x40d61a0000000001"), "{error}");
+    }
+
+    #[test]
+    fn missing_extra_and_shifted_lines_fail() {
+        let native = lines("a 1 x 0000000000000000\na 2 x 0000000000000000");
+        assert!(compare_bits("h", &native, &native[..1]).unwrap_err().contains("gave 2 values, h 1"));
+        let shifted = lines("a 2 x 0000000000000000\na 1 x 0000000000000000");
+        assert!(compare_bits("h", &native, &shifted).unwrap_err().contains("out of step"));
+        let undefined = lines("a 1 x undefined\na 2 x 0000000000000000");
+        assert!(compare_bits("h", &native, &undefined).unwrap_err().contains("h 'undefined'"));
     }
 
     #[test]

@@ -502,67 +502,10 @@ pub fn bits(root: &Path, package: &Package) -> Result<usize, String> {
     if !output.status.success() {
         return Err(format!("{} failed:\n{}", script.display(), String::from_utf8_lossy(&output.stderr)));
     }
-    let wasm = String::from_utf8_lossy(&output.stdout).into_owned();
-    let report = compare_bit_lines(&native, &wasm.lines().map(str::to_owned).collect::<Vec<_>>());
-    for line in &report.differences {
-        eprintln!("DIFFERENT: {line}");
-    }
-    if report.differences.is_empty() && report.identical == native.len() {
-        eprintln!("  {} values bit-identical between the native core and the wasm module", report.identical);
-        Ok(report.identical)
-    } else {
-        Err(format!(
-            "{} of {} values differ between the native core and the wasm module",
-            report.differences.len(),
-            native.len()
-        ))
-    }
-}
-
-/// The outcome of comparing two hosts' bit lines.
-pub struct BitReport {
-    pub identical: usize,
-    /// One line per difference: vector, input, quantity and both values.
-    pub differences: Vec<String>,
-}
-
-/// The value a bits field stands for, for messages.
-fn shown(bits: &str) -> String {
-    u64::from_str_radix(bits, 16)
-        .map_or_else(|_| bits.to_owned(), |b| format!("{:e} ({bits})", f64::from_bits(b)))
-}
-
-/// Compares `FILE INPUT COLUMN BITS` lines of a reference host with another's.
-pub fn compare_bit_lines(reference: &[String], other: &[String]) -> BitReport {
-    let mut report = BitReport { identical: 0, differences: Vec::new() };
-    if reference.len() != other.len() {
-        report.differences.push(format!(
-            "{} lines natively, {} from the other host",
-            reference.len(),
-            other.len()
-        ));
-    }
-    for (a, b) in reference.iter().zip(other) {
-        if a == b {
-            report.identical += 1;
-            continue;
-        }
-        let fa: Vec<&str> = a.split(' ').collect();
-        let fb: Vec<&str> = b.split(' ').collect();
-        if fa.len() == 4 && fb.len() == 4 && fa[..3] == fb[..3] {
-            report.differences.push(format!(
-                "vector {} at {} = {}: {} natively, {} in wasm",
-                fa[0],
-                fa[1],
-                fa[2],
-                shown(fa[3]),
-                shown(fb[3])
-            ));
-        } else {
-            report.differences.push(format!("line '{a}' natively, '{b}' in wasm"));
-        }
-    }
-    report
+    let wasm: Vec<String> = String::from_utf8_lossy(&output.stdout).lines().map(str::to_owned).collect();
+    let identical = crate::vectors::compare_bits("the wasm module", &native, &wasm)?;
+    eprintln!("  {identical} values bit-identical between the native core and the wasm module");
+    Ok(identical)
 }
 
 /// The headless-browser test of the web calculator (tests/browser): serves
@@ -624,22 +567,6 @@ pub fn browser(root: &Path) -> Result<(), String> {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn bit_differences_name_the_vector_quantity_and_both_values() {
-        let a = vec!["v 1 t 3ff0000000000000".to_owned(), "v 2 t 4000000000000000".to_owned()];
-        let b = vec!["v 1 t 3ff0000000000000".to_owned(), "v 2 t 4000000000000001".to_owned()];
-        let report = compare_bit_lines(&a, &b);
-        assert_eq!(report.identical, 1);
-        assert_eq!(report.differences.len(), 1);
-        let line = &report.differences[0];
-        assert!(
-            line.contains("vector v at 2 = t") && line.contains("2e0") && line.contains("4000000000000001"),
-            "{line}"
-        );
-        let short = compare_bit_lines(&a, &b[..1]);
-        assert!(short.differences[0].contains("2 lines natively, 1"));
-    }
 
     #[test]
     fn the_package_version_is_read_from_package_json() {
