@@ -1,14 +1,17 @@
 //! Atmosphere models behind one opaque handle, and the full state as a C struct.
 
 use aerostrata_core::{
-    Air, Altitude, AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, LayerSpec, Layered,
-    SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, US1976,
+    Air, Altitude, AltitudeKind, Atmosphere, Exponential, Isothermal, LayerSpec, Layered, SoundingRow, State,
+    Tabulated, TemperatureOffset, US1976,
 };
 use alloc::boxed::Box;
 use alloc::vec::Vec;
 
 use crate::error::{guard, require, AerostrataStatus, Failure};
 use crate::{slice, slice_mut, write};
+
+/// The models a handle can hold: any of the core's, owned.
+pub(crate) type Model = aerostrata_core::AnyModel;
 
 /// `altitude_kind` value: geometric altitude above mean sea level, m.
 pub const AEROSTRATA_GEOMETRIC: u32 = 0;
@@ -132,42 +135,6 @@ impl From<State> for AerostrataState {
     }
 }
 
-/// The models a handle can hold.
-#[derive(Debug, Clone)]
-pub(crate) enum Model {
-    /// The standard itself (offset 0: the same bits as `aerostrata_us1976_state`).
-    Us1976,
-    Standard(TemperatureOffset<aerostrata_core::Us1976>),
-    Exponential(Exponential),
-    Isothermal(Isothermal),
-    Layers(Layered<Vec<aerostrata_core::Layer>>),
-    Sounding(Tabulated<Vec<SoundingLevel>>),
-}
-
-impl Atmosphere for Model {
-    fn range(&self) -> AltitudeRange {
-        match self {
-            Self::Us1976 => US1976.range(),
-            Self::Standard(m) => m.range(),
-            Self::Exponential(m) => m.range(),
-            Self::Isothermal(m) => m.range(),
-            Self::Layers(m) => m.range(),
-            Self::Sounding(m) => m.range(),
-        }
-    }
-
-    fn air(&self, altitude: Altitude) -> aerostrata_core::Result<Air> {
-        match self {
-            Self::Us1976 => US1976.air(altitude),
-            Self::Standard(m) => m.air(altitude),
-            Self::Exponential(m) => m.air(altitude),
-            Self::Isothermal(m) => m.air(altitude),
-            Self::Layers(m) => m.air(altitude),
-            Self::Sounding(m) => m.air(altitude),
-        }
-    }
-}
-
 /// An atmosphere model: the 1976 standard with a temperature offset, an exponential or
 /// isothermal profile, user layers or a sounding. Opaque; made by an
 /// `aerostrata_model_new_*` function and released with `aerostrata_model_free`.
@@ -181,8 +148,7 @@ pub struct AerostrataModel {
 /// The standard with an offset; the standard itself for 0, so that a model and the
 /// handle-free functions give the same bits.
 fn standard(offset_k: f64) -> Result<Model, Failure> {
-    let offset = TemperatureOffset::new(US1976, offset_k)?;
-    Ok(if offset_k == 0.0 { Model::Us1976 } else { Model::Standard(offset) })
+    Ok(Model::standard(offset_k)?)
 }
 
 fn publish(model: Model, out: *mut *mut AerostrataModel) {

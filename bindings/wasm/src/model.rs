@@ -7,8 +7,8 @@ use alloc::vec::Vec;
 use aerostrata::inverse::{altitude_of, Property};
 use aerostrata::model::upper::Species;
 use aerostrata::{
-    Air, Altitude, AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, Layer, LayerSpec,
-    Layered, OutsideTable, SoundingLevel, SoundingRow, State, Tabulated, TemperatureOffset, Us1976, US1976,
+    AltitudeKind, AltitudeRange, Atmosphere, Exponential, Isothermal, LayerSpec, Layered, OutsideTable,
+    SoundingRow, State, Tabulated, US1976,
 };
 use wasm_bindgen::prelude::*;
 
@@ -18,46 +18,12 @@ use crate::error::{Failure, Js};
 use crate::js;
 use crate::text::Text;
 
-/// The models a handle can hold.
-#[derive(Debug, Clone)]
-pub(crate) enum Model {
-    /// The standard itself: an offset of 0 gives the very bits of the plain standard.
-    Us1976,
-    Standard(TemperatureOffset<Us1976>),
-    Exponential(Exponential),
-    Isothermal(Isothermal),
-    Layers(Layered<Vec<Layer>>),
-    Table(Tabulated<Vec<SoundingLevel>>),
-}
-
-impl Atmosphere for Model {
-    fn range(&self) -> AltitudeRange {
-        match self {
-            Self::Us1976 => US1976.range(),
-            Self::Standard(m) => m.range(),
-            Self::Exponential(m) => m.range(),
-            Self::Isothermal(m) => m.range(),
-            Self::Layers(m) => m.range(),
-            Self::Table(m) => m.range(),
-        }
-    }
-
-    fn air(&self, altitude: Altitude) -> aerostrata::Result<Air> {
-        match self {
-            Self::Us1976 => US1976.air(altitude),
-            Self::Standard(m) => m.air(altitude),
-            Self::Exponential(m) => m.air(altitude),
-            Self::Isothermal(m) => m.air(altitude),
-            Self::Layers(m) => m.air(altitude),
-            Self::Table(m) => m.air(altitude),
-        }
-    }
-}
+/// The models a handle can hold: any of the core's, owned.
+pub(crate) type Model = aerostrata::AnyModel;
 
 /// The standard with a temperature offset; the standard itself for 0.
 pub(crate) fn standard(offset_k: f64) -> Result<Model, Failure> {
-    let offset = TemperatureOffset::new(US1976, offset_k)?;
-    Ok(if offset_k == 0.0 { Model::Us1976 } else { Model::Standard(offset) })
+    Ok(Model::standard(offset_k)?)
 }
 
 /// One quantity of the state: its JS name and how it is read (the four continuum
@@ -168,7 +134,7 @@ fn table(
     above: OutsideTable,
 ) -> Result<AtmosphereModel, Failure> {
     let table = Tabulated::from_rows_vec(kind, rows)?.with_below(below)?.with_above(above)?;
-    Ok(AtmosphereModel::new(Model::Table(table), "tabulated"))
+    Ok(AtmosphereModel::new(Model::Sounding(table), "tabulated"))
 }
 
 /// The fields of a row of the sounding's JSON form (the core's `SoundingRow` names); the
@@ -628,6 +594,7 @@ pub fn standard_species(
 #[cfg(test)]
 mod tests {
     extern crate std;
+    use aerostrata::Altitude;
     use std::string::String;
     use std::vec::Vec;
 

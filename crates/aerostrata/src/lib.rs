@@ -50,6 +50,8 @@ mod state;
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
 pub use error::{Error, Result};
 pub use gas::Air;
+#[cfg(feature = "alloc")]
+pub use model::AnyModel;
 pub use model::{AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated};
 pub use model::{
     Atmosphere, Exponential, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset, Us1976, US1976,

@@ -18,23 +18,7 @@ const C_FLAGS: [&str; 5] = ["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedanti
 
 /// target/tools/bin/cbindgen at the pinned version, installed there when missing.
 fn cbindgen(root: &Path) -> Result<PathBuf, String> {
-    let tools = root.join("target").join("tools");
-    let binary = tools.join("bin").join("cbindgen");
-    let wanted = format!("cbindgen {CBINDGEN_VERSION}");
-    let installed = Command::new(&binary)
-        .arg("--version")
-        .output()
-        .is_ok_and(|o| o.status.success() && String::from_utf8_lossy(&o.stdout).trim() == wanted);
-    if !installed {
-        let root_arg = tools.to_string_lossy().into_owned();
-        run_command(
-            root,
-            "cargo",
-            &["install", "cbindgen", "--version", CBINDGEN_VERSION, "--locked", "--root", &root_arg],
-            &[],
-        )?;
-    }
-    Ok(binary)
+    crate::setup::cargo_tool(root, "cbindgen", "cbindgen", CBINDGEN_VERSION)
 }
 
 /// Regenerates bindings/c/include/aerostrata.h; with `check_only`, writes it to a

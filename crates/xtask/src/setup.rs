@@ -153,3 +153,33 @@ pub fn node(root: &Path) -> Result<(), String> {
     }
     Ok(())
 }
+
+/// target/tools/bin/BINARY of the crates.io package `package` at exactly `version`,
+/// installed there with `cargo install` when missing or of another version (its
+/// `--version` output must read "BINARY VERSION"). `--locked` first, for the tool's own
+/// tested dependencies; if the registry no longer has one of them, without it.
+pub fn cargo_tool(
+    root: &Path,
+    package: &str,
+    binary: &str,
+    version: &str,
+) -> Result<std::path::PathBuf, String> {
+    let tools = crate::target_dir(root).join("tools");
+    let path = tools.join("bin").join(binary);
+    let wanted = format!("{binary} {version}");
+    let installed = Command::new(&path)
+        .arg("--version")
+        .output()
+        .is_ok_and(|o| o.status.success() && String::from_utf8_lossy(&o.stdout).trim() == wanted);
+    if !installed {
+        let root_arg = tools.to_string_lossy().into_owned();
+        let args = ["install", package, "--version", version, "--root", &root_arg];
+        let mut locked = args.to_vec();
+        locked.push("--locked");
+        if run_command(root, "cargo", &locked, &[]).is_err() {
+            eprintln!("`cargo install --locked {package}` failed; installing it without --locked");
+            run_command(root, "cargo", &args, &[])?;
+        }
+    }
+    Ok(path)
+}

@@ -72,29 +72,11 @@ fn io_err(what: &str, path: &Path, e: std::io::Error) -> String {
     format!("cannot {what} {}: {e}", path.display())
 }
 
-/// target/tools/bin/wasm-bindgen at the pinned version, installed there when missing:
-/// `cargo install --locked` first; if the registry no longer has a crate of the CLI's
-/// own lock file, without `--locked` (the CLI pins its wasm-bindgen crates with `=`, so
-/// the glue it writes is the same).
+/// target/tools/bin/wasm-bindgen at the pinned version, installed there when missing
+/// (without `--locked` if the registry no longer has a crate of the CLI's own lock file:
+/// the CLI pins its wasm-bindgen crates with `=`, so the glue it writes is the same).
 fn wasm_bindgen_cli(root: &Path) -> Result<PathBuf, String> {
-    let tools = root.join("target").join("tools");
-    let binary = tools.join("bin").join("wasm-bindgen");
-    let wanted = format!("wasm-bindgen {WASM_BINDGEN_VERSION}");
-    let installed = Command::new(&binary)
-        .arg("--version")
-        .output()
-        .is_ok_and(|o| o.status.success() && String::from_utf8_lossy(&o.stdout).trim() == wanted);
-    if !installed {
-        let root_arg = tools.to_string_lossy().into_owned();
-        let args = ["install", "wasm-bindgen-cli", "--version", WASM_BINDGEN_VERSION, "--root", &root_arg];
-        let mut locked = args.to_vec();
-        locked.push("--locked");
-        if run_command(root, "cargo", &locked, &[]).is_err() {
-            eprintln!("`cargo install --locked` failed; installing wasm-bindgen-cli without --locked");
-            run_command(root, "cargo", &args, &[])?;
-        }
-    }
-    Ok(binary)
+    setup::cargo_tool(root, "wasm-bindgen-cli", "wasm-bindgen", WASM_BINDGEN_VERSION)
 }
 
 fn wasm_opt(root: &Path) -> Result<(), String> {

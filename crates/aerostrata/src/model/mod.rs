@@ -1,6 +1,8 @@
 //! Atmosphere models. A model yields the air (T, p, M) at an altitude; the full state is
 //! derived from that air once, in [`State::new`], for every model alike.
 
+#[cfg(feature = "alloc")]
+mod any;
 mod exponential;
 mod isothermal;
 mod layered;
@@ -14,6 +16,8 @@ pub mod upper;
 #[cfg(feature = "upper")]
 mod upper_table;
 
+#[cfg(feature = "alloc")]
+pub use any::AnyModel;
 pub use exponential::Exponential;
 pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
