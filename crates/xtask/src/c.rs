@@ -190,11 +190,60 @@ pub fn test(root: &Path) -> Result<(), String> {
         "Python ctypes test",
         &run_captured(root, "python3", &[&s(&root.join(CTYPES_TEST)), &so, &vectors], &[])?,
     )?);
+    results.push(readme_example(root, &work, &include, &static_lib, &system_libs)?);
     results.push(altimeter_example(root, &package, &work)?);
     for line in &results {
         eprintln!("  {line}");
     }
     Ok(())
+}
+
+/// The README's C example, as a reader would use it: its `#include` lines at the top and
+/// the rest as the body of `main`, compiled as strict C99 against the static library. It
+/// must print the standard+15 K day at 11 km: 216.774 + 15 K (U.S. Standard Atmosphere
+/// 1976 at 11 000 m geometric, from memory of the printed table: tests/vectors) at the
+/// standard's 2.2700E+04 Pa (the offset keeps the standard's pressure).
+fn readme_example(
+    root: &Path,
+    work: &Path,
+    include: &str,
+    static_lib: &str,
+    system_libs: &[&str],
+) -> Result<String, String> {
+    let readme =
+        std::fs::read_to_string(root.join("README.md")).map_err(|e| format!("cannot read README.md: {e}"))?;
+    let block = readme
+        .split("```c\n")
+        .nth(1)
+        .and_then(|rest| rest.split("```").next())
+        .ok_or("README.md has no ```c block")?;
+    let (includes, body): (Vec<&str>, Vec<&str>) = block.lines().partition(|l| l.starts_with("#include"));
+    let source = format!(
+        "#include <stdio.h>\n{}\nint main(void) {{\n{}\n    return 0;\n}}\n",
+        includes.join("\n"),
+        body.join("\n")
+    );
+    let path = work.join("readme_example.c");
+    std::fs::write(&path, source).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+    let exe = work.join("readme_example");
+    let (path_arg, exe_arg) = (path.to_string_lossy().into_owned(), exe.to_string_lossy().into_owned());
+    let mut args: Vec<&str> = C_FLAGS.to_vec();
+    args.extend([include, &path_arg, static_lib]);
+    args.extend_from_slice(system_libs);
+    args.extend(["-o", &exe_arg]);
+    run_command(root, "gcc", &args, &[])?;
+    let printed = run_captured(root, &exe_arg, &[], &[])?;
+    let numbers: Vec<f64> = printed.split([' ', ',']).filter_map(|w| w.parse().ok()).collect();
+    // To the digits printed: 0.01 K and 0.1 Pa, with the table's own half unit of 0.5 Pa.
+    let expected =
+        matches!(numbers[..], [t, p] if (t - 231.774).abs() <= 0.0105 && (p - 22_700.0).abs() <= 0.55);
+    if !expected {
+        return Err(format!(
+            "the README's C example printed '{}', not about 231.77 K and 22700 Pa",
+            printed.trim()
+        ));
+    }
+    Ok(format!("the README's C example compiles as C99 and prints {}", printed.trim()))
 }
 
 /// What the C tests and the example's two builds need besides gcc.
