@@ -4,14 +4,13 @@
 //! machinery around it are a quarter of the module's size budget, and the module only
 //! ever formats numbers for error messages. So messages are built here by appending
 //! text, numbers go through JS's own `String(number)` (shortest round-trip digits, as
-//! Rust's `Display` gives them, in JS's notation: `1e+21` where Rust writes the digits
-//! out), and the core's errors are rendered from their fields with the core's own
-//! wording. A native test renders every variant with Rust's number formatting and
-//! checks it against the core's `Display`, so the wording cannot drift.
+//! Rust's `Display` gives them, in JS's notation: `1e+21` where Rust writes `1e21`), and
+//! the core's errors are written from the core's own message parts, so the wording is
+//! the core's. A native test checks every variant against the core's `Display`.
 
 use alloc::string::String;
 
-use aerostrata::Error;
+use aerostrata::{Error, MessagePart};
 
 /// A message being built.
 pub struct Text(String);
@@ -26,13 +25,6 @@ impl Text {
     #[must_use]
     pub fn s(mut self, text: &str) -> Self {
         self.0.push_str(text);
-        self
-    }
-
-    /// Appends a number as JS prints it.
-    #[must_use]
-    pub fn n(mut self, value: f64) -> Self {
-        push_number(&mut self.0, value);
         self
     }
 
@@ -81,124 +73,16 @@ pub fn push_number(out: &mut String, value: f64) {
     out.push_str(&value.to_string());
 }
 
-/// The core's message for `error`, in the core's words (see the module docs).
+/// The core's message for `error`: the core's own parts ([`Error::message_parts`]), its
+/// numbers written as JS writes them (see the module docs).
 pub fn render(error: &Error) -> String {
-    let t = Text::new;
-    match *error {
-        Error::NotFinite { quantity, value } => t(quantity).s(" must be a finite number, got ").n(value),
-        Error::OutOfRange { quantity, unit, value, min, max } => t(quantity)
-            .s(" ")
-            .n(value)
-            .s(" ")
-            .s(unit)
-            .s(" is outside the allowed range ")
-            .n(min)
-            .s(" to ")
-            .n(max)
-            .s(" ")
-            .s(unit),
-        Error::NotPositive { quantity, unit, value } => {
-            t(quantity).s(" must be greater than 0 ").s(unit).s(", got ").n(value).s(" ").s(unit)
-        }
-        Error::InvalidLayer { index, problem, value } => t("layer ").u(index).s(": ").s(problem).s(", got ").n(value),
-        Error::Undefined { quantity, altitude_m } => {
-            t(quantity).s(" is not defined by the model at geometric altitude ").n(altitude_m).s(" m")
-        }
-        Error::RatioOutOfRange { quantity, value, min, max } => {
-            t(quantity).s(" ").n(value).s(" is outside the allowed range ").n(min).s(" to ").n(max)
-        }
-        Error::RatioNotPositive { quantity, value } => t(quantity).s(" must be greater than 0, got ").n(value),
-        Error::InvalidPoint { table, index, problem, value } => {
-            t(table).s(" point ").u(index).s(": ").s(problem).s(", got ").n(value)
-        }
-        Error::NoConvergence { solver, iterations } => {
-            t(solver).s(" did not converge within ").u(iterations as usize).s(" iterations")
-        }
-        Error::TooFewRows { count } => t("a table needs at least 2 rows, got ").u(count),
-        Error::RowNotFinite { row, quantity, value } => {
-            t("row ").u(row).s(": ").s(quantity).s(" must be a finite number, got ").n(value)
-        }
-        Error::AltitudeNotIncreasing { row, altitude_m, previous_m, min_spacing_m } => t("row ")
-            .u(row)
-            .s(": altitude ")
-            .n(altitude_m)
-            .s(" m must be at least ")
-            .n(min_spacing_m)
-            .s(" m above the previous row's ")
-            .n(previous_m)
-            .s(" m"),
-        Error::RowTemperatureNotPositive { row, temperature_k } => {
-            t("row ").u(row).s(": temperature must be above 0 K, got ").n(temperature_k).s(" K")
-        }
-        Error::RowNotPositive { row, quantity, unit, value } => t("row ")
-            .u(row)
-            .s(": ")
-            .s(quantity)
-            .s(" must be greater than 0 ")
-            .s(unit)
-            .s(", got ")
-            .n(value)
-            .s(" ")
-            .s(unit),
-        Error::PressureNotDecreasing { row, pressure_pa, previous_pa } => t("row ")
-            .u(row)
-            .s(": pressure ")
-            .n(pressure_pa)
-            .s(" Pa must be below the previous row's ")
-            .n(previous_pa)
-            .s(" Pa"),
-        Error::RelativeHumidityOutOfRange { row, percent } => t("row ")
-            .u(row)
-            .s(": relative humidity ")
-            .n(percent)
-            .s(" % is outside the allowed range 0 to 100 %"),
-        Error::DewPointAboveTemperature { row, dew_point_k, temperature_k } => t("row ")
-            .u(row)
-            .s(": dew point ")
-            .n(dew_point_k)
-            .s(" K must not be above the temperature ")
-            .n(temperature_k)
-            .s(" K"),
-        Error::RowOutOfRange { row, quantity, unit, value, min, max } => t("row ")
-            .u(row)
-            .s(": ")
-            .s(quantity)
-            .s(" ")
-            .n(value)
-            .s(" ")
-            .s(unit)
-            .s(" is outside the allowed range ")
-            .n(min)
-            .s(" to ")
-            .n(max)
-            .s(" ")
-            .s(unit),
-        Error::RowColumns { row, problem } => t("row ").u(row).s(": ").s(problem),
-        Error::NotHydrostatic { row, ratio, min, max } => t("rows ")
-            .u(row)
-            .s(" and ")
-            .u(row.saturating_add(1))
-            .s(": the pressure falls ")
-            .n(ratio)
-            .s(" times as fast as hydrostatic balance at the rows' temperatures implies; the allowed range is ")
-            .n(min)
-            .s(" to ")
-            .n(max),
-        Error::VapourPressureTooHigh { row, vapour_pressure_pa, pressure_pa } => t("row ")
-            .u(row)
-            .s(": vapour pressure ")
-            .n(vapour_pressure_pa)
-            .s(" Pa must be below the pressure ")
-            .n(pressure_pa)
-            .s(" Pa"),
-        Error::StorageTooSmall { needed, len } => {
-            t("storage holds ").u(len).s(" levels, the table has ").u(needed).s(" rows")
-        }
-        // A variant added to the core after this module reads generically until it is
-        // added here and to the test below.
-        _ => t("the aerostrata core reported an error this module does not know"),
-    }
-    .done()
+    let mut out = String::new();
+    error.message_parts(|part| match part {
+        MessagePart::Text(text) => out.push_str(text),
+        MessagePart::Number(value) => push_number(&mut out, value),
+        MessagePart::Count(count) => push_count(&mut out, count),
+    });
+    out
 }
 
 #[cfg(test)]

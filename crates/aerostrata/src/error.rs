@@ -1,6 +1,8 @@
 //! The core's one error type. Every message names the offending value and, where there
 //! is one, the allowed range, so that a C status detail, a JS `Error` or a CLI line can
-//! show it unchanged.
+//! show it unchanged. The wording lives in one place, [`Error::message_parts`]: `Display`
+//! writes it with Rust's number formatting, and a door that cannot afford that machinery
+//! (the size-budgeted WebAssembly module) writes the same parts with its own.
 
 /// Everything that can go wrong in the core.
 #[derive(Debug, Clone, Copy, PartialEq, thiserror::Error)]
@@ -8,7 +10,6 @@
 #[non_exhaustive]
 pub enum Error {
     /// An input was NaN or infinite.
-    #[error("{quantity} must be a finite number, got {}", num(.value))]
     NotFinite {
         /// What the value was, in the trade's words ("geometric altitude").
         quantity: &'static str,
@@ -16,7 +17,6 @@ pub enum Error {
         value: f64,
     },
     /// A finite input lay outside the closed range a model or formula accepts.
-    #[error("{quantity} {} {unit} is outside the allowed range {} to {} {unit}", num(.value), num(.min), num(.max))]
     OutOfRange {
         /// What the value was.
         quantity: &'static str,
@@ -30,7 +30,6 @@ pub enum Error {
         max: f64,
     },
     /// An input that must be strictly positive was zero or negative.
-    #[error("{quantity} must be greater than 0 {unit}, got {} {unit}", num(.value))]
     NotPositive {
         /// What the value was.
         quantity: &'static str,
@@ -40,7 +39,6 @@ pub enum Error {
         value: f64,
     },
     /// A layer of a layered model is inconsistent; `index` counts from 0.
-    #[error("layer {index}: {problem}, got {value}")]
     InvalidLayer {
         /// Which layer (0 is the lowest).
         index: usize,
@@ -51,7 +49,6 @@ pub enum Error {
     },
     /// A property the model does not define at this altitude (for example viscosity in
     /// the free-molecular upper atmosphere).
-    #[error("{quantity} is not defined by the model at geometric altitude {altitude_m} m")]
     Undefined {
         /// The property asked for.
         quantity: &'static str,
@@ -60,7 +57,6 @@ pub enum Error {
     },
     /// A dimensionless finite input (a Mach number, a pressure ratio, a ratio of specific
     /// heats) lay outside the closed range a formula accepts.
-    #[error("{quantity} {} is outside the allowed range {} to {}", num(.value), num(.min), num(.max))]
     RatioOutOfRange {
         /// What the value was ("Mach number", "total-to-static pressure ratio").
         quantity: &'static str,
@@ -73,7 +69,6 @@ pub enum Error {
     },
     /// A dimensionless input that must be strictly positive (a drag coefficient) was zero
     /// or negative.
-    #[error("{quantity} must be greater than 0, got {}", num(.value))]
     RatioNotPositive {
         /// What the value was.
         quantity: &'static str,
@@ -82,7 +77,6 @@ pub enum Error {
     },
     /// A point of a user table or series (a drag-coefficient table, the samples of a
     /// flight) is invalid; `index` counts from 0.
-    #[error("{table} point {index}: {problem}, got {value}")]
     InvalidPoint {
         /// Which table or series ("drag table", "flight sample").
         table: &'static str,
@@ -94,7 +88,6 @@ pub enum Error {
         value: f64,
     },
     /// An iterative solver did not meet its tolerance within its iteration budget.
-    #[error("{solver} did not converge within {iterations} iterations")]
     NoConvergence {
         /// Which solver ("terminal-velocity solver").
         solver: &'static str,
@@ -102,13 +95,11 @@ pub enum Error {
         iterations: u32,
     },
     /// A tabulated atmosphere (a sounding) was given fewer than two rows.
-    #[error("a table needs at least 2 rows, got {count}")]
     TooFewRows {
         /// How many rows were given.
         count: usize,
     },
     /// A value in a row of a table was NaN or infinite; `row` counts from 0.
-    #[error("row {row}: {quantity} must be a finite number, got {value}")]
     RowNotFinite {
         /// Which row (0 is the first).
         row: usize,
@@ -119,7 +110,6 @@ pub enum Error {
     },
     /// The altitudes of a table do not increase strictly (by at least the minimum row
     /// spacing) from row to row.
-    #[error("row {row}: altitude {altitude_m} m must be at least {min_spacing_m} m above the previous row's {previous_m} m")]
     AltitudeNotIncreasing {
         /// Which row (0 is the first).
         row: usize,
@@ -131,7 +121,6 @@ pub enum Error {
         min_spacing_m: f64,
     },
     /// A row of a table has a temperature at or below 0 K.
-    #[error("row {row}: temperature must be above 0 K, got {temperature_k} K")]
     RowTemperatureNotPositive {
         /// Which row (0 is the first).
         row: usize,
@@ -139,7 +128,6 @@ pub enum Error {
         temperature_k: f64,
     },
     /// A row of a table has a pressure or a density that is zero or negative.
-    #[error("row {row}: {quantity} must be greater than 0 {unit}, got {value} {unit}")]
     RowNotPositive {
         /// Which row (0 is the first).
         row: usize,
@@ -152,7 +140,6 @@ pub enum Error {
     },
     /// The pressure of a table (given, or derived from its density) does not fall from
     /// one row to the next.
-    #[error("row {row}: pressure {pressure_pa} Pa must be below the previous row's {previous_pa} Pa")]
     PressureNotDecreasing {
         /// Which row (0 is the first).
         row: usize,
@@ -162,7 +149,6 @@ pub enum Error {
         previous_pa: f64,
     },
     /// A row's relative humidity lies outside 0 to 100 %.
-    #[error("row {row}: relative humidity {percent} % is outside the allowed range 0 to 100 %")]
     RelativeHumidityOutOfRange {
         /// Which row (0 is the first).
         row: usize,
@@ -170,7 +156,6 @@ pub enum Error {
         percent: f64,
     },
     /// A row's dew point is above its temperature.
-    #[error("row {row}: dew point {dew_point_k} K must not be above the temperature {temperature_k} K")]
     DewPointAboveTemperature {
         /// Which row (0 is the first).
         row: usize,
@@ -180,7 +165,6 @@ pub enum Error {
         temperature_k: f64,
     },
     /// A finite value of a table row lies outside the closed range the model accepts.
-    #[error("row {row}: {quantity} {} {unit} is outside the allowed range {} to {} {unit}", num(.value), num(.min), num(.max))]
     RowOutOfRange {
         /// Which row (0 is the first).
         row: usize,
@@ -197,7 +181,6 @@ pub enum Error {
     },
     /// A row of a table gives a different set of quantities than the table needs (for
     /// example a density where the first row gives a pressure).
-    #[error("row {row}: {problem}")]
     RowColumns {
         /// Which row (0 is the first).
         row: usize,
@@ -206,7 +189,6 @@ pub enum Error {
     },
     /// Between two rows of a table, the given pressures fall much faster or slower than
     /// hydrostatic balance at the rows' temperatures allows.
-    #[error("rows {row} and {}: the pressure falls {ratio} times as fast as hydrostatic balance at the rows' temperatures implies; the allowed range is {min} to {max}", .row + 1)]
     NotHydrostatic {
         /// The lower row of the pair (0 is the first).
         row: usize,
@@ -220,9 +202,6 @@ pub enum Error {
     },
     /// A row's water-vapour pressure (from its dew point or relative humidity) is not
     /// below its pressure.
-    #[error(
-        "row {row}: vapour pressure {vapour_pressure_pa} Pa must be below the pressure {pressure_pa} Pa"
-    )]
     VapourPressureTooHigh {
         /// Which row (0 is the first).
         row: usize,
@@ -232,7 +211,6 @@ pub enum Error {
         pressure_pa: f64,
     },
     /// Caller-provided storage is shorter than the data to be put in it.
-    #[error("storage holds {len} levels, the table has {needed} rows")]
     StorageTooSmall {
         /// How many entries are needed.
         needed: usize,
@@ -241,24 +219,197 @@ pub enum Error {
     },
 }
 
-/// A number as a message shows it: the shortest digits that read back to the same f64,
-/// in exponent form when very small or very large (so that a limit of 7.5e-9 Pa does not
-/// print as 0.0000000075...).
-pub(crate) struct Num(f64);
+/// One piece of an error message, as [`Error::message_parts`] gives them.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum MessagePart {
+    /// Words, units and punctuation.
+    Text(&'static str),
+    /// A value or a limit.
+    Number(f64),
+    /// A count, a row, layer or point index, an iteration budget.
+    Count(usize),
+}
 
-impl core::fmt::Display for Num {
-    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
-        let magnitude = self.0.abs();
-        if magnitude != 0.0 && magnitude.is_finite() && !(1e-4..1e9).contains(&magnitude) {
-            write!(f, "{:e}", self.0)
-        } else {
-            write!(f, "{}", self.0)
+impl Error {
+    /// The message, piece by piece, in the order it reads; `Display` joins them.
+    pub fn message_parts(&self, mut part: impl FnMut(MessagePart)) {
+        use MessagePart::{Count as C, Number as N, Text as T};
+        let mut parts = |pieces: &[MessagePart]| pieces.iter().for_each(|p| part(*p));
+        match *self {
+            Error::NotFinite { quantity, value } => parts(&[T(quantity), T(" must be a finite number, got "), N(value)]),
+            Error::OutOfRange { quantity, unit, value, min, max } => parts(&[
+                T(quantity),
+                T(" "),
+                N(value),
+                T(" "),
+                T(unit),
+                T(" is outside the allowed range "),
+                N(min),
+                T(" to "),
+                N(max),
+                T(" "),
+                T(unit),
+            ]),
+            Error::NotPositive { quantity, unit, value } => parts(&[
+                T(quantity),
+                T(" must be greater than 0 "),
+                T(unit),
+                T(", got "),
+                N(value),
+                T(" "),
+                T(unit),
+            ]),
+            Error::InvalidLayer { index, problem, value } => {
+                parts(&[T("layer "), C(index), T(": "), T(problem), T(", got "), N(value)])
+            }
+            Error::Undefined { quantity, altitude_m } => parts(&[
+                T(quantity),
+                T(" is not defined by the model at geometric altitude "),
+                N(altitude_m),
+                T(" m"),
+            ]),
+            Error::RatioOutOfRange { quantity, value, min, max } => parts(&[
+                T(quantity),
+                T(" "),
+                N(value),
+                T(" is outside the allowed range "),
+                N(min),
+                T(" to "),
+                N(max),
+            ]),
+            Error::RatioNotPositive { quantity, value } => {
+                parts(&[T(quantity), T(" must be greater than 0, got "), N(value)])
+            }
+            Error::InvalidPoint { table, index, problem, value } => {
+                parts(&[T(table), T(" point "), C(index), T(": "), T(problem), T(", got "), N(value)])
+            }
+            Error::NoConvergence { solver, iterations } => {
+                parts(&[T(solver), T(" did not converge within "), C(iterations as usize), T(" iterations")])
+            }
+            Error::TooFewRows { count } => parts(&[T("a table needs at least 2 rows, got "), C(count)]),
+            Error::RowNotFinite { row, quantity, value } => {
+                parts(&[T("row "), C(row), T(": "), T(quantity), T(" must be a finite number, got "), N(value)])
+            }
+            Error::AltitudeNotIncreasing { row, altitude_m, previous_m, min_spacing_m } => parts(&[
+                T("row "),
+                C(row),
+                T(": altitude "),
+                N(altitude_m),
+                T(" m must be at least "),
+                N(min_spacing_m),
+                T(" m above the previous row's "),
+                N(previous_m),
+                T(" m"),
+            ]),
+            Error::RowTemperatureNotPositive { row, temperature_k } => {
+                parts(&[T("row "), C(row), T(": temperature must be above 0 K, got "), N(temperature_k), T(" K")])
+            }
+            Error::RowNotPositive { row, quantity, unit, value } => parts(&[
+                T("row "),
+                C(row),
+                T(": "),
+                T(quantity),
+                T(" must be greater than 0 "),
+                T(unit),
+                T(", got "),
+                N(value),
+                T(" "),
+                T(unit),
+            ]),
+            Error::PressureNotDecreasing { row, pressure_pa, previous_pa } => parts(&[
+                T("row "),
+                C(row),
+                T(": pressure "),
+                N(pressure_pa),
+                T(" Pa must be below the previous row's "),
+                N(previous_pa),
+                T(" Pa"),
+            ]),
+            Error::RelativeHumidityOutOfRange { row, percent } => parts(&[
+                T("row "),
+                C(row),
+                T(": relative humidity "),
+                N(percent),
+                T(" % is outside the allowed range 0 to 100 %"),
+            ]),
+            Error::DewPointAboveTemperature { row, dew_point_k, temperature_k } => parts(&[
+                T("row "),
+                C(row),
+                T(": dew point "),
+                N(dew_point_k),
+                T(" K must not be above the temperature "),
+                N(temperature_k),
+                T(" K"),
+            ]),
+            Error::RowOutOfRange { row, quantity, unit, value, min, max } => parts(&[
+                T("row "),
+                C(row),
+                T(": "),
+                T(quantity),
+                T(" "),
+                N(value),
+                T(" "),
+                T(unit),
+                T(" is outside the allowed range "),
+                N(min),
+                T(" to "),
+                N(max),
+                T(" "),
+                T(unit),
+            ]),
+            Error::RowColumns { row, problem } => parts(&[T("row "), C(row), T(": "), T(problem)]),
+            Error::NotHydrostatic { row, ratio, min, max } => parts(&[
+                T("rows "),
+                C(row),
+                T(" and "),
+                C(row.saturating_add(1)),
+                T(": the pressure falls "),
+                N(ratio),
+                T(" times as fast as hydrostatic balance at the rows' temperatures implies; the allowed range is "),
+                N(min),
+                T(" to "),
+                N(max),
+            ]),
+            Error::VapourPressureTooHigh { row, vapour_pressure_pa, pressure_pa } => parts(&[
+                T("row "),
+                C(row),
+                T(": vapour pressure "),
+                N(vapour_pressure_pa),
+                T(" Pa must be below the pressure "),
+                N(pressure_pa),
+                T(" Pa"),
+            ]),
+            Error::StorageTooSmall { needed, len } => {
+                parts(&[T("storage holds "), C(len), T(" levels, the table has "), C(needed), T(" rows")])
+            }
         }
     }
 }
 
-fn num(value: &f64) -> Num {
-    Num(*value)
+/// The message: the parts of [`Error::message_parts`], numbers with the shortest digits
+/// that read back to the same f64, in exponent form when very small or very large (so
+/// that a limit of 7.5e-9 Pa does not print as 0.0000000075...).
+impl core::fmt::Display for Error {
+    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
+        let mut result = Ok(());
+        self.message_parts(|part| {
+            if result.is_ok() {
+                result = match part {
+                    MessagePart::Text(text) => f.write_str(text),
+                    MessagePart::Count(count) => write!(f, "{count}"),
+                    MessagePart::Number(value) => {
+                        let magnitude = value.abs();
+                        if magnitude != 0.0 && magnitude.is_finite() && !(1e-4..1e9).contains(&magnitude) {
+                            write!(f, "{value:e}")
+                        } else {
+                            write!(f, "{value}")
+                        }
+                    }
+                };
+            }
+        });
+        result
+    }
 }
 
 /// Shorthand for results of the core.
@@ -316,6 +467,7 @@ mod tests {
         let e = Error::NotFinite { quantity: "altitude", value: f64::NAN };
         assert_eq!(e.to_string(), "altitude must be a finite number, got NaN");
         // The digits still read back to the very value.
-        assert_eq!(Num(6.633232327863704e-8).to_string().parse::<f64>(), Ok(6.633232327863704e-8));
+        let e = Error::RatioNotPositive { quantity: "x", value: 6.633232327863704e-8 };
+        assert_eq!(e.to_string(), "x must be greater than 0, got 6.633232327863704e-8");
     }
 }

@@ -48,7 +48,7 @@ pub mod model;
 mod state;
 
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
-pub use error::{Error, Result};
+pub use error::{Error, MessagePart, Result};
 pub use gas::Air;
 #[cfg(feature = "alloc")]
 pub use model::AnyModel;
