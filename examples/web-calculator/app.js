@@ -11,6 +11,7 @@ import init, {
   machNumber,
   reynoldsNumber,
   unitFactors,
+  velocityFromMachMS,
 } from "./aerostrata/aerostrata.js";
 
 await init();
@@ -210,11 +211,12 @@ function updatePoint() {
       setMessage("mach", "A Mach number needs a speed of sound, which the standard does not define above 86 km.");
       return results.classList.add("stale");
     }
-    // q = gamma p M^2 / 2, the module checking the Mach number; the true airspeed from the
-    // definition of the Mach number, V = M a.
+    // q = gamma p M^2 / 2 and the true airspeed V = M a, both from the module.
     q = attempt("mach", () => dynamicPressureFromMachPa(s.pressurePa, inputs.mach));
     if (q.error) return results.classList.add("stale");
-    velocity = inputs.mach * a;
+    const v = attempt("mach", () => velocityFromMachMS(inputs.mach, a));
+    if (v.error) return results.classList.add("stale");
+    velocity = v.value;
     mach = inputs.mach;
   } else {
     velocity = inputs.velocity * unitOf("speed")[1];

@@ -865,6 +865,17 @@ enum AerostrataStatus aerostrata_mach_number(double velocity_m_s,
                                              double *out);
 
 /**
+ * True speed V = M a, m/s, of Mach number `mach` in air of speed of sound
+ * `speed_of_sound_m_s`: the inverse of `aerostrata_mach_number`.
+ *
+ * Errors: NOT_FINITE, RATIO_OUT_OF_RANGE (Mach 0 to 1000), NOT_POSITIVE or OUT_OF_RANGE
+ * (speed of sound, or a speed above 1e8 m/s); NULL_POINTER.
+ */
+enum AerostrataStatus aerostrata_velocity_from_mach_m_s(double mach,
+                                                        double speed_of_sound_m_s,
+                                                        double *out);
+
+/**
  * Reynolds number rho |V| L / mu for reference length `length_m`.
  *
  * Errors: NOT_FINITE, OUT_OF_RANGE, NOT_POSITIVE (viscosity); NULL_POINTER.

@@ -81,6 +81,20 @@ pub unsafe extern "C" fn aerostrata_mach_number(
     scalar(out, || Ok(aero::mach_number(velocity_m_s, speed_of_sound_m_s)?))
 }
 
+/// True speed V = M a, m/s, of Mach number `mach` in air of speed of sound
+/// `speed_of_sound_m_s`: the inverse of `aerostrata_mach_number`.
+///
+/// Errors: NOT_FINITE, RATIO_OUT_OF_RANGE (Mach 0 to 1000), NOT_POSITIVE or OUT_OF_RANGE
+/// (speed of sound, or a speed above 1e8 m/s); NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_velocity_from_mach_m_s(
+    mach: f64,
+    speed_of_sound_m_s: f64,
+    out: *mut f64,
+) -> AerostrataStatus {
+    scalar(out, || Ok(aero::velocity_from_mach_m_s(mach, speed_of_sound_m_s)?))
+}
+
 /// Reynolds number rho |V| L / mu for reference length `length_m`.
 ///
 /// Errors: NOT_FINITE, OUT_OF_RANGE, NOT_POSITIVE (viscosity); NULL_POINTER.

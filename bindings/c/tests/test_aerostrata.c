@@ -625,6 +625,12 @@ static void test_helpers(void) {
     CHECK(fabs(out - 5.0) < 1e-12);
     STATUS(aerostrata_mach_number(340.0, 340.0, &out), AEROSTRATA_STATUS_OK);
     CHECK(out == 1.0);
+    /* V = M a, the definition of the Mach number (common practice, no source). */
+    STATUS(aerostrata_velocity_from_mach_m_s(0.5, 340.0, &out), AEROSTRATA_STATUS_OK);
+    CHECK(out == 170.0);
+    STATUS(aerostrata_velocity_from_mach_m_s(-0.5, 340.0, &out), AEROSTRATA_STATUS_RATIO_OUT_OF_RANGE);
+    STATUS(aerostrata_velocity_from_mach_m_s(0.5, 0.0, &out), AEROSTRATA_STATUS_NOT_POSITIVE);
+    STATUS(aerostrata_velocity_from_mach_m_s(0.5, 340.0, NULL), AEROSTRATA_STATUS_NULL_POINTER);
     STATUS(aerostrata_reynolds_number(1.225, 50.0, 0.1, 1.7894e-5, &out), AEROSTRATA_STATUS_OK);
     CHECK(fabs(out - 1.225 * 5.0 / 1.7894e-5) < 1e-6);
     STATUS(aerostrata_reynolds_number(1.225, 50.0, 0.1, 0.0, &out), AEROSTRATA_STATUS_NOT_POSITIVE);

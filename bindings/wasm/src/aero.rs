@@ -105,6 +105,16 @@ number_function! {
 }
 
 number_function! {
+    #[doc = " True speed V = M a, m/s, of Mach number `mach` in air of speed of sound"]
+    #[doc = " `speedOfSoundMS` (m/s): the inverse of `machNumber`."]
+    #[doc = ""]
+    #[doc = " Throws a `RangeError` for a value out of range."]
+    velocityFromMachMS => fn velocity_from_mach_m_s(mach as mach, a as speedOfSoundMS) {
+        aero::velocity_from_mach_m_s(mach, a)
+    }
+}
+
+number_function! {
     #[doc = " Reynolds number rho |V| L / mu for density `densityKgM3` (kg/m^3), speed"]
     #[doc = " `velocityMS` (m/s), reference length `lengthM` (m) and dynamic viscosity"]
     #[doc = " `dynamicViscosityPaS` (Pa s)."]

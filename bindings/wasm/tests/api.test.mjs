@@ -150,6 +150,9 @@ test("aerodynamics: q, drag, Mach and Reynolds numbers, terminal velocity", () =
   assert.ok(close(a.dynamicPressureFromMachPa(s.pressurePa, 0.7), a.dynamicPressurePa(s.densityKgM3, v), 1e-13));
   assert.equal(a.dragN(1000, 0.5, 0.02), 10);
   assert.equal(a.machNumber(170.145, 340.29), 0.5);
+  // V = M a, the definition of the Mach number (common practice, no source).
+  assert.equal(a.velocityFromMachMS(0.5, 340.29), 170.145);
+  assert.throws(() => a.velocityFromMachMS(-0.5, 340.29), RangeError);
   assert.ok(close(a.reynoldsNumber(1.2, 50, 0.1, 1.8e-5), (1.2 * 50 * 0.1) / 1.8e-5, 1e-15));
   assert.equal(a.knudsenNumber(0.012, 1), 0.012);
   assert.equal(a.rarefactionRegime(0.012), "slip");

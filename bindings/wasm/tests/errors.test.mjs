@@ -202,6 +202,7 @@ const VALID = {
   dynamicPressureFromMachPa: [1e5, 0.8],
   dragN: [1e4, 0.5, 0.01],
   machNumber: [300, 340],
+  velocityFromMachMS: [0.85, 295],
   reynoldsNumber: [1.2, 100, 1, 1.8e-5],
   knudsenNumber: [1e-7, 1],
   ballisticCoefficientKgM2: [4, 0.5, 0.01],

@@ -125,6 +125,32 @@ pub fn mach_number(velocity_m_s: f64, speed_of_sound_m_s: f64) -> Result<f64> {
     ratio_within("Mach number", v / a, 0.0, MAX_MACH)
 }
 
+/// True speed, m/s, of a Mach number `mach` in air whose speed of sound is
+/// `speed_of_sound_m_s`: the inverse of [`mach_number`].
+///
+/// ```text
+/// V = M a
+/// ```
+///
+/// ```
+/// use aerostrata::aero::{mach_number, velocity_from_mach_m_s};
+/// let v = velocity_from_mach_m_s(0.85, 295.0)?;
+/// assert!((mach_number(v, 295.0)? - 0.85).abs() < 1e-15);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// [`Error::NotFinite`] or [`Error::RatioOutOfRange`] for a Mach number outside 0 to
+/// [`MAX_MACH`]; [`Error::NotFinite`], [`Error::NotPositive`] or [`Error::OutOfRange`]
+/// for a speed of sound that is not positive or above [`MAX_SPEED_M_S`], or when the
+/// speed would exceed it.
+pub fn velocity_from_mach_m_s(mach: f64, speed_of_sound_m_s: f64) -> Result<f64> {
+    let m = ratio_within("Mach number", mach, 0.0, MAX_MACH)?;
+    let a = positive("speed of sound", "m/s", speed_of_sound_m_s)?;
+    let a = within("speed of sound", "m/s", a, 0.0, MAX_SPEED_M_S)?;
+    speed("velocity", m * a)
+}
+
 /// Reynolds number for a reference length `length_m`.
 ///
 /// ```text

@@ -4,8 +4,8 @@
 
 use aerostrata::aero::{
     ballistic_coefficient_kg_m2, drag_n, dynamic_pressure_from_mach_pa, dynamic_pressure_pa, knudsen_number,
-    mach_number, reynolds_number, terminal_velocity_m_s, terminal_velocity_with, DragCurve, Interpolation,
-    RarefactionRegime,
+    mach_number, reynolds_number, terminal_velocity_m_s, terminal_velocity_with, velocity_from_mach_m_s,
+    DragCurve, Interpolation, RarefactionRegime,
 };
 use aerostrata::airspeed::{sea_level_speed_of_sound_m_s, AirData, Airspeed};
 use aerostrata::flight::{samples_from_slices, scan, FlightScan, Sample, Vehicle};
@@ -41,6 +41,7 @@ proptest! {
         ok_finite(dynamic_pressure_from_mach_pa(a, b, PerfectGas::AIR));
         ok_finite(drag_n(a, b, c));
         ok_finite(mach_number(a, b));
+        ok_finite(velocity_from_mach_m_s(a, b));
         ok_finite(reynolds_number(a, b, c, d));
         ok_finite(knudsen_number(a, b));
         ok_finite(ballistic_coefficient_kg_m2(a, b, c));
