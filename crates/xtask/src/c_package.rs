@@ -198,7 +198,7 @@ pub fn bare_metal(root: &Path, target: &str, toolchain: TargetToolchain) -> Resu
             root,
             Some(target),
             &prefix,
-            &crate::test::DEBIAN_ENVS,
+            &crate::setup::DEBIAN_ENVS,
             &["-Zbuild-std=core,alloc", "--target-dir", "target/debian-rustc"],
         ),
     }

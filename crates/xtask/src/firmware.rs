@@ -147,7 +147,7 @@ fn build_settings(root: &Path, toolchain: TargetToolchain) -> (Vec<(String, Stri
         TargetToolchain::Rustup => (Vec::new(), Vec::new(), target_dir.join("firmware")),
         TargetToolchain::DebianBuildStd => {
             let mut envs: Vec<(String, String)> =
-                crate::test::DEBIAN_ENVS.iter().map(|(k, v)| ((*k).to_owned(), (*v).to_owned())).collect();
+                crate::setup::DEBIAN_ENVS.iter().map(|(k, v)| ((*k).to_owned(), (*v).to_owned())).collect();
             // Debian's rustc has no rust-lld of its own.
             for target in FIRMWARE_TARGETS {
                 let key = format!("CARGO_TARGET_{}_LINKER", target.to_uppercase().replace('-', "_"));

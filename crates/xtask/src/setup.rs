@@ -59,15 +59,21 @@ fn dpkg_installed(package: &str) -> bool {
         .is_ok_and(|o| String::from_utf8_lossy(&o.stdout).contains("install ok installed"))
 }
 
-/// Makes the firmware targets buildable and says how.
-pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
+/// Debian's rustc building the standard library from source (the fallback of
+/// ../shared/notes/toolchains.md), for every target.
+pub const DEBIAN_ENVS: [(&str, &str); 3] =
+    [("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")];
+
+/// Makes `targets` buildable and says how: rustup's standard libraries, or, where rustup
+/// cannot download them, Debian's rustc with -Zbuild-std.
+fn rust_targets(root: &Path, targets: &[&str]) -> Result<TargetToolchain, String> {
     let installed = Command::new("rustup")
         .args(["target", "list", "--installed"])
         .output()
         .map(|o| String::from_utf8_lossy(&o.stdout).into_owned())
         .unwrap_or_default();
     let missing: Vec<&str> =
-        FIRMWARE_TARGETS.iter().copied().filter(|t| !installed.lines().any(|l| l == *t)).collect();
+        targets.iter().copied().filter(|t| !installed.lines().any(|l| l == *t)).collect();
     if missing.is_empty() {
         return Ok(TargetToolchain::Rustup);
     }
@@ -79,6 +85,11 @@ pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
     eprintln!("rustup could not add {missing:?}; falling back to Debian's rustc with -Zbuild-std");
     apt_install(root, &["rustc-web", "rust-web-src", "lld-16"])?;
     Ok(TargetToolchain::DebianBuildStd)
+}
+
+/// Makes the firmware targets buildable and says how.
+pub fn firmware_targets(root: &Path) -> Result<TargetToolchain, String> {
+    rust_targets(root, &FIRMWARE_TARGETS)
 }
 
 /// The Python modules of the independent checks, pinned: the scipy integration's last
@@ -131,16 +142,7 @@ pub const WASM_TARGET: &str = "wasm32-unknown-unknown";
 /// cannot download) Debian's rustc building `core` and `alloc` per target, linking with
 /// `wasm-ld-16` (../shared/notes/toolchains.md).
 pub fn wasm_target(root: &Path) -> Result<TargetToolchain, String> {
-    let installed = Command::new("rustup")
-        .args(["target", "list", "--installed"])
-        .output()
-        .is_ok_and(|o| String::from_utf8_lossy(&o.stdout).lines().any(|l| l == WASM_TARGET));
-    if installed || run_command(root, "rustup", &["target", "add", WASM_TARGET], &[]).is_ok() {
-        return Ok(TargetToolchain::Rustup);
-    }
-    eprintln!("rustup could not add {WASM_TARGET}; falling back to Debian's rustc with -Zbuild-std");
-    apt_install(root, &["rustc-web", "rust-web-src", "lld-16"])?;
-    Ok(TargetToolchain::DebianBuildStd)
+    rust_targets(root, &[WASM_TARGET])
 }
 
 /// Makes `node` and `npm` available (Debian's `nodejs` and `npm` when missing).

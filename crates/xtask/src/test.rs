@@ -4,7 +4,7 @@ use std::path::Path;
 use std::time::Instant;
 
 use crate::run_command;
-use crate::setup::{self, TargetToolchain, FIRMWARE_TARGETS};
+use crate::setup::{self, TargetToolchain, DEBIAN_ENVS, FIRMWARE_TARGETS};
 
 pub fn run(root: &Path) -> Result<(), String> {
     let started = Instant::now();
@@ -110,10 +110,6 @@ pub fn run(root: &Path) -> Result<(), String> {
 /// The property tests' seed in this command, so that a CI run is reproducible; a plain
 /// `cargo test` draws a fresh seed each time and keeps exploring.
 const PROPTEST_SEED: &str = "19761976";
-
-/// Debian's rustc building `core` from source (the fallback of ../shared/notes/toolchains.md).
-pub(crate) const DEBIAN_ENVS: [(&str, &str); 3] =
-    [("RUSTC", "/usr/bin/rustc"), ("RUSTDOC", "/usr/bin/rustdoc"), ("RUSTC_BOOTSTRAP", "1")];
 
 fn no_std_build(
     root: &Path,

@@ -88,14 +88,8 @@ fn wasm_opt(root: &Path) -> Result<(), String> {
     }
 }
 
-/// Debian's rustc building the standard library for wasm32 (the fallback of
-/// ../shared/notes/toolchains.md).
-const DEBIAN_ENVS: [(&str, &str); 4] = [
-    ("RUSTC", "/usr/bin/rustc"),
-    ("RUSTDOC", "/usr/bin/rustdoc"),
-    ("RUSTC_BOOTSTRAP", "1"),
-    ("CARGO_TARGET_WASM32_UNKNOWN_UNKNOWN_LINKER", "wasm-ld-16"),
-];
+/// Debian's rustc has no rust-lld of its own: wasm32 links with Debian's wasm-ld.
+const DEBIAN_WASM_LINKER: (&str, &str) = ("CARGO_TARGET_WASM32_UNKNOWN_UNKNOWN_LINKER", "wasm-ld-16");
 
 /// The module is built with wasm's SIMD instructions (every browser since 2021, Node 16.4
 /// and later), for the core's square root: the `f64x2.sqrt` instruction instead of libm's
@@ -120,7 +114,8 @@ fn cargo_wasm(
         }
         TargetToolchain::DebianBuildStd => {
             all.extend([build_std, "--target-dir", "target/debian-rustc"]);
-            let mut e: Vec<(&str, &str)> = DEBIAN_ENVS.to_vec();
+            let mut e: Vec<(&str, &str)> = setup::DEBIAN_ENVS.to_vec();
+            e.push(DEBIAN_WASM_LINKER);
             e.extend_from_slice(envs);
             run_command(root, "cargo", &all, &e)?;
             Ok(root.join("target").join("debian-rustc"))
