@@ -67,28 +67,42 @@ void semihosting_exit(int success) {
     }
 }
 
-static void print_bit_lines(void) {
-    size_t i;
-    for (i = 0; i < CASE_COUNT; i++) {
-        const struct bit_case *c = &CASES[i];
+/* The state (or species) of case `c`, evaluated once per row: the cases of one row share
+ * the file, altitude, kind and offset and follow one another. Returns the struct's bytes,
+ * or NULL where the library gives no value. */
+static const char *values_of(const struct bit_case *c) {
+    static const struct bit_case *row = NULL;
+    static AerostrataState state;
+    static AerostrataSpecies species;
+    static int have_state, have_species;
+    if (!row || row->altitude_bits != c->altitude_bits || row->altitude_kind != c->altitude_kind ||
+        row->offset_k != c->offset_k || strcmp(row->file, c->file) != 0) {
         double altitude = from_bits(c->altitude_bits);
-        const char *base = NULL;
-        AerostrataState state;
-        AerostrataSpecies species;
-        if (c->kind == CASE_SPECIES) {
-            if (aerostrata_us1976_species(altitude, c->altitude_kind, &species) == AEROSTRATA_STATUS_OK) {
-                base = (const char *)&species;
-            }
-        } else if (aerostrata_us1976_state(altitude, c->altitude_kind, c->offset_k, &state) ==
-                   AEROSTRATA_STATUS_OK) {
-            int defined = c->kind == CASE_STATE || (state.defined & AEROSTRATA_DEFINED_CONTINUUM) != 0;
-            base = defined ? (const char *)&state : NULL;
-        } else {
+        row = c;
+        have_state = aerostrata_us1976_state(altitude, c->altitude_kind, c->offset_k, &state) ==
+                     AEROSTRATA_STATUS_OK;
+        if (!have_state) {
             AerostrataErrorDetail detail;
             aerostrata_last_error(&detail);
             printf("# error: %s at %s: %s\n", c->file, c->input, detail.message);
             check(0, "a vector altitude failed");
         }
+        have_species = aerostrata_us1976_species(altitude, c->altitude_kind, &species) == AEROSTRATA_STATUS_OK;
+    }
+    if (c->kind == CASE_SPECIES) {
+        return have_species ? (const char *)&species : NULL;
+    }
+    if (!have_state || (c->kind == CASE_CONTINUUM && (state.defined & AEROSTRATA_DEFINED_CONTINUUM) == 0)) {
+        return NULL;
+    }
+    return (const char *)&state;
+}
+
+static void print_bit_lines(void) {
+    size_t i;
+    for (i = 0; i < CASE_COUNT; i++) {
+        const struct bit_case *c = &CASES[i];
+        const char *base = values_of(c);
         if (base) {
             double value;
             memcpy(&value, base + c->offset, sizeof value);
