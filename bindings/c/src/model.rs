@@ -2,7 +2,7 @@
 
 use aerostrata_core::{
     Air, Altitude, AltitudeKind, Atmosphere, Exponential, Isothermal, LayerSpec, Layered, SoundingRow, State,
-    Tabulated, TemperatureOffset, US1976,
+    Tabulated, US1976,
 };
 use alloc::boxed::Box;
 use alloc::vec::Vec;
@@ -504,11 +504,7 @@ pub unsafe extern "C" fn aerostrata_us1976_state(
     guard(|| {
         require("out", out)?;
         let h = altitude(altitude_m, altitude_kind)?;
-        let state = if offset_k == 0.0 {
-            US1976.state(h)?
-        } else {
-            TemperatureOffset::new(US1976, offset_k)?.state(h)?
-        };
+        let state = Model::standard(offset_k)?.state(h)?;
         write(out, state.into());
         Ok(())
     })

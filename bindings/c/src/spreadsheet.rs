@@ -6,21 +6,15 @@
 //! They do not set the thread's error detail. Thread-safe; they allocate nothing.
 
 use aerostrata_core::airspeed::{AirData, Airspeed};
-use aerostrata_core::{aero, inverse, Altitude, Atmosphere, State, TemperatureOffset, US1976};
+use aerostrata_core::{aero, inverse, Altitude, AnyModel, Atmosphere, State};
 
 fn nan_on_error(f: impl FnOnce() -> aerostrata_core::Result<f64>) -> f64 {
     crate::error::catch(f).ok().and_then(Result::ok).unwrap_or(f64::NAN)
 }
 
-/// As `aerostrata_us1976_state`: the standard itself for a zero offset, so that a sheet
-/// and a C program give the same bits.
+/// As `aerostrata_us1976_state`, so that a sheet and a C program give the same bits.
 fn standard_state(altitude_m: f64, offset_k: f64) -> aerostrata_core::Result<State> {
-    let h = Altitude::geometric_m(altitude_m)?;
-    if offset_k == 0.0 {
-        US1976.state(h)
-    } else {
-        TemperatureOffset::new(US1976, offset_k)?.state(h)
-    }
+    AnyModel::standard(offset_k)?.state(Altitude::geometric_m(altitude_m)?)
 }
 
 /// Temperature, K, of the 1976 standard plus `offset_k` at geometric `altitude_m`; NaN
@@ -123,6 +117,7 @@ pub extern "system" fn aerostrata_xl_calibrated_airspeed(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use aerostrata_core::US1976;
 
     #[test]
     fn values_and_nan() {

@@ -32,8 +32,9 @@ pub enum AnyModel {
 
 impl AnyModel {
     /// The 1976 standard with every temperature shifted by `offset_k`, K, at the
-    /// standard's pressure: [`AnyModel::Us1976`] itself for an offset of exactly 0, so that
-    /// a zero offset gives the very bits of the plain standard.
+    /// standard's pressure: [`AnyModel::Us1976`] itself for an offset of exactly 0, which
+    /// skips the offset's work (the bits are the plain standard's either way:
+    /// [`Air::at_temperature`] at the same temperature changes nothing).
     ///
     /// # Errors
     /// As [`TemperatureOffset::new`]: [`Error::NotFinite`](crate::Error::NotFinite) for a
@@ -105,6 +106,12 @@ mod tests {
         let hot = AnyModel::standard(15.0).unwrap();
         assert_eq!(hot.state(h).unwrap(), TemperatureOffset::new(US1976, 15.0).unwrap().state(h).unwrap());
         assert!(AnyModel::standard(f64::NAN).is_err());
+        // A zero offset is the plain standard to the bit, at every altitude, through either path.
+        let zero = TemperatureOffset::new(US1976, 0.0).unwrap();
+        for i in 0..=1005 {
+            let h = Altitude::geometric_m(-5_000.0 + 1_000.0 * f64::from(i)).unwrap();
+            assert_eq!(zero.state(h).unwrap(), US1976.state(h).unwrap(), "{h:?}");
+        }
         let iso = AnyModel::from(Isothermal::new(250.0, 101_325.0).unwrap());
         assert_eq!(iso.range(), Isothermal::new(250.0, 101_325.0).unwrap().range());
         assert_eq!(iso.state(h).unwrap().temperature_k, 250.0);
