@@ -233,8 +233,14 @@ pub enum MessagePart {
 impl Error {
     /// The message, piece by piece, in the order it reads; `Display` joins them.
     pub fn message_parts(&self, mut part: impl FnMut(MessagePart)) {
+        self.write_parts(&mut part);
+    }
+
+    fn write_parts(&self, part: &mut dyn FnMut(MessagePart)) {
         use MessagePart::{Count as C, Number as N, Text as T};
         let mut parts = |pieces: &[MessagePart]| pieces.iter().for_each(|p| part(*p));
+        // A row's value errors read as the plain ones, after the row.
+        let row_prefix = |row: usize| [T("row "), C(row), T(": ")];
         match *self {
             Error::NotFinite { quantity, value } => parts(&[T(quantity), T(" must be a finite number, got "), N(value)]),
             Error::OutOfRange { quantity, unit, value, min, max } => parts(&[
@@ -288,7 +294,8 @@ impl Error {
             }
             Error::TooFewRows { count } => parts(&[T("a table needs at least 2 rows, got "), C(count)]),
             Error::RowNotFinite { row, quantity, value } => {
-                parts(&[T("row "), C(row), T(": "), T(quantity), T(" must be a finite number, got "), N(value)])
+                parts(&row_prefix(row));
+                Error::NotFinite { quantity, value }.write_parts(part);
             }
             Error::AltitudeNotIncreasing { row, altitude_m, previous_m, min_spacing_m } => parts(&[
                 T("row "),
@@ -304,18 +311,10 @@ impl Error {
             Error::RowTemperatureNotPositive { row, temperature_k } => {
                 parts(&[T("row "), C(row), T(": temperature must be above 0 K, got "), N(temperature_k), T(" K")])
             }
-            Error::RowNotPositive { row, quantity, unit, value } => parts(&[
-                T("row "),
-                C(row),
-                T(": "),
-                T(quantity),
-                T(" must be greater than 0 "),
-                T(unit),
-                T(", got "),
-                N(value),
-                T(" "),
-                T(unit),
-            ]),
+            Error::RowNotPositive { row, quantity, unit, value } => {
+                parts(&row_prefix(row));
+                Error::NotPositive { quantity, unit, value }.write_parts(part);
+            }
             Error::PressureNotDecreasing { row, pressure_pa, previous_pa } => parts(&[
                 T("row "),
                 C(row),
@@ -341,22 +340,10 @@ impl Error {
                 N(temperature_k),
                 T(" K"),
             ]),
-            Error::RowOutOfRange { row, quantity, unit, value, min, max } => parts(&[
-                T("row "),
-                C(row),
-                T(": "),
-                T(quantity),
-                T(" "),
-                N(value),
-                T(" "),
-                T(unit),
-                T(" is outside the allowed range "),
-                N(min),
-                T(" to "),
-                N(max),
-                T(" "),
-                T(unit),
-            ]),
+            Error::RowOutOfRange { row, quantity, unit, value, min, max } => {
+                parts(&row_prefix(row));
+                Error::OutOfRange { quantity, unit, value, min, max }.write_parts(part);
+            }
             Error::RowColumns { row, problem } => parts(&[T("row "), C(row), T(": "), T(problem)]),
             Error::NotHydrostatic { row, ratio, min, max } => parts(&[
                 T("rows "),
