@@ -93,7 +93,8 @@ pub struct OutputArgs {
     /// airspeeds in kt, degF, psf, altimetry in inHg, slug/ft3, lbf).
     #[arg(long, value_enum, default_value_t = UnitSystem::Si)]
     pub units: UnitSystem,
-    /// Write to FILE instead of stdout; the file appears only if the command succeeds.
+    /// Write to FILE instead of stdout; a regular file appears only if the command
+    /// succeeds (symbolic links are followed; a device or FIFO is written into directly).
     #[arg(long, short = 'o', value_name = "FILE")]
     pub output: Option<PathBuf>,
 }
