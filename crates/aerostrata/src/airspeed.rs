@@ -23,6 +23,7 @@ use crate::flow::{PerfectGas, MAX_MACH};
 use crate::gas::Air;
 use crate::math::sqrt;
 use crate::model::{Atmosphere, US1976};
+use crate::quantity::Quantity;
 use crate::state::State;
 
 /// Sea-level standard speed of sound a0 = sqrt(gamma R* T0 / M0), m/s (340.294 m/s).
@@ -63,6 +64,35 @@ pub struct Airspeeds {
     pub impact_pressure_pa: f64,
     /// Dynamic pressure rho V^2 / 2, Pa.
     pub dynamic_pressure_pa: f64,
+}
+
+impl Airspeeds {
+    /// The quantities the airspeeds carry, in the order of their fields.
+    pub const QUANTITIES: [Quantity; 6] = [
+        Quantity::CalibratedAirspeed,
+        Quantity::EquivalentAirspeed,
+        Quantity::TrueAirspeed,
+        Quantity::Mach,
+        Quantity::ImpactPressure,
+        Quantity::DynamicPressure,
+    ];
+
+    /// The value of `quantity`, in its SI unit ([`Quantity::info`]).
+    ///
+    /// # Errors
+    /// [`crate::Error::NotCarried`] for a quantity that is not one of
+    /// [`Airspeeds::QUANTITIES`].
+    pub fn get(&self, quantity: Quantity) -> Result<f64> {
+        match quantity {
+            Quantity::CalibratedAirspeed => Ok(self.calibrated_m_s),
+            Quantity::EquivalentAirspeed => Ok(self.equivalent_m_s),
+            Quantity::TrueAirspeed => Ok(self.true_m_s),
+            Quantity::Mach => Ok(self.mach),
+            Quantity::ImpactPressure => Ok(self.impact_pressure_pa),
+            Quantity::DynamicPressure => Ok(self.dynamic_pressure_pa),
+            other => Err(crate::Error::NotCarried { quantity: other.name(), result: "a set of airspeeds" }),
+        }
+    }
 }
 
 /// The static air an aircraft flies in: what the conversions need.

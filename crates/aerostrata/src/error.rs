@@ -210,6 +210,14 @@ pub enum Error {
         /// The row's pressure, Pa.
         pressure_pa: f64,
     },
+    /// A quantity of the catalogue was asked of a result that does not carry it (a Mach
+    /// number of an atmosphere state).
+    NotCarried {
+        /// The quantity's machine name.
+        quantity: &'static str,
+        /// The result asked ("an atmosphere state").
+        result: &'static str,
+    },
     /// Caller-provided storage is shorter than the data to be put in it.
     StorageTooSmall {
         /// How many entries are needed.
@@ -366,6 +374,7 @@ impl Error {
                 N(pressure_pa),
                 T(" Pa"),
             ]),
+            Error::NotCarried { quantity, result } => parts(&[T(quantity), T(" is not a quantity of "), T(result)]),
             Error::StorageTooSmall { needed, len } => {
                 parts(&[T("storage holds "), C(len), T(" levels, the table has "), C(needed), T(" rows")])
             }

@@ -45,7 +45,9 @@ pub mod humidity;
 pub mod inverse;
 mod math;
 pub mod model;
+pub mod quantity;
 mod state;
+pub mod units;
 
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
 pub use error::{Error, MessagePart, Result};
@@ -56,6 +58,7 @@ pub use model::{AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingR
 pub use model::{
     Atmosphere, Exponential, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset, Us1976, US1976,
 };
+pub use quantity::Quantity;
 pub use state::State;
 
 pub use aero::{DragCurve, Interpolation, RarefactionRegime};

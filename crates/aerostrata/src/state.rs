@@ -4,6 +4,7 @@ use crate::altitude::Altitude;
 use crate::constants::{SEA_LEVEL_DENSITY_KG_M3, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
 use crate::error::{Error, Result};
 use crate::gas::{Air, COLLISION_CROSS_SECTION_M2};
+use crate::quantity::Quantity;
 
 /// Every property the U.S. Standard Atmosphere 1976 tabulates, at one altitude, in SI.
 ///
@@ -126,6 +127,47 @@ impl State {
         self.defined("thermal conductivity", self.thermal_conductivity_w_m_k)
     }
 
+    /// The value of `quantity`, in its SI unit ([`Quantity::info`]).
+    ///
+    /// # Errors
+    /// [`Error::Undefined`] for a continuum property where the model does not define it;
+    /// [`Error::NotCarried`] for a quantity that is not a property of the state (a Mach
+    /// number, an airspeed).
+    ///
+    /// ```
+    /// use aerostrata::{Altitude, Atmosphere, Quantity, US1976};
+    /// let s = US1976.state(Altitude::geometric_m(11_000.0)?)?;
+    /// assert_eq!(s.get(Quantity::Temperature)?, s.temperature_k);
+    /// assert!(s.get(Quantity::Mach).is_err());
+    /// # Ok::<(), aerostrata::Error>(())
+    /// ```
+    pub fn get(&self, quantity: Quantity) -> Result<f64> {
+        use Quantity as Q;
+        match quantity {
+            Q::GeometricAltitude => Ok(self.geometric_altitude_m),
+            Q::GeopotentialAltitude => Ok(self.geopotential_altitude_m),
+            Q::Temperature => Ok(self.temperature_k),
+            Q::MolecularTemperature => Ok(self.molecular_temperature_k),
+            Q::Pressure => Ok(self.pressure_pa),
+            Q::Density => Ok(self.density_kg_m3),
+            Q::SpeedOfSound => self.speed_of_sound(),
+            Q::DynamicViscosity => self.dynamic_viscosity(),
+            Q::KinematicViscosity => self.kinematic_viscosity(),
+            Q::ThermalConductivity => self.thermal_conductivity(),
+            Q::Gravity => Ok(self.gravity_m_s2),
+            Q::PressureScaleHeight => Ok(self.pressure_scale_height_m),
+            Q::NumberDensity => Ok(self.number_density_m3),
+            Q::MeanParticleSpeed => Ok(self.mean_particle_speed_m_s),
+            Q::MeanFreePath => Ok(self.mean_free_path_m),
+            Q::CollisionFrequency => Ok(self.collision_frequency_hz),
+            Q::MeanMolarMass => Ok(self.mean_molar_mass_kg_kmol),
+            Q::TemperatureRatio => Ok(self.temperature_ratio),
+            Q::PressureRatio => Ok(self.pressure_ratio),
+            Q::DensityRatio => Ok(self.density_ratio),
+            other => Err(Error::NotCarried { quantity: other.name(), result: "an atmosphere state" }),
+        }
+    }
+
     fn defined(&self, quantity: &'static str, value: Option<f64>) -> Result<f64> {
         value.ok_or(Error::Undefined { quantity, altitude_m: self.geometric_altitude_m })
     }
@@ -187,5 +229,44 @@ impl approx::RelativeEq for State {
             (None, None) => true,
             _ => false,
         })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::quantity::Group;
+    use crate::{Altitude, Atmosphere, US1976};
+
+    /// The catalogue's state quantities are the state's fields, in order, and `get` gives
+    /// each field's value (or the undefined error where the field is `None`).
+    #[test]
+    fn get_walks_the_catalogue_in_field_order() {
+        for z in [0.0, 11_000.0, 90_000.0, 500_000.0] {
+            let state = US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();
+            let fields = state.fields();
+            let quantities: Vec<Quantity> = Quantity::of_group(Group::State).collect();
+            assert_eq!(quantities.len(), fields.len());
+            for (quantity, (field, value)) in quantities.iter().zip(fields) {
+                let info = quantity.info();
+                let lower = |s: &str| s.to_ascii_lowercase();
+                let expected = if info.si.suffix().is_empty() {
+                    info.name.to_owned()
+                } else {
+                    format!("{}_{}", info.name, lower(info.si.suffix()))
+                };
+                assert_eq!(field, expected, "the field name is the name and the SI unit");
+                match value {
+                    Some(v) => assert_eq!(state.get(*quantity).unwrap(), v),
+                    None => {
+                        assert!(info.may_be_undefined, "{field}");
+                        assert!(matches!(state.get(*quantity), Err(Error::Undefined { .. })));
+                    }
+                }
+            }
+            for quantity in Quantity::ALL.iter().filter(|q| q.info().group != Group::State) {
+                assert!(matches!(state.get(*quantity), Err(Error::NotCarried { .. })), "{quantity:?}");
+            }
+        }
     }
 }

@@ -1,0 +1,221 @@
+//! The one parser of "value + unit" text (`15C`, `1020hPa`, `35000 ft`), and its errors.
+
+use core::fmt;
+
+use super::{Dimension, Unit};
+
+/// A number read from text, with the unit it was written in.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Reading {
+    /// The number as written.
+    pub value: f64,
+    /// The unit it was written in: the one spelled after it, or the default.
+    pub unit: &'static Unit,
+    /// Whether the text spelled the unit (`false`: the default unit was assumed).
+    pub explicit: bool,
+}
+
+impl Reading {
+    /// The value in SI.
+    pub fn si(&self) -> f64 {
+        self.unit.to_si(self.value)
+    }
+}
+
+/// Why a text is not a value with a unit. Messages quote the text (cut to 40
+/// characters) and say what would be read.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum UnitError<'a> {
+    /// Nothing but white space.
+    Empty,
+    /// The text does not start with a decimal number.
+    NotANumber {
+        /// The text.
+        text: &'a str,
+    },
+    /// The number overflows or is not finite.
+    NotFinite {
+        /// The text.
+        text: &'a str,
+    },
+    /// A comma follows the number: a decimal comma or a thousands separator.
+    Separator {
+        /// The text.
+        text: &'a str,
+    },
+    /// The unit after the number is not one of the dimension's.
+    UnknownUnit {
+        /// The unit as written.
+        unit: &'a str,
+        /// What was expected.
+        dimension: Dimension,
+    },
+    /// The unit after the number measures something else.
+    WrongDimension {
+        /// The unit as written.
+        unit: &'a str,
+        /// What it measures.
+        actual: Dimension,
+        /// What was expected.
+        expected: Dimension,
+    },
+}
+
+/// At most `max` characters of `text`, and whether it was cut.
+pub fn shorten(text: &str, max: usize) -> (&str, bool) {
+    match text.char_indices().nth(max) {
+        Some((end, _)) => (&text[..end], true),
+        None => (text, false),
+    }
+}
+
+struct Quoted<'a>(&'a str);
+
+impl fmt::Display for Quoted<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let (text, cut) = shorten(self.0, 40);
+        write!(f, "'{}{}'", text.escape_debug(), if cut { "..." } else { "" })
+    }
+}
+
+/// The symbols of a dimension's units, for "write one of ..." hints.
+pub struct UnitList(pub Dimension);
+
+impl fmt::Display for UnitList {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let mut units = self.0.units().peekable();
+        let mut first = true;
+        while let Some(unit) = units.next() {
+            let separator = match (first, units.peek().is_some()) {
+                (true, _) => "",
+                (false, true) => ", ",
+                (false, false) => " or ",
+            };
+            write!(f, "{separator}{}", unit.symbol)?;
+            first = false;
+        }
+        Ok(())
+    }
+}
+
+impl fmt::Display for UnitError<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match *self {
+            UnitError::Empty => f.write_str("no value given"),
+            UnitError::NotANumber { text } => write!(f, "{} is not a number", Quoted(text)),
+            UnitError::NotFinite { text } => write!(f, "{} is not a finite number", Quoted(text)),
+            UnitError::Separator { text } => write!(
+                f,
+                "{}: write decimals with a point and no thousands separators (1013.25, not 1013,25 or 1,013)",
+                Quoted(text)
+            ),
+            UnitError::UnknownUnit { unit, dimension } => write!(
+                f,
+                "unknown unit {} for a {}; write {}",
+                Quoted(unit),
+                dimension.name(),
+                UnitList(dimension)
+            ),
+            UnitError::WrongDimension { unit, actual, expected } => write!(
+                f,
+                "{} is a unit of {}, not of {}; write {}",
+                Quoted(unit),
+                actual.name(),
+                expected.name(),
+                UnitList(expected)
+            ),
+        }
+    }
+}
+
+/// The length of the decimal number that starts `text`: an optional sign, digits with at
+/// most one point, and an optional exponent (`e` or `E`, an optional sign, digits; an
+/// `e` not followed by digits is not part of the number).
+fn number_length(text: &str) -> usize {
+    let bytes = text.as_bytes();
+    let mut i = 0;
+    if matches!(bytes.first(), Some(b'+' | b'-')) {
+        i += 1;
+    }
+    let mut digits = 0;
+    let mut point = false;
+    while let Some(&b) = bytes.get(i) {
+        match b {
+            b'0'..=b'9' => digits += 1,
+            b'.' if !point => point = true,
+            _ => break,
+        }
+        i += 1;
+    }
+    if digits == 0 {
+        return 0;
+    }
+    if matches!(bytes.get(i), Some(b'e' | b'E')) {
+        let mut j = i + 1;
+        if matches!(bytes.get(j), Some(b'+' | b'-')) {
+            j += 1;
+        }
+        let start = j;
+        while matches!(bytes.get(j), Some(b'0'..=b'9')) {
+            j += 1;
+        }
+        if j > start {
+            i = j;
+        }
+    }
+    i
+}
+
+/// Reads `text` as a number of `dimension`, followed by an optional unit (`15C`,
+/// `15 degC`, `288.15K`, `1020hPa`, `29.92inHg`, `35000ft`); a bare number is in
+/// `default`. Surrounding white space is ignored, and so is white space between the
+/// number and the unit. The one parser every door uses.
+///
+/// # Errors
+/// [`UnitError`]: no number, a number that is not finite, a comma after the number, a unit
+/// that is unknown or of another dimension.
+///
+/// ```
+/// use aerostrata::units::{parse, Dimension, KELVIN, HECTOPASCAL, PASCAL};
+/// let t = parse("15C", Dimension::Temperature, &KELVIN)?;
+/// assert_eq!(t.si(), 288.15);
+/// assert!(t.explicit);
+/// assert_eq!(parse("1020hPa", Dimension::Pressure, &PASCAL)?.si(), 102_000.0);
+/// assert_eq!(parse(" 1020 ", Dimension::Pressure, &HECTOPASCAL)?.si(), 102_000.0);
+/// # Ok::<(), aerostrata::units::UnitError>(())
+/// ```
+pub fn parse<'a>(
+    text: &'a str,
+    dimension: Dimension,
+    default: &'static Unit,
+) -> Result<Reading, UnitError<'a>> {
+    let text = text.trim();
+    if text.is_empty() {
+        return Err(UnitError::Empty);
+    }
+    let length = number_length(text);
+    if length == 0 {
+        return Err(UnitError::NotANumber { text });
+    }
+    let value: f64 = text[..length].parse().map_err(|_| UnitError::NotANumber { text })?;
+    if !value.is_finite() {
+        return Err(UnitError::NotFinite { text });
+    }
+    let rest = text[length..].trim_start();
+    if rest.starts_with(',') {
+        return Err(UnitError::Separator { text });
+    }
+    if rest.is_empty() {
+        return Ok(Reading { value, unit: default, explicit: false });
+    }
+    match Unit::find(rest, dimension) {
+        Some(unit) => Ok(Reading { value, unit, explicit: true }),
+        None => Err(match Unit::find_any(rest) {
+            Some(other) => {
+                UnitError::WrongDimension { unit: rest, actual: other.dimension, expected: dimension }
+            }
+            None => UnitError::UnknownUnit { unit: rest, dimension },
+        }),
+    }
+}
