@@ -122,6 +122,11 @@ double AEROSTRATA_XL_CALL aerostrata_xl_calibrated_airspeed(double true_m_s, dou
 #define AEROSTRATA_REFERENCE_PAD 2
 
 /**
+ * How many quantities the catalogue has: the ids run from 0 to this minus 1.
+ */
+#define AEROSTRATA_QUANTITY_COUNT 51
+
+/**
  * Length of [`AerostrataErrorDetail::message`], bytes, the terminating NUL included.
  */
 #define AEROSTRATA_MESSAGE_CAPACITY 256
@@ -191,6 +196,36 @@ double AEROSTRATA_XL_CALL aerostrata_xl_calibrated_airspeed(double true_m_s, dou
  * `AerostrataSoundingRow::fields` bit: the row gives `relative_humidity_percent`.
  */
 #define AEROSTRATA_ROW_RELATIVE_HUMIDITY 8
+
+/**
+ * `AerostrataQuantityInfo::group`: a property of the atmosphere's state.
+ */
+#define AEROSTRATA_GROUP_STATE 0
+
+/**
+ * `AerostrataQuantityInfo::group`: a species' number density of the standard above 86 km.
+ */
+#define AEROSTRATA_GROUP_SPECIES 1
+
+/**
+ * `AerostrataQuantityInfo::group`: a value of a flight sample.
+ */
+#define AEROSTRATA_GROUP_FLIGHT 2
+
+/**
+ * `AerostrataQuantityInfo::group`: an airspeed, or a pressure behind one.
+ */
+#define AEROSTRATA_GROUP_AIRSPEED 3
+
+/**
+ * `AerostrataQuantityInfo::group`: an altitude a barometer gives, or a pressure it reads.
+ */
+#define AEROSTRATA_GROUP_ALTIMETRY 4
+
+/**
+ * `AerostrataQuantityInfo::group`: a parameter a person gives (an offset, a size).
+ */
+#define AEROSTRATA_GROUP_PARAMETER 5
 
 /**
  * The result of every status-returning function. The numbers are stable: a number is
@@ -313,7 +348,231 @@ typedef enum AerostrataStatus {
    * `aerostrata_last_error` describes it.
    */
   AEROSTRATA_STATUS_OTHER_ERROR = 26,
+  /**
+   * A quantity was asked of a result that does not carry it (a Mach number of a
+   * state).
+   */
+  AEROSTRATA_STATUS_NOT_CARRIED = 27,
 } AerostrataStatus;
+
+/**
+ * A quantity of the catalogue, by its stable id (never reused or renumbered).
+ * Functions take the id as a `uint32_t`, so an unknown value is an error status rather
+ * than undefined behaviour; `aerostrata_quantity_info` describes each one.
+ */
+enum AerostrataQuantity
+#ifdef __cplusplus
+  : uint32_t
+#endif // __cplusplus
+ {
+  /**
+   * Geometric altitude, m (Z): height above mean sea level.
+   */
+  AEROSTRATA_QUANTITY_GEOMETRIC_ALTITUDE = 0,
+  /**
+   * Geopotential altitude, m (H): altitude in geopotential metres (equal potential energy per unit mass).
+   */
+  AEROSTRATA_QUANTITY_GEOPOTENTIAL_ALTITUDE = 1,
+  /**
+   * Temperature, K (T): kinetic temperature of the air.
+   */
+  AEROSTRATA_QUANTITY_TEMPERATURE = 2,
+  /**
+   * Molecular-scale temperature, K (TM): kinetic temperature times the sea-level over the local mean molar mass.
+   */
+  AEROSTRATA_QUANTITY_MOLECULAR_TEMPERATURE = 3,
+  /**
+   * Pressure, Pa (p): static pressure of the air.
+   */
+  AEROSTRATA_QUANTITY_PRESSURE = 4,
+  /**
+   * Density, kg/m3 (rho): mass density of the air.
+   */
+  AEROSTRATA_QUANTITY_DENSITY = 5,
+  /**
+   * Speed of sound, m/s (a): speed of small pressure waves, sqrt(gamma R T / M); undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_SPEED_OF_SOUND = 6,
+  /**
+   * Dynamic viscosity, Pa s (mu): Sutherland's law; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_DYNAMIC_VISCOSITY = 7,
+  /**
+   * Kinematic viscosity, m2/s (nu): dynamic viscosity over density; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_KINEMATIC_VISCOSITY = 8,
+  /**
+   * Thermal conductivity, W/(m K) (k): the 1976 standard's formula; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_THERMAL_CONDUCTIVITY = 9,
+  /**
+   * Acceleration of gravity, m/s2 (g): the inverse-square law of the 1976 standard.
+   */
+  AEROSTRATA_QUANTITY_GRAVITY = 10,
+  /**
+   * Pressure scale height, m (Hp): R* T / (M g): the height over which pressure falls by e.
+   */
+  AEROSTRATA_QUANTITY_PRESSURE_SCALE_HEIGHT = 11,
+  /**
+   * Number density, 1/m3 (n): particles per volume.
+   */
+  AEROSTRATA_QUANTITY_NUMBER_DENSITY = 12,
+  /**
+   * Mean particle speed, m/s (V): mean speed of the air's molecules, sqrt(8 R* T / (pi M)).
+   */
+  AEROSTRATA_QUANTITY_MEAN_PARTICLE_SPEED = 13,
+  /**
+   * Mean free path, m (mfp): mean distance a molecule travels between collisions.
+   */
+  AEROSTRATA_QUANTITY_MEAN_FREE_PATH = 14,
+  /**
+   * Collision frequency, Hz (nu_c): mean particle speed over mean free path.
+   */
+  AEROSTRATA_QUANTITY_COLLISION_FREQUENCY = 15,
+  /**
+   * Mean molar mass, kg/kmol (M): mean molecular weight of the air.
+   */
+  AEROSTRATA_QUANTITY_MEAN_MOLAR_MASS = 16,
+  /**
+   * Temperature ratio (theta): temperature over the standard's sea-level 288.15 K.
+   */
+  AEROSTRATA_QUANTITY_TEMPERATURE_RATIO = 17,
+  /**
+   * Pressure ratio (delta): pressure over the standard's sea-level 101 325 Pa.
+   */
+  AEROSTRATA_QUANTITY_PRESSURE_RATIO = 18,
+  /**
+   * Density ratio (sigma): density over the standard's sea-level density.
+   */
+  AEROSTRATA_QUANTITY_DENSITY_RATIO = 19,
+  /**
+   * N2 number density, 1/m3 (N2): molecules of nitrogen per volume, above 86 km.
+   */
+  AEROSTRATA_QUANTITY_N_N2 = 20,
+  /**
+   * O number density, 1/m3 (O): atoms of oxygen per volume, above 86 km.
+   */
+  AEROSTRATA_QUANTITY_N_O = 21,
+  /**
+   * O2 number density, 1/m3 (O2): molecules of oxygen per volume, above 86 km.
+   */
+  AEROSTRATA_QUANTITY_N_O2 = 22,
+  /**
+   * Ar number density, 1/m3 (Ar): atoms of argon per volume, above 86 km.
+   */
+  AEROSTRATA_QUANTITY_N_AR = 23,
+  /**
+   * He number density, 1/m3 (He): atoms of helium per volume, above 86 km.
+   */
+  AEROSTRATA_QUANTITY_N_HE = 24,
+  /**
+   * H number density, 1/m3 (H): atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
+   */
+  AEROSTRATA_QUANTITY_N_H = 25,
+  /**
+   * Time, s (t): time of a flight sample.
+   */
+  AEROSTRATA_QUANTITY_TIME = 26,
+  /**
+   * Altitude, m (Z): geometric altitude of a flight sample.
+   */
+  AEROSTRATA_QUANTITY_ALTITUDE = 27,
+  /**
+   * Velocity, m/s (V): speed of a flight sample relative to the air.
+   */
+  AEROSTRATA_QUANTITY_VELOCITY = 28,
+  /**
+   * Mach number (M): speed over the speed of sound; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_MACH = 29,
+  /**
+   * Dynamic pressure, Pa (q): rho V^2 / 2.
+   */
+  AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE = 30,
+  /**
+   * Unit Reynolds number, 1/m (Re/l): rho V / mu, per unit length; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_REYNOLDS = 31,
+  /**
+   * Reynolds number (Re): rho V L / mu for the vehicle's reference length; needs a length.
+   */
+  AEROSTRATA_QUANTITY_REYNOLDS_NUMBER = 32,
+  /**
+   * Drag coefficient (Cd): the vehicle's drag coefficient at the sample's Mach number; needs a vehicle.
+   */
+  AEROSTRATA_QUANTITY_DRAG_COEFFICIENT = 33,
+  /**
+   * Drag, N (D): q Cd A; needs a vehicle.
+   */
+  AEROSTRATA_QUANTITY_DRAG = 34,
+  /**
+   * Calibrated airspeed, m/s (CAS): the airspeed a standard sea-level pitot-static instrument shows.
+   */
+  AEROSTRATA_QUANTITY_CALIBRATED_AIRSPEED = 35,
+  /**
+   * Equivalent airspeed, m/s (EAS): true airspeed times the square root of the density ratio.
+   */
+  AEROSTRATA_QUANTITY_EQUIVALENT_AIRSPEED = 36,
+  /**
+   * True airspeed, m/s (TAS): speed relative to the air.
+   */
+  AEROSTRATA_QUANTITY_TRUE_AIRSPEED = 37,
+  /**
+   * Impact pressure, Pa (qc): pitot minus static pressure.
+   */
+  AEROSTRATA_QUANTITY_IMPACT_PRESSURE = 38,
+  /**
+   * Static pressure, Pa (p): pressure read by a barometer or a static port.
+   */
+  AEROSTRATA_QUANTITY_STATIC_PRESSURE = 39,
+  /**
+   * Altimeter setting, Pa (QNH): the QNH an altimeter is set to: the sea-level pressure that makes it read the field's elevation.
+   */
+  AEROSTRATA_QUANTITY_ALTIMETER_SETTING = 40,
+  /**
+   * Pressure altitude, m (Hp): geopotential altitude of the static pressure in the 1976 standard.
+   */
+  AEROSTRATA_QUANTITY_PRESSURE_ALTITUDE = 41,
+  /**
+   * Pressure altitude, geometric, m (Zp): the pressure altitude as a geometric altitude.
+   */
+  AEROSTRATA_QUANTITY_PRESSURE_ALTITUDE_GEOMETRIC = 42,
+  /**
+   * Density altitude, m (Hd): geopotential altitude of the density in the 1976 standard.
+   */
+  AEROSTRATA_QUANTITY_DENSITY_ALTITUDE = 43,
+  /**
+   * QNH altitude, m (QNH): the altitude an altimeter set to the QNH reads.
+   */
+  AEROSTRATA_QUANTITY_QNH_ALTITUDE = 44,
+  /**
+   * Height above the pad, m (h pad): barometric height above the pad's pressure at launch.
+   */
+  AEROSTRATA_QUANTITY_HEIGHT_ABOVE_PAD = 45,
+  /**
+   * Temperature offset, K (dT): a hot (+) or cold (-) day's shift from the standard's temperature.
+   */
+  AEROSTRATA_QUANTITY_TEMPERATURE_OFFSET = 46,
+  /**
+   * Dew point, K (Td): temperature at which the air's water vapour would saturate.
+   */
+  AEROSTRATA_QUANTITY_DEW_POINT = 47,
+  /**
+   * Relative humidity, % (RH): vapour pressure over the saturation vapour pressure.
+   */
+  AEROSTRATA_QUANTITY_RELATIVE_HUMIDITY = 48,
+  /**
+   * Reference area, m2 (A): the area a drag coefficient is referred to.
+   */
+  AEROSTRATA_QUANTITY_REFERENCE_AREA = 49,
+  /**
+   * Reference length, m (L): the length a Reynolds number is referred to.
+   */
+  AEROSTRATA_QUANTITY_REFERENCE_LENGTH = 50,
+};
+#ifndef __cplusplus
+typedef uint32_t AerostrataQuantity;
+#endif // __cplusplus
 
 /**
  * A drag coefficient as a function of Mach number: a constant or a table. Opaque; made
@@ -460,58 +719,59 @@ typedef struct AerostrataErrorDetail {
  * The values at one sample of a flight. A field that is not defined at the sample (no
  * speed of sound above 86 km, no drag without a drag curve, no Reynolds number without
  * a reference length) is NaN, with its bit clear in `defined`.
+ * `aerostrata_flight_point_get` reads a field by its quantity id.
  */
 typedef struct AerostrataFlightPoint {
   /**
-   * Time, s.
+   * Time, s: time of a flight sample.
    */
   double time_s;
   /**
-   * Geometric altitude, m.
+   * Altitude, m: geometric altitude of a flight sample.
    */
   double altitude_m;
   /**
-   * Velocity as given, m/s.
+   * Velocity, m/s: speed of a flight sample relative to the air.
    */
   double velocity_m_s;
   /**
-   * Density, kg/m^3.
+   * Density, kg/m3: mass density of the air.
    */
   double density_kg_m3;
   /**
-   * Static pressure, Pa.
+   * Pressure, Pa: static pressure of the air.
    */
   double pressure_pa;
   /**
-   * Kinetic temperature, K.
+   * Temperature, K: kinetic temperature of the air.
    */
   double temperature_k;
   /**
-   * Speed of sound, m/s.
+   * Speed of sound, m/s: speed of small pressure waves, sqrt(gamma R T / M); undefined above 86 km. NaN where undefined.
    */
   double speed_of_sound_m_s;
   /**
-   * Mach number.
+   * Mach number: speed over the speed of sound; undefined above 86 km. NaN where undefined.
    */
   double mach;
   /**
-   * Dynamic pressure, Pa.
+   * Dynamic pressure, Pa: rho V^2 / 2.
    */
   double dynamic_pressure_pa;
   /**
-   * Unit Reynolds number, 1/m.
+   * Unit Reynolds number, 1/m: rho V / mu, per unit length; undefined above 86 km. NaN where undefined.
    */
   double reynolds_per_m;
   /**
-   * Reynolds number for the reference length.
+   * Reynolds number: rho V L / mu for the vehicle's reference length; needs a length. NaN where undefined.
    */
   double reynolds_number;
   /**
-   * Drag coefficient at this Mach number.
+   * Drag coefficient: the vehicle's drag coefficient at the sample's Mach number; needs a vehicle. NaN where undefined.
    */
   double drag_coefficient;
   /**
-   * Drag, N.
+   * Drag, N: q Cd A; needs a vehicle. NaN where undefined.
    */
   double drag_n;
   /**
@@ -683,91 +943,90 @@ typedef struct AerostrataSoundingRow {
 /**
  * The full state of the atmosphere at one altitude, SI units named in each field.
  *
- * The four continuum properties (`speed_of_sound_m_s`, `dynamic_viscosity_pa_s`,
- * `kinematic_viscosity_m2_s`, `thermal_conductivity_w_m_k`) are not defined in the
- * free-molecular air above 86 km: there they are NaN and the bit
+ * The continuum properties (speed of sound, viscosities, conductivity) are not defined
+ * in the free-molecular air above 86 km: there they are NaN and the bit
  * `AEROSTRATA_DEFINED_CONTINUUM` of `defined` is clear. Every other field is always a
- * finite number.
+ * finite number. `aerostrata_state_get` reads a field by its quantity id.
  */
 typedef struct AerostrataState {
   /**
-   * Geometric altitude, m.
+   * Geometric altitude, m: height above mean sea level.
    */
   double geometric_altitude_m;
   /**
-   * Geopotential altitude, geopotential m.
+   * Geopotential altitude, m: altitude in geopotential metres (equal potential energy per unit mass).
    */
   double geopotential_altitude_m;
   /**
-   * Kinetic temperature, K.
+   * Temperature, K: kinetic temperature of the air.
    */
   double temperature_k;
   /**
-   * Molecular-scale temperature, K.
+   * Molecular-scale temperature, K: kinetic temperature times the sea-level over the local mean molar mass.
    */
   double molecular_temperature_k;
   /**
-   * Pressure, Pa.
+   * Pressure, Pa: static pressure of the air.
    */
   double pressure_pa;
   /**
-   * Density, kg/m^3.
+   * Density, kg/m3: mass density of the air.
    */
   double density_kg_m3;
   /**
-   * Speed of sound, m/s (NaN above 86 km).
+   * Speed of sound, m/s: speed of small pressure waves, sqrt(gamma R T / M); undefined above 86 km. NaN where undefined.
    */
   double speed_of_sound_m_s;
   /**
-   * Dynamic viscosity, Pa s (NaN above 86 km).
+   * Dynamic viscosity, Pa s: Sutherland's law; undefined above 86 km. NaN where undefined.
    */
   double dynamic_viscosity_pa_s;
   /**
-   * Kinematic viscosity, m^2/s (NaN above 86 km).
+   * Kinematic viscosity, m2/s: dynamic viscosity over density; undefined above 86 km. NaN where undefined.
    */
   double kinematic_viscosity_m2_s;
   /**
-   * Thermal conductivity, W/(m K) (NaN above 86 km).
+   * Thermal conductivity, W/(m K): the 1976 standard's formula; undefined above 86 km. NaN where undefined.
    */
   double thermal_conductivity_w_m_k;
   /**
-   * Acceleration of gravity, m/s^2.
+   * Acceleration of gravity, m/s2: the inverse-square law of the 1976 standard.
    */
   double gravity_m_s2;
   /**
-   * Pressure scale height, m.
+   * Pressure scale height, m: R* T / (M g): the height over which pressure falls by e.
    */
   double pressure_scale_height_m;
   /**
-   * Number density, 1/m^3.
+   * Number density, 1/m3: particles per volume.
    */
   double number_density_m3;
   /**
-   * Mean particle speed, m/s.
+   * Mean particle speed, m/s: mean speed of the air's molecules, sqrt(8 R* T / (pi M)).
    */
   double mean_particle_speed_m_s;
   /**
-   * Mean free path, m.
+   * Mean free path, m: mean distance a molecule travels between collisions.
    */
   double mean_free_path_m;
   /**
-   * Collision frequency, 1/s.
+   * Collision frequency, Hz: mean particle speed over mean free path.
    */
   double collision_frequency_hz;
   /**
-   * Mean molar mass, kg/kmol.
+   * Mean molar mass, kg/kmol: mean molecular weight of the air.
    */
   double mean_molar_mass_kg_kmol;
   /**
-   * Temperature over the standard's sea-level temperature.
+   * Temperature ratio: temperature over the standard's sea-level 288.15 K.
    */
   double temperature_ratio;
   /**
-   * Pressure over the standard's sea-level pressure.
+   * Pressure ratio: pressure over the standard's sea-level 101 325 Pa.
    */
   double pressure_ratio;
   /**
-   * Density over the standard's sea-level density.
+   * Density ratio: density over the standard's sea-level density.
    */
   double density_ratio;
   /**
@@ -806,6 +1065,59 @@ typedef struct AerostrataSpecies {
    */
   double h_m3;
 } AerostrataSpecies;
+
+/**
+ * What the catalogue says of one quantity. The strings are static and NUL-terminated:
+ * never free or change them.
+ */
+typedef struct AerostrataQuantityInfo {
+  /**
+   * The id (an `AerostrataQuantity` value).
+   */
+  uint32_t id;
+  /**
+   * `AEROSTRATA_GROUP_*`: which result carries it.
+   */
+  uint32_t group;
+  /**
+   * 1 when it can be undefined (the continuum properties above 86 km, a drag without a
+   * vehicle), else 0.
+   */
+  uint32_t may_be_undefined;
+  /**
+   * The machine name, snake_case (`speed_of_sound`); CSV columns append the unit.
+   */
+  const char *name;
+  /**
+   * The short symbol of tables (`a`).
+   */
+  const char *symbol;
+  /**
+   * A label for people, lower case but for proper names (`speed of sound`).
+   */
+  const char *label;
+  /**
+   * One line of what it is.
+   */
+  const char *description;
+  /**
+   * The SI unit's symbol (`m/s`; empty for a pure number): every value in and out of
+   * this library is in it.
+   */
+  const char *si_unit;
+  /**
+   * The US customary unit's symbol (`ft/s`), for `aerostrata_quantity_to_us`.
+   */
+  const char *us_unit;
+  /**
+   * The CSV column name in SI (`speed_of_sound_m_s`), as every door writes it.
+   */
+  const char *si_column;
+  /**
+   * The CSV column name in US units (`speed_of_sound_ft_s`).
+   */
+  const char *us_column;
+} AerostrataQuantityInfo;
 
 #ifdef __cplusplus
 extern "C" {
@@ -1309,6 +1621,73 @@ enum AerostrataStatus aerostrata_us1976_states(const double *altitudes_m,
                                                uint32_t altitude_kind,
                                                double offset_k,
                                                struct AerostrataState *out);
+
+/**
+ * How many quantities the catalogue has (`AEROSTRATA_QUANTITY_COUNT` of the library the
+ * program runs with): the ids run from 0 to this minus 1. Thread-safe.
+ */
+uint32_t aerostrata_quantity_count(void);
+
+/**
+ * Writes what the catalogue says of quantity `quantity` to `*out`.
+ *
+ * Errors: INVALID_ARGUMENT for an id that names no quantity; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_quantity_info(uint32_t quantity_id,
+                                               struct AerostrataQuantityInfo *out);
+
+/**
+ * Writes the id of the quantity whose machine name is the NUL-terminated `name`
+ * (`"speed_of_sound"`, exactly) to `*out`.
+ *
+ * Errors: INVALID_ARGUMENT for a name no quantity has (or not UTF-8); NULL_POINTER.
+ * Thread-safe.
+ */
+enum AerostrataStatus aerostrata_quantity_from_name(const char *name,
+                                                    uint32_t *out);
+
+/**
+ * Converts `si`, a value of quantity `quantity` in its SI unit, to the quantity's US
+ * customary unit (`us_unit` of `aerostrata_quantity_info`), written to `*out`.
+ *
+ * Errors: NOT_FINITE; INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_quantity_to_us(uint32_t quantity_id,
+                                                double si,
+                                                double *out);
+
+/**
+ * Converts `us`, a value of quantity `quantity` in its US customary unit, to its SI
+ * unit, written to `*out`.
+ *
+ * Errors: NOT_FINITE; INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_quantity_from_us(uint32_t quantity_id,
+                                                  double us,
+                                                  double *out);
+
+/**
+ * The value of quantity `quantity` in `*state` (in its SI unit), written to `*out`: the
+ * one accessor that reaches every property of the state by id, new ones included.
+ *
+ * Errors: UNDEFINED where the state does not define it (the continuum properties above
+ * 86 km); NOT_CARRIED for a quantity that is not a property of the state (a Mach number);
+ * INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_state_get(const struct AerostrataState *state,
+                                           uint32_t quantity_id,
+                                           double *out);
+
+/**
+ * The value of quantity `quantity` in `*point` (in its SI unit), written to `*out`.
+ *
+ * Errors: UNDEFINED where the sample does not define it (Mach above 86 km, a drag
+ * without a vehicle); NOT_CARRIED for a quantity a flight sample does not carry;
+ * INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_flight_point_get(const struct AerostrataFlightPoint *point,
+                                                  uint32_t quantity_id,
+                                                  double *out);
 
 #ifdef __cplusplus
 }  // extern "C"

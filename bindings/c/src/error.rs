@@ -84,6 +84,9 @@ pub enum AerostrataStatus {
     /// An error of the core newer than this library's table of statuses; the message of
     /// `aerostrata_last_error` describes it.
     OtherError = 26,
+    /// A quantity was asked of a result that does not carry it (a Mach number of a
+    /// state).
+    NotCarried = 27,
 }
 
 /// Length of [`AerostrataErrorDetail::message`], bytes, the terminating NUL included.
@@ -152,6 +155,13 @@ impl Failure {
         }
     }
 
+    /// A name that names nothing the function knows.
+    pub fn unknown_name(name: &str, given: &str) -> Self {
+        let (shown, cut) = aerostrata_core::units::shorten(given, 40);
+        let more = if cut { "..." } else { "" };
+        Self::bare(AerostrataStatus::InvalidArgument, format!("{name}: no quantity is named '{shown}{more}'"))
+    }
+
     /// The same failure, naming element `index` of a batch when the core's error names
     /// no index of its own.
     pub fn at_element(mut self, index: usize) -> Self {
@@ -209,6 +219,7 @@ impl From<Error> for Failure {
             Error::StorageTooSmall { needed, len } => {
                 (S::StorageTooSmall, len as f64, needed as f64, nan, None)
             }
+            Error::NotCarried { .. } => (S::NotCarried, nan, nan, nan, None),
             _ => (S::OtherError, nan, nan, nan, None),
         };
         Self { status, value, min, max, index, message }
@@ -390,6 +401,7 @@ fn status_text(status: c_int) -> &'static str {
         24 => "a table row's vapour pressure is not below its pressure\0",
         25 => "the storage given is too small\0",
         26 => "an error this version of the library has no status for\0",
+        27 => "the result does not carry that quantity\0",
         _ => "unknown status\0",
     }
 }
@@ -466,10 +478,10 @@ mod tests {
     #[test]
     fn every_status_has_its_own_message() {
         let mut seen = std::collections::HashSet::new();
-        for s in 0..=26 {
+        for s in 0..=27 {
             assert!(seen.insert(status_text(s)), "status {s} repeats a message");
         }
-        assert_eq!(status_text(27), "unknown status\0");
+        assert_eq!(status_text(28), "unknown status\0");
         assert_eq!(status_text(-1), "unknown status\0");
     }
 

@@ -6,6 +6,7 @@ use aerostrata_core::{Atmosphere, DragCurve, Interpolation, Vehicle};
 use alloc::boxed::Box;
 use alloc::vec::Vec;
 
+use crate::catalogue::AerostrataFlightPoint;
 use crate::error::{guard, require, AerostrataStatus, Failure};
 use crate::model::{altitude, model_ref};
 use crate::{slice, slice_mut, write, AerostrataModel};
@@ -180,45 +181,8 @@ pub const AEROSTRATA_POINT_REYNOLDS_NUMBER: u32 = 4;
 /// `AerostrataFlightPoint::defined` bit: `drag_coefficient` and `drag_n` are set.
 pub const AEROSTRATA_POINT_DRAG: u32 = 8;
 
-/// The values at one sample of a flight. A field that is not defined at the sample (no
-/// speed of sound above 86 km, no drag without a drag curve, no Reynolds number without
-/// a reference length) is NaN, with its bit clear in `defined`.
-#[repr(C)]
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct AerostrataFlightPoint {
-    /// Time, s.
-    pub time_s: f64,
-    /// Geometric altitude, m.
-    pub altitude_m: f64,
-    /// Velocity as given, m/s.
-    pub velocity_m_s: f64,
-    /// Density, kg/m^3.
-    pub density_kg_m3: f64,
-    /// Static pressure, Pa.
-    pub pressure_pa: f64,
-    /// Kinetic temperature, K.
-    pub temperature_k: f64,
-    /// Speed of sound, m/s.
-    pub speed_of_sound_m_s: f64,
-    /// Mach number.
-    pub mach: f64,
-    /// Dynamic pressure, Pa.
-    pub dynamic_pressure_pa: f64,
-    /// Unit Reynolds number, 1/m.
-    pub reynolds_per_m: f64,
-    /// Reynolds number for the reference length.
-    pub reynolds_number: f64,
-    /// Drag coefficient at this Mach number.
-    pub drag_coefficient: f64,
-    /// Drag, N.
-    pub drag_n: f64,
-    /// `AEROSTRATA_POINT_*` bits of the fields that are set.
-    pub defined: u32,
-}
-
 impl From<&FlightPoint> for AerostrataFlightPoint {
     fn from(p: &FlightPoint) -> Self {
-        let nan = |v: Option<f64>| v.unwrap_or(f64::NAN);
         let mut defined = 0;
         if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
             defined |= AEROSTRATA_POINT_MACH;
@@ -232,22 +196,7 @@ impl From<&FlightPoint> for AerostrataFlightPoint {
         if p.drag_coefficient.is_some() && p.drag_n.is_some() {
             defined |= AEROSTRATA_POINT_DRAG;
         }
-        Self {
-            time_s: p.time_s,
-            altitude_m: p.altitude_m,
-            velocity_m_s: p.velocity_m_s,
-            density_kg_m3: p.density_kg_m3,
-            pressure_pa: p.pressure_pa,
-            temperature_k: p.temperature_k,
-            speed_of_sound_m_s: nan(p.speed_of_sound_m_s),
-            mach: nan(p.mach),
-            dynamic_pressure_pa: p.dynamic_pressure_pa,
-            reynolds_per_m: nan(p.reynolds_per_m),
-            reynolds_number: nan(p.reynolds_number),
-            drag_coefficient: nan(p.drag_coefficient),
-            drag_n: nan(p.drag_n),
-            defined,
-        }
+        Self::from_values(|q| p.get(q).unwrap_or(f64::NAN), defined)
     }
 }
 

@@ -30,15 +30,19 @@ extern crate alloc;
 mod aero;
 #[cfg(feature = "malloc")]
 mod allocator;
+mod catalogue;
 mod error;
 mod flight;
 mod model;
+mod quantity;
 mod spreadsheet;
 
 pub use aero::*;
+pub use catalogue::*;
 pub use error::*;
 pub use flight::*;
 pub use model::*;
+pub use quantity::*;
 pub use spreadsheet::*;
 
 use core::ffi::c_char;

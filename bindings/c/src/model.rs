@@ -7,6 +7,10 @@ use aerostrata_core::{
 use alloc::boxed::Box;
 use alloc::vec::Vec;
 
+use aerostrata_core::quantity::Group;
+use aerostrata_core::Quantity;
+
+use crate::catalogue::AerostrataState;
 use crate::error::{guard, require, AerostrataStatus, Failure};
 use crate::{slice, slice_mut, write};
 
@@ -48,90 +52,13 @@ fn altitude_kind(kind: u32) -> Result<AltitudeKind, Failure> {
     }
 }
 
-/// The full state of the atmosphere at one altitude, SI units named in each field.
-///
-/// The four continuum properties (`speed_of_sound_m_s`, `dynamic_viscosity_pa_s`,
-/// `kinematic_viscosity_m2_s`, `thermal_conductivity_w_m_k`) are not defined in the
-/// free-molecular air above 86 km: there they are NaN and the bit
-/// `AEROSTRATA_DEFINED_CONTINUUM` of `defined` is clear. Every other field is always a
-/// finite number.
-#[repr(C)]
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct AerostrataState {
-    /// Geometric altitude, m.
-    pub geometric_altitude_m: f64,
-    /// Geopotential altitude, geopotential m.
-    pub geopotential_altitude_m: f64,
-    /// Kinetic temperature, K.
-    pub temperature_k: f64,
-    /// Molecular-scale temperature, K.
-    pub molecular_temperature_k: f64,
-    /// Pressure, Pa.
-    pub pressure_pa: f64,
-    /// Density, kg/m^3.
-    pub density_kg_m3: f64,
-    /// Speed of sound, m/s (NaN above 86 km).
-    pub speed_of_sound_m_s: f64,
-    /// Dynamic viscosity, Pa s (NaN above 86 km).
-    pub dynamic_viscosity_pa_s: f64,
-    /// Kinematic viscosity, m^2/s (NaN above 86 km).
-    pub kinematic_viscosity_m2_s: f64,
-    /// Thermal conductivity, W/(m K) (NaN above 86 km).
-    pub thermal_conductivity_w_m_k: f64,
-    /// Acceleration of gravity, m/s^2.
-    pub gravity_m_s2: f64,
-    /// Pressure scale height, m.
-    pub pressure_scale_height_m: f64,
-    /// Number density, 1/m^3.
-    pub number_density_m3: f64,
-    /// Mean particle speed, m/s.
-    pub mean_particle_speed_m_s: f64,
-    /// Mean free path, m.
-    pub mean_free_path_m: f64,
-    /// Collision frequency, 1/s.
-    pub collision_frequency_hz: f64,
-    /// Mean molar mass, kg/kmol.
-    pub mean_molar_mass_kg_kmol: f64,
-    /// Temperature over the standard's sea-level temperature.
-    pub temperature_ratio: f64,
-    /// Pressure over the standard's sea-level pressure.
-    pub pressure_ratio: f64,
-    /// Density over the standard's sea-level density.
-    pub density_ratio: f64,
-    /// Bit set: `AEROSTRATA_DEFINED_CONTINUUM` when the continuum properties are defined.
-    pub defined: u32,
-}
-
 impl From<State> for AerostrataState {
     fn from(s: State) -> Self {
-        let continuum = s.speed_of_sound_m_s.is_some()
-            && s.dynamic_viscosity_pa_s.is_some()
-            && s.kinematic_viscosity_m2_s.is_some()
-            && s.thermal_conductivity_w_m_k.is_some();
-        let or_nan = |v: Option<f64>| if continuum { v.unwrap_or(f64::NAN) } else { f64::NAN };
-        Self {
-            geometric_altitude_m: s.geometric_altitude_m,
-            geopotential_altitude_m: s.geopotential_altitude_m,
-            temperature_k: s.temperature_k,
-            molecular_temperature_k: s.molecular_temperature_k,
-            pressure_pa: s.pressure_pa,
-            density_kg_m3: s.density_kg_m3,
-            speed_of_sound_m_s: or_nan(s.speed_of_sound_m_s),
-            dynamic_viscosity_pa_s: or_nan(s.dynamic_viscosity_pa_s),
-            kinematic_viscosity_m2_s: or_nan(s.kinematic_viscosity_m2_s),
-            thermal_conductivity_w_m_k: or_nan(s.thermal_conductivity_w_m_k),
-            gravity_m_s2: s.gravity_m_s2,
-            pressure_scale_height_m: s.pressure_scale_height_m,
-            number_density_m3: s.number_density_m3,
-            mean_particle_speed_m_s: s.mean_particle_speed_m_s,
-            mean_free_path_m: s.mean_free_path_m,
-            collision_frequency_hz: s.collision_frequency_hz,
-            mean_molar_mass_kg_kmol: s.mean_molar_mass_kg_kmol,
-            temperature_ratio: s.temperature_ratio,
-            pressure_ratio: s.pressure_ratio,
-            density_ratio: s.density_ratio,
-            defined: if continuum { AEROSTRATA_DEFINED_CONTINUUM } else { 0 },
-        }
+        // The continuum properties are defined together or not at all.
+        let continuum =
+            Quantity::of_group(Group::State).filter(|q| q.info().may_be_undefined).all(|q| s.get(q).is_ok());
+        let defined = if continuum { AEROSTRATA_DEFINED_CONTINUUM } else { 0 };
+        Self::from_values(|q| s.get(q).unwrap_or(f64::NAN), defined)
     }
 }
 

@@ -113,31 +113,14 @@ static int parse_tolerance(const char *text, struct column *columns, int count) 
     return 1;
 }
 
-/* The computed value for a vector column, or 0 when the C interface has no such
- * quantity (the species number densities). */
+/* The computed value for a vector column, found through the quantity catalogue (the
+ * column is the quantity's SI column name); 0 when the state does not carry it. */
 static int us1976_value(const AerostrataState *s, const char *name, double *value) {
-    static const struct {
-        const char *name;
-        size_t offset;
-    } map[] = {
-        {"temperature_K", offsetof(AerostrataState, temperature_k)},
-        {"pressure_Pa", offsetof(AerostrataState, pressure_pa)},
-        {"density_kg_m3", offsetof(AerostrataState, density_kg_m3)},
-        {"speed_of_sound_m_s", offsetof(AerostrataState, speed_of_sound_m_s)},
-        {"dynamic_viscosity_Pa_s", offsetof(AerostrataState, dynamic_viscosity_pa_s)},
-        {"kinematic_viscosity_m2_s", offsetof(AerostrataState, kinematic_viscosity_m2_s)},
-        {"thermal_conductivity_W_m_K", offsetof(AerostrataState, thermal_conductivity_w_m_k)},
-        {"gravity_m_s2", offsetof(AerostrataState, gravity_m_s2)},
-        {"number_density_m3", offsetof(AerostrataState, number_density_m3)},
-        {"mean_free_path_m", offsetof(AerostrataState, mean_free_path_m)},
-        {"pressure_scale_height_m", offsetof(AerostrataState, pressure_scale_height_m)},
-        {"mean_molar_mass_kg_kmol", offsetof(AerostrataState, mean_molar_mass_kg_kmol)},
-    };
-    size_t i;
-    for (i = 0; i < sizeof map / sizeof map[0]; i++) {
-        if (strcmp(map[i].name, name) == 0) {
-            memcpy(value, (const char *)s + map[i].offset, sizeof *value);
-            return 1;
+    uint32_t id;
+    AerostrataQuantityInfo info;
+    for (id = 0; id < aerostrata_quantity_count(); id++) {
+        if (aerostrata_quantity_info(id, &info) == AEROSTRATA_STATUS_OK && strcmp(info.si_column, name) == 0) {
+            return aerostrata_state_get(s, id, value) == AEROSTRATA_STATUS_OK;
         }
     }
     return 0;
@@ -304,7 +287,7 @@ static int check_vector_file(const char *dir, const char *file, enum vector_mode
 
 static void test_status_messages(void) {
     int s;
-    for (s = 0; s <= AEROSTRATA_STATUS_OTHER_ERROR; s++) {
+    for (s = 0; s <= AEROSTRATA_STATUS_NOT_CARRIED; s++) {
         const char *m = aerostrata_status_message(s);
         int t;
         CHECK(m != NULL && strlen(m) > 0 && strcmp(m, "unknown status") != 0);
@@ -313,7 +296,7 @@ static void test_status_messages(void) {
         }
     }
     CHECK(strcmp(aerostrata_status_message(-1), "unknown status") == 0);
-    CHECK(strcmp(aerostrata_status_message(AEROSTRATA_STATUS_OTHER_ERROR + 1), "unknown status") == 0);
+    CHECK(strcmp(aerostrata_status_message(AEROSTRATA_STATUS_NOT_CARRIED + 1), "unknown status") == 0);
     CHECK(strcmp(aerostrata_status_message(1000000), "unknown status") == 0);
     CHECK(AEROSTRATA_STATUS_OK == 0 && AEROSTRATA_STATUS_PANIC == 1 && AEROSTRATA_STATUS_NULL_POINTER == 2);
     CHECK(aerostrata_last_error(NULL) == AEROSTRATA_STATUS_NULL_POINTER);
@@ -772,6 +755,18 @@ static void test_flight(void) {
                AEROSTRATA_STATUS_OK);
         CHECK(drag == points[3].drag_n);
     }
+    {
+        /* Every field by its quantity id, through the catalogue. */
+        double got = 0.0;
+        STATUS(aerostrata_flight_point_get(&points[3], AEROSTRATA_QUANTITY_DRAG, &got), AEROSTRATA_STATUS_OK);
+        CHECK(got == points[3].drag_n);
+        STATUS(aerostrata_flight_point_get(&points[3], AEROSTRATA_QUANTITY_MACH, &got), AEROSTRATA_STATUS_OK);
+        CHECK(got == points[3].mach);
+        STATUS(aerostrata_flight_point_get(&points[3], AEROSTRATA_QUANTITY_TIME, &got), AEROSTRATA_STATUS_OK);
+        CHECK(got == 3.0);
+        STATUS(aerostrata_flight_point_get(&points[3], AEROSTRATA_QUANTITY_GRAVITY, &got),
+               AEROSTRATA_STATUS_NOT_CARRIED);
+    }
     STATUS(aerostrata_flight_scan(model, constant, 0.01, 0.0, t, z, v, 4, NULL, &summary), AEROSTRATA_STATUS_OK);
     CHECK(summary.has_max_drag == 1 && summary.max_drag_sample_index == 2);
 
@@ -885,6 +880,62 @@ static void test_species(void) {
     STATUS(aerostrata_us1976_species(100000.0, AEROSTRATA_GEOMETRIC, NULL), AEROSTRATA_STATUS_NULL_POINTER);
 }
 
+/* ------------------------------------------------------------------ catalogue */
+
+static void test_catalogue(void) {
+    AerostrataQuantityInfo info;
+    AerostrataState s, high;
+    uint32_t id, back;
+    double v, us;
+    /* The ids are part of the ABI: these never change (common practice for a stable C ABI). */
+    CHECK(AEROSTRATA_QUANTITY_GEOMETRIC_ALTITUDE == 0 && AEROSTRATA_QUANTITY_TEMPERATURE == 2);
+    CHECK(AEROSTRATA_QUANTITY_DENSITY_RATIO == 19 && AEROSTRATA_QUANTITY_MACH == 29);
+    CHECK(aerostrata_quantity_count() == AEROSTRATA_QUANTITY_COUNT);
+    STATUS(aerostrata_us1976_state(11000.0, AEROSTRATA_GEOPOTENTIAL, 0.0, &s), AEROSTRATA_STATUS_OK);
+    STATUS(aerostrata_us1976_state(120000.0, AEROSTRATA_GEOMETRIC, 0.0, &high), AEROSTRATA_STATUS_OK);
+    for (id = 0; id < AEROSTRATA_QUANTITY_COUNT; id++) {
+        STATUS(aerostrata_quantity_info(id, &info), AEROSTRATA_STATUS_OK);
+        CHECK(info.id == id && strlen(info.name) > 0 && strlen(info.label) > 0 && strlen(info.symbol) > 0);
+        CHECK(strncmp(info.si_column, info.name, strlen(info.name)) == 0);
+        STATUS(aerostrata_quantity_from_name(info.name, &back), AEROSTRATA_STATUS_OK);
+        CHECK(back == id);
+        /* US units round-trip (common practice, no source). */
+        STATUS(aerostrata_quantity_to_us(id, 288.15, &us), AEROSTRATA_STATUS_OK);
+        STATUS(aerostrata_quantity_from_us(id, us, &v), AEROSTRATA_STATUS_OK);
+        CHECK(fabs(v / 288.15 - 1.0) < 1e-14);
+        if (info.group == AEROSTRATA_GROUP_STATE) {
+            STATUS(aerostrata_state_get(&s, id, &v), AEROSTRATA_STATUS_OK);
+            CHECK(isfinite(v));
+            STATUS(aerostrata_state_get(&high, id, &v),
+                   info.may_be_undefined ? AEROSTRATA_STATUS_UNDEFINED : AEROSTRATA_STATUS_OK);
+        } else {
+            STATUS(aerostrata_state_get(&s, id, &v), AEROSTRATA_STATUS_NOT_CARRIED);
+        }
+    }
+    /* The accessor reads the very field (U.S. Standard Atmosphere 1976: 216.65 K at 11 km
+     * geopotential). */
+    STATUS(aerostrata_state_get(&s, AEROSTRATA_QUANTITY_TEMPERATURE, &v), AEROSTRATA_STATUS_OK);
+    CHECK(v == s.temperature_k && fabs(v - 216.65) < 1e-9);
+    STATUS(aerostrata_quantity_to_us(AEROSTRATA_QUANTITY_TEMPERATURE, 288.15, &v), AEROSTRATA_STATUS_OK);
+    CHECK(v == 59.0);
+    STATUS(aerostrata_quantity_from_name("temperature", &back), AEROSTRATA_STATUS_OK);
+    CHECK(back == AEROSTRATA_QUANTITY_TEMPERATURE);
+    /* Errors leave the outputs alone. */
+    v = 42.0;
+    back = 7;
+    STATUS(aerostrata_quantity_info(AEROSTRATA_QUANTITY_COUNT, &info), AEROSTRATA_STATUS_INVALID_ARGUMENT);
+    STATUS(aerostrata_state_get(&s, AEROSTRATA_QUANTITY_COUNT, &v), AEROSTRATA_STATUS_INVALID_ARGUMENT);
+    STATUS(aerostrata_state_get(&s, 0xFFFFFFFFu, &v), AEROSTRATA_STATUS_INVALID_ARGUMENT);
+    STATUS(aerostrata_quantity_from_name("Temperature", &back), AEROSTRATA_STATUS_INVALID_ARGUMENT);
+    STATUS(aerostrata_quantity_to_us(AEROSTRATA_QUANTITY_TEMPERATURE, NAN, &v), AEROSTRATA_STATUS_NOT_FINITE);
+    CHECK(v == 42.0 && back == 7);
+    STATUS(aerostrata_state_get(NULL, 0, &v), AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_state_get(&s, 0, NULL), AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_quantity_from_name(NULL, &back), AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_quantity_info(0, NULL), AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_flight_point_get(NULL, 0, &v), AEROSTRATA_STATUS_NULL_POINTER);
+}
+
 int main(int argc, char **argv) {
     const char *dir = argc > 1 ? argv[1] : "tests/vectors";
     int cells = 0;
@@ -897,6 +948,7 @@ int main(int argc, char **argv) {
     test_flight();
     test_spreadsheet();
     test_species();
+    test_catalogue();
     cells += check_vector_file(dir, "usa76_lower.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper_high.csv", MODEL_US1976);

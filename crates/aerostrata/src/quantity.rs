@@ -268,6 +268,122 @@ impl Quantity {
     }
 }
 
+/// A column heading read by [`Quantity::from_column`]: the quantity, and the unit the
+/// heading names (`None` when it names none, so that the reader's default applies).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Column {
+    /// The quantity.
+    pub quantity: Quantity,
+    /// The unit spelled in the heading, if any.
+    pub unit: Option<&'static Unit>,
+}
+
+/// Why a column heading is not a quantity of the catalogue.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum ColumnError<'a> {
+    /// No quantity has that name.
+    Unknown,
+    /// The name is a quantity's, the unit is not one of its dimension's.
+    Unit {
+        /// The quantity the name names.
+        quantity: Quantity,
+        /// The unit as written.
+        unit: &'a str,
+    },
+}
+
+impl core::fmt::Display for ColumnError<'_> {
+    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
+        match *self {
+            ColumnError::Unknown => f.write_str("no quantity has that name"),
+            ColumnError::Unit { quantity, unit } => {
+                let dimension = quantity.si().dimension();
+                let (unit, cut) = units::shorten(unit, 40);
+                write!(
+                    f,
+                    "unknown unit '{unit}{}' for the {}; write {}",
+                    if cut { "..." } else { "" },
+                    quantity.info().label,
+                    units::UnitList(dimension)
+                )
+            }
+        }
+    }
+}
+
+/// `a` and `b` equal once ASCII case is folded and spaces and hyphens read as `_`.
+fn same_name(a: &str, b: &str) -> bool {
+    let fold = |c: u8| match c {
+        b' ' | b'-' => b'_',
+        c => c.to_ascii_lowercase(),
+    };
+    a.len() == b.len() && a.bytes().zip(b.bytes()).all(|(x, y)| fold(x) == fold(y))
+}
+
+impl Quantity {
+    /// Reads a column heading of a table (a sounding, a flight file, CSV input): the
+    /// quantity's machine name with or without a unit, in any of the spellings people
+    /// write: `altitude_ft`, `altitude (ft)`, `Altitude [m]`, `temperature (degC)`,
+    /// `wind speed [kt]`, `pressure_hPa`. Case, spaces and hyphens in the name do not
+    /// matter; the unit is read by [`Unit::find`] among the units of the quantity's
+    /// dimension.
+    ///
+    /// ```
+    /// use aerostrata::Quantity;
+    /// use aerostrata::units::{FOOT, DEGREE_CELSIUS};
+    /// let c = Quantity::from_column("Altitude (ft)").unwrap();
+    /// assert_eq!((c.quantity, c.unit), (Quantity::Altitude, Some(&FOOT)));
+    /// let c = Quantity::from_column("temperature_degC").unwrap();
+    /// assert_eq!((c.quantity, c.unit), (Quantity::Temperature, Some(&DEGREE_CELSIUS)));
+    /// assert_eq!(Quantity::from_column("time").unwrap().unit, None);
+    /// ```
+    ///
+    /// # Errors
+    /// [`ColumnError::Unknown`] when no quantity has the name; [`ColumnError::Unit`] when
+    /// one has, but the unit is not one of its dimension's.
+    pub fn from_column(heading: &str) -> Result<Column, ColumnError<'_>> {
+        let heading = heading.trim();
+        // `name (unit)` or `name [unit]`.
+        for (open, close) in [('(', ')'), ('[', ']')] {
+            if let Some(inner) = heading.strip_suffix(close) {
+                if let Some(at) = inner.rfind(open) {
+                    let (name, unit) = (inner[..at].trim(), inner[at + 1..].trim());
+                    let quantity = Quantity::ALL
+                        .iter()
+                        .copied()
+                        .find(|q| same_name(q.name(), name))
+                        .ok_or(ColumnError::Unknown)?;
+                    return match Unit::find(unit, quantity.si().dimension()) {
+                        Some(unit) => Ok(Column { quantity, unit: Some(unit) }),
+                        None => Err(ColumnError::Unit { quantity, unit }),
+                    };
+                }
+            }
+        }
+        // `name` alone, or `name_unit`: the longest name that fits wins, so that
+        // `pressure_altitude_ft` is a pressure altitude, not a pressure in "altitude_ft".
+        let mut best: Option<(Quantity, &str)> = None;
+        for q in Quantity::ALL.iter().copied() {
+            let name = q.name();
+            if heading.len() == name.len() && same_name(name, heading) {
+                return Ok(Column { quantity: q, unit: None });
+            }
+            let fits = heading.len() > name.len() + 1
+                && heading.is_char_boundary(name.len())
+                && same_name(name, &heading[..name.len()])
+                && matches!(heading.as_bytes()[name.len()], b'_' | b' ');
+            if fits && best.is_none_or(|(b, _)| b.name().len() < name.len()) {
+                best = Some((q, &heading[name.len() + 1..]));
+            }
+        }
+        let (quantity, unit) = best.ok_or(ColumnError::Unknown)?;
+        match Unit::find(unit, quantity.si().dimension()) {
+            Some(unit) => Ok(Column { quantity, unit: Some(unit) }),
+            None => Err(ColumnError::Unit { quantity, unit }),
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -308,5 +424,49 @@ mod tests {
         let state: [Quantity; 20] = core::array::from_fn(|i| Quantity::ALL[i]);
         assert!(state.iter().all(|q| q.info().group == Group::State));
         assert_eq!(Quantity::of_group(Group::State).count(), 20);
+    }
+
+    #[test]
+    fn column_headings_in_every_spelling() {
+        use crate::units::*;
+        fn read(h: &str) -> Result<(Quantity, Option<&'static str>), ColumnError<'_>> {
+            Quantity::from_column(h).map(|c| (c.quantity, c.unit.map(|u| u.symbol())))
+        }
+        assert_eq!(read("altitude (ft)"), Ok((Quantity::Altitude, Some("ft"))));
+        assert_eq!(read("altitude_ft"), Ok((Quantity::Altitude, Some("ft"))));
+        assert_eq!(read("Altitude [m]"), Ok((Quantity::Altitude, Some("m"))));
+        assert_eq!(read("temperature (degC)"), Ok((Quantity::Temperature, Some("degC"))));
+        assert_eq!(read("temperature_K"), Ok((Quantity::Temperature, Some("K"))));
+        assert_eq!(read("pressure_hPa"), Ok((Quantity::Pressure, Some("hPa"))));
+        assert_eq!(read("pressure_altitude_ft"), Ok((Quantity::PressureAltitude, Some("ft"))));
+        assert_eq!(read("pressure_ratio"), Ok((Quantity::PressureRatio, None)));
+        assert_eq!(read("Dew Point [degF]"), Ok((Quantity::DewPoint, Some("degF"))));
+        assert_eq!(read("relative_humidity_percent"), Ok((Quantity::RelativeHumidity, Some("%"))));
+        assert_eq!(read("density_kg_m3"), Ok((Quantity::Density, Some("kg/m3"))));
+        assert_eq!(read("velocity_m_s"), Ok((Quantity::Velocity, Some("m/s"))));
+        assert_eq!(read("mach"), Ok((Quantity::Mach, None)));
+        assert_eq!(read("n_N2_m3"), Ok((Quantity::NitrogenNumberDensity, Some("1/m3"))));
+        assert_eq!(read("colour"), Err(ColumnError::Unknown));
+        assert_eq!(
+            read("altitude (furlong)"),
+            Err(ColumnError::Unit { quantity: Quantity::Altitude, unit: "furlong" })
+        );
+        assert_eq!(
+            Quantity::from_column("temperature_ft").unwrap_err().to_string(),
+            "unknown unit 'ft' for the temperature; write K, degC, degF or degR"
+        );
+        // Every quantity's CSV column in either system reads back as itself.
+        for q in Quantity::ALL.iter().copied() {
+            for unit in [q.info().si, q.info().us] {
+                let heading = if unit.suffix().is_empty() {
+                    q.name().into()
+                } else {
+                    std::format!("{}_{}", q.name(), unit.suffix())
+                };
+                let c = Quantity::from_column(&heading).unwrap_or_else(|e| panic!("{heading}: {e}"));
+                assert_eq!(c.quantity, q, "{heading}");
+                assert_eq!(c.unit.unwrap_or(&ONE).to_si(7.0), unit.to_si(7.0), "{heading}");
+            }
+        }
     }
 }

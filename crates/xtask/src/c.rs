@@ -25,6 +25,21 @@ fn cbindgen(root: &Path) -> Result<PathBuf, String> {
 /// temporary file instead and fails if it differs from the committed one.
 pub fn header(root: &Path, check_only: bool) -> Result<(), String> {
     let cbindgen = cbindgen(root)?;
+    // The C door's catalogue source first: cbindgen reads it with the rest of the crate.
+    let generated = root.join(crate::c_catalogue::GENERATED);
+    let fresh = crate::c_catalogue::generate();
+    if check_only {
+        let committed = std::fs::read_to_string(&generated).unwrap_or_default();
+        if committed != fresh {
+            return Err(format!(
+                "{} is stale: run `cargo xtask header` and commit it",
+                crate::c_catalogue::GENERATED
+            ));
+        }
+    } else {
+        std::fs::write(&generated, fresh)
+            .map_err(|e| format!("cannot write {}: {e}", generated.display()))?;
+    }
     let committed = root.join(HEADER);
     let output = if check_only { target_dir(root).join("aerostrata.h.check") } else { committed.clone() };
     if let Some(dir) = output.parent() {

@@ -22,6 +22,7 @@
 
 mod bench;
 mod c;
+mod c_catalogue;
 mod c_package;
 mod firmware;
 mod firmware_c;
