@@ -5,10 +5,11 @@
 use aerostrata::airspeed::{AirData, Airspeed};
 use aerostrata::constants::units::{FOOT_PER_SECOND_M_S, KNOT_M_S};
 use aerostrata::Atmosphere;
+use aerostrata_cli::format::Style;
 use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{ArgGroup, Args, ValueEnum};
 
-use crate::output::{Column, Destination, Format, RowWriter, Style};
+use crate::output::{Column, Destination, Format, RowWriter};
 use crate::{Failure, OutputArgs};
 
 #[derive(Args)]

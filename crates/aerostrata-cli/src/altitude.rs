@@ -5,10 +5,11 @@
 use aerostrata::inverse::{
     barometric_altitude_m, density_altitude_from, pressure_altitude, BarometricReference,
 };
+use aerostrata_cli::format::Style;
 use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{ArgGroup, Args};
 
-use crate::output::{Column, Destination, Format, RowWriter, Style};
+use crate::output::{Column, Destination, Format, RowWriter};
 use crate::{Failure, OutputArgs};
 
 #[derive(Args)]

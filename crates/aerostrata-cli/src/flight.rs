@@ -9,11 +9,12 @@ use std::path::PathBuf;
 
 use aerostrata::aero::{DragCurve, Interpolation};
 use aerostrata::flight::{FlightPoint, FlightScan, FlightSummary, Sample, Vehicle};
+use aerostrata_cli::format::{fixed, Style};
 use aerostrata_cli::units::{Quantity, Unit, UnitSystem};
 use clap::{Args, ValueEnum};
 use serde_json::{json, Value};
 
-use crate::output::{Column, Destination, Format, RowWriter, Style};
+use crate::output::{Column, Destination, Format, RowWriter};
 use crate::progress::{self, Progress};
 use crate::{Failure, OutputArgs};
 
@@ -431,60 +432,52 @@ fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
     let speed = units.unit(Quantity::Speed);
     let pressure = units.unit(Quantity::Pressure);
     let force = units.unit(Quantity::Force);
-    let (l, v) = (length.symbol, speed.symbol);
+    let at = |time_s: f64, altitude_m: f64| {
+        let altitude = fixed(length.from_si(altitude_m), 1);
+        format!("at t = {} s, altitude {altitude} {}", fixed(time_s, 4), length.symbol)
+    };
     let mut text = format!("samples: {}\n", s.samples);
-    match &s.max_dynamic_pressure {
+    text += &match &s.max_dynamic_pressure {
         Some(p) => {
-            let mach = p.mach.map_or_else(|| "Mach undefined".to_owned(), |m| format!("Mach {m:.4}"));
+            let mach =
+                p.mach.map_or_else(|| "Mach undefined".to_owned(), |m| format!("Mach {}", fixed(m, 4)));
             let how = if p.refined {
                 format!("parabola through samples {} to {}", p.sample_index - 1, p.sample_index + 1)
             } else {
                 format!("sample {}, not refined", p.sample_index)
             };
-            text += &format!(
-                "max q: {:.1} {} at t = {:.4} s, altitude {:.1} {l}, velocity {:.2} {v}, {mach} ({how})\n",
-                pressure.from_si(p.dynamic_pressure_pa),
+            format!(
+                "max q: {} {} {}, velocity {} {}, {mach} ({how})\n",
+                fixed(pressure.from_si(p.dynamic_pressure_pa), 1),
                 pressure.symbol,
-                p.time_s,
-                length.from_si(p.altitude_m),
-                speed.from_si(p.velocity_m_s)
-            );
-        }
-        None => text += "max q: no samples\n",
-    }
-    match &s.max_mach {
-        Some(m) => {
-            text += &format!(
-                "max Mach: {:.4} at t = {:.4} s, altitude {:.1} {l}\n",
-                m.value,
-                m.time_s,
-                length.from_si(m.altitude_m)
+                at(p.time_s, p.altitude_m),
+                fixed(speed.from_si(p.velocity_m_s), 2),
+                speed.symbol
             )
         }
-        None => text += "max Mach: none (no speed of sound at any sample)\n",
-    }
+        None => "max q: no samples\n".to_owned(),
+    };
+    text += &match &s.max_mach {
+        Some(m) => format!("max Mach: {} {}\n", fixed(m.value, 4), at(m.time_s, m.altitude_m)),
+        None => "max Mach: none (no speed of sound at any sample)\n".to_owned(),
+    };
     for (name, crossings) in [("up", &s.mach_one_up), ("down", &s.mach_one_down)] {
-        match (crossings.first_time_s, crossings.last_time_s) {
-            (Some(first), Some(last)) => {
-                text += &format!(
-                    "Mach 1 {name}: {} crossing(s), first at t = {first:.4} s, last at t = {last:.4} s\n",
-                    crossings.count
-                )
-            }
-            _ => text += &format!("Mach 1 {name}: none\n"),
-        }
+        text += &match (crossings.first_time_s, crossings.last_time_s) {
+            (Some(first), Some(last)) => format!(
+                "Mach 1 {name}: {} crossing(s), first at t = {} s, last at t = {} s\n",
+                crossings.count,
+                fixed(first, 4),
+                fixed(last, 4)
+            ),
+            _ => format!("Mach 1 {name}: none\n"),
+        };
     }
-    match &s.max_drag {
+    text += &match &s.max_drag {
         Some(d) => {
-            text += &format!(
-                "max drag: {:.2} {} at t = {:.4} s, altitude {:.1} {l}\n",
-                force.from_si(d.value),
-                force.symbol,
-                d.time_s,
-                length.from_si(d.altitude_m)
-            )
+            let drag = fixed(force.from_si(d.value), 2);
+            format!("max drag: {drag} {} {}\n", force.symbol, at(d.time_s, d.altitude_m))
         }
-        None => text += "max drag: none (give --cd or --cd-table and --area)\n",
-    }
+        None => "max drag: none (give --cd or --cd-table and --area)\n".to_owned(),
+    };
     text
 }

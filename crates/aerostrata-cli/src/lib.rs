@@ -3,5 +3,6 @@
 //! plots and units match the tool's. No physics lives here: every number comes from the
 //! `aerostrata` core.
 
+pub mod format;
 pub mod plot;
 pub mod units;

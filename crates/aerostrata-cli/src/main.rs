@@ -18,7 +18,8 @@ use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use aerostrata::{Altitude, AltitudeRange, Atmosphere, State, TemperatureOffset, US1976};
-use aerostrata_cli::units::{tidy, Quantity, UnitSystem};
+use aerostrata_cli::format::tidy;
+use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{Args, CommandFactory, Parser, Subcommand};
 
 use output::{state_columns, state_values, Destination, Format, RowWriter};

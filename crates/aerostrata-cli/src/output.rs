@@ -11,21 +11,11 @@ use std::io::{self, BufWriter, Write};
 use std::path::{Path, PathBuf};
 
 use aerostrata::State;
+use aerostrata_cli::format::{exact, readable, Style};
 use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::ValueEnum;
 
 use crate::Failure;
-
-/// The shortest decimal that reads back to `value` exactly; exponent form for very large
-/// or small magnitudes.
-pub fn exact(value: f64) -> String {
-    let magnitude = value.abs();
-    if magnitude != 0.0 && !(1e-3..1e7).contains(&magnitude) {
-        format!("{value:e}")
-    } else {
-        format!("{value}")
-    }
-}
 
 /// Output format of a tabular command.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -38,17 +28,6 @@ pub enum Format {
     Json,
     /// A Markdown table for reports (rounded values).
     Markdown,
-}
-
-/// How a column's values are rounded for people (CSV and JSON are always exact).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum Style {
-    /// A fixed number of decimals.
-    Fixed(usize),
-    /// Six significant digits as `1.22500E+00`, the way printed tables show them.
-    Scientific,
-    /// Six significant digits, plain where that is short.
-    Significant,
 }
 
 /// One output column.
@@ -82,35 +61,6 @@ impl Column {
     /// The same column, left out of the terminal and Markdown tables.
     pub fn hidden(self) -> Self {
         Column { shown: false, ..self }
-    }
-}
-
-/// Six significant digits as `1.22500E+00`.
-fn scientific(value: f64) -> String {
-    let text = format!("{value:.5e}");
-    match text.split_once('e') {
-        Some((mantissa, exponent)) => {
-            let exponent: i32 = exponent.parse().unwrap_or(0);
-            let sign = if exponent < 0 { '-' } else { '+' };
-            format!("{mantissa}E{sign}{:02}", exponent.abs())
-        }
-        None => text,
-    }
-}
-
-fn readable(style: Style, value: f64) -> String {
-    match style {
-        Style::Fixed(decimals) => format!("{value:.decimals$}"),
-        Style::Scientific => scientific(value),
-        Style::Significant => {
-            let magnitude = if value == 0.0 { 0 } else { value.abs().log10().floor() as i32 };
-            if (-3..7).contains(&magnitude) {
-                let decimals = (5 - magnitude).max(0) as usize;
-                format!("{value:.decimals$}")
-            } else {
-                scientific(value)
-            }
-        }
     }
 }
 
@@ -486,23 +436,6 @@ mod tests {
         let state = US1976.state(Altitude::geometric_m(0.0).unwrap()).unwrap();
         for (column, (field, _)) in state_columns(UnitSystem::Si, false).iter().zip(state.fields()) {
             assert_eq!(column.key.to_lowercase(), field, "column {} against field {field}", column.key);
-        }
-    }
-
-    #[test]
-    fn scientific_looks_like_a_printed_table() {
-        assert_eq!(scientific(1.2249991558877122), "1.22500E+00");
-        assert_eq!(scientific(6.633232327863704e-8), "6.63323E-08");
-        assert_eq!(scientific(101_325.0), "1.01325E+05");
-        assert_eq!(readable(Style::Significant, 34_512.345_6), "34512.3");
-        assert_eq!(readable(Style::Significant, 1.234_567_89), "1.23457");
-        assert_eq!(readable(Style::Significant, 0.0), "0.00000");
-    }
-
-    #[test]
-    fn exact_round_trips() {
-        for value in [101_325.0, 1.0 / 3.0, 6.6e-8, 2.547e25, -5000.0, 0.0, 1e-3, 9_999_999.5] {
-            assert_eq!(exact(value).parse::<f64>().unwrap(), value);
         }
     }
 

@@ -12,7 +12,8 @@ use plotters::prelude::*;
 
 use aerostrata::flight::{FlightSummary, Sample};
 
-use crate::units::{tidy, Quantity, UnitSystem};
+use crate::format::{tick, tidy_short};
+use crate::units::{Quantity, UnitSystem};
 
 /// One line on a panel.
 #[derive(Clone, Debug, Default)]
@@ -145,32 +146,6 @@ impl Span {
             let width = self.hi - self.lo;
             let room = if width > 0.0 { 0.05 * width } else { 0.5 * self.lo.abs().max(1.0) };
             Span { lo: self.lo - room, hi: self.hi + room }
-        }
-    }
-}
-
-/// A tick label: short, with an exponent for very large or small magnitudes.
-pub fn tick(value: f64) -> String {
-    if value == 0.0 || !value.is_finite() {
-        return "0".to_owned();
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    if (-3..6).contains(&magnitude) {
-        let decimals = (3 - magnitude).clamp(0, 6) as usize;
-        let text = format!("{value:.decimals$}");
-        if text.contains('.') {
-            text.trim_end_matches('0').trim_end_matches('.').to_owned()
-        } else {
-            text
-        }
-    } else {
-        let text = format!("{value:.2e}");
-        match text.split_once('e') {
-            Some((mantissa, exponent)) => {
-                let mantissa = mantissa.trim_end_matches('0').trim_end_matches('.');
-                format!("{mantissa}e{exponent}")
-            }
-            None => text,
         }
     }
 }
@@ -477,16 +452,6 @@ pub fn flight_figure(title: &str, traces: &[FlightTrace], units: UnitSystem) -> 
     Figure { title: title.to_owned(), layout: Layout::Stacked, panels: vec![q, mach], size: (900, 720) }
 }
 
-/// Four significant digits for a note on a plot.
-pub fn tidy_short(value: f64) -> String {
-    if value == 0.0 || !value.is_finite() {
-        return tidy(value);
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    let decimals = (3 - magnitude).clamp(0, 6) as usize;
-    format!("{value:.decimals$}")
-}
-
 /// A convenience for callers that hold whole samples: the trace of `samples` as the
 /// core's scan sees them through `scan`.
 ///
@@ -509,16 +474,6 @@ pub fn trace_flight<A: aerostrata::Atmosphere>(
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn ticks_are_short() {
-        assert_eq!(tick(0.0), "0");
-        assert_eq!(tick(20_000.0), "20000");
-        assert_eq!(tick(1.5), "1.5");
-        assert_eq!(tick(1.0e-5), "1e-5");
-        assert_eq!(tick(1.0e6), "1e6");
-        assert_eq!(tick(2.5e-7), "2.5e-7");
-    }
 
     #[test]
     fn a_trace_keeps_bounded_evenly_spread_points() {

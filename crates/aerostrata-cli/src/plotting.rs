@@ -6,8 +6,9 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 
 use aerostrata::{Atmosphere, FlightScan};
+use aerostrata_cli::format::tidy;
 use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, LegendPosition, Panel, Series};
-use aerostrata_cli::units::{tidy, Quantity, UnitSystem};
+use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{Args, Subcommand, ValueEnum};
 
 use crate::flight::{SampleReader, VehicleArgs};
