@@ -6,8 +6,9 @@
 use std::io::{self, BufRead, IsTerminal, Read, Write};
 use std::time::{Duration, Instant};
 
-use aerostrata_cli::format::fixed;
 use clap::ValueEnum;
+
+use crate::format::fixed;
 
 /// When to show the progress line.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]

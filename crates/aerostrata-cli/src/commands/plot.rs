@@ -6,14 +6,20 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 
 use aerostrata::{Atmosphere, FlightScan};
-use aerostrata_cli::format::tidy;
-use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, LegendPosition, Panel, Series};
-use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{Args, Subcommand, ValueEnum};
 
-use crate::flight::{SampleReader, VehicleArgs};
-use crate::output::{state_field, Destination};
-use crate::{Failure, OutputArgs};
+use crate::args::model::offset_model;
+use crate::args::output::OutputArgs;
+use crate::args::vehicle::VehicleArgs;
+use crate::failure::Failure;
+use crate::format::tidy;
+use crate::input::lines::open_input;
+use crate::input::progress::When;
+use crate::input::samples::SampleReader;
+use crate::input::sounding;
+use crate::output::state::state_field;
+use crate::plot::{flight_figure, Figure, FlightTrace, Layout, LegendPosition, Panel, Series};
+use crate::units::{Quantity, UnitSystem};
 
 #[derive(Subcommand)]
 pub enum PlotCommand {
@@ -127,13 +133,18 @@ const MAX_PANELS: usize = 4;
 /// Altitudes per model line.
 const PROFILE_POINTS: usize = 300;
 
+/// Runs `aerostrata plot profile` or `aerostrata plot flight`.
+///
+/// # Errors
+/// [`Failure::Input`] naming the option or file at fault; [`Failure::Io`] when writing
+/// fails.
 pub fn run(command: &PlotCommand) -> Result<(), Failure> {
     let (figure, out) = match command {
         PlotCommand::Profile(args) => (profile(args)?, &args.out),
         PlotCommand::Flight(args) => (flights(args)?, &args.out),
     };
     let svg = figure.to_svg().map_err(Failure::Input)?;
-    let mut destination = Destination::open(out.output.as_deref())?;
+    let mut destination = out.destination()?;
     destination.write_all(svg.as_bytes())?;
     destination.commit()
 }
@@ -152,7 +163,7 @@ fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
         }
         ("offset", Some(value)) => {
             let offset: f64 = value.parse().map_err(|_| bad("the offset is not a number"))?;
-            let model = crate::offset_model(offset, units).map_err(|f| match f {
+            let model = offset_model(offset, units).map_err(|f| match f {
                 Failure::Input(m) => bad(&m),
                 other => other,
             })?;
@@ -160,7 +171,7 @@ fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
             Ok(Model { label: format!("standard {offset:+} {unit}"), atmosphere: Box::new(model) })
         }
         ("sounding", Some(path)) => {
-            let table = crate::sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
+            let table = sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
             let name = Path::new(path).file_stem().map_or(path.into(), |n| n.to_string_lossy());
             Ok(Model { label: format!("sounding {name}"), atmosphere: Box::new(table) })
         }
@@ -320,9 +331,9 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         let label = args.labels.get(index).cloned().unwrap_or_else(|| {
             path.file_stem().map_or_else(|| name.clone(), |s| s.to_string_lossy().into_owned())
         });
-        let atmosphere = crate::offset_model(args.vehicle.offset(), units)?;
+        let atmosphere = offset_model(args.vehicle.offset(), units)?;
         let mut scan = FlightScan::new(atmosphere, vehicle);
-        let input = crate::open_input(Some(path), crate::progress::When::Never)?;
+        let input = open_input(Some(path), When::Never)?;
         let mut reader = SampleReader::new(input, units);
         let mut trace = FlightTrace::new(label);
         let in_file = |f: Failure| match f {
