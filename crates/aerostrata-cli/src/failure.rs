@@ -18,3 +18,14 @@ impl From<io::Error> for Failure {
         Failure::Io(error)
     }
 }
+
+impl Failure {
+    /// The same failure, a bad input's message after `prefix: ` (the file or option it
+    /// came from).
+    pub fn within(self, prefix: &str) -> Self {
+        match self {
+            Failure::Input(message) => Failure::Input(format!("{prefix}: {message}")),
+            other => other,
+        }
+    }
+}
