@@ -166,14 +166,49 @@ fn trim_zeros(text: &str) -> &str {
 mod tests {
     use super::*;
 
+    /// A form's name, the form, a value and the text it must give.
+    type Case = (&'static str, fn(f64) -> String, f64, &'static str);
+
     #[test]
-    fn scientific_looks_like_a_printed_table() {
-        assert_eq!(scientific(1.2249991558877122), "1.22500E+00");
-        assert_eq!(scientific(6.633232327863704e-8), "6.63323E-08");
-        assert_eq!(scientific(101_325.0), "1.01325E+05");
-        assert_eq!(readable(Style::Significant, 34_512.345_6), "34512.3");
-        assert_eq!(readable(Style::Significant, 1.234_567_89), "1.23457");
-        assert_eq!(readable(Style::Significant, 0.0), "0.00000");
+    fn each_form_writes_its_text() {
+        let significant: fn(f64) -> String = |v| readable(Style::Significant, v);
+        let four_decimals: fn(f64) -> String = |v| fixed(v, 4);
+        let cases: [Case; 26] = [
+            // A printed table's six digits and exponent.
+            ("scientific", scientific, 1.2249991558877122, "1.22500E+00"),
+            ("scientific", scientific, 6.633232327863704e-8, "6.63323E-08"),
+            ("scientific", scientific, 101_325.0, "1.01325E+05"),
+            ("significant", significant, 34_512.345_6, "34512.3"),
+            ("significant", significant, 1.234_567_89, "1.23457"),
+            ("significant", significant, 0.0, "0.00000"),
+            ("fixed", four_decimals, 2.0 / 3.0, "0.6667"),
+            // Messages: seven digits without trailing zeros.
+            ("tidy", tidy, -16_404.199_475_065_617, "-16404.2"),
+            ("tidy", tidy, 3_280_839.895_013_123, "3280840"),
+            ("tidy", tidy, 0.5, "0.5"),
+            ("tidy", tidy, 1.0e-9, "1.000000e-9"),
+            // Axis ticks: short, an exponent for very large or small magnitudes.
+            ("tick", tick, 0.0, "0"),
+            ("tick", tick, 20_000.0, "20000"),
+            ("tick", tick, 1.5, "1.5"),
+            ("tick", tick, 1.0e-5, "1e-5"),
+            ("tick", tick, 1.0e6, "1e6"),
+            ("tick", tick, 2.5e-7, "2.5e-7"),
+            // Notes on a plot: four digits, never an exponent.
+            ("tidy_short", tidy_short, 48.123_45, "48.12"),
+            ("tidy_short", tidy_short, 12_345.6, "12346"),
+            ("tidy_short", tidy_short, 2.0e-5, "0.000020"),
+            ("tidy_short", tidy_short, 0.0, "0"),
+            // Values that are not finite (a tick at 0, out of the way).
+            ("tidy", tidy, f64::NAN, "NaN"),
+            ("tidy_short", tidy_short, f64::INFINITY, "inf"),
+            ("tick", tick, f64::NEG_INFINITY, "0"),
+            ("scientific", scientific, f64::INFINITY, "inf"),
+            ("significant", significant, f64::NEG_INFINITY, "-inf"),
+        ];
+        for (name, form, value, text) in cases {
+            assert_eq!(form(value), text, "{name}({value})");
+        }
     }
 
     #[test]
@@ -181,41 +216,5 @@ mod tests {
         for value in [101_325.0, 1.0 / 3.0, 6.6e-8, 2.547e25, -5000.0, 0.0, 1e-3, 9_999_999.5] {
             assert_eq!(exact(value).parse::<f64>().unwrap(), value);
         }
-    }
-
-    #[test]
-    fn tidy_numbers() {
-        assert_eq!(tidy(-16_404.199_475_065_617), "-16404.2");
-        assert_eq!(tidy(3_280_839.895_013_123), "3280840");
-        assert_eq!(tidy(0.5), "0.5");
-        assert_eq!(tidy(1.0e-9), "1.000000e-9");
-    }
-
-    #[test]
-    fn ticks_are_short() {
-        assert_eq!(tick(0.0), "0");
-        assert_eq!(tick(20_000.0), "20000");
-        assert_eq!(tick(1.5), "1.5");
-        assert_eq!(tick(1.0e-5), "1e-5");
-        assert_eq!(tick(1.0e6), "1e6");
-        assert_eq!(tick(2.5e-7), "2.5e-7");
-    }
-
-    #[test]
-    fn notes_keep_four_digits_and_no_exponent() {
-        assert_eq!(tidy_short(48.123_45), "48.12");
-        assert_eq!(tidy_short(12_345.6), "12346");
-        assert_eq!(tidy_short(2.0e-5), "0.000020");
-        assert_eq!(tidy_short(0.0), "0");
-        assert_eq!(fixed(2.0 / 3.0, 4), "0.6667");
-    }
-
-    #[test]
-    fn not_finite_values_stay_readable() {
-        assert_eq!(tidy(f64::NAN), "NaN");
-        assert_eq!(tidy_short(f64::INFINITY), "inf");
-        assert_eq!(tick(f64::NEG_INFINITY), "0");
-        assert_eq!(readable(Style::Scientific, f64::INFINITY), "inf");
-        assert_eq!(readable(Style::Significant, f64::NEG_INFINITY), "-inf");
     }
 }

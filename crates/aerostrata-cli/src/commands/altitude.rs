@@ -10,7 +10,7 @@ use clap::{ArgGroup, Args};
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
 use crate::format::Style;
-use crate::input::lines::open_input;
+use crate::input::lines::{open_input, DataLines};
 use crate::input::progress::When;
 use crate::output::rows::{Column, Format, RowWriter};
 use crate::units::{Quantity, UnitSystem};
@@ -106,32 +106,19 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     let single =
         args.pressure.map(|p| row(p).map_err(|m| Failure::Input(format!("--pressure: {m}")))).transpose()?;
     let mut input = match (&single, &args.file) {
-        (None, Some(path)) => Some(open_input(Some(path), When::Never)?),
+        (None, Some(path)) => Some(DataLines::new(open_input(Some(path), When::Never)?)),
         _ => None,
     };
     let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
     if let Some(values) = single {
         writer.row(&values)?;
-    } else if let Some(input) = &mut input {
-        let unit = if units == UnitSystem::Si { "Pa" } else { "inHg" };
-        let mut line = String::new();
-        let mut line_number = 0;
-        loop {
-            line.clear();
-            line_number += 1;
-            let read = std::io::BufRead::read_line(input, &mut line)
-                .map_err(|e| Failure::Input(format!("line {line_number}: cannot read: {e}")))?;
-            if read == 0 {
-                break;
-            }
-            let text = line.trim();
-            if text.is_empty() || text.starts_with('#') {
-                continue;
-            }
+    } else if let Some(lines) = &mut input {
+        let unit = pressure_unit.symbol;
+        while let Some((number, text)) = lines.next_line()? {
             let pressure: f64 = text.parse().map_err(|_| {
-                Failure::Input(format!("line {line_number}: '{text}' is not a pressure (a number of {unit})"))
+                Failure::Input(format!("line {number}: '{text}' is not a pressure (a number of {unit})"))
             })?;
-            let values = row(pressure).map_err(|m| Failure::Input(format!("line {line_number}: {m}")))?;
+            let values = row(pressure).map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
             writer.row(&values)?;
         }
     }

@@ -1,7 +1,6 @@
 //! `aerostrata eval`: the full state at altitudes read one per line, streaming: each row
 //! is written as its line arrives, so any number of lines runs in bounded memory.
 
-use std::io::BufRead;
 use std::path::PathBuf;
 
 use aerostrata::{Altitude, AltitudeRange, Atmosphere, State, US1976};
@@ -10,7 +9,7 @@ use clap::Args;
 use crate::args::model::{altitude_in, ModelArgs};
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
-use crate::input::lines::open_input;
+use crate::input::lines::{open_input, DataLines};
 use crate::input::progress::When;
 use crate::output::rows::{Format, RowWriter};
 use crate::output::state::{state_columns, state_values};
@@ -51,35 +50,23 @@ pub fn run(args: &EvalArgs) -> Result<(), Failure> {
                 .to_owned(),
         ));
     }
-    let mut input = open_input(args.file.as_deref(), args.progress)?;
+    let mut lines = DataLines::new(open_input(args.file.as_deref(), args.progress)?);
     let destination = args.out.destination()?;
     let mut writer = RowWriter::new(destination, args.format, state_columns(units, args.species))?;
     let range = atmosphere.range();
-    let mut line = String::new();
-    let mut line_number = 0;
-    loop {
-        line.clear();
-        line_number += 1;
-        let read = input.read_line(&mut line).map_err(|e| {
-            input.clear();
-            Failure::Input(format!("line {line_number}: cannot read: {e}"))
-        })?;
-        if read == 0 {
-            break;
+    let mut write_rows = || -> Result<(), Failure> {
+        while let Some((number, text)) = lines.next_line()? {
+            let state = evaluate_line(atmosphere.as_ref(), range, text, args.model.geopotential, units)
+                .map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
+            let species = if args.species { species_at(&state) } else { None };
+            writer.row(&state_values(&state, units, args.species.then_some(species)))?;
         }
-        let text = line.trim();
-        if text.is_empty() || text.starts_with('#') {
-            continue;
-        }
-        let state =
-            evaluate_line(atmosphere.as_ref(), range, text, args.model.geopotential, units).map_err(|m| {
-                input.clear();
-                Failure::Input(format!("line {line_number}: {m}"))
-            })?;
-        let species = if args.species { species_at(&state) } else { None };
-        writer.row(&state_values(&state, units, args.species.then_some(species)))?;
-    }
-    input.clear();
+        Ok(())
+    };
+    let result = write_rows();
+    // The progress line goes before an error or the end, so that it never mixes with them.
+    lines.input_mut().clear();
+    result?;
     writer.finish()?.commit()
 }
 

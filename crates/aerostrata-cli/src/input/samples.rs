@@ -7,6 +7,7 @@ use std::io::BufRead;
 use aerostrata::flight::Sample;
 
 use crate::failure::Failure;
+use crate::input::lines::DataLines;
 use crate::units::{Quantity, Unit, UnitSystem};
 
 /// Where the samples' values sit in a row, and their units.
@@ -22,27 +23,25 @@ struct Layout {
 
 /// Reads samples one line at a time from CSV text.
 pub struct SampleReader<R> {
-    input: R,
+    lines: DataLines<R>,
     units: UnitSystem,
-    line: String,
-    line_number: usize,
     layout: Option<Layout>,
 }
 
 impl<R: BufRead> SampleReader<R> {
     /// A reader of `input`, whose values are in `units` unless a header names others.
     pub fn new(input: R, units: UnitSystem) -> Self {
-        SampleReader { input, units, line: String::new(), line_number: 0, layout: None }
+        SampleReader { lines: DataLines::new(input), units, layout: None }
     }
 
     /// The line number of the last line read (from 1).
     pub fn line_number(&self) -> usize {
-        self.line_number
+        self.lines.number()
     }
 
     /// The underlying input.
     pub fn input_mut(&mut self) -> &mut R {
-        &mut self.input
+        self.lines.input_mut()
     }
 
     /// The next sample, in SI, or `None` at the end.
@@ -50,26 +49,12 @@ impl<R: BufRead> SampleReader<R> {
     /// # Errors
     /// [`Failure::Input`] naming the line and the value at fault.
     pub fn next_sample(&mut self) -> Result<Option<Sample>, Failure> {
-        loop {
-            self.line.clear();
-            self.line_number += 1;
-            let number = self.line_number;
-            let read = self
-                .input
-                .read_line(&mut self.line)
-                .map_err(|e| Failure::Input(format!("line {number}: cannot read: {e}")))?;
-            if read == 0 {
-                return Ok(None);
-            }
-            let text = self.line.trim();
-            if text.is_empty() || text.starts_with('#') {
-                continue;
-            }
+        while let Some((number, text)) = self.lines.next_line()? {
+            let at_line = |m: String| Failure::Input(format!("line {number}: {m}"));
             let layout = match self.layout {
                 Some(layout) => layout,
                 None => {
-                    let (layout, header) = layout_of(text, self.units)
-                        .map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
+                    let (layout, header) = layout_of(text, self.units).map_err(at_line)?;
                     self.layout = Some(layout);
                     if header {
                         continue;
@@ -77,10 +62,9 @@ impl<R: BufRead> SampleReader<R> {
                     layout
                 }
             };
-            return parse_sample(text, layout)
-                .map(Some)
-                .map_err(|m| Failure::Input(format!("line {number}: {m}")));
+            return parse_sample(text, layout).map(Some).map_err(at_line);
         }
+        Ok(None)
     }
 }
 
