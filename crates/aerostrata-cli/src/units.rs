@@ -172,24 +172,6 @@ impl UnitSystem {
     }
 }
 
-/// A number for a message: up to 7 significant digits, no trailing zeros.
-pub fn tidy(value: f64) -> String {
-    if !value.is_finite() || value == 0.0 {
-        return format!("{value}");
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    if !(-4..9).contains(&magnitude) {
-        return format!("{value:.6e}");
-    }
-    let decimals = (6 - magnitude).max(0) as usize;
-    let text = format!("{value:.decimals$}");
-    if text.contains('.') {
-        text.trim_end_matches('0').trim_end_matches('.').to_owned()
-    } else {
-        text
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -246,13 +228,5 @@ mod tests {
         assert_eq!(us.from_si(Quantity::Length, 0.3048), 1.0);
         assert_eq!(UnitSystem::Si.unit(Quantity::Pressure).key("pressure"), "pressure_Pa");
         assert_eq!(us.unit(Quantity::Dimensionless).key("mach"), "mach");
-    }
-
-    #[test]
-    fn tidy_numbers() {
-        assert_eq!(tidy(-16_404.199_475_065_617), "-16404.2");
-        assert_eq!(tidy(3_280_839.895_013_123), "3280840");
-        assert_eq!(tidy(0.5), "0.5");
-        assert_eq!(tidy(1.0e-9), "1.000000e-9");
     }
 }

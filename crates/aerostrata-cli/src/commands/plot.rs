@@ -1,18 +1,27 @@
 //! `aerostrata plot profile` (state quantities against altitude, several models on the
 //! same axes) and `aerostrata plot flight` (q and Mach number against time, the maximum
-//! q marked), written as SVG through the figures of `aerostrata_cli::plot`.
+//! q marked): the options checked and the models and flights read, drawn by the `plot`
+//! module and written as SVG.
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
 
 use aerostrata::{Atmosphere, FlightScan};
-use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, LegendPosition, Panel, Series};
-use aerostrata_cli::units::{tidy, Quantity, UnitSystem};
-use clap::{Args, Subcommand, ValueEnum};
+use clap::{Args, Subcommand};
 
-use crate::flight::{SampleReader, VehicleArgs};
-use crate::output::{state_field, Destination};
-use crate::{Failure, OutputArgs};
+use crate::args::model::{band, offset_model};
+use crate::args::output::OutputArgs;
+use crate::args::vehicle::VehicleArgs;
+use crate::failure::Failure;
+use crate::format::tidy;
+use crate::input::lines::open_input;
+use crate::input::progress::When;
+use crate::input::samples::SampleReader;
+use crate::input::sounding;
+use crate::plot::chart::Figure;
+use crate::plot::flight::{flight_figure, FlightTrace};
+use crate::plot::profile::{PlotQuantity, ProfilePlot, Scale, MAX_PANELS};
+use crate::units::{Quantity, UnitSystem};
 
 #[derive(Subcommand)]
 pub enum PlotCommand {
@@ -81,58 +90,18 @@ pub struct FlightPlotArgs {
     out: OutputArgs,
 }
 
-#[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum Scale {
-    /// Logarithmic where a quantity spans more than a decade and a half, linear otherwise.
-    Auto,
-    /// Linear.
-    Linear,
-    /// Logarithmic.
-    Log,
-}
-
-/// The state quantities that can be plotted.
-#[derive(Clone, Copy, PartialEq, Eq, Debug, ValueEnum)]
-pub enum PlotQuantity {
-    Temperature,
-    MolecularTemperature,
-    Pressure,
-    Density,
-    SpeedOfSound,
-    DynamicViscosity,
-    KinematicViscosity,
-    ThermalConductivity,
-    Gravity,
-    PressureScaleHeight,
-    NumberDensity,
-    MeanParticleSpeed,
-    MeanFreePath,
-    CollisionFrequency,
-    MeanMolarMass,
-    TemperatureRatio,
-    PressureRatio,
-    DensityRatio,
-}
-
-impl PlotQuantity {
-    /// Its index in `State::fields`.
-    fn field(self) -> usize {
-        self as usize + 2
-    }
-}
-
-/// The most panels a profile figure holds.
-const MAX_PANELS: usize = 4;
-/// Altitudes per model line.
-const PROFILE_POINTS: usize = 300;
-
+/// Runs `aerostrata plot profile` or `aerostrata plot flight`.
+///
+/// # Errors
+/// [`Failure::Input`] naming the option or file at fault; [`Failure::Io`] when writing
+/// fails.
 pub fn run(command: &PlotCommand) -> Result<(), Failure> {
     let (figure, out) = match command {
         PlotCommand::Profile(args) => (profile(args)?, &args.out),
         PlotCommand::Flight(args) => (flights(args)?, &args.out),
     };
     let svg = figure.to_svg().map_err(Failure::Input)?;
-    let mut destination = Destination::open(out.output.as_deref())?;
+    let mut destination = out.destination()?;
     destination.write_all(svg.as_bytes())?;
     destination.commit()
 }
@@ -151,15 +120,12 @@ fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
         }
         ("offset", Some(value)) => {
             let offset: f64 = value.parse().map_err(|_| bad("the offset is not a number"))?;
-            let model = crate::offset_model(offset, units).map_err(|f| match f {
-                Failure::Input(m) => bad(&m),
-                other => other,
-            })?;
+            let model = offset_model(offset, units).map_err(|f| f.within(&format!("--model '{spec}'")))?;
             let unit = units.symbol(Quantity::TemperatureDifference);
             Ok(Model { label: format!("standard {offset:+} {unit}"), atmosphere: Box::new(model) })
         }
         ("sounding", Some(path)) => {
-            let table = crate::sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
+            let table = sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
             let name = Path::new(path).file_stem().map_or(path.into(), |n| n.to_string_lossy());
             Ok(Model { label: format!("sounding {name}"), atmosphere: Box::new(table) })
         }
@@ -188,17 +154,10 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
     for (model, label) in models.iter_mut().zip(&args.labels) {
         model.label.clone_from(label);
     }
-    let band = |m: &Model| {
-        let r = m.atmosphere.range();
-        if args.geopotential {
-            (r.geopotential_min_m, r.geopotential_max_m)
-        } else {
-            (r.geometric_min_m, r.geometric_max_m)
-        }
-    };
+    let band_of = |m: &Model| band(m.atmosphere.range(), args.geopotential);
     let length = units.unit(Quantity::Length);
-    let lowest = models.iter().map(|m| band(m).0).fold(f64::INFINITY, f64::min);
-    let highest = models.iter().map(|m| band(m).1).fold(f64::NEG_INFINITY, f64::max);
+    let lowest = models.iter().map(|m| band_of(m).0).fold(f64::INFINITY, f64::min);
+    let highest = models.iter().map(|m| band_of(m).1).fold(f64::NEG_INFINITY, f64::max);
     let from = args.from.map_or(lowest.max(0.0), |z| length.to_si(z));
     let to = args.to.map_or(highest.min(86_000.0), |z| length.to_si(z));
     let unit = length.symbol;
@@ -207,103 +166,31 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
             return Err(Failure::Input(format!("{option} must be a finite altitude in {unit}, got {v}")));
         }
     }
+    let in_units = |m: f64| tidy(length.from_si(m));
     if to <= from {
         return Err(Failure::Input(format!(
             "--to {} {unit} must be above --from {} {unit}",
-            tidy(length.from_si(to)),
-            tidy(length.from_si(from))
+            in_units(to),
+            in_units(from)
         )));
     }
-    // Altitudes on the plot: km in SI, ft in US units.
-    let (altitude_scale, altitude_unit) = match units {
-        UnitSystem::Si => (1e-3, "km"),
-        UnitSystem::Us => (1.0 / aerostrata::constants::units::FOOT_M, "ft"),
-    };
-    let kind = if args.geopotential { "geopotential" } else { "geometric" };
-    let mut panels: Vec<Panel> = quantities
-        .iter()
-        .map(|q| {
-            let (base, quantity) = state_field(q.field());
-            let symbol = units.symbol(quantity);
-            let name = base.replace('_', " ");
-            Panel {
-                x_label: if symbol.is_empty() { name } else { format!("{name} ({symbol})") },
-                y_label: format!("{kind} altitude ({altitude_unit})"),
-                // Low and to the left is where profiles of the air leave room.
-                legend: LegendPosition::LowerLeft,
-                ..Panel::default()
-            }
-        })
-        .collect();
-    for (index, model) in models.iter().enumerate() {
-        let (bottom, top) = band(model);
+    let mut plot = ProfilePlot::new(quantities, units, args.geopotential);
+    for (model, spec) in models.iter().zip(&specs) {
+        let (bottom, top) = band_of(model);
         let (lo, hi) = (from.max(bottom), to.min(top));
         if hi <= lo {
             return Err(Failure::Input(format!(
-                "--model '{}' covers {} to {} {unit}, outside --from {} to --to {} {unit}",
-                specs[index],
-                tidy(length.from_si(bottom)),
-                tidy(length.from_si(top)),
-                tidy(length.from_si(from)),
-                tidy(length.from_si(to))
+                "--model '{spec}' covers {} to {} {unit}, outside --from {} to --to {} {unit}",
+                in_units(bottom),
+                in_units(top),
+                in_units(from),
+                in_units(to)
             )));
         }
-        let mut lines = vec![Vec::with_capacity(PROFILE_POINTS + 1); quantities.len()];
-        for i in 0..=PROFILE_POINTS {
-            let z = (lo + (hi - lo) * i as f64 / PROFILE_POINTS as f64).min(hi);
-            let altitude = if args.geopotential {
-                aerostrata::Altitude::geopotential_m(z)
-            } else {
-                aerostrata::Altitude::geometric_m(z)
-            };
-            let state = altitude
-                .and_then(|a| model.atmosphere.state(a))
-                .map_err(|e| Failure::Input(format!("--model '{}': {e}", specs[index])))?;
-            let fields = state.fields();
-            for (line, q) in lines.iter_mut().zip(&quantities) {
-                let (_, quantity) = state_field(q.field());
-                let value = fields[q.field()].1.map_or(f64::NAN, |v| units.from_si(quantity, v));
-                line.push((value, z * altitude_scale));
-            }
-        }
-        for (panel_index, (panel, points)) in panels.iter_mut().zip(lines).enumerate() {
-            // The legend once, on the first panel: the colours are the same on every one.
-            let label = if panel_index == 0 { model.label.clone() } else { String::new() };
-            panel.series.push(Series { label, points, dashed: false, color: index });
-        }
+        plot.add(&model.label, model.atmosphere.as_ref(), lo, hi)
+            .map_err(|e| Failure::Input(format!("--model '{spec}': {e}")))?;
     }
-    for panel in &mut panels {
-        panel.log_x = match args.scale {
-            Scale::Linear => false,
-            Scale::Log => true,
-            Scale::Auto => spans_decades(panel),
-        };
-    }
-    let title = args.title.clone().unwrap_or_else(|| {
-        let names: Vec<String> =
-            quantities.iter().map(|q| state_field(q.field()).0.replace('_', " ")).collect();
-        let mut title = names.join(", ");
-        if let Some(first) = title.get_mut(0..1) {
-            first.make_ascii_uppercase();
-        }
-        format!("{title} against altitude")
-    });
-    let width = 120 + 380 * panels.len() as u32;
-    Ok(Figure { title, layout: Layout::SideBySide, panels, size: (width.max(560), 640) })
-}
-
-/// Whether a panel's values are all positive and span more than a decade and a half.
-fn spans_decades(panel: &Panel) -> bool {
-    let values = panel.series.iter().flat_map(|s| s.points.iter().map(|p| p.0)).filter(|v| v.is_finite());
-    let (mut lo, mut hi) = (f64::INFINITY, 0.0f64);
-    for v in values {
-        if v <= 0.0 {
-            return false;
-        }
-        lo = lo.min(v);
-        hi = hi.max(v);
-    }
-    hi > 0.0 && hi / lo > 30.0
+    Ok(plot.figure(args.scale, args.title.clone()))
 }
 
 fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
@@ -319,16 +206,12 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         let label = args.labels.get(index).cloned().unwrap_or_else(|| {
             path.file_stem().map_or_else(|| name.clone(), |s| s.to_string_lossy().into_owned())
         });
-        let atmosphere = crate::offset_model(args.vehicle.offset(), units)?;
+        let atmosphere = offset_model(args.vehicle.offset(), units)?;
         let mut scan = FlightScan::new(atmosphere, vehicle);
-        let input = crate::open_input(Some(path), crate::progress::When::Never)?;
+        let input = open_input(Some(path), When::Never)?;
         let mut reader = SampleReader::new(input, units);
         let mut trace = FlightTrace::new(label);
-        let in_file = |f: Failure| match f {
-            Failure::Input(m) => Failure::Input(format!("{name}: {m}")),
-            other => other,
-        };
-        while let Some(sample) = reader.next_sample().map_err(in_file)? {
+        while let Some(sample) = reader.next_sample().map_err(|f| f.within(&name))? {
             let point = scan
                 .push(sample)
                 .map_err(|e| Failure::Input(format!("{name}: line {}: {e}", reader.line_number())))?;

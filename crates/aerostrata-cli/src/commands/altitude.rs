@@ -5,11 +5,15 @@
 use aerostrata::inverse::{
     barometric_altitude_m, density_altitude_from, pressure_altitude, BarometricReference,
 };
-use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{ArgGroup, Args};
 
-use crate::output::{Column, Destination, Format, RowWriter, Style};
-use crate::{Failure, OutputArgs};
+use crate::args::output::OutputArgs;
+use crate::failure::Failure;
+use crate::format::Style;
+use crate::input::lines::{open_input, DataLines};
+use crate::input::progress::When;
+use crate::output::rows::{Column, Format, RowWriter};
+use crate::units::{Quantity, UnitSystem};
 
 #[derive(Args)]
 #[command(group(ArgGroup::new("input").required(true).args(["pressure", "file"])))]
@@ -36,6 +40,11 @@ pub struct AltitudeArgs {
     out: OutputArgs,
 }
 
+/// Runs `aerostrata altitude`.
+///
+/// # Errors
+/// [`Failure::Input`] naming the option or the input line at fault; [`Failure::Io`] when
+/// writing fails.
 pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     let units = args.out.units;
     let pressure_unit = units.unit(Quantity::AltimeterPressure);
@@ -97,33 +106,19 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     let single =
         args.pressure.map(|p| row(p).map_err(|m| Failure::Input(format!("--pressure: {m}")))).transpose()?;
     let mut input = match (&single, &args.file) {
-        (None, Some(path)) => Some(crate::open_input(Some(path), crate::progress::When::Never)?),
+        (None, Some(path)) => Some(DataLines::new(open_input(Some(path), When::Never)?)),
         _ => None,
     };
-    let destination = Destination::open(args.out.output.as_deref())?;
-    let mut writer = RowWriter::new(destination, args.format, columns)?;
+    let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
     if let Some(values) = single {
         writer.row(&values)?;
-    } else if let Some(input) = &mut input {
-        let unit = if units == UnitSystem::Si { "Pa" } else { "inHg" };
-        let mut line = String::new();
-        let mut line_number = 0;
-        loop {
-            line.clear();
-            line_number += 1;
-            let read = std::io::BufRead::read_line(input, &mut line)
-                .map_err(|e| Failure::Input(format!("line {line_number}: cannot read: {e}")))?;
-            if read == 0 {
-                break;
-            }
-            let text = line.trim();
-            if text.is_empty() || text.starts_with('#') {
-                continue;
-            }
+    } else if let Some(lines) = &mut input {
+        let unit = pressure_unit.symbol;
+        while let Some((number, text)) = lines.next_line()? {
             let pressure: f64 = text.parse().map_err(|_| {
-                Failure::Input(format!("line {line_number}: '{text}' is not a pressure (a number of {unit})"))
+                Failure::Input(format!("line {number}: '{text}' is not a pressure (a number of {unit})"))
             })?;
-            let values = row(pressure).map_err(|m| Failure::Input(format!("line {line_number}: {m}")))?;
+            let values = row(pressure).map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
             writer.row(&values)?;
         }
     }

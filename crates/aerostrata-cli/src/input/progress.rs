@@ -8,6 +8,8 @@ use std::time::{Duration, Instant};
 
 use clap::ValueEnum;
 
+use crate::format::fixed;
+
 /// When to show the progress line.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
 pub enum When {
@@ -104,11 +106,12 @@ pub fn describe(read: u64, total: Option<u64>, elapsed: Duration) -> String {
     let rate = mib(read) / elapsed.as_secs_f64().max(1e-3);
     match total {
         Some(total) if total > 0 => format!(
-            "aerostrata: {:5.1} % of {:.1} MiB read ({rate:.1} MiB/s)",
-            100.0 * read.min(total) as f64 / total as f64,
-            mib(total)
+            "aerostrata: {:>5} % of {} MiB read ({} MiB/s)",
+            fixed(100.0 * read.min(total) as f64 / total as f64, 1),
+            fixed(mib(total), 1),
+            fixed(rate, 1)
         ),
-        _ => format!("aerostrata: {:.1} MiB read ({rate:.1} MiB/s)", mib(read)),
+        _ => format!("aerostrata: {} MiB read ({} MiB/s)", fixed(mib(read), 1), fixed(rate, 1)),
     }
 }
 

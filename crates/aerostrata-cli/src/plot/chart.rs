@@ -1,18 +1,13 @@
-//! SVG figures: panels of line series with titles, axis labels, legends and annotated
-//! points, drawn with plotters' SVG backend. Text is written as SVG `<text>` elements
-//! (plotters' built-in size estimate lays it out), so no font is needed to build or draw;
-//! the viewer renders the text with its own sans-serif font.
-//!
-//! The figures for the command line (`aerostrata plot`) and for the worked examples are
-//! built here, so that both look alike.
+//! The chart drawing: panels of line series with titles, axis labels, legends and
+//! annotated points, drawn with plotters' SVG backend. Text is written as SVG `<text>`
+//! elements (plotters' built-in size estimate lays it out), so no font is needed to build
+//! or draw; the viewer renders the text with its own sans-serif font.
 
 use plotters::coord::ranged1d::{AsRangedCoord, ValueFormatter};
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use aerostrata::flight::{FlightSummary, Sample};
-
-use crate::units::{tidy, Quantity, UnitSystem};
+use crate::format::tick;
 
 /// One line on a panel.
 #[derive(Clone, Debug, Default)]
@@ -145,32 +140,6 @@ impl Span {
             let width = self.hi - self.lo;
             let room = if width > 0.0 { 0.05 * width } else { 0.5 * self.lo.abs().max(1.0) };
             Span { lo: self.lo - room, hi: self.hi + room }
-        }
-    }
-}
-
-/// A tick label: short, with an exponent for very large or small magnitudes.
-pub fn tick(value: f64) -> String {
-    if value == 0.0 || !value.is_finite() {
-        return "0".to_owned();
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    if (-3..6).contains(&magnitude) {
-        let decimals = (3 - magnitude).clamp(0, 6) as usize;
-        let text = format!("{value:.decimals$}");
-        if text.contains('.') {
-            text.trim_end_matches('0').trim_end_matches('.').to_owned()
-        } else {
-            text
-        }
-    } else {
-        let text = format!("{value:.2e}");
-        match text.split_once('e') {
-            Some((mantissa, exponent)) => {
-                let mantissa = mantissa.trim_end_matches('0').trim_end_matches('.');
-                format!("{mantissa}e{exponent}")
-            }
-            None => text,
         }
     }
 }
@@ -359,182 +328,9 @@ where
     Ok(())
 }
 
-/// At most this many points are kept of a flight for plotting.
-pub const FLIGHT_PLOT_POINTS: usize = 1024;
-
-/// A flight kept for plotting, with bounded memory: every sample is offered, and when
-/// the buffer is full every other kept point is dropped and the stride doubles, so a
-/// flight of any length keeps between half and all of [`FLIGHT_PLOT_POINTS`] points
-/// spread evenly over it. The maximum-q point is annotated from the scan's exact summary,
-/// not from the kept points.
-#[derive(Clone, Debug)]
-pub struct FlightTrace {
-    /// The flight's name in the legend.
-    pub label: String,
-    /// Kept (time s, dynamic pressure Pa, Mach number or NaN).
-    points: Vec<(f64, f64, f64)>,
-    stride: usize,
-    offered: usize,
-    /// The scan's summary (set by the caller when the flight is complete).
-    pub summary: Option<FlightSummary>,
-}
-
-impl FlightTrace {
-    /// An empty trace named `label`.
-    pub fn new(label: impl Into<String>) -> Self {
-        Self { label: label.into(), points: Vec::new(), stride: 1, offered: 0, summary: None }
-    }
-
-    /// Offers one sample's time (s), dynamic pressure (Pa) and Mach number.
-    pub fn offer(&mut self, time_s: f64, dynamic_pressure_pa: f64, mach: Option<f64>) {
-        if self.offered % self.stride == 0 {
-            if self.points.len() == FLIGHT_PLOT_POINTS {
-                let mut index = 0;
-                self.points.retain(|_| {
-                    index += 1;
-                    index % 2 == 1
-                });
-                self.stride *= 2;
-            }
-            if self.offered % self.stride == 0 {
-                self.points.push((time_s, dynamic_pressure_pa, mach.unwrap_or(f64::NAN)));
-            }
-        }
-        self.offered += 1;
-    }
-
-    /// The points kept.
-    pub fn len(&self) -> usize {
-        self.points.len()
-    }
-
-    /// Whether no point is kept.
-    pub fn is_empty(&self) -> bool {
-        self.points.is_empty()
-    }
-}
-
-/// Dynamic pressure on plots: kPa in SI (readable ticks), psf in US units.
-fn plot_pressure(units: UnitSystem, pa: f64) -> f64 {
-    match units {
-        UnitSystem::Si => pa / 1000.0,
-        UnitSystem::Us => units.from_si(Quantity::Pressure, pa),
-    }
-}
-
-fn plot_pressure_unit(units: UnitSystem) -> &'static str {
-    match units {
-        UnitSystem::Si => "kPa",
-        UnitSystem::Us => units.symbol(Quantity::Pressure),
-    }
-}
-
-/// Dynamic pressure and Mach number against time for one or more flights, on two
-/// stacked panels, each flight's maximum q marked on both.
-pub fn flight_figure(title: &str, traces: &[FlightTrace], units: UnitSystem) -> Figure {
-    let q_unit = plot_pressure_unit(units);
-    let mut q = Panel {
-        x_label: "time (s)".to_owned(),
-        y_label: format!("dynamic pressure q ({q_unit})"),
-        y_from_zero: true,
-        ..Panel::default()
-    };
-    let mut mach = Panel {
-        x_label: "time (s)".to_owned(),
-        y_label: "Mach number".to_owned(),
-        y_from_zero: true,
-        ..Panel::default()
-    };
-    for (index, trace) in traces.iter().enumerate() {
-        q.series.push(Series {
-            label: trace.label.clone(),
-            points: trace.points.iter().map(|p| (p.0, plot_pressure(units, p.1))).collect(),
-            dashed: false,
-            color: index,
-        });
-        mach.series.push(Series {
-            label: trace.label.clone(),
-            points: trace.points.iter().map(|p| (p.0, p.2)).collect(),
-            dashed: false,
-            color: index,
-        });
-        if let Some(peak) = trace.summary.as_ref().and_then(|s| s.max_dynamic_pressure) {
-            let value = plot_pressure(units, peak.dynamic_pressure_pa);
-            q.markers.push(Marker {
-                at: (peak.time_s, value),
-                text: format!("max q {} {q_unit} at t = {} s", tidy_short(value), tidy_short(peak.time_s)),
-                color: index,
-            });
-            if let Some(m) = peak.mach {
-                mach.markers.push(Marker {
-                    at: (peak.time_s, m),
-                    text: format!("Mach {} at max q", tidy_short(m)),
-                    color: index,
-                });
-            }
-        }
-    }
-    Figure { title: title.to_owned(), layout: Layout::Stacked, panels: vec![q, mach], size: (900, 720) }
-}
-
-/// Four significant digits for a note on a plot.
-pub fn tidy_short(value: f64) -> String {
-    if value == 0.0 || !value.is_finite() {
-        return tidy(value);
-    }
-    let magnitude = value.abs().log10().floor() as i32;
-    let decimals = (3 - magnitude).clamp(0, 6) as usize;
-    format!("{value:.decimals$}")
-}
-
-/// A convenience for callers that hold whole samples: the trace of `samples` as the
-/// core's scan sees them through `scan`.
-///
-/// # Errors
-/// The first sample the scan rejects, with its index.
-pub fn trace_flight<A: aerostrata::Atmosphere>(
-    label: &str,
-    samples: impl IntoIterator<Item = Sample>,
-    mut scan: aerostrata::FlightScan<'_, A>,
-) -> Result<FlightTrace, aerostrata::Error> {
-    let mut trace = FlightTrace::new(label);
-    for sample in samples {
-        let point = scan.push(sample)?;
-        trace.offer(point.time_s, point.dynamic_pressure_pa, point.mach);
-    }
-    trace.summary = Some(scan.summary());
-    Ok(trace)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn ticks_are_short() {
-        assert_eq!(tick(0.0), "0");
-        assert_eq!(tick(20_000.0), "20000");
-        assert_eq!(tick(1.5), "1.5");
-        assert_eq!(tick(1.0e-5), "1e-5");
-        assert_eq!(tick(1.0e6), "1e6");
-        assert_eq!(tick(2.5e-7), "2.5e-7");
-    }
-
-    #[test]
-    fn a_trace_keeps_bounded_evenly_spread_points() {
-        let mut trace = FlightTrace::new("x");
-        for i in 0..1_000_000 {
-            trace.offer(i as f64, 1.0, None);
-        }
-        assert!(
-            trace.len() <= FLIGHT_PLOT_POINTS && trace.len() >= FLIGHT_PLOT_POINTS / 2,
-            "{}",
-            trace.len()
-        );
-        let gaps: Vec<f64> = trace.points.windows(2).map(|w| w[1].0 - w[0].0).collect();
-        assert!(gaps.iter().all(|g| *g == gaps[0]), "evenly spread");
-        assert_eq!(trace.points[0].0, 0.0);
-    }
 
     #[test]
     fn segments_break_at_gaps() {

@@ -5,11 +5,14 @@
 use aerostrata::airspeed::{AirData, Airspeed};
 use aerostrata::constants::units::{FOOT_PER_SECOND_M_S, KNOT_M_S};
 use aerostrata::Atmosphere;
-use aerostrata_cli::units::{Quantity, UnitSystem};
 use clap::{ArgGroup, Args, ValueEnum};
 
-use crate::output::{Column, Destination, Format, RowWriter, Style};
-use crate::{Failure, OutputArgs};
+use crate::args::model::{altitude_in, offset_model};
+use crate::args::output::OutputArgs;
+use crate::failure::Failure;
+use crate::format::Style;
+use crate::output::rows::{Column, Format, RowWriter};
+use crate::units::{Quantity, UnitSystem};
 
 #[derive(Args)]
 #[command(group(ArgGroup::new("speed").required(true).args(["cas", "eas", "tas", "mach"])))]
@@ -105,8 +108,8 @@ fn conditions(args: &AirspeedArgs) -> Result<AirData, Failure> {
     let units = args.out.units;
     let input = |option: &str, e: aerostrata::Error| Failure::Input(format!("{option}: {e}"));
     if let Some(z) = args.altitude {
-        let model = crate::offset_model(args.offset.unwrap_or(0.0), units)?;
-        let state = crate::altitude_in(units, z, false, model.range())
+        let model = offset_model(args.offset.unwrap_or(0.0), units)?;
+        let state = altitude_in(units, z, false, model.range())
             .and_then(|a| model.state(a).map_err(|e| e.to_string()))
             .map_err(|m| Failure::Input(format!("--altitude: {m}")))?;
         return AirData::from_state(&state).map_err(|e| input("--altitude", e));
@@ -131,6 +134,10 @@ fn conditions(args: &AirspeedArgs) -> Result<AirData, Failure> {
     }
 }
 
+/// Runs `aerostrata airspeed`.
+///
+/// # Errors
+/// [`Failure::Input`] naming the option at fault; [`Failure::Io`] when writing fails.
 pub fn run(args: &AirspeedArgs) -> Result<(), Failure> {
     let units = args.out.units;
     let air = conditions(args)?;
@@ -177,8 +184,7 @@ pub fn run(args: &AirspeedArgs) -> Result<(), Failure> {
         u(Quantity::Density, air.density_kg_m3()),
         u(Quantity::Speed, air.speed_of_sound_m_s()),
     ];
-    let destination = Destination::open(args.out.output.as_deref())?;
-    let mut writer = RowWriter::new(destination, args.format, columns)?;
+    let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
     writer.row(&values)?;
     writer.finish()?.commit()
 }

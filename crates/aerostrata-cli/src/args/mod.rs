@@ -1,0 +1,7 @@
+//! Groups of options that several subcommands share (flattened into each one's own
+//! arguments), with what they build: the output's units and destination, the atmosphere,
+//! the vehicle's drag.
+
+pub mod model;
+pub mod output;
+pub mod vehicle;

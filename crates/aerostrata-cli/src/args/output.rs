@@ -1,0 +1,33 @@
+//! `--units` and `--output`: the unit system of every input and output, and where the
+//! rows go.
+
+use std::path::PathBuf;
+
+use clap::Args;
+
+use crate::failure::Failure;
+use crate::output::destination::Destination;
+use crate::units::UnitSystem;
+
+/// Units and destination, common to the commands that write data.
+#[derive(Args)]
+pub struct OutputArgs {
+    /// Units of every input and output: si (m, m/s, K, Pa, kg/m3) or us (ft, ft/s,
+    /// airspeeds in kt, degF, psf, altimetry in inHg, slug/ft3, lbf).
+    #[arg(long, value_enum, default_value_t = UnitSystem::Si)]
+    pub units: UnitSystem,
+    /// Write to FILE instead of stdout; a regular file appears only if the command
+    /// succeeds (symbolic links are followed; a device or FIFO is written into directly).
+    #[arg(long, short = 'o', value_name = "FILE")]
+    pub output: Option<PathBuf>,
+}
+
+impl OutputArgs {
+    /// Stdout, or the `--output` file.
+    ///
+    /// # Errors
+    /// [`Failure::Input`] naming the path when it cannot be written.
+    pub fn destination(&self) -> Result<Destination, Failure> {
+        Destination::open(self.output.as_deref())
+    }
+}

@@ -1,0 +1,120 @@
+//! `--cd`, `--cd-table`, `--interpolation`, `--area`, `--length` and the offset of the
+//! day: the vehicle whose drag and Reynolds number a flight scan adds, as `flight` and
+//! `plot flight` read it.
+
+use aerostrata::aero::{DragCurve, Interpolation};
+use aerostrata::flight::Vehicle;
+use clap::{Args, ValueEnum};
+
+use crate::failure::Failure;
+use crate::units::{Quantity, UnitSystem};
+
+/// The drag model of a vehicle, as the options give it.
+#[derive(Args, Clone)]
+pub struct VehicleArgs {
+    /// A constant drag coefficient (with --area).
+    #[arg(long, value_name = "CD", conflicts_with = "cd_table", allow_negative_numbers = true)]
+    cd: Option<f64>,
+    /// A drag table MACH:CD,MACH:CD,... with Mach increasing (with --area); the end values
+    /// are held outside it.
+    #[arg(long, value_name = "TABLE")]
+    cd_table: Option<String>,
+    /// How the drag table is read between its points.
+    #[arg(long, value_enum, default_value_t = TableInterpolation::Cubic)]
+    interpolation: TableInterpolation,
+    /// Reference area for the drag coefficient, m^2 (ft^2 with --units us).
+    #[arg(long, value_name = "AREA", allow_negative_numbers = true)]
+    area: Option<f64>,
+    /// Reference length for the Reynolds number, m or ft (with a drag coefficient and area).
+    #[arg(long, value_name = "LENGTH", allow_negative_numbers = true)]
+    length: Option<f64>,
+    /// Temperature offset dT (a hot day is positive) at the standard's pressure; K, or
+    /// degF with --units us.
+    #[arg(long, value_name = "DT", default_value_t = 0.0, allow_negative_numbers = true)]
+    offset: f64,
+}
+
+#[derive(Clone, Copy, ValueEnum)]
+pub enum TableInterpolation {
+    /// Straight lines between points.
+    Linear,
+    /// Monotone cubic (Fritsch-Carlson): no overshoot between points.
+    Cubic,
+}
+
+/// Mach and Cd columns of a `--cd-table` value.
+fn parse_table(text: &str) -> Result<(Vec<f64>, Vec<f64>), Failure> {
+    let mut mach = Vec::new();
+    let mut cd = Vec::new();
+    for pair in text.split(',') {
+        let parsed =
+            pair.split_once(':').and_then(|(m, c)| Some((m.trim().parse().ok()?, c.trim().parse().ok()?)));
+        let Some((m, c)) = parsed else {
+            return Err(Failure::Input(format!("--cd-table: '{pair}' is not MACH:CD (two numbers)")));
+        };
+        mach.push(m);
+        cd.push(c);
+    }
+    Ok((mach, cd))
+}
+
+/// The drag table's columns, owned, for [`VehicleArgs::vehicle`] to borrow.
+pub struct DragTable(Option<(Vec<f64>, Vec<f64>)>);
+
+impl VehicleArgs {
+    /// The drag table's columns, parsed.
+    ///
+    /// # Errors
+    /// [`Failure::Input`] for a malformed table.
+    pub fn table(&self) -> Result<DragTable, Failure> {
+        Ok(DragTable(self.cd_table.as_deref().map(parse_table).transpose()?))
+    }
+
+    /// The vehicle the options describe, if any.
+    ///
+    /// # Errors
+    /// [`Failure::Input`] naming the option at fault.
+    pub fn vehicle<'t>(
+        &self,
+        table: &'t DragTable,
+        units: UnitSystem,
+    ) -> Result<Option<Vehicle<'t>>, Failure> {
+        let interpolation = match self.interpolation {
+            TableInterpolation::Linear => Interpolation::Linear,
+            TableInterpolation::Cubic => Interpolation::MonotoneCubic,
+        };
+        let drag = match (&table.0, self.cd) {
+            (Some((mach, cd)), _) => Some(
+                DragCurve::table(mach, cd, interpolation)
+                    .map_err(|e| Failure::Input(format!("--cd-table: {e}")))?,
+            ),
+            (None, Some(cd)) => {
+                Some(DragCurve::constant(cd).map_err(|e| Failure::Input(format!("--cd: {e}")))?)
+            }
+            (None, None) => None,
+        };
+        match (drag, self.area) {
+            (Some(drag), Some(area)) => {
+                let area = units.to_si(Quantity::Area, area);
+                let vehicle = Vehicle::new(drag, area).map_err(|e| Failure::Input(format!("--area: {e}")))?;
+                Ok(Some(match self.length {
+                    Some(length) => vehicle
+                        .with_reference_length(units.to_si(Quantity::Length, length))
+                        .map_err(|e| Failure::Input(format!("--length: {e}")))?,
+                    None => vehicle,
+                }))
+            }
+            (Some(_), None) => Err(Failure::Input("--cd and --cd-table need --area".to_owned())),
+            (None, Some(_)) => Err(Failure::Input("--area needs --cd or --cd-table".to_owned())),
+            (None, None) if self.length.is_some() => {
+                Err(Failure::Input("--length needs --cd or --cd-table and --area".to_owned()))
+            }
+            (None, None) => Ok(None),
+        }
+    }
+
+    /// The temperature offset, as given (K, or degF with --units us).
+    pub fn offset(&self) -> f64 {
+        self.offset
+    }
+}
