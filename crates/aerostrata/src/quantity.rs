@@ -92,22 +92,16 @@ macro_rules! catalogue {
             )*
         }
 
-        /// The catalogue, in id order (ids run from 0 without gaps).
-        static CATALOGUE: &[Info] = &[$(
-            Info {
-                id: $id,
-                name: $name,
-                symbol: $symbol,
-                label: $label,
-                description: $description,
-                si: &units::$si,
-                us: &units::$us,
-                may_be_undefined: $undefined,
-                group: Group::$group,
-                rounding: $rounding,
-                primary: $primary,
-            },
-        )*];
+        // The catalogue, in id order (ids run from 0 without gaps), one array per field:
+        // a program that asks only for names links only the names (the size-budgeted
+        // WebAssembly module and firmware need not carry every description).
+        static NAMES: &[&str] = &[$($name),*];
+        static SYMBOLS: &[&str] = &[$($symbol),*];
+        static LABELS: &[&str] = &[$($label),*];
+        static DESCRIPTIONS: &[&str] = &[$($description),*];
+        static SI: &[&Unit] = &[$(&units::$si),*];
+        static US: &[&Unit] = &[$(&units::$us),*];
+        static TRAITS: &[(bool, Group, Rounding, bool)] = &[$(($undefined, Group::$group, $rounding, $primary)),*];
 
         impl Quantity {
             /// Every quantity, in id order.
@@ -232,9 +226,23 @@ catalogue! {
 
 impl Quantity {
     /// What the catalogue says of this quantity.
-    pub fn info(self) -> &'static Info {
-        // The catalogue is in id order from 0 (a test checks it), so the id is the index.
-        &CATALOGUE[self as usize]
+    pub fn info(self) -> Info {
+        // The arrays are in id order from 0 (a test checks it), so the id is the index.
+        let i = self as usize;
+        let (may_be_undefined, group, rounding, primary) = TRAITS[i];
+        Info {
+            id: self as u32,
+            name: NAMES[i],
+            symbol: SYMBOLS[i],
+            label: LABELS[i],
+            description: DESCRIPTIONS[i],
+            si: SI[i],
+            us: US[i],
+            may_be_undefined,
+            group,
+            rounding,
+            primary,
+        }
     }
 
     /// The stable id.
@@ -254,17 +262,22 @@ impl Quantity {
 
     /// The machine name.
     pub fn name(self) -> &'static str {
-        self.info().name
+        NAMES[self as usize]
     }
 
     /// The SI unit.
     pub fn si(self) -> &'static Unit {
-        self.info().si
+        SI[self as usize]
+    }
+
+    /// The US customary unit.
+    pub fn us(self) -> &'static Unit {
+        US[self as usize]
     }
 
     /// The quantities a result carries, in id order.
     pub fn of_group(group: Group) -> impl Iterator<Item = Quantity> {
-        Quantity::ALL.iter().copied().filter(move |q| q.info().group == group)
+        Quantity::ALL.iter().copied().filter(move |q| TRAITS[*q as usize].1 == group)
     }
 }
 
@@ -390,8 +403,13 @@ mod tests {
 
     #[test]
     fn ids_run_from_zero_in_order_and_names_are_unique() {
-        assert_eq!(CATALOGUE.len(), Quantity::ALL.len());
-        for (index, (info, quantity)) in CATALOGUE.iter().zip(Quantity::ALL).enumerate() {
+        for array in
+            [NAMES.len(), SYMBOLS.len(), LABELS.len(), DESCRIPTIONS.len(), SI.len(), US.len(), TRAITS.len()]
+        {
+            assert_eq!(array, Quantity::ALL.len());
+        }
+        for (index, quantity) in Quantity::ALL.iter().enumerate() {
+            let info = quantity.info();
             assert_eq!(info.id as usize, index, "{}", info.name);
             assert_eq!(quantity.id(), info.id, "{}", info.name);
             assert_eq!(Quantity::from_id(info.id), Some(*quantity));
@@ -410,10 +428,8 @@ mod tests {
             assert_eq!(info.si, info.si.dimension().si(), "{}: the SI unit is its dimension's", info.name);
             assert!(!info.description.is_empty() && !info.label.is_empty() && !info.symbol.is_empty());
         }
-        for (i, a) in CATALOGUE.iter().enumerate() {
-            for b in &CATALOGUE[i + 1..] {
-                assert_ne!(a.name, b.name);
-            }
+        for (i, a) in NAMES.iter().enumerate() {
+            assert!(!NAMES[i + 1..].contains(a), "{a} twice");
         }
         assert_eq!(Quantity::from_id(Quantity::ALL.len() as u32), None);
         assert_eq!(Quantity::from_name("Temperature"), None);

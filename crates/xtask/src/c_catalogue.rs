@@ -54,9 +54,9 @@ fn record(out: &mut String, name: &str, doc: &str, quantities: &[Quantity], defi
             out,
             "    /// {}{}: {}.{undefined}\n    pub {}: f64,",
             capitalised(info.label),
-            unit_words(info),
+            unit_words(&info),
             info.description,
-            field(info)
+            field(&info)
         );
     }
     let _ = writeln!(out, "    /// {defined_doc}\n    pub defined: u32,\n}}\n");
@@ -67,7 +67,7 @@ fn record(out: &mut String, name: &str, doc: &str, quantities: &[Quantity], defi
          Self {{"
     );
     for q in quantities {
-        let _ = writeln!(out, "            {}: value(Quantity::{q:?}),", field(q.info()));
+        let _ = writeln!(out, "            {}: value(Quantity::{q:?}),", field(&q.info()));
     }
     let _ = writeln!(
         out,
@@ -75,7 +75,7 @@ fn record(out: &mut String, name: &str, doc: &str, quantities: &[Quantity], defi
          has one.\n    pub(crate) fn get(&self, quantity: Quantity) -> Option<f64> {{\n        match quantity {{"
     );
     for q in quantities {
-        let _ = writeln!(out, "            Quantity::{q:?} => Some(self.{}),", field(q.info()));
+        let _ = writeln!(out, "            Quantity::{q:?} => Some(self.{}),", field(&q.info()));
     }
     let _ = writeln!(out, "            _ => None,\n        }}\n    }}\n}}\n");
 }
@@ -103,7 +103,7 @@ pub fn generate() -> String {
             out,
             "    /// {}{} ({}): {}.\n    {} = {},",
             capitalised(info.label),
-            unit_words(info),
+            unit_words(&info),
             info.symbol,
             info.description,
             info.name.to_ascii_uppercase(),
@@ -125,7 +125,7 @@ pub fn generate() -> String {
     );
     for q in Quantity::ALL {
         let i = q.info();
-        let (si, us) = (column(i, i.si), column(i, i.us));
+        let (si, us) = (column(&i, i.si), column(&i, i.us));
         let texts = [i.name, i.symbol, i.label, i.description, i.si.symbol(), i.us.symbol(), &si, &us];
         let literals: Vec<String> = texts.iter().map(|t| format!("c{t:?}")).collect();
         let _ = writeln!(out, "    [{}],", literals.join(", "));
