@@ -12,11 +12,12 @@
 
 use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
-use std::process::Command;
 use std::time::{SystemTime, UNIX_EPOCH};
 use std::{env, fs};
 
 use serde_json::Value as Json;
+
+use crate::process::Cmd;
 
 /// The criterion group of `crates/aerostrata/benches/state.rs`.
 const GROUP: &str = "state";
@@ -59,7 +60,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     // The cargo that runs xtask, so that the benchmark builds with the same toolchain.
     let cargo = env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
     let args = ["bench", "-p", "aerostrata", "--bench", "state", "--bench", "sounding", "--bench", "flight"];
-    crate::run_command(root, &cargo, &args, &[])?;
+    Cmd::new(cargo).args(args).dir(root).run()?;
     let home = criterion_home(root);
     let mut results = BENCHMARKS
         .iter()
@@ -298,11 +299,11 @@ struct Machine {
 
 impl Machine {
     fn probe(root: &Path) -> Self {
-        let cpus = Command::new("nproc")
-            .output()
+        let cpus = Cmd::new("nproc")
+            .quiet()
+            .capture()
             .ok()
-            .filter(|o| o.status.success())
-            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
+            .map(|o| o.stdout_text().trim().to_owned())
             .or_else(|| std::thread::available_parallelism().ok().map(|n| n.to_string()))
             .unwrap_or_else(|| "unknown".to_owned());
         let cpu_model = fs::read_to_string("/proc/cpuinfo")
@@ -314,13 +315,13 @@ impl Machine {
                     .map(|(_, value)| value.trim().to_owned())
             })
             .unwrap_or_else(|| "unknown (no model name in /proc/cpuinfo)".to_owned());
-        let rustc = Command::new(env::var_os("RUSTC").unwrap_or_else(|| "rustc".into()))
-            .current_dir(root)
+        let rustc = Cmd::new(env::var_os("RUSTC").unwrap_or_else(|| "rustc".into()))
+            .dir(root)
             .arg("--version")
-            .output()
+            .quiet()
+            .capture()
             .ok()
-            .filter(|o| o.status.success())
-            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
+            .map(|o| o.stdout_text().trim().to_owned())
             .unwrap_or_else(|| "unknown".to_owned());
         Self { cpus, cpu_model, rustc, date: today_utc(), load_before: load_average() }
     }

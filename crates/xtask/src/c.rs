@@ -3,9 +3,9 @@
 //! AddressSanitizer with UBSan and under Valgrind, plus the Python ctypes test.
 
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
-use crate::{run_command, target_dir};
+use crate::process::Cmd;
+use crate::target_dir;
 
 /// The cbindgen the header is generated with. Pinned exactly: another version may write
 /// a different header, and the check below would then fail for no change of ours.
@@ -31,21 +31,11 @@ pub fn header(root: &Path, check_only: bool) -> Result<(), String> {
         std::fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
     }
     let output_arg = output.to_string_lossy().into_owned();
-    run_command(
-        root,
-        &cbindgen.to_string_lossy(),
-        &[
-            "--quiet",
-            "--config",
-            "bindings/c/cbindgen.toml",
-            "--crate",
-            "aerostrata-c",
-            "--output",
-            &output_arg,
-            "bindings/c",
-        ],
-        &[],
-    )?;
+    Cmd::new(cbindgen)
+        .args(["--quiet", "--config", "bindings/c/cbindgen.toml", "--crate", "aerostrata-c", "--output"])
+        .args([&output_arg, "bindings/c"])
+        .dir(root)
+        .run()?;
     if check_only {
         let fresh = std::fs::read_to_string(&output).map_err(|e| format!("cannot read {output_arg}: {e}"))?;
         let old = std::fs::read_to_string(&committed).map_err(|e| format!("cannot read {HEADER}: {e}"))?;
@@ -60,27 +50,10 @@ pub fn header(root: &Path, check_only: bool) -> Result<(), String> {
     Ok(())
 }
 
-/// Runs `program args` in `dir` and returns its stdout; Err with stdout and stderr when
-/// it fails. Unlike `run_command` it captures the output, to find the closing tally.
-fn run_captured(dir: &Path, program: &str, args: &[&str], envs: &[(&str, &str)]) -> Result<String, String> {
-    eprintln!("+ {program} {}", args.join(" "));
-    let output = Command::new(program)
-        .args(args)
-        .envs(envs.iter().copied())
-        .current_dir(dir)
-        .output()
-        .map_err(|e| format!("cannot start {program}: {e}"))?;
-    let stdout = String::from_utf8_lossy(&output.stdout).into_owned();
-    let stderr = String::from_utf8_lossy(&output.stderr).into_owned();
-    if output.status.success() {
-        Ok(stdout)
-    } else {
-        Err(format!("`{program} {}` failed ({}):\n{stdout}{stderr}", args.join(" "), output.status))
-    }
-}
-
-/// The "N passed, N failed" line a test printed, as Ok only with 0 failed and N > 0.
-fn tally(label: &str, stdout: &str) -> Result<String, String> {
+/// Runs a test program and reads the "N passed, N failed" line it printed last, as Ok
+/// only with 0 failed and N > 0.
+fn tally(label: &str, test: Cmd) -> Result<String, String> {
+    let stdout = test.capture()?.stdout_text();
     let line =
         stdout.lines().rev().find(|l| l.ends_with(" failed")).ok_or(format!("{label}: no tally line"))?;
     let numbers: Vec<usize> = line.split(' ').filter_map(|w| w.parse().ok()).collect();
@@ -132,8 +105,8 @@ pub fn test(root: &Path) -> Result<(), String> {
     cpp_args.push(&static_lib);
     cpp_args.extend_from_slice(&system_libs);
     cpp_args.extend_from_slice(&["-o", &cpp_exe]);
-    run_command(root, "g++", &cpp_args, &[])?;
-    run_command(root, &cpp_exe, &[], &[])?;
+    Cmd::new("g++").args(cpp_args).dir(root).run()?;
+    Cmd::new(&cpp_exe).dir(root).run()?;
     results.push("header compiles and links as C++17".to_owned());
 
     let compile = |exe: &str, extra: &[&str], link: &[&str]| -> Result<String, String> {
@@ -144,7 +117,7 @@ pub fn test(root: &Path) -> Result<(), String> {
         args.extend_from_slice(link);
         args.extend_from_slice(&system_libs);
         args.extend_from_slice(&["-o", &out]);
-        run_command(root, "gcc", &args, &[])?;
+        Cmd::new("gcc").args(args).dir(root).run()?;
         Ok(out)
     };
     let static_exe = compile("test_static", &["-g"], &[&static_lib])?;
@@ -155,40 +128,32 @@ pub fn test(root: &Path) -> Result<(), String> {
         &[&static_lib],
     )?;
 
-    results.push(tally("C tests, static library", &run_captured(root, &static_exe, &[&vectors], &[])?)?);
-    results.push(tally("C tests, shared library", &run_captured(root, &shared_exe, &[&vectors], &[])?)?);
+    let c_test = |program: &str| Cmd::new(program).dir(root);
+    results.push(tally("C tests, static library", c_test(&static_exe).arg(&vectors))?);
+    results.push(tally("C tests, shared library", c_test(&shared_exe).arg(&vectors))?);
+    let sanitizers = [
+        ("ASAN_OPTIONS", "detect_leaks=1:abort_on_error=0:halt_on_error=1"),
+        ("UBSAN_OPTIONS", "print_stacktrace=1:halt_on_error=1"),
+    ];
     results.push(tally(
         "C tests under AddressSanitizer + UBSan",
-        &run_captured(
-            root,
-            &asan_exe,
-            &[&vectors],
-            &[
-                ("ASAN_OPTIONS", "detect_leaks=1:abort_on_error=0:halt_on_error=1"),
-                ("UBSAN_OPTIONS", "print_stacktrace=1:halt_on_error=1"),
-            ],
-        )?,
+        c_test(&asan_exe).arg(&vectors).envs(sanitizers),
     )?);
     for exe in [&static_exe, &shared_exe] {
-        let out = run_captured(
-            root,
-            "valgrind",
-            &[
-                "--error-exitcode=1",
-                "--leak-check=full",
-                "--errors-for-leak-kinds=definite,indirect,possible",
-                "--quiet",
-                exe,
-                &vectors,
-            ],
-            &[],
-        )?;
-        results.push(tally(&format!("C tests under Valgrind ({exe})"), &out)?);
+        let valgrind = c_test("valgrind").args([
+            "--error-exitcode=1",
+            "--leak-check=full",
+            "--errors-for-leak-kinds=definite,indirect,possible",
+            "--quiet",
+            exe,
+            &vectors,
+        ]);
+        results.push(tally(&format!("C tests under Valgrind ({exe})"), valgrind)?);
     }
     let so = s(package.shared_lib.as_deref().ok_or("the host package has no shared library")?);
     results.push(tally(
         "Python ctypes test",
-        &run_captured(root, "python3", &[&s(&root.join(CTYPES_TEST)), &so, &vectors], &[])?,
+        c_test("python3").args([&s(&root.join(CTYPES_TEST)), &so, &vectors]),
     )?);
     results.push(readme_example(root, &work, &include, &static_lib, &system_libs)?);
     results.push(altimeter_example(root, &package, &work)?);
@@ -231,8 +196,8 @@ fn readme_example(
     args.extend([include, &path_arg, static_lib]);
     args.extend_from_slice(system_libs);
     args.extend(["-o", &exe_arg]);
-    run_command(root, "gcc", &args, &[])?;
-    let printed = run_captured(root, &exe_arg, &[], &[])?;
+    Cmd::new("gcc").args(args).dir(root).run()?;
+    let printed = Cmd::new(&exe_arg).dir(root).capture()?.stdout_text();
     let numbers: Vec<f64> = printed.split([' ', ',']).filter_map(|w| w.parse().ok()).collect();
     // To the digits printed: 0.01 K and 0.1 Pa, with the table's own half unit of 0.5 Pa.
     let expected =
@@ -279,32 +244,21 @@ fn altimeter_example(
     }
     std::fs::create_dir_all(&out).map_err(|e| format!("cannot create {}: {e}", out.display()))?;
     let pkg_config_path = format!("PKG_CONFIG_PATH={}", s(&package.prefix.join("lib/pkgconfig")));
-    run_command(root, "make", &["-s", "-C", &s(&dir), &pkg_config_path, &format!("OUT={}", s(&out))], &[])?;
+    Cmd::new("make")
+        .args(["-s", "-C", &s(&dir), &pkg_config_path, &format!("OUT={}", s(&out))])
+        .dir(root)
+        .run()?;
     let cmake_build = out.join("cmake");
-    run_command(
-        root,
-        "cmake",
-        &[
-            "-S",
-            &s(&dir),
-            "-B",
-            &s(&cmake_build),
-            &format!("-DCMAKE_PREFIX_PATH={}", s(&package.prefix)),
-            "-DCMAKE_BUILD_TYPE=Release",
-        ],
-        &[],
-    )?;
-    run_command(root, "cmake", &["--build", &s(&cmake_build)], &[])?;
+    Cmd::new("cmake")
+        .args(["-S", &s(&dir), "-B", &s(&cmake_build)])
+        .args([&format!("-DCMAKE_PREFIX_PATH={}", s(&package.prefix)), "-DCMAKE_BUILD_TYPE=Release"])
+        .dir(root)
+        .run()?;
+    Cmd::new("cmake").args(["--build", &s(&cmake_build)]).dir(root).run()?;
     let mut runs = Vec::new();
     for exe in [out.join("altimeter"), cmake_build.join("altimeter"), cmake_build.join("altimeter_static")] {
-        let output = Command::new(&exe)
-            .arg(&log)
-            .output()
-            .map_err(|e| format!("cannot start {}: {e}", exe.display()))?;
-        if !output.status.success() {
-            return Err(format!("{} failed: {}", exe.display(), String::from_utf8_lossy(&output.stderr)));
-        }
-        runs.push((exe, output.stdout, String::from_utf8_lossy(&output.stderr).into_owned()));
+        let output = Cmd::new(&exe).arg(&log).quiet().capture()?;
+        runs.push((exe, output.stdout_text(), output.stderr_text()));
     }
     if runs.iter().any(|(_, stdout, _)| *stdout != runs[0].1) {
         return Err("the pkg-config and CMake builds of the altimeter print different CSV".to_owned());
@@ -338,19 +292,9 @@ fn altimeter_example(
             ));
         }
     }
-    let bad = Command::new(&runs[0].0)
-        .stdin(std::process::Stdio::piped())
-        .stdout(std::process::Stdio::null())
-        .stderr(std::process::Stdio::piped())
-        .spawn()
-        .and_then(|mut child| {
-            use std::io::Write as _;
-            child.stdin.take().map(|mut stdin| stdin.write_all(b"-1,96000\n0,not-a-pressure\n"));
-            child.wait_with_output()
-        })
-        .map_err(|e| format!("cannot run the altimeter: {e}"))?;
-    let message = String::from_utf8_lossy(&bad.stderr);
-    if bad.status.code() != Some(2) || !message.contains("line 2") {
+    let bad = Cmd::new(&runs[0].0).stdin(b"-1,96000\n0,not-a-pressure\n").quiet().output()?;
+    let message = bad.stderr_text();
+    if bad.code != Some(2) || !message.contains("line 2") {
         return Err(format!("altimeter example: a bad line gave {} and '{message}'", bad.status));
     }
     Ok(format!(
@@ -393,19 +337,13 @@ pub fn spreadsheet(root: &Path) -> Result<(), String> {
     let out = work.join("standard_atmosphere");
     let s = |p: &Path| p.to_string_lossy().into_owned();
     let started = std::time::Instant::now();
-    run_captured(
-        root,
-        "timeout",
-        &[
-            "180",
-            "soffice",
-            "--headless",
-            "--norestore",
-            &format!("-env:UserInstallation=file://{}", s(&profile)),
-            "vnd.sun.star.script:runner.py$main?language=Python&location=user",
-        ],
-        &[("AEROSTRATA_LIB", &s(&lib)), ("AEROSTRATA_OUT", &s(&out))],
-    )?;
+    Cmd::new("soffice")
+        .args(["--headless", "--norestore", &format!("-env:UserInstallation=file://{}", s(&profile))])
+        .arg("vnd.sun.star.script:runner.py$main?language=Python&location=user")
+        .envs([("AEROSTRATA_LIB", &s(&lib)), ("AEROSTRATA_OUT", &s(&out))])
+        .timeout(180)
+        .dir(root)
+        .capture()?;
     eprintln!("  soffice run: {:.1} s", started.elapsed().as_secs_f64());
     let read = |ext: &str| {
         let path = out.with_extension(ext);

@@ -16,8 +16,8 @@
 
 use std::fs;
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
+use crate::process::Cmd;
 use crate::setup::TargetToolchain;
 use crate::target_dir;
 
@@ -64,17 +64,8 @@ pub fn package(
     args.extend(extra_args);
     let crate_types = if target.is_some() { "staticlib" } else { "staticlib,cdylib" };
     args.extend(["--crate-type", crate_types, "--", "--print", "native-static-libs"]);
-    eprintln!("+ cargo {}", args.join(" "));
-    let output = Command::new("cargo")
-        .args(&args)
-        .envs(envs.iter().copied())
-        .current_dir(root)
-        .output()
-        .map_err(|e| format!("cannot start cargo: {e}"))?;
-    let stderr = String::from_utf8_lossy(&output.stderr);
-    if !output.status.success() {
-        return Err(format!("`cargo {}` failed:\n{stderr}", args.join(" ")));
-    }
+    // rustc prints the native-static-libs note on stderr.
+    let stderr = Cmd::new("cargo").args(&args).envs(envs.iter().copied()).dir(root).capture()?.stderr_text();
     let native_static_libs: Vec<String> = stderr
         .lines()
         .find_map(|l| l.split_once("native-static-libs:").map(|(_, libs)| libs))

@@ -13,10 +13,9 @@
 use std::fmt::Write as _;
 use std::fs;
 use std::path::{Path, PathBuf};
-use std::process::Command;
-use std::time::Instant;
 
 use crate::flash;
+use crate::process::{Cmd, Output};
 use crate::setup::{self, TargetToolchain, FIRMWARE_TARGETS};
 use crate::vectors;
 
@@ -28,7 +27,7 @@ pub const UPPER_FLASH_BUDGET_BYTES: u64 = 40 * 1024;
 pub const STACK_BUDGET_BYTES: u64 = 1024;
 
 /// Seconds a QEMU run may take before `timeout` ends it (the runs take well under one).
-const QEMU_TIMEOUT_S: &str = "120";
+const QEMU_TIMEOUT_S: u32 = 120;
 
 /// The emulated board and CPU of each firmware target.
 fn machine(target: &str) -> Result<(&'static str, &'static str), String> {
@@ -170,18 +169,7 @@ fn cargo(firmware: &Path, toolchain: TargetToolchain, args: &[&str]) -> Result<(
         own.extend(extra);
         all.splice(at..at, own);
     }
-    eprintln!("+ (tests/firmware) cargo {}", all.join(" "));
-    let status = Command::new("cargo")
-        .args(&all)
-        .envs(envs)
-        .current_dir(firmware)
-        .status()
-        .map_err(|e| format!("cannot start cargo: {e}"))?;
-    if status.success() {
-        Ok(())
-    } else {
-        Err(format!("`cargo {}` in tests/firmware failed ({status})", all.join(" ")))
-    }
+    Cmd::new("cargo").args(all).envs(envs).dir(firmware).place("tests/firmware").run()
 }
 
 /// rustfmt and clippy (`-D warnings`) on the firmware crate, for both thumb targets and
@@ -204,35 +192,9 @@ fn lint(firmware: &Path, toolchain: TargetToolchain) -> Result<(), String> {
     Ok(())
 }
 
-/// One QEMU run: exit status, stdout, seconds.
-pub(crate) struct QemuRun {
-    pub success: bool,
-    pub status: String,
-    pub stdout: String,
-    pub stderr: String,
-    pub seconds: f64,
-}
-
-pub(crate) fn qemu(target: &str, elf: &Path) -> Result<QemuRun, String> {
-    let mut args = vec![QEMU_TIMEOUT_S.to_owned(), "qemu-system-arm".to_owned()];
-    args.extend(qemu_args(target)?);
-    args.push(elf.display().to_string());
-    eprintln!("+ timeout {}", args.join(" "));
-    let started = Instant::now();
-    let output =
-        Command::new("timeout").args(&args).output().map_err(|e| format!("cannot start timeout: {e}"))?;
-    let seconds = started.elapsed().as_secs_f64();
-    let status = match output.status.code() {
-        Some(124) => format!("timed out after {QEMU_TIMEOUT_S} s"),
-        _ => output.status.to_string(),
-    };
-    Ok(QemuRun {
-        success: output.status.success(),
-        status,
-        stdout: String::from_utf8_lossy(&output.stdout).into_owned(),
-        stderr: String::from_utf8_lossy(&output.stderr).into_owned(),
-        seconds,
-    })
+/// One run of `elf` in QEMU under `timeout`; its status and output, whatever they are.
+pub(crate) fn qemu(target: &str, elf: &Path) -> Result<Output, String> {
+    Cmd::new("qemu-system-arm").args(qemu_args(target)?).arg(elf).timeout(QEMU_TIMEOUT_S).output()
 }
 
 /// A firmware's output split into harness lines (`# ...`, without the prefix) and bit lines.
@@ -318,16 +280,15 @@ fn run_target(
     let harness_elf = release.join("vectors");
     read_elf(&harness_elf)?;
     let harness = qemu(target, &harness_elf)?;
-    let (lines, bits) = split_output(&harness.stdout);
+    let (lines, bits) = split_output(&harness.stdout_text());
     for line in lines.iter().filter(|l| l.starts_with("miss") || l.starts_with("error")) {
         eprintln!("{target}: {line}");
     }
     if !harness.success {
         return Err(format!(
-            "the vector harness failed in QEMU ({}); last output:\n{}{}",
+            "the vector harness failed in QEMU ({}); last output:\n{}",
             harness.status,
-            tail(&harness.stdout, 10),
-            tail(&harness.stderr, 5)
+            harness.last_lines()
         ));
     }
     let identical = vectors::compare_bits(target, native, &bits)?;
@@ -386,15 +347,10 @@ fn budget_pair(release: &Path, target: &str) -> Result<(Flash, u64), String> {
     let flash = flash_pair(&empty, &state)?;
     let run = qemu(target, &state_elf)?;
     if !run.success {
-        return Err(format!("budget-state failed in QEMU ({}):\n{}", run.status, tail(&run.stdout, 10)));
+        return Err(format!("budget-state failed in QEMU ({}):\n{}", run.status, run.last_lines()));
     }
-    let (lines, _) = split_output(&run.stdout);
+    let (lines, _) = split_output(&run.stdout_text());
     Ok((flash, figure(&lines, "stack state")?))
-}
-
-pub(crate) fn tail(text: &str, lines: usize) -> String {
-    let all: Vec<&str> = text.lines().collect();
-    all[all.len().saturating_sub(lines)..].iter().map(|l| format!("  {l}\n")).collect()
 }
 
 /// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,

@@ -12,7 +12,8 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use crate::firmware::{qemu, split_output, tail};
+use crate::firmware::{qemu, split_output};
+use crate::process::Cmd;
 use crate::setup::{self, TargetToolchain};
 use crate::vectors::{self, VectorFile};
 
@@ -171,20 +172,19 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
         "-o",
         &elf_arg,
     ]);
-    crate::run_command(root, "arm-none-eabi-gcc", &args, &[])?;
+    Cmd::new("arm-none-eabi-gcc").args(args).dir(root).run()?;
 
     let run = qemu(TARGET, &elf)?;
-    let (lines, bits) = split_output(&format!("{}\n{}", run.stdout, run.stderr));
+    let (lines, bits) = split_output(&format!("{}\n{}", run.stdout_text(), run.stderr_text()));
     for line in lines.iter().filter(|l| l.starts_with("FAIL") || l.starts_with("error")) {
         eprintln!("C firmware: {line}");
     }
     let tally = lines.iter().rev().find(|l| l.ends_with(" failed")).cloned().unwrap_or_default();
     if !run.success || !tally.ends_with(" 0 failed") {
         return Err(format!(
-            "the C firmware failed in QEMU ({}; '{tally}'); last output:\n{}{}",
+            "the C firmware failed in QEMU ({}; '{tally}'); last output:\n{}",
             run.status,
-            tail(&run.stdout, 10),
-            tail(&run.stderr, 5)
+            run.last_lines()
         ));
     }
     let identical = vectors::compare_bits("the C firmware (Cortex-M4F)", &native, &bits)?;

@@ -9,7 +9,7 @@ use std::path::Path;
 use object::read::archive::ArchiveFile;
 use object::{Object, ObjectSection, ObjectSymbol};
 
-use crate::run_command;
+use crate::process::Cmd;
 
 /// The budget for the table, bytes.
 pub const TABLE_BUDGET_BYTES: u64 = 24 * 1024;
@@ -38,7 +38,7 @@ pub fn table_sizes(
     args.extend(extra_args);
     let mut all_envs = vec![("CARGO_PROFILE_RELEASE_LTO", "false")];
     all_envs.extend(envs);
-    run_command(root, "cargo", &args, &all_envs)?;
+    Cmd::new("cargo").args(args).envs(all_envs).dir(root).run()?;
     let rlib = root.join(target_dir).join("thumbv7em-none-eabihf/release/libaerostrata.rlib");
     let data = fs::read(&rlib).map_err(|e| format!("cannot read {}: {e}", rlib.display()))?;
     let archive = ArchiveFile::parse(&*data).map_err(|e| format!("{}: {e}", rlib.display()))?;

@@ -26,6 +26,7 @@ mod c_package;
 mod firmware;
 mod firmware_c;
 mod flash;
+mod process;
 mod setup;
 mod test;
 mod upper;
@@ -96,41 +97,4 @@ fn workspace_root() -> PathBuf {
 pub(crate) fn target_dir(root: &Path) -> PathBuf {
     std::env::var_os("CARGO_TARGET_DIR")
         .map_or_else(|| root.join("target"), |dir| root.join(PathBuf::from(dir)))
-}
-
-/// Runs a command in `dir`, inheriting the terminal; Err names the command on failure.
-pub(crate) fn run_command(
-    dir: &Path,
-    program: &str,
-    args: &[&str],
-    envs: &[(&str, &str)],
-) -> Result<(), String> {
-    eprintln!("+ {program} {}", args.join(" "));
-    let status = std::process::Command::new(program)
-        .args(args)
-        .envs(envs.iter().copied())
-        .current_dir(dir)
-        .status()
-        .map_err(|e| format!("cannot start {program}: {e}"))?;
-    if status.success() {
-        Ok(())
-    } else {
-        Err(format!("`{program} {}` failed ({status})", args.join(" ")))
-    }
-}
-
-/// Runs a command and returns its stdout; stderr goes to the terminal.
-pub(crate) fn command_output(dir: &Path, program: &str, args: &[&str]) -> Result<String, String> {
-    let output = std::process::Command::new(program)
-        .args(args)
-        .current_dir(dir)
-        .stderr(std::process::Stdio::inherit())
-        .output()
-        .map_err(|e| format!("cannot start {program}: {e}"))?;
-    let stdout = String::from_utf8_lossy(&output.stdout).into_owned();
-    if output.status.success() {
-        Ok(stdout)
-    } else {
-        Err(format!("`{program} {}` failed ({}):\n{stdout}", args.join(" "), output.status))
-    }
 }

@@ -12,10 +12,10 @@
 
 use std::fs;
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
+use crate::process::Cmd;
 use crate::setup::{self, TargetToolchain, WASM_TARGET};
-use crate::{run_command, target_dir};
+use crate::target_dir;
 
 /// The wasm-bindgen the module is built with. Pinned exactly, equal to the `=` version
 /// in bindings/wasm/Cargo.toml: the generated JS glue must match the crate's macros.
@@ -80,8 +80,7 @@ fn wasm_bindgen_cli(root: &Path) -> Result<PathBuf, String> {
 }
 
 fn wasm_opt(root: &Path) -> Result<(), String> {
-    let present = Command::new("wasm-opt").arg("--version").output().is_ok_and(|o| o.status.success());
-    if present {
+    if Cmd::new("wasm-opt").arg("--version").succeeds() {
         Ok(())
     } else {
         setup::apt_install(root, &["binaryen"])
@@ -105,19 +104,17 @@ fn cargo_wasm(
     build_std: &str,
     envs: &[(&str, &str)],
 ) -> Result<PathBuf, String> {
-    let mut all: Vec<&str> = args.to_vec();
-    all.extend(["--target", WASM_TARGET]);
+    let cargo = Cmd::new("cargo").args(args).args(["--target", WASM_TARGET]).dir(root);
     match toolchain {
         TargetToolchain::Rustup => {
-            run_command(root, "cargo", &all, envs)?;
+            cargo.envs(envs.iter().copied()).run()?;
             Ok(target_dir(root))
         }
         TargetToolchain::DebianBuildStd => {
-            all.extend([build_std, "--target-dir", "target/debian-rustc"]);
-            let mut e: Vec<(&str, &str)> = setup::DEBIAN_ENVS.to_vec();
-            e.push(DEBIAN_WASM_LINKER);
-            e.extend_from_slice(envs);
-            run_command(root, "cargo", &all, &e)?;
+            cargo
+                .args([build_std, "--target-dir", "target/debian-rustc"])
+                .envs(setup::DEBIAN_ENVS.into_iter().chain([DEBIAN_WASM_LINKER]).chain(envs.iter().copied()))
+                .run()?;
             Ok(root.join("target").join("debian-rustc"))
         }
     }
@@ -306,16 +303,8 @@ fn package_version(manifest: &str) -> Option<String> {
 }
 
 fn gzip_size(path: &Path) -> Result<u64, String> {
-    let output = Command::new("gzip")
-        .args(["-9", "-c", "-n"])
-        .arg(path)
-        .output()
-        .map_err(|e| format!("cannot start gzip: {e}"))?;
-    if output.status.success() {
-        Ok(output.stdout.len() as u64)
-    } else {
-        Err(format!("gzip failed on {}", path.display()))
-    }
+    let output = Cmd::new("gzip").args(["-9", "-c", "-n"]).arg(path).quiet().capture()?;
+    Ok(output.stdout.len() as u64)
 }
 
 /// Builds the package into target/wasm/pkg and the calculator's site into
@@ -341,22 +330,18 @@ pub fn build(root: &Path) -> Result<Package, String> {
     let bindgen_arg = bindgen.to_string_lossy().into_owned();
     for (target, dir) in [("web", "web"), ("nodejs", "node")] {
         let dir_arg = pkg.join(dir).to_string_lossy().into_owned();
-        run_command(
-            root,
-            &bindgen_arg,
-            &["--target", target, "--out-dir", &dir_arg, "--out-name", OUT_NAME, &module_arg],
-            &[],
-        )?;
+        Cmd::new(&bindgen_arg)
+            .args(["--target", target, "--out-dir", &dir_arg, "--out-name", OUT_NAME, &module_arg])
+            .dir(root)
+            .run()?;
     }
     snippets_to_commonjs(&pkg.join("node"))?;
     // The two builds' modules are the same file; optimise one and copy it over the other.
     let web_wasm = pkg.join("web").join(format!("{OUT_NAME}_bg.wasm"));
     let node_wasm = pkg.join("node").join(format!("{OUT_NAME}_bg.wasm"));
     let web_arg = web_wasm.to_string_lossy().into_owned();
-    run_command(
-        root,
-        "wasm-opt",
-        &[
+    Cmd::new("wasm-opt")
+        .args([
             "-Oz",
             "--converge",
             "--strip-debug",
@@ -373,9 +358,9 @@ pub fn build(root: &Path) -> Result<Package, String> {
             &web_arg,
             "-o",
             &web_arg,
-        ],
-        &[],
-    )?;
+        ])
+        .dir(root)
+        .run()?;
     fix_table_export(&web_wasm)?;
     fs::copy(&web_wasm, &node_wasm).map_err(|e| io_err("copy", &web_wasm, e))?;
 
@@ -440,10 +425,7 @@ pub fn node_tests(root: &Path, package: &Package) -> Result<(), String> {
     if tests.is_empty() {
         return Err("no bindings/wasm/tests/*.test.mjs".to_owned());
     }
-    let mut args = vec!["--test"];
-    args.extend(tests.iter().map(String::as_str));
-    let pkg = package.dir.to_string_lossy().into_owned();
-    run_command(root, "node", &args, &[("AEROSTRATA_PKG", &pkg)])
+    Cmd::new("node").arg("--test").args(tests).envs([("AEROSTRATA_PKG", &package.dir)]).dir(root).run()
 }
 
 /// The wasm-bindgen tests of the Rust side (bindings/wasm/tests/*.rs), under Node.
@@ -469,17 +451,17 @@ pub fn bits(root: &Path, package: &Package) -> Result<usize, String> {
     let files = crate::vectors::read_all(root)?;
     let native = crate::vectors::bit_lines(&files)?;
     let script = root.join(CRATE_DIR).join("tests").join("bits.mjs");
-    let output = Command::new("node")
+    let output = Cmd::new("node")
         .arg(&script)
         .arg(&package.dir)
         .arg(root.join("tests").join("vectors"))
-        .current_dir(root)
-        .output()
-        .map_err(|e| format!("cannot start node: {e}"))?;
-    if !output.status.success() {
-        return Err(format!("{} failed:\n{}", script.display(), String::from_utf8_lossy(&output.stderr)));
+        .dir(root)
+        .quiet()
+        .output()?;
+    if !output.success {
+        return Err(format!("{} failed:\n{}", script.display(), output.stderr_text()));
     }
-    let wasm: Vec<String> = String::from_utf8_lossy(&output.stdout).lines().map(str::to_owned).collect();
+    let wasm: Vec<String> = output.stdout_text().lines().map(str::to_owned).collect();
     let identical = crate::vectors::compare_bits("the wasm module", &native, &wasm)?;
     eprintln!("  {identical} values bit-identical between the native core and the wasm module");
     Ok(identical)
@@ -494,7 +476,7 @@ pub fn browser(root: &Path) -> Result<(), String> {
     setup::apt_install(root, &["chromium"])?;
     let dir = root.join(BROWSER_DIR);
     if !dir.join("node_modules").join("playwright-core").exists() {
-        run_command(&dir, "npm", &["ci", "--no-audit", "--no-fund"], &[])?;
+        Cmd::new("npm").args(["ci", "--no-audit", "--no-fund"]).dir(&dir).run()?;
     }
     let site = target_dir(root).join("wasm").join("site");
     if !site.join("index.html").exists() {
@@ -505,15 +487,10 @@ pub fn browser(root: &Path) -> Result<(), String> {
             std::net::TcpListener::bind("127.0.0.1:0").map_err(|e| format!("no free port: {e}"))?;
         listener.local_addr().map_err(|e| format!("no free port: {e}"))?.port()
     };
-    let port_arg = port.to_string();
-    let site_arg = site.to_string_lossy().into_owned();
-    eprintln!("+ python3 -m http.server {port} --bind 127.0.0.1 --directory {site_arg}");
-    let mut server = Command::new("python3")
-        .args(["-m", "http.server", &port_arg, "--bind", "127.0.0.1", "--directory", &site_arg])
-        .stdout(std::process::Stdio::null())
-        .stderr(std::process::Stdio::null())
-        .spawn()
-        .map_err(|e| format!("cannot start python3 -m http.server: {e}"))?;
+    let mut server = Cmd::new("python3")
+        .args(["-m", "http.server", &port.to_string(), "--bind", "127.0.0.1", "--directory"])
+        .arg(&site)
+        .spawn()?;
     let ready = (0..100).any(|_| {
         std::thread::sleep(std::time::Duration::from_millis(100));
         std::net::TcpStream::connect(("127.0.0.1", port)).is_ok()
@@ -521,17 +498,13 @@ pub fn browser(root: &Path) -> Result<(), String> {
     let result = if ready {
         let shots = target_dir(root).join("wasm").join("screenshots");
         let url = format!("http://127.0.0.1:{port}/index.html");
-        run_command(
-            root,
-            "node",
-            &[
-                &dir.join("calculator.test.mjs").to_string_lossy(),
-                &url,
-                &shots.to_string_lossy(),
-                &root.join("tests").join("vectors").to_string_lossy(),
-            ],
-            &[],
-        )
+        Cmd::new("node")
+            .arg(dir.join("calculator.test.mjs"))
+            .arg(&url)
+            .arg(shots)
+            .arg(root.join("tests").join("vectors"))
+            .dir(root)
+            .run()
     } else {
         Err(format!("the static server on 127.0.0.1:{port} did not start"))
     };

@@ -13,9 +13,9 @@
 
 use std::fs;
 use std::path::Path;
-use std::process::Command;
 
-use crate::{command_output, run_command, target_dir};
+use crate::process::Cmd;
+use crate::target_dir;
 
 /// Altitudes in the batch.
 const COUNT: usize = 1_000_000;
@@ -82,11 +82,12 @@ fn cpu_model() -> String {
 }
 
 fn version_of(program: &str) -> String {
-    Command::new(program)
+    Cmd::new(program)
         .arg("--version")
+        .quiet()
         .output()
         .ok()
-        .map(|o| String::from_utf8_lossy(&o.stdout).lines().next().unwrap_or("").trim().to_owned())
+        .map(|o| o.stdout_text().lines().next().unwrap_or("").trim().to_owned())
         .filter(|v| !v.is_empty())
         .unwrap_or_else(|| "unknown".to_owned())
 }
@@ -112,12 +113,10 @@ pub fn run(root: &Path) -> Result<(), String> {
     let load_before = load_average();
     let package = crate::wasm::build(root)?;
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
-    run_command(
-        root,
-        &cargo,
-        &["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"],
-        &[],
-    )?;
+    Cmd::new(cargo)
+        .args(["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"])
+        .dir(root)
+        .run()?;
     let native = target_dir(root).join("release").join("examples").join("native_batch");
     let altitudes = target_dir(root).join("wasm").join("bench-altitudes.f64");
     let script = root.join("bindings/wasm/tests/bench.mjs");
@@ -134,12 +133,13 @@ pub fn run(root: &Path) -> Result<(), String> {
     let mut checksums = Vec::new();
     for round in 1..=ROUNDS {
         eprintln!("round {round} of {ROUNDS}: wasm in Node, then native");
-        let (ms, first, sum) = parse("wasm", &command_output(root, "node", &[&s, &p, &a, &count, &runs])?)?;
+        let (ms, first, sum) =
+            parse("wasm", &Cmd::new("node").args([&s, &p, &a, &count, &runs]).dir(root).quiet().stdout()?)?;
         wasm_ms.extend(ms);
         wasm_first.push(first);
         checksums.push(("wasm", sum));
         let (ms, first, sum) =
-            parse("native", &command_output(root, &native.to_string_lossy(), &[&a, &runs])?)?;
+            parse("native", &Cmd::new(&native).args([&a, &runs]).dir(root).quiet().stdout()?)?;
         native_ms.extend(ms);
         native_first.push(first);
         checksums.push(("native", sum));
