@@ -24,7 +24,6 @@ mod bench;
 mod c;
 mod c_package;
 mod firmware;
-mod firmware_c;
 mod flash;
 mod process;
 mod setup;
@@ -57,7 +56,7 @@ fn main() -> ExitCode {
         Some("c-test") => c::test(&root),
         Some("spreadsheet") => c::spreadsheet(&root),
         Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
-            Some(file) => firmware::compare_file(&root, file, Path::new(file)),
+            Some(file) => vectors::compare_file(&root, file, Path::new(file)),
             None => Err("usage: cargo xtask bits --compare FILE".to_owned()),
         },
         Some("firmware") => firmware::run(&root),

@@ -7,6 +7,8 @@
 //! `p02_p01`, `p02_p1` (Rayleigh pitot) and `p1_p02`.
 
 use std::fmt::Write as _;
+use std::fs;
+use std::path::Path;
 
 use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
@@ -273,6 +275,31 @@ pub fn compare_bits(host: &str, native: &[String], other: &[String]) -> Result<u
     }
 }
 
+/// Another host's output split into its own notes (`# ...` lines, without the prefix:
+/// the firmware harness's figures, say) and its bit lines.
+pub fn split_output(stdout: &str) -> (Vec<String>, Vec<String>) {
+    let mut harness = Vec::new();
+    let mut bits = Vec::new();
+    for line in stdout.lines().map(str::trim_end).filter(|l| !l.is_empty()) {
+        match line.strip_prefix("# ") {
+            Some(rest) => harness.push(rest.to_owned()),
+            None => bits.push(line.to_owned()),
+        }
+    }
+    (harness, bits)
+}
+
+/// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,
+/// written by its Node script) against the native ones.
+pub fn compare_file(root: &Path, host: &str, path: &Path) -> Result<(), String> {
+    let text = fs::read_to_string(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let (_, other) = split_output(&text);
+    let native = bit_lines(&read_all(root)?)?;
+    let identical = compare_bits(host, &native, &other)?;
+    eprintln!("{host}: {identical} values bit-identical to the native build");
+    Ok(())
+}
+
 /// A bit field of a bit line, with its decimal value: `0x40d61a0000000000 (22632.0)`.
 fn describe(bits: &str) -> String {
     match u64::from_str_radix(bits, 16) {
@@ -284,7 +311,6 @@ fn describe(bits: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use std::fs;
 
     #[test]
     fn last_digit_rule() {

@@ -12,10 +12,10 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use crate::firmware::{qemu, split_output};
+use super::qemu;
 use crate::process::Cmd;
 use crate::setup::{self, TargetToolchain};
-use crate::vectors::{self, VectorFile};
+use crate::vectors::{self, split_output, VectorFile};
 
 const TARGET: &str = "thumbv7em-none-eabihf";
 const SOURCES: [&str; 2] = ["tests/firmware/c/main.c", "tests/firmware/c/startup.c"];
@@ -174,7 +174,7 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
     ]);
     Cmd::new("arm-none-eabi-gcc").args(args).dir(root).run()?;
 
-    let run = qemu(TARGET, &elf)?;
+    let run = qemu::run(TARGET, &elf)?;
     let (lines, bits) = split_output(&format!("{}\n{}", run.stdout_text(), run.stderr_text()));
     for line in lines.iter().filter(|l| l.starts_with("FAIL") || l.starts_with("error")) {
         eprintln!("C firmware: {line}");
