@@ -22,11 +22,11 @@
 
 mod bench;
 mod c;
-mod c_package;
 mod firmware;
 mod flash;
 mod process;
 mod setup;
+mod spreadsheet;
 mod test;
 mod upper;
 mod validate;
@@ -51,10 +51,10 @@ fn main() -> ExitCode {
         Some("bench") => bench::run(&root),
         Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
         Some("flash") => flash::check(&root, &[], &[]),
-        Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
-        Some("c-package") => c_package::run(&root, &args[1..]),
-        Some("c-test") => c::test(&root),
-        Some("spreadsheet") => c::spreadsheet(&root),
+        Some("header") => c::header::run(&root, args.iter().any(|a| a == "--check")),
+        Some("c-package") => c::package::run(&root, &args[1..]),
+        Some("c-test") => c::c_test::run(&root),
+        Some("spreadsheet") => spreadsheet::run(&root),
         Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
             Some(file) => vectors::compare_file(&root, file, Path::new(file)),
             None => Err("usage: cargo xtask bits --compare FILE".to_owned()),

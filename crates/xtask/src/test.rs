@@ -65,11 +65,14 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::validate::run(root, true),
     );
 
-    step("C header is fresh (cargo xtask header --check)", crate::c::header(root, true));
-    step("C library: C99 static/shared, C++17 header, ASan+UBSan, Valgrind, ctypes", crate::c::test(root));
+    step("C header is fresh (cargo xtask header --check)", crate::c::header::run(root, true));
+    step(
+        "C library: C99 static/shared, C++17 header, ASan+UBSan, Valgrind, ctypes",
+        crate::c::c_test::run(root),
+    );
     step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
-        crate::c::spreadsheet(root),
+        crate::spreadsheet::run(root),
     );
     step(
         "firmware: vectors on emulated Cortex-M4F and M3 and the C library in C firmware, bit-identical \

@@ -131,7 +131,7 @@ fn cases_header(files: &[(VectorFile, f64)]) -> Result<(String, usize), String> 
 /// Builds and runs the C firmware; Err on any bit difference, failed check or bad exit.
 pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
     setup::apt_install(root, &["gcc-arm-none-eabi", "libnewlib-arm-none-eabi"])?;
-    let package = crate::c_package::bare_metal(root, TARGET, toolchain)?;
+    let package = crate::c::package::bare_metal(root, TARGET, toolchain)?;
     let files = standard_files(vectors::read_all(root)?)?;
     let native = vectors::bit_lines(files.iter().map(|(f, _)| f))?;
     let (header, count) = cases_header(&files)?;

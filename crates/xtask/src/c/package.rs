@@ -179,6 +179,12 @@ pub fn package(
     Ok(Package { prefix: prefix.to_path_buf(), static_lib, shared_lib, native_static_libs })
 }
 
+/// Builds the host's C package (release) at its default prefix.
+pub fn host(root: &Path) -> Result<Package, String> {
+    let prefix = default_prefix(root, None);
+    package(root, None, &prefix, &[], &[])
+}
+
 /// The bare-metal package for `target` at its default prefix, built by rustup's target
 /// or, where rustup could not add it, by Debian's rustc building `core` and `alloc`.
 pub fn bare_metal(root: &Path, target: &str, toolchain: TargetToolchain) -> Result<Package, String> {

@@ -1,0 +1,9 @@
+//! The C door's automation: the committed header regenerated (or checked) with a pinned
+//! cbindgen (`header`), the library laid out as a C package (`package`), and the C tests
+//! against it (`c_test`), among them the altimeter example built as a C project would
+//! build it (`altimeter`).
+
+mod altimeter;
+pub mod c_test;
+pub mod header;
+pub mod package;
