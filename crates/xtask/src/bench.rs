@@ -76,9 +76,10 @@ pub fn run(root: &Path) -> Result<(), String> {
         fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
     }
     // Keep the WebAssembly section that `cargo xtask wasm-bench` writes into the same file.
-    let kept =
-        fs::read_to_string(&path).ok().and_then(|old| crate::wasm_bench::section_of(&old).map(str::to_owned));
-    let report = kept.map_or(report.clone(), |section| crate::wasm_bench::splice(&report, &section));
+    let kept = fs::read_to_string(&path)
+        .ok()
+        .and_then(|old| crate::wasm::bench::section_of(&old).map(str::to_owned));
+    let report = kept.map_or(report.clone(), |section| crate::wasm::bench::splice(&report, &section));
     fs::write(&path, report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
     eprintln!("wrote {REPORT}");
     for goal in goals(&results) {

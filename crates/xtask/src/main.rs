@@ -33,7 +33,6 @@ mod validate;
 mod vector_file;
 mod vectors;
 mod wasm;
-mod wasm_bench;
 
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -72,7 +71,7 @@ fn main() -> ExitCode {
             wasm::bits(&root, &package).map(|_| ())
         }),
         Some("browser-test") => wasm::browser(&root),
-        Some("wasm-bench") => wasm_bench::run(&root),
+        Some("wasm-bench") => wasm::bench::run(&root),
         _ => Err(USAGE.to_owned()),
     };
     match result {
@@ -96,4 +95,9 @@ fn workspace_root() -> PathBuf {
 pub(crate) fn target_dir(root: &Path) -> PathBuf {
     std::env::var_os("CARGO_TARGET_DIR")
         .map_or_else(|| root.join("target"), |dir| root.join(PathBuf::from(dir)))
+}
+
+/// The message of a failed file operation: `cannot WHAT PATH: ERROR`.
+pub(crate) fn io_error(what: &str, path: &Path, e: std::io::Error) -> String {
+    format!("cannot {what} {}: {e}", path.display())
 }

@@ -111,7 +111,7 @@ pub fn section_of(report: &str) -> Option<&str> {
 
 pub fn run(root: &Path) -> Result<(), String> {
     let load_before = load_average();
-    let package = crate::wasm::build(root)?;
+    let package = super::package::build(root)?;
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
     Cmd::new(cargo)
         .args(["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"])
@@ -159,7 +159,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         "{BEGIN}
 ## WebAssembly: batch evaluation in Node against the native core
 
-Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
+Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm/bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
 
 - Machine: {cpu}, {cpus} logical CPUs; Node {node}, {rustc}; load average (1, 5, 15 min) {load_before} before, {load_after} after.
 - Size of the module measured in the same run: {size}.
