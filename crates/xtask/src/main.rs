@@ -19,19 +19,20 @@
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! ```
+//!
+//! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
+//! table and its flash cost; `upper.rs` and `vector_file.rs` here belong to it), `c/` and
+//! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`. Shared by all: `process.rs` (the
+//! one way to run a program), `setup.rs` (what gets installed) and `test.rs` (the CI run).
 
 mod bench;
 mod c;
 mod firmware;
-mod flash;
 mod process;
+mod rust;
 mod setup;
 mod spreadsheet;
 mod test;
-mod upper;
-mod validate;
-mod vector_file;
-mod vectors;
 mod wasm;
 
 use std::path::{Path, PathBuf};
@@ -46,24 +47,26 @@ fn main() -> ExitCode {
     let root = workspace_root();
     let result = match args.first().map(String::as_str) {
         Some("test") => test::run(&root),
-        Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
+        Some("validate") => rust::validate::run(&root, args.iter().any(|a| a == "--check")),
         Some("bench") => bench::run(&root),
-        Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
-        Some("flash") => flash::check(&root, &[], &[]),
+        Some("upper-table") => rust::upper::run(&root, args.iter().any(|a| a == "--check")),
+        Some("flash") => rust::flash::check(&root, &[], &[]),
         Some("header") => c::header::run(&root, args.iter().any(|a| a == "--check")),
         Some("c-package") => c::package::run(&root, &args[1..]),
         Some("c-test") => c::c_test::run(&root),
         Some("spreadsheet") => spreadsheet::run(&root),
         Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
-            Some(file) => vectors::compare_file(&root, file, Path::new(file)),
+            Some(file) => rust::vectors::compare_file(&root, file, Path::new(file)),
             None => Err("usage: cargo xtask bits --compare FILE".to_owned()),
         },
         Some("firmware") => firmware::run(&root),
-        Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
-            for line in lines {
-                println!("{line}");
-            }
-        }),
+        Some("bits") => {
+            rust::vectors::read_all(&root).and_then(|files| rust::vectors::bit_lines(&files)).map(|lines| {
+                for line in lines {
+                    println!("{line}");
+                }
+            })
+        }
         Some("wasm") => wasm::run(&root),
         Some("wasm-test") => wasm::build(&root).and_then(|package| {
             wasm::node_tests(&root, &package)?;

@@ -74,7 +74,7 @@ pub fn run(root: &Path) -> Result<(), String> {
 /// Checks the saved sheet; returns the number of passed checks and the failures.
 fn check_sheet(root: &Path, ods: &[u8], csv: &str) -> Result<(usize, Vec<String>), String> {
     use aerostrata::{Altitude, Atmosphere, US1976};
-    let vectors = crate::vectors::read(&root.join("tests/vectors/usa76_lower.csv"))?;
+    let vectors = crate::rust::vectors::read(&root.join("tests/vectors/usa76_lower.csv"))?;
     let mut passed = 0usize;
     let mut failures = Vec::new();
     let mut check = |ok: bool, what: String| {
@@ -109,7 +109,7 @@ fn check_sheet(root: &Path, ods: &[u8], csv: &str) -> Result<(usize, Vec<String>
             let row = vectors.rows.iter().find(|(_, r)| r[0].parse::<f64>().ok() == Some(h));
             if let (Some(i), Some((_, row))) = (column, row) {
                 if let Some(tol) =
-                    crate::vectors::half_unit_of_last_digit(&row[i]).filter(|_| !row[i].is_empty())
+                    crate::rust::vectors::half_unit_of_last_digit(&row[i]).filter(|_| !row[i].is_empty())
                 {
                     let printed: f64 = row[i].parse().map_err(|_| format!("bad vector cell '{}'", row[i]))?;
                     check(

@@ -57,12 +57,18 @@ pub fn run(root: &Path) -> Result<(), String> {
             TargetToolchain::Rustup => (&[][..], &[][..]),
             TargetToolchain::DebianBuildStd => (&DEBIAN_ENVS[..], &["-Zbuild-std=core"][..]),
         };
-        step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
+        step(
+            "upper-atmosphere table within its 24 KiB flash budget",
+            crate::rust::flash::check(root, envs, extra),
+        );
     }
-    step("upper-atmosphere table is fresh (cargo xtask upper-table --check)", crate::upper::run(root, true));
+    step(
+        "upper-atmosphere table is fresh (cargo xtask upper-table --check)",
+        crate::rust::upper::run(root, true),
+    );
     step(
         "reference vectors and mpmath check (cargo xtask validate --check)",
-        crate::validate::run(root, true),
+        crate::rust::validate::run(root, true),
     );
 
     step("C header is fresh (cargo xtask header --check)", crate::c::header::run(root, true));

@@ -14,8 +14,8 @@ use std::path::Path;
 
 use super::qemu;
 use crate::process::Cmd;
+use crate::rust::vectors::{self, split_output, VectorFile};
 use crate::setup::{self, TargetToolchain};
-use crate::vectors::{self, split_output, VectorFile};
 
 const TARGET: &str = "thumbv7em-none-eabihf";
 const SOURCES: [&str; 2] = ["tests/firmware/c/main.c", "tests/firmware/c/startup.c"];

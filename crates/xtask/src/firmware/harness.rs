@@ -15,9 +15,9 @@ use std::path::Path;
 
 use super::cargo::{build_settings, cargo};
 use super::qemu;
-use crate::flash;
+use crate::rust::flash;
+use crate::rust::vectors::{self, split_output};
 use crate::setup::TargetToolchain;
-use crate::vectors::{self, split_output};
 
 /// Flash budget of a firmware that uses only the lower standard atmosphere, bytes.
 pub const LOWER_FLASH_BUDGET_BYTES: u64 = 12 * 1024;

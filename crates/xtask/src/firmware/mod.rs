@@ -12,8 +12,8 @@ mod qemu;
 
 use std::path::Path;
 
+use crate::rust::vectors;
 use crate::setup::{self, FIRMWARE_TARGETS};
-use crate::vectors;
 
 /// `cargo xtask firmware`.
 pub fn run(root: &Path) -> Result<(), String> {

@@ -7,6 +7,7 @@ use std::path::Path;
 use super::package::{Package, CRATE_DIR};
 use super::toolchain::{cargo_wasm, wasm_bindgen_cli, WASM_RUSTFLAGS};
 use crate::process::Cmd;
+use crate::rust::vectors;
 use crate::setup;
 
 /// `node --test` over bindings/wasm/tests/*.test.mjs against the built Node package.
@@ -46,8 +47,8 @@ pub fn rust_tests(root: &Path) -> Result<(), String> {
 /// bindings/wasm/tests/bits.mjs, against the native core's (`cargo xtask bits`), line by
 /// line. Returns the number of identical values.
 pub fn bits(root: &Path, package: &Package) -> Result<usize, String> {
-    let files = crate::vectors::read_all(root)?;
-    let native = crate::vectors::bit_lines(&files)?;
+    let files = vectors::read_all(root)?;
+    let native = vectors::bit_lines(&files)?;
     let script = root.join(CRATE_DIR).join("tests").join("bits.mjs");
     let output = Cmd::new("node")
         .arg(&script)
@@ -60,7 +61,7 @@ pub fn bits(root: &Path, package: &Package) -> Result<usize, String> {
         return Err(format!("{} failed:\n{}", script.display(), output.stderr_text()));
     }
     let wasm: Vec<String> = output.stdout_text().lines().map(str::to_owned).collect();
-    let identical = crate::vectors::compare_bits("the wasm module", &native, &wasm)?;
+    let identical = vectors::compare_bits("the wasm module", &native, &wasm)?;
     eprintln!("  {identical} values bit-identical between the native core and the wasm module");
     Ok(identical)
 }

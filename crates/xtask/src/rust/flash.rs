@@ -1,7 +1,7 @@
 //! What the upper-atmosphere table costs in flash on a Cortex-M4F: the core is built for
 //! `thumbv7em-none-eabihf` (release, no LTO so that the rlib holds machine code), and the
 //! sizes of the table's statics are read from the symbol table of the object in the rlib.
-//! The symbol and section readers here also serve the firmware budgets (firmware.rs).
+//! The symbol and section readers here also serve the firmware budgets (firmware/harness.rs).
 
 use std::fs;
 use std::path::Path;

@@ -6,8 +6,8 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
+use super::vectors::{self, Rule};
 use crate::process::Cmd;
-use crate::vectors::{self, Rule};
 
 const REPORT: &str = "docs/validation.md";
 

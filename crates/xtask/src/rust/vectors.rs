@@ -12,7 +12,7 @@ use std::path::Path;
 
 use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
-pub use crate::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
+pub use super::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
 
 /// What one column of one file came to.
 #[derive(Debug, Clone)]
