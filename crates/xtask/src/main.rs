@@ -28,6 +28,7 @@
 mod bench;
 mod c;
 mod firmware;
+mod machine;
 mod process;
 mod rust;
 mod setup;

@@ -14,6 +14,7 @@
 use std::fs;
 use std::path::Path;
 
+use crate::machine::{load_average, load_text, version, Machine};
 use crate::process::Cmd;
 use crate::target_dir;
 
@@ -63,35 +64,6 @@ fn min(values: &[f64]) -> f64 {
     values.iter().copied().fold(f64::INFINITY, f64::min)
 }
 
-fn load_average() -> String {
-    fs::read_to_string("/proc/loadavg")
-        .map(|s| s.split_whitespace().take(3).collect::<Vec<_>>().join(", "))
-        .unwrap_or_else(|_| "unknown".to_owned())
-}
-
-fn cpu_model() -> String {
-    fs::read_to_string("/proc/cpuinfo")
-        .ok()
-        .and_then(|s| {
-            s.lines()
-                .find(|l| l.starts_with("model name"))
-                .and_then(|l| l.split_once(':'))
-                .map(|(_, v)| v.trim().to_owned())
-        })
-        .unwrap_or_else(|| "unknown".to_owned())
-}
-
-fn version_of(program: &str) -> String {
-    Cmd::new(program)
-        .arg("--version")
-        .quiet()
-        .output()
-        .ok()
-        .map(|o| o.stdout_text().lines().next().unwrap_or("").trim().to_owned())
-        .filter(|v| !v.is_empty())
-        .unwrap_or_else(|| "unknown".to_owned())
-}
-
 /// Replaces the marked section of `report` with `section`, or appends it.
 pub fn splice(report: &str, section: &str) -> String {
     match (report.find(BEGIN), report.find(END)) {
@@ -110,7 +82,7 @@ pub fn section_of(report: &str) -> Option<&str> {
 }
 
 pub fn run(root: &Path) -> Result<(), String> {
-    let load_before = load_average();
+    let machine = Machine::probe(root);
     let package = super::package::build(root)?;
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
     Cmd::new(cargo)
@@ -144,7 +116,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         native_first.push(first);
         checksums.push(("native", sum));
     }
-    let load_after = load_average();
+    let load_after = load_text(load_average());
     let first = checksums[0].1.clone();
     if let Some((side, sum)) = checksums.iter().find(|(_, sum)| *sum != first) {
         return Err(format!("the outputs differ: checksum {sum} ({side}) against {first}"));
@@ -177,10 +149,11 @@ Every run's milliseconds, wasm: {wl}; native: {nl}. The first batch of each roun
 
 Within one run the module's batches vary by about a third (each batch allocates its 48 MB of arrays in the JS heap, and V8's collector runs between batches), so the median ratio lands on either side of the 2.5x goal from one run of the command to the next (2.47x to 2.66x in the runs made for this report). Why the module is slower: it is optimised for size (its budget), and V8's code for wasm is not LLVM's for x86-64; the core's square root uses wasm's `f64x2.sqrt` instruction rather than libm's software square root, which on its own took a quarter of the module's time (crates/aerostrata/src/math.rs). Rerun `cargo xtask wasm-bench` to refresh this section; the rest of this file is `cargo xtask bench`'s.
 {END}",
-        cpu = cpu_model(),
-        cpus = std::thread::available_parallelism().map_or(0, usize::from),
-        node = version_of("node"),
-        rustc = version_of("rustc"),
+        cpu = machine.cpu_model,
+        cpus = machine.cpus,
+        node = version(root, "node"),
+        rustc = machine.rustc,
+        load_before = load_text(machine.load_before),
         size = package.size_line(),
         wm = wasm_median,
         wf = min(&wasm_ms),
