@@ -16,6 +16,7 @@ use std::{env, fs};
 
 use serde_json::Value as Json;
 
+use crate::io_error;
 use crate::machine::{load_average, load_text, Machine};
 use crate::process::Cmd;
 
@@ -73,14 +74,14 @@ pub fn run(root: &Path) -> Result<(), String> {
     let report = render(&results, &machine, load_after);
     let path = root.join(REPORT);
     if let Some(dir) = path.parent() {
-        fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+        fs::create_dir_all(dir).map_err(|e| io_error("create", dir, e))?;
     }
     // Keep the WebAssembly section that `cargo xtask wasm-bench` writes into the same file.
     let kept = fs::read_to_string(&path)
         .ok()
         .and_then(|old| crate::wasm::bench::section_of(&old).map(str::to_owned));
     let report = kept.map_or(report.clone(), |section| crate::wasm::bench::splice(&report, &section));
-    fs::write(&path, report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+    fs::write(&path, report).map_err(|e| io_error("write", &path, e))?;
     eprintln!("wrote {REPORT}");
     for goal in goals(&results) {
         eprintln!("{}: {:.2}x (goal {}) {}", goal.name, goal.ratio.point, goal.goal_text(), goal.verdict());

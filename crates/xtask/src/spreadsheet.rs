@@ -4,6 +4,7 @@
 
 use std::path::Path;
 
+use crate::io_error;
 use crate::process::Cmd;
 use crate::target_dir;
 
@@ -27,16 +28,15 @@ pub fn run(root: &Path) -> Result<(), String> {
     crate::setup::apt_install(root, &SPREADSHEET_PACKAGES)?;
     let lib = crate::c::package::host(root)?.prefix.join("lib").join("libaerostrata.so");
     let work = target_dir(root).join("spreadsheet");
-    let err = |what: &str, p: &Path, e: std::io::Error| format!("cannot {what} {}: {e}", p.display());
     if work.exists() {
-        std::fs::remove_dir_all(&work).map_err(|e| err("remove", &work, e))?;
+        std::fs::remove_dir_all(&work).map_err(|e| io_error("remove", &work, e))?;
     }
     let profile = work.join("profile");
     let scripts = profile.join("user").join("Scripts").join("python");
-    std::fs::create_dir_all(&scripts).map_err(|e| err("create", &scripts, e))?;
+    std::fs::create_dir_all(&scripts).map_err(|e| io_error("create", &scripts, e))?;
     for name in SPREADSHEET_MACROS {
         let from = root.join(SPREADSHEET_DIR).join(name);
-        std::fs::copy(&from, scripts.join(name)).map_err(|e| err("copy", &from, e))?;
+        std::fs::copy(&from, scripts.join(name)).map_err(|e| io_error("copy", &from, e))?;
     }
     let out = work.join("standard_atmosphere");
     let s = |p: &Path| p.to_string_lossy().into_owned();
@@ -51,7 +51,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     eprintln!("  soffice run: {:.1} s", started.elapsed().as_secs_f64());
     let read = |ext: &str| {
         let path = out.with_extension(ext);
-        std::fs::read(&path).map_err(|e| err("read", &path, e))
+        std::fs::read(&path).map_err(|e| io_error("read", &path, e))
     };
     let log = String::from_utf8_lossy(&read("log")?).into_owned();
     if log.trim() != "ok" {

@@ -4,6 +4,7 @@
 use std::path::Path;
 
 use super::package::Package;
+use crate::io_error;
 use crate::process::Cmd;
 
 const ALTIMETER_DIR: &str = "examples/c-altimeter";
@@ -28,9 +29,9 @@ pub(super) fn check(root: &Path, package: &Package, work: &Path) -> Result<Strin
     let log = dir.join("flight_log.csv");
     let out = work.join("altimeter");
     if out.exists() {
-        std::fs::remove_dir_all(&out).map_err(|e| format!("cannot remove {}: {e}", out.display()))?;
+        std::fs::remove_dir_all(&out).map_err(|e| io_error("remove", &out, e))?;
     }
-    std::fs::create_dir_all(&out).map_err(|e| format!("cannot create {}: {e}", out.display()))?;
+    std::fs::create_dir_all(&out).map_err(|e| io_error("create", &out, e))?;
     let pkg_config_path = format!("PKG_CONFIG_PATH={}", s(&package.prefix.join("lib/pkgconfig")));
     Cmd::new("make")
         .args(["-s", "-C", &s(&dir), &pkg_config_path, &format!("OUT={}", s(&out))])
@@ -61,7 +62,7 @@ pub(super) fn check(root: &Path, package: &Package, work: &Path) -> Result<Strin
             _ => Err(format!("cannot read '{line}'")),
         }
     };
-    let truth = std::fs::read_to_string(&log).map_err(|e| format!("cannot read {}: {e}", log.display()))?;
+    let truth = std::fs::read_to_string(&log).map_err(|e| io_error("read", &log, e))?;
     let summary = &runs[0].2;
     let (true_apogee, true_apogee_t) = numbers(&truth, "# true apogee")?;
     let (true_q, true_q_t) = numbers(&truth, "# true maximum dynamic pressure")?;

@@ -6,6 +6,7 @@ use std::path::Path;
 
 use super::altimeter;
 use super::package;
+use crate::io_error;
 use crate::process::Cmd;
 use crate::target_dir;
 
@@ -38,7 +39,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     let package = package::host(root)?;
     let lib_dir = package.prefix.join("lib");
     let work = target_dir(root).join("c-tests");
-    std::fs::create_dir_all(&work).map_err(|e| format!("cannot create {}: {e}", work.display()))?;
+    std::fs::create_dir_all(&work).map_err(|e| io_error("create", &work, e))?;
     let s = |p: &Path| p.to_string_lossy().into_owned();
     let include = format!("-I{}", s(&package.prefix.join("include")));
     let source = s(&root.join(C_TEST));
@@ -58,7 +59,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         &cpp,
         "#include \"aerostrata.h\"\nint main() { return aerostrata_status_message(0) ? 0 : 1; }\n",
     )
-    .map_err(|e| format!("cannot write {}: {e}", cpp.display()))?;
+    .map_err(|e| io_error("write", &cpp, e))?;
     let cpp_exe = s(&work.join("header_cpp"));
     let cpp_source = s(&cpp);
     let mut cpp_args = vec!["-std=c++17", "-Wall", "-Wextra", "-Werror", "-pedantic", &include, &cpp_source];
@@ -149,7 +150,7 @@ fn readme_example(
         body.join("\n")
     );
     let path = work.join("readme_example.c");
-    std::fs::write(&path, source).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+    std::fs::write(&path, source).map_err(|e| io_error("write", &path, e))?;
     let exe = work.join("readme_example");
     let (path_arg, exe_arg) = (path.to_string_lossy().into_owned(), exe.to_string_lossy().into_owned());
     let mut args: Vec<&str> = C_FLAGS.to_vec();

@@ -4,6 +4,7 @@
 
 use std::path::{Path, PathBuf};
 
+use crate::io_error;
 use crate::process::Cmd;
 use crate::target_dir;
 
@@ -25,7 +26,7 @@ pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
     let committed = root.join(HEADER);
     let output = if check_only { target_dir(root).join("aerostrata.h.check") } else { committed.clone() };
     if let Some(dir) = output.parent() {
-        std::fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+        std::fs::create_dir_all(dir).map_err(|e| io_error("create", dir, e))?;
     }
     let output_arg = output.to_string_lossy().into_owned();
     Cmd::new(cbindgen)

@@ -13,6 +13,7 @@ use std::fs;
 use std::path::Path;
 
 use super::qemu;
+use crate::io_error;
 use crate::process::Cmd;
 use crate::rust::vectors::{self, split_output, VectorFile};
 use crate::setup::{self, TargetToolchain};
@@ -139,7 +140,7 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
         return Err(format!("cases.h lists {count} values, the native bit lines {}", native.len()));
     }
     let work = crate::target_dir(root).join("firmware-c");
-    fs::create_dir_all(&work).map_err(|e| format!("cannot create {}: {e}", work.display()))?;
+    fs::create_dir_all(&work).map_err(|e| io_error("create", &work, e))?;
     fs::write(work.join("cases.h"), header).map_err(|e| format!("cannot write cases.h: {e}"))?;
     let elf = work.join("c-firmware.elf");
     let s = |p: &Path| p.to_string_lossy().into_owned();

@@ -15,6 +15,7 @@ use std::path::Path;
 
 use super::cargo::{build_settings, cargo};
 use super::qemu;
+use crate::io_error;
 use crate::rust::flash;
 use crate::rust::vectors::{self, split_output};
 use crate::setup::TargetToolchain;
@@ -75,7 +76,7 @@ fn figure(harness: &[String], prefix: &str) -> Result<u64, String> {
 
 /// Reads an ELF image and fails if it links an allocator.
 fn read_elf(path: &Path) -> Result<Vec<u8>, String> {
-    let data = fs::read(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let data = fs::read(path).map_err(|e| io_error("read", path, e))?;
     let file = object::File::parse(&*data).map_err(|e| format!("{}: {e}", path.display()))?;
     let names: Vec<String> = flash::symbols(&file).into_iter().map(|(name, _)| name).collect();
     no_heap(&names).map_err(|e| format!("{}: {e}", path.display()))?;

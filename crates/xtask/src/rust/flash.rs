@@ -9,6 +9,7 @@ use std::path::Path;
 use object::read::archive::ArchiveFile;
 use object::{Object, ObjectSection, ObjectSymbol};
 
+use crate::io_error;
 use crate::process::Cmd;
 
 /// The budget for the table, bytes.
@@ -40,7 +41,7 @@ pub fn table_sizes(
     all_envs.extend(envs);
     Cmd::new("cargo").args(args).envs(all_envs).dir(root).run()?;
     let rlib = root.join(target_dir).join("thumbv7em-none-eabihf/release/libaerostrata.rlib");
-    let data = fs::read(&rlib).map_err(|e| format!("cannot read {}: {e}", rlib.display()))?;
+    let data = fs::read(&rlib).map_err(|e| io_error("read", &rlib, e))?;
     let archive = ArchiveFile::parse(&*data).map_err(|e| format!("{}: {e}", rlib.display()))?;
     let mut sizes = Vec::new();
     for member in archive.members() {

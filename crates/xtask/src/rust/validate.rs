@@ -7,6 +7,7 @@ use std::fs;
 use std::path::Path;
 
 use super::vectors::{self, Rule};
+use crate::io_error;
 use crate::process::Cmd;
 
 const REPORT: &str = "docs/validation.md";
@@ -46,7 +47,7 @@ pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
             return Err(format!("{REPORT} is stale: run `cargo xtask validate` and commit it"));
         }
     } else {
-        fs::write(&path, &report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+        fs::write(&path, &report).map_err(|e| io_error("write", &path, e))?;
         eprintln!("wrote {REPORT}");
     }
     if failures.is_empty() {
