@@ -410,16 +410,13 @@ fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>)
             disagreeing.join(" and ")
         );
     }
-    let _ = writeln!(
-        out,
-        "- Full state: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
-        full.point, full.lower, full.upper
-    );
-    let _ = writeln!(
-        out,
-        "- Density only: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
-        density.point, density.lower, density.upper
-    );
+    for (what, mean) in [("Full state", full), ("Density only", density)] {
+        let _ = writeln!(
+            out,
+            "- {what}: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
+            mean.point, mean.lower, mean.upper
+        );
+    }
     let walk_ratio = walk_full.ratio(full);
     let _ = writeln!(
         out,
