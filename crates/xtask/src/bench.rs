@@ -12,11 +12,13 @@
 
 use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
-use std::process::Command;
-use std::time::{SystemTime, UNIX_EPOCH};
 use std::{env, fs};
 
 use serde_json::Value as Json;
+
+use crate::io_error;
+use crate::machine::{load_average, load_text, Machine};
+use crate::process::Cmd;
 
 /// The criterion group of `crates/aerostrata/benches/state.rs`.
 const GROUP: &str = "state";
@@ -59,7 +61,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     // The cargo that runs xtask, so that the benchmark builds with the same toolchain.
     let cargo = env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
     let args = ["bench", "-p", "aerostrata", "--bench", "state", "--bench", "sounding", "--bench", "flight"];
-    crate::run_command(root, &cargo, &args, &[])?;
+    Cmd::new(cargo).args(args).dir(root).run()?;
     let home = criterion_home(root);
     let mut results = BENCHMARKS
         .iter()
@@ -72,13 +74,14 @@ pub fn run(root: &Path) -> Result<(), String> {
     let report = render(&results, &machine, load_after);
     let path = root.join(REPORT);
     if let Some(dir) = path.parent() {
-        fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+        fs::create_dir_all(dir).map_err(|e| io_error("create", dir, e))?;
     }
     // Keep the WebAssembly section that `cargo xtask wasm-bench` writes into the same file.
-    let kept =
-        fs::read_to_string(&path).ok().and_then(|old| crate::wasm_bench::section_of(&old).map(str::to_owned));
-    let report = kept.map_or(report.clone(), |section| crate::wasm_bench::splice(&report, &section));
-    fs::write(&path, report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+    let kept = fs::read_to_string(&path)
+        .ok()
+        .and_then(|old| crate::wasm::bench::section_of(&old).map(str::to_owned));
+    let report = kept.map_or(report.clone(), |section| crate::wasm::bench::splice(&report, &section));
+    fs::write(&path, report).map_err(|e| io_error("write", &path, e))?;
     eprintln!("wrote {REPORT}");
     for goal in goals(&results) {
         eprintln!("{}: {:.2}x (goal {}) {}", goal.name, goal.ratio.point, goal.goal_text(), goal.verdict());
@@ -287,78 +290,6 @@ fn goals(results: &[Measured]) -> [Goal; 5] {
     ]
 }
 
-/// What the report says about the machine and the toolchain.
-struct Machine {
-    cpus: String,
-    cpu_model: String,
-    rustc: String,
-    date: String,
-    load_before: Option<[f64; 3]>,
-}
-
-impl Machine {
-    fn probe(root: &Path) -> Self {
-        let cpus = Command::new("nproc")
-            .output()
-            .ok()
-            .filter(|o| o.status.success())
-            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
-            .or_else(|| std::thread::available_parallelism().ok().map(|n| n.to_string()))
-            .unwrap_or_else(|| "unknown".to_owned());
-        let cpu_model = fs::read_to_string("/proc/cpuinfo")
-            .ok()
-            .and_then(|info| {
-                info.lines()
-                    .filter_map(|line| line.split_once(':'))
-                    .find(|(key, _)| key.trim() == "model name")
-                    .map(|(_, value)| value.trim().to_owned())
-            })
-            .unwrap_or_else(|| "unknown (no model name in /proc/cpuinfo)".to_owned());
-        let rustc = Command::new(env::var_os("RUSTC").unwrap_or_else(|| "rustc".into()))
-            .current_dir(root)
-            .arg("--version")
-            .output()
-            .ok()
-            .filter(|o| o.status.success())
-            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_owned())
-            .unwrap_or_else(|| "unknown".to_owned());
-        Self { cpus, cpu_model, rustc, date: today_utc(), load_before: load_average() }
-    }
-}
-
-/// The 1, 5 and 15 minute load averages, from `/proc/loadavg`.
-fn load_average() -> Option<[f64; 3]> {
-    let text = fs::read_to_string("/proc/loadavg").ok()?;
-    let mut fields = text.split_whitespace().map(|f| f.parse::<f64>().ok());
-    Some([fields.next()??, fields.next()??, fields.next()??])
-}
-
-fn load_text(load: Option<[f64; 3]>) -> String {
-    load.map_or_else(|| "unknown".to_owned(), |[a, b, c]| format!("{a:.2}, {b:.2}, {c:.2}"))
-}
-
-/// Today's date in UTC as YYYY-MM-DD, from the system clock.
-fn today_utc() -> String {
-    let seconds = SystemTime::now().duration_since(UNIX_EPOCH).map_or(0, |d| d.as_secs());
-    let (year, month, day) = civil_from_days((seconds / 86_400) as i64);
-    format!("{year:04}-{month:02}-{day:02}")
-}
-
-/// The proleptic Gregorian date `days` days after 1970-01-01: count whole 400-year eras
-/// (146 097 days each) from 0000-03-01, so that leap days fall at the end of a year.
-fn civil_from_days(days: i64) -> (i64, u32, u32) {
-    let shifted = days + 719_468; // days from 0000-03-01 to 1970-01-01
-    let era = shifted.div_euclid(146_097);
-    let day_of_era = shifted.rem_euclid(146_097);
-    let year_of_era = (day_of_era - day_of_era / 1_460 + day_of_era / 36_524 - day_of_era / 146_096) / 365;
-    let day_of_year = day_of_era - (365 * year_of_era + year_of_era / 4 - year_of_era / 100);
-    let month_from_march = (5 * day_of_year + 2) / 153;
-    let day = (day_of_year - (153 * month_from_march + 2) / 5 + 1) as u32;
-    let month = if month_from_march < 10 { month_from_march + 3 } else { month_from_march - 9 } as u32;
-    let year = year_of_era + era * 400 + i64::from(month <= 2);
-    (year, month, day)
-}
-
 fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>) -> String {
     let mut out = String::new();
     let elements = results.first().map_or(0, |m| m.elements);
@@ -479,16 +410,13 @@ fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>)
             disagreeing.join(" and ")
         );
     }
-    let _ = writeln!(
-        out,
-        "- Full state: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
-        full.point, full.lower, full.upper
-    );
-    let _ = writeln!(
-        out,
-        "- Density only: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
-        density.point, density.lower, density.upper
-    );
+    for (what, mean) in [("Full state", full), ("Density only", density)] {
+        let _ = writeln!(
+            out,
+            "- {what}: {:.1} ns per evaluation (95% CI {:.1} to {:.1} ns).",
+            mean.point, mean.lower, mean.upper
+        );
+    }
     let walk_ratio = walk_full.ratio(full);
     let _ = writeln!(
         out,
@@ -530,14 +458,6 @@ fn render(results: &[Measured], machine: &Machine, load_after: Option<[f64; 3]>)
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn dates_from_unix_days() {
-        assert_eq!(civil_from_days(0), (1970, 1, 1));
-        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
-        assert_eq!(civil_from_days(19_782), (2024, 2, 29));
-        assert_eq!(civil_from_days(-1), (1969, 12, 31));
-    }
 
     #[test]
     fn fastest_sample_is_the_least_time_per_iteration() {

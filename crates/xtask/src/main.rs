@@ -19,22 +19,22 @@
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! ```
+//!
+//! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
+//! table and its flash cost; `upper.rs` and `vector_file.rs` here belong to it), `c/` and
+//! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`. Shared by all: `process.rs` (the
+//! one way to run a program), `setup.rs` (what gets installed) and `test.rs` (the CI run).
 
 mod bench;
 mod c;
-mod c_catalogue;
-mod c_package;
 mod firmware;
-mod firmware_c;
-mod flash;
+mod machine;
+mod process;
+mod rust;
 mod setup;
+mod spreadsheet;
 mod test;
-mod upper;
-mod validate;
-mod vector_file;
-mod vectors;
 mod wasm;
-mod wasm_bench;
 
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -48,24 +48,26 @@ fn main() -> ExitCode {
     let root = workspace_root();
     let result = match args.first().map(String::as_str) {
         Some("test") => test::run(&root),
-        Some("validate") => validate::run(&root, args.iter().any(|a| a == "--check")),
+        Some("validate") => rust::validate::run(&root, args.iter().any(|a| a == "--check")),
         Some("bench") => bench::run(&root),
-        Some("upper-table") => upper::run(&root, args.iter().any(|a| a == "--check")),
-        Some("flash") => flash::check(&root, &[], &[]),
-        Some("header") => c::header(&root, args.iter().any(|a| a == "--check")),
-        Some("c-package") => c_package::run(&root, &args[1..]),
-        Some("c-test") => c::test(&root),
-        Some("spreadsheet") => c::spreadsheet(&root),
+        Some("upper-table") => rust::upper::run(&root, args.iter().any(|a| a == "--check")),
+        Some("flash") => rust::flash::check(&root, &[], &[]),
+        Some("header") => c::header::run(&root, args.iter().any(|a| a == "--check")),
+        Some("c-package") => c::package::run(&root, &args[1..]),
+        Some("c-test") => c::c_test::run(&root),
+        Some("spreadsheet") => spreadsheet::run(&root),
         Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
-            Some(file) => firmware::compare_file(&root, file, Path::new(file)),
+            Some(file) => rust::vectors::compare_file(&root, file, Path::new(file)),
             None => Err("usage: cargo xtask bits --compare FILE".to_owned()),
         },
         Some("firmware") => firmware::run(&root),
-        Some("bits") => vectors::read_all(&root).and_then(|files| vectors::bit_lines(&files)).map(|lines| {
-            for line in lines {
-                println!("{line}");
-            }
-        }),
+        Some("bits") => {
+            rust::vectors::read_all(&root).and_then(|files| rust::vectors::bit_lines(&files)).map(|lines| {
+                for line in lines {
+                    println!("{line}");
+                }
+            })
+        }
         Some("wasm") => wasm::run(&root),
         Some("wasm-test") => wasm::build(&root).and_then(|package| {
             wasm::node_tests(&root, &package)?;
@@ -73,7 +75,7 @@ fn main() -> ExitCode {
             wasm::bits(&root, &package).map(|_| ())
         }),
         Some("browser-test") => wasm::browser(&root),
-        Some("wasm-bench") => wasm_bench::run(&root),
+        Some("wasm-bench") => wasm::bench::run(&root),
         _ => Err(USAGE.to_owned()),
     };
     match result {
@@ -99,39 +101,7 @@ pub(crate) fn target_dir(root: &Path) -> PathBuf {
         .map_or_else(|| root.join("target"), |dir| root.join(PathBuf::from(dir)))
 }
 
-/// Runs a command in `dir`, inheriting the terminal; Err names the command on failure.
-pub(crate) fn run_command(
-    dir: &Path,
-    program: &str,
-    args: &[&str],
-    envs: &[(&str, &str)],
-) -> Result<(), String> {
-    eprintln!("+ {program} {}", args.join(" "));
-    let status = std::process::Command::new(program)
-        .args(args)
-        .envs(envs.iter().copied())
-        .current_dir(dir)
-        .status()
-        .map_err(|e| format!("cannot start {program}: {e}"))?;
-    if status.success() {
-        Ok(())
-    } else {
-        Err(format!("`{program} {}` failed ({status})", args.join(" ")))
-    }
-}
-
-/// Runs a command and returns its stdout; stderr goes to the terminal.
-pub(crate) fn command_output(dir: &Path, program: &str, args: &[&str]) -> Result<String, String> {
-    let output = std::process::Command::new(program)
-        .args(args)
-        .current_dir(dir)
-        .stderr(std::process::Stdio::inherit())
-        .output()
-        .map_err(|e| format!("cannot start {program}: {e}"))?;
-    let stdout = String::from_utf8_lossy(&output.stdout).into_owned();
-    if output.status.success() {
-        Ok(stdout)
-    } else {
-        Err(format!("`{program} {}` failed ({}):\n{stdout}", args.join(" "), output.status))
-    }
+/// The message of a failed file operation: `cannot WHAT PATH: ERROR`.
+pub(crate) fn io_error(what: &str, path: &Path, e: std::io::Error) -> String {
+    format!("cannot {what} {}: {e}", path.display())
 }

@@ -5,9 +5,8 @@
 //! mpmath, scipy and numpy come from pip, or from Debian's packages.
 
 use std::path::Path;
-use std::process::{Command, Stdio};
 
-use crate::run_command;
+use crate::process::Cmd;
 
 /// The bare-metal targets the core must keep building for.
 pub const FIRMWARE_TARGETS: [&str; 2] = ["thumbv7em-none-eabihf", "thumbv7m-none-eabi"];
@@ -22,16 +21,11 @@ pub enum TargetToolchain {
 }
 
 fn quiet_success(program: &str, args: &[&str]) -> bool {
-    Command::new(program)
-        .args(args)
-        .stdout(Stdio::null())
-        .stderr(Stdio::null())
-        .status()
-        .is_ok_and(|s| s.success())
+    Cmd::new(program).args(args).succeeds()
 }
 
 fn is_root() -> bool {
-    Command::new("id").arg("-u").output().is_ok_and(|o| o.stdout.starts_with(b"0\n"))
+    Cmd::new("id").arg("-u").quiet().output().is_ok_and(|o| o.stdout.starts_with(b"0\n"))
 }
 
 /// Installs Debian packages when missing (as root), or says what to install.
@@ -46,17 +40,21 @@ pub fn apt_install(root: &Path, packages: &[&str]) -> Result<(), String> {
             missing.join(" ")
         ));
     }
-    run_command(root, "apt-get", &["update", "-q"], &[])?;
-    let mut args = vec!["install", "-y", "-q", "--no-install-recommends"];
-    args.extend(&missing);
-    run_command(root, "apt-get", &args, &[("DEBIAN_FRONTEND", "noninteractive")])
+    Cmd::new("apt-get").args(["update", "-q"]).dir(root).run()?;
+    Cmd::new("apt-get")
+        .args(["install", "-y", "-q", "--no-install-recommends"])
+        .args(&missing)
+        .envs([("DEBIAN_FRONTEND", "noninteractive")])
+        .dir(root)
+        .run()
 }
 
 fn dpkg_installed(package: &str) -> bool {
-    Command::new("dpkg-query")
+    Cmd::new("dpkg-query")
         .args(["-W", "-f=${Status}", package])
+        .quiet()
         .output()
-        .is_ok_and(|o| String::from_utf8_lossy(&o.stdout).contains("install ok installed"))
+        .is_ok_and(|o| o.stdout_text().contains("install ok installed"))
 }
 
 /// Debian's rustc building the standard library from source (the fallback of
@@ -67,19 +65,18 @@ pub const DEBIAN_ENVS: [(&str, &str); 3] =
 /// Makes `targets` buildable and says how: rustup's standard libraries, or, where rustup
 /// cannot download them, Debian's rustc with -Zbuild-std.
 fn rust_targets(root: &Path, targets: &[&str]) -> Result<TargetToolchain, String> {
-    let installed = Command::new("rustup")
+    let installed = Cmd::new("rustup")
         .args(["target", "list", "--installed"])
+        .quiet()
         .output()
-        .map(|o| String::from_utf8_lossy(&o.stdout).into_owned())
+        .map(|o| o.stdout_text())
         .unwrap_or_default();
     let missing: Vec<&str> =
         targets.iter().copied().filter(|t| !installed.lines().any(|l| l == *t)).collect();
     if missing.is_empty() {
         return Ok(TargetToolchain::Rustup);
     }
-    let mut args = vec!["target", "add"];
-    args.extend(&missing);
-    if run_command(root, "rustup", &args, &[]).is_ok() {
+    if Cmd::new("rustup").args(["target", "add"]).args(&missing).dir(root).run().is_ok() {
         return Ok(TargetToolchain::Rustup);
     }
     eprintln!("rustup could not add {missing:?}; falling back to Debian's rustc with -Zbuild-std");
@@ -121,9 +118,8 @@ pub fn python_modules(root: &Path) -> Result<(), String> {
         return Ok(());
     }
     let specs: Vec<String> = missing.iter().map(|(m, v, _)| format!("{m}=={v}")).collect();
-    let mut pip = vec!["-m", "pip", "install", "--quiet"];
-    pip.extend(specs.iter().map(String::as_str));
-    if run_command(root, "python3", &pip, &[]).is_err() {
+    let pip = Cmd::new("python3").args(["-m", "pip", "install", "--quiet"]).args(&specs);
+    if pip.dir(root).run().is_err() {
         eprintln!("pip could not install {specs:?}; falling back to Debian's packages");
         let packages: Vec<&str> = missing.iter().map(|(_, _, p)| *p).collect();
         apt_install(root, &packages)?;
@@ -169,18 +165,18 @@ pub fn cargo_tool(
     let tools = crate::target_dir(root).join("tools");
     let path = tools.join("bin").join(binary);
     let wanted = format!("{binary} {version}");
-    let installed = Command::new(&path)
+    let installed = Cmd::new(&path)
         .arg("--version")
+        .quiet()
         .output()
-        .is_ok_and(|o| o.status.success() && String::from_utf8_lossy(&o.stdout).trim() == wanted);
+        .is_ok_and(|o| o.success && o.stdout_text().trim() == wanted);
     if !installed {
         let root_arg = tools.to_string_lossy().into_owned();
         let args = ["install", package, "--version", version, "--root", &root_arg];
-        let mut locked = args.to_vec();
-        locked.push("--locked");
-        if run_command(root, "cargo", &locked, &[]).is_err() {
+        let install = || Cmd::new("cargo").args(args).dir(root);
+        if install().arg("--locked").run().is_err() {
             eprintln!("`cargo install --locked {package}` failed; installing it without --locked");
-            run_command(root, "cargo", &args, &[])?;
+            install().run()?;
         }
     }
     Ok(path)

@@ -3,7 +3,7 @@
 use std::path::Path;
 use std::time::Instant;
 
-use crate::run_command;
+use crate::process::Cmd;
 use crate::setup::{self, TargetToolchain, DEBIAN_ENVS, FIRMWARE_TARGETS};
 
 pub fn run(root: &Path) -> Result<(), String> {
@@ -25,23 +25,21 @@ pub fn run(root: &Path) -> Result<(), String> {
     let python = setup::python_modules(root);
     step("install: python3 with mpmath, scipy and numpy", python);
 
-    step("format (cargo fmt --check)", run_command(root, "cargo", &["fmt", "--all", "--", "--check"], &[]));
+    let cargo = |args: &[&str]| Cmd::new("cargo").args(args).dir(root);
+    step("format (cargo fmt --check)", cargo(&["fmt", "--all", "--", "--check"]).run());
     step(
         "lints (cargo clippy -D warnings)",
-        run_command(root, "cargo", &["clippy", "--workspace", "--all-targets", "--", "-D", "warnings"], &[]),
+        cargo(&["clippy", "--workspace", "--all-targets", "--", "-D", "warnings"]).run(),
     );
     step(
         "unit, property, doc and CLI tests (cargo test)",
-        run_command(root, "cargo", &["test", "--workspace"], &[("PROPTEST_RNG_SEED", PROPTEST_SEED)]),
+        cargo(&["test", "--workspace"]).envs([("PROPTEST_RNG_SEED", PROPTEST_SEED)]).run(),
     );
     step(
         "API docs build without warnings",
-        run_command(
-            root,
-            "cargo",
-            &["doc", "--quiet", "--no-deps", "-p", "aerostrata"],
-            &[("RUSTDOCFLAGS", "-D warnings")],
-        ),
+        cargo(&["doc", "--quiet", "--no-deps", "-p", "aerostrata"])
+            .envs([("RUSTDOCFLAGS", "-D warnings")])
+            .run(),
     );
     match &toolchain {
         Ok(toolchain) => {
@@ -59,19 +57,28 @@ pub fn run(root: &Path) -> Result<(), String> {
             TargetToolchain::Rustup => (&[][..], &[][..]),
             TargetToolchain::DebianBuildStd => (&DEBIAN_ENVS[..], &["-Zbuild-std=core"][..]),
         };
-        step("upper-atmosphere table within its 24 KiB flash budget", crate::flash::check(root, envs, extra));
+        step(
+            "upper-atmosphere table within its 24 KiB flash budget",
+            crate::rust::flash::check(root, envs, extra),
+        );
     }
-    step("upper-atmosphere table is fresh (cargo xtask upper-table --check)", crate::upper::run(root, true));
+    step(
+        "upper-atmosphere table is fresh (cargo xtask upper-table --check)",
+        crate::rust::upper::run(root, true),
+    );
     step(
         "reference vectors and mpmath check (cargo xtask validate --check)",
-        crate::validate::run(root, true),
+        crate::rust::validate::run(root, true),
     );
 
-    step("C header is fresh (cargo xtask header --check)", crate::c::header(root, true));
-    step("C library: C99 static/shared, C++17 header, ASan+UBSan, Valgrind, ctypes", crate::c::test(root));
+    step("C header is fresh (cargo xtask header --check)", crate::c::header::run(root, true));
+    step(
+        "C library: C99 static/shared, C++17 header, ASan+UBSan, Valgrind, ctypes",
+        crate::c::c_test::run(root),
+    );
     step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
-        crate::c::spreadsheet(root),
+        crate::spreadsheet::run(root),
     );
     step(
         "firmware: vectors on emulated Cortex-M4F and M3 and the C library in C firmware, bit-identical \
@@ -119,11 +126,12 @@ fn no_std_build(
 ) -> Result<(), String> {
     let mut args = vec!["build", "--quiet", "-p", "aerostrata", "--no-default-features", "--target", target];
     args.extend(features);
-    match toolchain {
-        TargetToolchain::Rustup => run_command(root, "cargo", &args, &[]),
+    let envs: &[(&str, &str)] = match toolchain {
+        TargetToolchain::Rustup => &[],
         TargetToolchain::DebianBuildStd => {
             args.extend(["-Zbuild-std=core", "--target-dir", "target/debian-rustc"]);
-            run_command(root, "cargo", &args, &DEBIAN_ENVS)
+            &DEBIAN_ENVS
         }
-    }
+    };
+    Cmd::new("cargo").args(args).envs(envs.iter().copied()).dir(root).run()
 }

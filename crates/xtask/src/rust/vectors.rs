@@ -7,10 +7,14 @@
 //! `p02_p01`, `p02_p1` (Rayleigh pitot) and `p1_p02`.
 
 use std::fmt::Write as _;
+use std::fs;
+use std::path::Path;
 
 use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
-pub use crate::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
+use crate::io_error;
+
+pub use super::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
 
 /// What one column of one file came to.
 #[derive(Debug, Clone)]
@@ -118,12 +122,16 @@ enum Row {
 }
 
 impl Row {
-    /// The value `column` names: `None` if no such quantity, `Some(None)` if undefined.
-    fn value(&self, column: &str) -> Option<Option<f64>> {
-        match self {
+    /// The value `column` of `file` names, `None` where it is undefined; Err if the
+    /// file's model has no such quantity.
+    fn value_in(&self, file: &VectorFile, column: &str) -> Result<Option<f64>, String> {
+        let value = match self {
             Row::State(state, altitude) => field(state, *altitude, column),
             Row::Flow(values) => values.iter().find(|(name, _)| *name == column).map(|(_, v)| Some(*v)),
-        }
+        };
+        value.ok_or_else(|| {
+            format!("{}: no quantity named {column} for model {}", file.path.display(), file.model)
+        })
     }
 }
 
@@ -140,10 +148,32 @@ fn field(state: &State, altitude: Altitude, column: &str) -> Option<Option<f64>>
     state.fields().iter().find(|(name, _)| *name == wanted).map(|(_, value)| *value)
 }
 
+/// One row of a vector file with what the core computes for it.
+struct Evaluated<'a> {
+    line: usize,
+    /// The cells as written, the input first.
+    cells: &'a [String],
+    input: f64,
+    row: Row,
+}
+
+/// Every row of `file`, evaluated.
+fn evaluate(file: &VectorFile) -> Result<Vec<Evaluated<'_>>, String> {
+    let name = file.path.display();
+    let evaluator = Evaluator::for_model(&file.model).map_err(|e| format!("{name}: {e}"))?;
+    let mut rows = Vec::with_capacity(file.rows.len());
+    for (line, cells) in &file.rows {
+        let input: f64 =
+            cells[0].parse().map_err(|_| format!("{name}:{line}: bad {} '{}'", file.input, cells[0]))?;
+        let row = evaluator.row(&file.input, input).map_err(|e| format!("{name}:{line}: {e}"))?;
+        rows.push(Evaluated { line: *line, cells, input, row });
+    }
+    Ok(rows)
+}
+
 /// Evaluates every row of `file` and compares each checked cell.
 pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
     let name = file.path.display();
-    let evaluator = Evaluator::for_model(&file.model).map_err(|e| format!("{name}: {e}"))?;
     let mut results: Vec<ColumnResult> = file
         .columns
         .iter()
@@ -157,10 +187,7 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
             failures: Vec::new(),
         })
         .collect();
-    for (line, cells) in &file.rows {
-        let input: f64 =
-            cells[0].parse().map_err(|_| format!("{name}:{line}: bad {} '{}'", file.input, cells[0]))?;
-        let row = evaluator.row(&file.input, input).map_err(|e| format!("{name}:{line}: {e}"))?;
+    for Evaluated { line, cells, input, row } in evaluate(file)? {
         for (result, written) in results.iter_mut().zip(&cells[1..]) {
             if written.is_empty() {
                 continue;
@@ -169,10 +196,7 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
                 .parse()
                 .map_err(|_| format!("{name}:{line}: bad value '{written}' in {}", result.column))?;
             let ours = row
-                .value(&result.column)
-                .ok_or_else(|| {
-                    format!("{name}: no quantity named {} for model {}", result.column, file.model)
-                })?
+                .value_in(file, &result.column)?
                 .ok_or_else(|| format!("{name}:{line}: {} is not defined there", result.column))?;
             let tolerance = match result.rule {
                 Rule::Printed => half_unit_of_last_digit(written)
@@ -206,17 +230,10 @@ pub fn check(file: &VectorFile) -> Result<Vec<ColumnResult>, String> {
 pub fn bit_lines<'a>(files: impl IntoIterator<Item = &'a VectorFile>) -> Result<Vec<String>, String> {
     let mut lines = Vec::new();
     for file in files {
-        let name = file.path.display();
         let stem = file.path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
-        let evaluator = Evaluator::for_model(&file.model).map_err(|e| format!("{name}: {e}"))?;
-        for (line, cells) in &file.rows {
-            let input: f64 =
-                cells[0].parse().map_err(|_| format!("{name}:{line}: bad {} '{}'", file.input, cells[0]))?;
-            let row = evaluator.row(&file.input, input).map_err(|e| format!("{name}:{line}: {e}"))?;
+        for Evaluated { cells, row, .. } in evaluate(file)? {
             for column in &file.columns {
-                let value = row
-                    .value(column)
-                    .ok_or_else(|| format!("{name}: no quantity named {column} for model {}", file.model))?;
+                let value = row.value_in(file, column)?;
                 let bits = value.map_or_else(|| "undefined".to_owned(), |v| format!("{:016x}", v.to_bits()));
                 lines.push(format!("{stem} {} {column} {bits}", cells[0]));
             }
@@ -273,6 +290,31 @@ pub fn compare_bits(host: &str, native: &[String], other: &[String]) -> Result<u
     }
 }
 
+/// Another host's output split into its own notes (`# ...` lines, without the prefix:
+/// the firmware harness's figures, say) and its bit lines.
+pub fn split_output(stdout: &str) -> (Vec<String>, Vec<String>) {
+    let mut harness = Vec::new();
+    let mut bits = Vec::new();
+    for line in stdout.lines().map(str::trim_end).filter(|l| !l.is_empty()) {
+        match line.strip_prefix("# ") {
+            Some(rest) => harness.push(rest.to_owned()),
+            None => bits.push(line.to_owned()),
+        }
+    }
+    (harness, bits)
+}
+
+/// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,
+/// written by its Node script) against the native ones.
+pub fn compare_file(root: &Path, host: &str, path: &Path) -> Result<(), String> {
+    let text = fs::read_to_string(path).map_err(|e| io_error("read", path, e))?;
+    let (_, other) = split_output(&text);
+    let native = bit_lines(&read_all(root)?)?;
+    let identical = compare_bits(host, &native, &other)?;
+    eprintln!("{host}: {identical} values bit-identical to the native build");
+    Ok(())
+}
+
 /// A bit field of a bit line, with its decimal value: `0x40d61a0000000000 (22632.0)`.
 fn describe(bits: &str) -> String {
     match u64::from_str_radix(bits, 16) {
@@ -284,7 +326,6 @@ fn describe(bits: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use std::fs;
 
     #[test]
     fn last_digit_rule() {

@@ -16,8 +16,9 @@
 
 use std::fs;
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
+use crate::io_error;
+use crate::process::Cmd;
 use crate::setup::TargetToolchain;
 use crate::target_dir;
 
@@ -64,17 +65,8 @@ pub fn package(
     args.extend(extra_args);
     let crate_types = if target.is_some() { "staticlib" } else { "staticlib,cdylib" };
     args.extend(["--crate-type", crate_types, "--", "--print", "native-static-libs"]);
-    eprintln!("+ cargo {}", args.join(" "));
-    let output = Command::new("cargo")
-        .args(&args)
-        .envs(envs.iter().copied())
-        .current_dir(root)
-        .output()
-        .map_err(|e| format!("cannot start cargo: {e}"))?;
-    let stderr = String::from_utf8_lossy(&output.stderr);
-    if !output.status.success() {
-        return Err(format!("`cargo {}` failed:\n{stderr}", args.join(" ")));
-    }
+    // rustc prints the native-static-libs note on stderr.
+    let stderr = Cmd::new("cargo").args(&args).envs(envs.iter().copied()).dir(root).capture()?.stderr_text();
     let native_static_libs: Vec<String> = stderr
         .lines()
         .find_map(|l| l.split_once("native-static-libs:").map(|(_, libs)| libs))
@@ -92,18 +84,17 @@ pub fn package(
         Some(triple) => build_root.join(triple).join("release"),
         None => build_root.join("release"),
     };
-    let err = |what: &str, p: &Path, e: std::io::Error| format!("cannot {what} {}: {e}", p.display());
     if prefix.exists() {
-        fs::remove_dir_all(prefix).map_err(|e| err("remove", prefix, e))?;
+        fs::remove_dir_all(prefix).map_err(|e| io_error("remove", prefix, e))?;
     }
     let include = prefix.join("include");
     let lib = prefix.join("lib");
     let pkgconfig = lib.join("pkgconfig");
     let cmake = lib.join("cmake").join("aerostrata");
     for dir in [&include, &pkgconfig, &cmake] {
-        fs::create_dir_all(dir).map_err(|e| err("create", dir, e))?;
+        fs::create_dir_all(dir).map_err(|e| io_error("create", dir, e))?;
     }
-    let copy = |from: &Path, to: &Path| fs::copy(from, to).map(|_| ()).map_err(|e| err("copy", from, e));
+    let copy = |from: &Path, to: &Path| fs::copy(from, to).map(|_| ()).map_err(|e| io_error("copy", from, e));
     copy(&root.join("bindings/c/include/aerostrata.h"), &include.join("aerostrata.h"))?;
     let static_lib = lib.join("libaerostrata.a");
     copy(&built.join("libaerostrata_c.a"), &static_lib)?;
@@ -135,7 +126,7 @@ pub fn package(
          Libs.private: {private}\n"
     );
     let pc_path = pkgconfig.join("aerostrata.pc");
-    fs::write(&pc_path, pc).map_err(|e| err("write", &pc_path, e))?;
+    fs::write(&pc_path, pc).map_err(|e| io_error("write", &pc_path, e))?;
 
     let link_libraries: Vec<&str> =
         native_static_libs.iter().filter_map(|l| l.strip_prefix("-l")).filter(|l| *l != "c").collect();
@@ -167,7 +158,7 @@ pub fn package(
         link_libraries.join(";")
     );
     let config_path = cmake.join("aerostrata-config.cmake");
-    fs::write(&config_path, config).map_err(|e| err("write", &config_path, e))?;
+    fs::write(&config_path, config).map_err(|e| io_error("write", &config_path, e))?;
     // Before 1.0 only the same minor version is compatible (the ABI policy); a request
     // for a higher patch than this one is not met either.
     let (major, minor) = soname_version().split_once('.').map(|(a, b)| (a.to_owned(), b.to_owned())).unwrap();
@@ -183,9 +174,15 @@ pub fn package(
          endif()\n"
     );
     let version_path = cmake.join("aerostrata-config-version.cmake");
-    fs::write(&version_path, config_version).map_err(|e| err("write", &version_path, e))?;
+    fs::write(&version_path, config_version).map_err(|e| io_error("write", &version_path, e))?;
     eprintln!("C package in {}", prefix.display());
     Ok(Package { prefix: prefix.to_path_buf(), static_lib, shared_lib, native_static_libs })
+}
+
+/// Builds the host's C package (release) at its default prefix.
+pub fn host(root: &Path) -> Result<Package, String> {
+    let prefix = default_prefix(root, None);
+    package(root, None, &prefix, &[], &[])
 }
 
 /// The bare-metal package for `target` at its default prefix, built by rustup's target

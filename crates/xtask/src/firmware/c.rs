@@ -12,9 +12,11 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use crate::firmware::{qemu, split_output, tail};
+use super::qemu;
+use crate::io_error;
+use crate::process::Cmd;
+use crate::rust::vectors::{self, split_output, VectorFile};
 use crate::setup::{self, TargetToolchain};
-use crate::vectors::{self, VectorFile};
 
 const TARGET: &str = "thumbv7em-none-eabihf";
 const SOURCES: [&str; 2] = ["tests/firmware/c/main.c", "tests/firmware/c/startup.c"];
@@ -130,7 +132,7 @@ fn cases_header(files: &[(VectorFile, f64)]) -> Result<(String, usize), String> 
 /// Builds and runs the C firmware; Err on any bit difference, failed check or bad exit.
 pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
     setup::apt_install(root, &["gcc-arm-none-eabi", "libnewlib-arm-none-eabi"])?;
-    let package = crate::c_package::bare_metal(root, TARGET, toolchain)?;
+    let package = crate::c::package::bare_metal(root, TARGET, toolchain)?;
     let files = standard_files(vectors::read_all(root)?)?;
     let native = vectors::bit_lines(files.iter().map(|(f, _)| f))?;
     let (header, count) = cases_header(&files)?;
@@ -138,7 +140,7 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
         return Err(format!("cases.h lists {count} values, the native bit lines {}", native.len()));
     }
     let work = crate::target_dir(root).join("firmware-c");
-    fs::create_dir_all(&work).map_err(|e| format!("cannot create {}: {e}", work.display()))?;
+    fs::create_dir_all(&work).map_err(|e| io_error("create", &work, e))?;
     fs::write(work.join("cases.h"), header).map_err(|e| format!("cannot write cases.h: {e}"))?;
     let elf = work.join("c-firmware.elf");
     let s = |p: &Path| p.to_string_lossy().into_owned();
@@ -171,20 +173,19 @@ pub fn run(root: &Path, toolchain: TargetToolchain) -> Result<Report, String> {
         "-o",
         &elf_arg,
     ]);
-    crate::run_command(root, "arm-none-eabi-gcc", &args, &[])?;
+    Cmd::new("arm-none-eabi-gcc").args(args).dir(root).run()?;
 
-    let run = qemu(TARGET, &elf)?;
-    let (lines, bits) = split_output(&format!("{}\n{}", run.stdout, run.stderr));
+    let run = qemu::run(TARGET, &elf)?;
+    let (lines, bits) = split_output(&format!("{}\n{}", run.stdout_text(), run.stderr_text()));
     for line in lines.iter().filter(|l| l.starts_with("FAIL") || l.starts_with("error")) {
         eprintln!("C firmware: {line}");
     }
     let tally = lines.iter().rev().find(|l| l.ends_with(" failed")).cloned().unwrap_or_default();
     if !run.success || !tally.ends_with(" 0 failed") {
         return Err(format!(
-            "the C firmware failed in QEMU ({}; '{tally}'); last output:\n{}{}",
+            "the C firmware failed in QEMU ({}; '{tally}'); last output:\n{}",
             run.status,
-            tail(&run.stdout, 10),
-            tail(&run.stderr, 5)
+            run.last_lines()
         ));
     }
     let identical = vectors::compare_bits("the C firmware (Cortex-M4F)", &native, &bits)?;

@@ -6,8 +6,9 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use crate::vectors::{self, Rule};
-use crate::{command_output, run_command};
+use super::vectors::{self, Rule};
+use crate::io_error;
+use crate::process::Cmd;
 
 const REPORT: &str = "docs/validation.md";
 
@@ -46,7 +47,7 @@ pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
             return Err(format!("{REPORT} is stale: run `cargo xtask validate` and commit it"));
         }
     } else {
-        fs::write(&path, &report).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
+        fs::write(&path, &report).map_err(|e| io_error("write", &path, e))?;
         eprintln!("wrote {REPORT}");
     }
     if failures.is_empty() {
@@ -110,15 +111,17 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
          significant digits and compares them with `aerostrata eval` at pseudo-random\n\
          altitudes (fixed seed) and every layer base. Its summary:\n\n```text\n",
     );
-    run_command(root, "cargo", &["build", "--quiet", "-p", "aerostrata-cli"], &[])?;
+    Cmd::new("cargo").args(["build", "--quiet", "-p", "aerostrata-cli"]).dir(root).run()?;
     let binary = crate::target_dir(root).join("debug/aerostrata");
     // The report must not depend on where the binary was built.
     let binary_text = binary.to_str().ok_or("non-UTF-8 path")?;
-    let script = command_output(root, "python3", &["tests/reference/usa76_mpmath.py", binary_text]);
-    match script {
-        Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
-        Err(message) => failures.push(message),
-    }
+    // A script's summary goes into the report; a script that fails is a miss of the check.
+    let mut script =
+        |out: &mut String, args: &[&str]| match Cmd::new("python3").args(args).dir(root).quiet().stdout() {
+            Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
+            Err(message) => failures.push(message),
+        };
+    script(&mut out, &["tests/reference/usa76_mpmath.py", binary_text]);
     out.push_str(
         "```\n\n## Independent integration above 86 km (scipy)\n\n\
          `tests/reference/usa76_upper_scipy.py` integrates the same diffusion equations with\n\
@@ -126,11 +129,7 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
          species, N, p, rho and M with `aerostrata eval --species` at a dozen altitudes from 86 to\n\
          1000 km (limit 1e-6 relative; T to 1e-12). Its summary:\n\n```text\n",
     );
-    let script = command_output(root, "python3", &["tests/reference/usa76_upper_scipy.py", binary_text]);
-    match script {
-        Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
-        Err(message) => failures.push(message),
-    }
+    script(&mut out, &["tests/reference/usa76_upper_scipy.py", binary_text]);
     out.push_str(
         "```\n\n## Independent check of the compressible-flow vectors (mpmath, 30 digits)\n\n\
          `tests/reference/naca1135_mpmath.py` writes the perfect-gas relations of NACA Report\n\
@@ -139,20 +138,16 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
          the files' own tolerances (`--check-vectors`), the check the remembered table values\n\
          went through before they were kept. Its summaries:\n\n```text\n",
     );
-    for args in [
-        &["tests/reference/naca1135_mpmath.py", "--self-test"][..],
+    script(&mut out, &["tests/reference/naca1135_mpmath.py", "--self-test"]);
+    script(
+        &mut out,
         &[
             "tests/reference/naca1135_mpmath.py",
             "--check-vectors",
             "tests/vectors/naca1135_isentropic.csv",
             "tests/vectors/naca1135_normal_shock.csv",
-        ][..],
-    ] {
-        match command_output(root, "python3", args) {
-            Ok(text) => out.push_str(&text.replace(binary_text, "aerostrata")),
-            Err(message) => failures.push(message),
-        }
-    }
+        ],
+    );
     out.push_str("```\n");
     out.push_str(NOTES);
     Ok((out, failures))

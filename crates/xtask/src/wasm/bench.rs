@@ -13,9 +13,10 @@
 
 use std::fs;
 use std::path::Path;
-use std::process::Command;
 
-use crate::{command_output, run_command, target_dir};
+use crate::machine::{load_average, load_text, version, Machine};
+use crate::process::Cmd;
+use crate::target_dir;
 
 /// Altitudes in the batch.
 const COUNT: usize = 1_000_000;
@@ -63,34 +64,6 @@ fn min(values: &[f64]) -> f64 {
     values.iter().copied().fold(f64::INFINITY, f64::min)
 }
 
-fn load_average() -> String {
-    fs::read_to_string("/proc/loadavg")
-        .map(|s| s.split_whitespace().take(3).collect::<Vec<_>>().join(", "))
-        .unwrap_or_else(|_| "unknown".to_owned())
-}
-
-fn cpu_model() -> String {
-    fs::read_to_string("/proc/cpuinfo")
-        .ok()
-        .and_then(|s| {
-            s.lines()
-                .find(|l| l.starts_with("model name"))
-                .and_then(|l| l.split_once(':'))
-                .map(|(_, v)| v.trim().to_owned())
-        })
-        .unwrap_or_else(|| "unknown".to_owned())
-}
-
-fn version_of(program: &str) -> String {
-    Command::new(program)
-        .arg("--version")
-        .output()
-        .ok()
-        .map(|o| String::from_utf8_lossy(&o.stdout).lines().next().unwrap_or("").trim().to_owned())
-        .filter(|v| !v.is_empty())
-        .unwrap_or_else(|| "unknown".to_owned())
-}
-
 /// Replaces the marked section of `report` with `section`, or appends it.
 pub fn splice(report: &str, section: &str) -> String {
     match (report.find(BEGIN), report.find(END)) {
@@ -109,15 +82,13 @@ pub fn section_of(report: &str) -> Option<&str> {
 }
 
 pub fn run(root: &Path) -> Result<(), String> {
-    let load_before = load_average();
-    let package = crate::wasm::build(root)?;
+    let machine = Machine::probe(root);
+    let package = super::package::build(root)?;
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".to_owned());
-    run_command(
-        root,
-        &cargo,
-        &["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"],
-        &[],
-    )?;
+    Cmd::new(cargo)
+        .args(["build", "--quiet", "--release", "-p", "aerostrata-wasm", "--example", "native_batch"])
+        .dir(root)
+        .run()?;
     let native = target_dir(root).join("release").join("examples").join("native_batch");
     let altitudes = target_dir(root).join("wasm").join("bench-altitudes.f64");
     let script = root.join("bindings/wasm/tests/bench.mjs");
@@ -134,17 +105,18 @@ pub fn run(root: &Path) -> Result<(), String> {
     let mut checksums = Vec::new();
     for round in 1..=ROUNDS {
         eprintln!("round {round} of {ROUNDS}: wasm in Node, then native");
-        let (ms, first, sum) = parse("wasm", &command_output(root, "node", &[&s, &p, &a, &count, &runs])?)?;
+        let (ms, first, sum) =
+            parse("wasm", &Cmd::new("node").args([&s, &p, &a, &count, &runs]).dir(root).quiet().stdout()?)?;
         wasm_ms.extend(ms);
         wasm_first.push(first);
         checksums.push(("wasm", sum));
         let (ms, first, sum) =
-            parse("native", &command_output(root, &native.to_string_lossy(), &[&a, &runs])?)?;
+            parse("native", &Cmd::new(&native).args([&a, &runs]).dir(root).quiet().stdout()?)?;
         native_ms.extend(ms);
         native_first.push(first);
         checksums.push(("native", sum));
     }
-    let load_after = load_average();
+    let load_after = load_text(load_average());
     let first = checksums[0].1.clone();
     if let Some((side, sum)) = checksums.iter().find(|(_, sum)| *sum != first) {
         return Err(format!("the outputs differ: checksum {sum} ({side}) against {first}"));
@@ -159,7 +131,7 @@ pub fn run(root: &Path) -> Result<(), String> {
         "{BEGIN}
 ## WebAssembly: batch evaluation in Node against the native core
 
-Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm_bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
+Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm/bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
 
 - Machine: {cpu}, {cpus} logical CPUs; Node {node}, {rustc}; load average (1, 5, 15 min) {load_before} before, {load_after} after.
 - Size of the module measured in the same run: {size}.
@@ -177,10 +149,11 @@ Every run's milliseconds, wasm: {wl}; native: {nl}. The first batch of each roun
 
 Within one run the module's batches vary by about a third (each batch allocates its 48 MB of arrays in the JS heap, and V8's collector runs between batches), so the median ratio lands on either side of the 2.5x goal from one run of the command to the next (2.47x to 2.66x in the runs made for this report). Why the module is slower: it is optimised for size (its budget), and V8's code for wasm is not LLVM's for x86-64; the core's square root uses wasm's `f64x2.sqrt` instruction rather than libm's software square root, which on its own took a quarter of the module's time (crates/aerostrata/src/math.rs). Rerun `cargo xtask wasm-bench` to refresh this section; the rest of this file is `cargo xtask bench`'s.
 {END}",
-        cpu = cpu_model(),
-        cpus = std::thread::available_parallelism().map_or(0, usize::from),
-        node = version_of("node"),
-        rustc = version_of("rustc"),
+        cpu = machine.cpu_model,
+        cpus = machine.cpus,
+        node = version(root, "node"),
+        rustc = machine.rustc,
+        load_before = load_text(machine.load_before),
         size = package.size_line(),
         wm = wasm_median,
         wf = min(&wasm_ms),

@@ -1,5 +1,4 @@
-//! `cargo xtask firmware`: the core on emulated Cortex-M (tests/firmware in QEMU), bit for
-//! bit against the native build, within its flash, stack and heap budgets.
+//! The Rust vector harness of `cargo xtask firmware` and the firmware budgets.
 //!
 //! For each of the two targets (Cortex-M4F on the MPS2 AN386 board, Cortex-M3 on the
 //! LM3S6965 board) it builds the vector harness and the budget firmwares, runs them in
@@ -12,13 +11,14 @@
 
 use std::fmt::Write as _;
 use std::fs;
-use std::path::{Path, PathBuf};
-use std::process::Command;
-use std::time::Instant;
+use std::path::Path;
 
-use crate::flash;
-use crate::setup::{self, TargetToolchain, FIRMWARE_TARGETS};
-use crate::vectors;
+use super::cargo::{build_settings, cargo};
+use super::qemu;
+use crate::io_error;
+use crate::rust::flash;
+use crate::rust::vectors::{self, split_output};
+use crate::setup::TargetToolchain;
 
 /// Flash budget of a firmware that uses only the lower standard atmosphere, bytes.
 pub const LOWER_FLASH_BUDGET_BYTES: u64 = 12 * 1024;
@@ -27,45 +27,12 @@ pub const UPPER_FLASH_BUDGET_BYTES: u64 = 40 * 1024;
 /// Stack budget of one full-state evaluation, the result included, bytes.
 pub const STACK_BUDGET_BYTES: u64 = 1024;
 
-/// Seconds a QEMU run may take before `timeout` ends it (the runs take well under one).
-const QEMU_TIMEOUT_S: &str = "120";
-
-/// The emulated board and CPU of each firmware target.
-fn machine(target: &str) -> Result<(&'static str, &'static str), String> {
-    match target {
-        "thumbv7em-none-eabihf" => Ok(("mps2-an386", "cortex-m4")),
-        "thumbv7m-none-eabi" => Ok(("lm3s6965evb", "cortex-m3")),
-        other => Err(format!("no QEMU machine for {other}")),
-    }
-}
-
-/// QEMU's arguments before the ELF path; tests/firmware/.cargo/config.toml's runners use
-/// the same (a unit test keeps them in step).
-fn qemu_args(target: &str) -> Result<Vec<String>, String> {
-    let (machine, cpu) = machine(target)?;
-    let args = [
-        "-machine",
-        machine,
-        "-cpu",
-        cpu,
-        "-nographic",
-        "-monitor",
-        "none",
-        "-serial",
-        "none",
-        "-semihosting-config",
-        "enable=on,target=native",
-        "-kernel",
-    ];
-    Ok(args.iter().map(|a| (*a).to_owned()).collect())
-}
-
 /// Symbols that only a program with a heap contains: Rust's allocator shims and C's malloc.
 const ALLOCATOR_SYMBOLS: [&str; 6] =
     ["__rust_alloc", "__rdl_alloc", "__rg_alloc", "__rust_alloc_error_handler", "malloc", "_malloc_r"];
 
 /// What one target gave.
-struct TargetReport {
+pub(super) struct TargetReport {
     target: String,
     values: usize,
     checked: usize,
@@ -97,157 +64,6 @@ impl Flash {
     }
 }
 
-/// `cargo xtask firmware`.
-pub fn run(root: &Path) -> Result<(), String> {
-    let toolchain = setup::firmware_targets(root)?;
-    setup::apt_install(root, &["qemu-system-arm"])?;
-    let firmware = root.join("tests/firmware");
-    let native = vectors::bit_lines(&vectors::read_all(root)?)?;
-
-    let mut reports = Vec::new();
-    let mut failures = Vec::new();
-    if let Err(message) = lint(&firmware, toolchain) {
-        failures.push(format!("lints: {message}"));
-    }
-    for target in FIRMWARE_TARGETS {
-        match run_target(root, toolchain, target, &native) {
-            Ok(report) => reports.push(report),
-            Err(message) => failures.push(format!("{target}: {message}")),
-        }
-    }
-    for report in &reports {
-        failures.extend(budget_failures(report));
-    }
-    eprintln!("{}", summary(&reports));
-    match crate::firmware_c::run(root, toolchain) {
-        Ok(report) => eprintln!(
-            "C firmware on Cortex-M4F (QEMU {:.2} s): {} values bit-identical to native; its checks: {}",
-            report.seconds, report.identical, report.tally
-        ),
-        Err(message) => failures.push(format!("C firmware: {message}")),
-    }
-    // The wasm module's bit lines against the same native ones: with the two firmware
-    // targets and the C firmware, every host then agrees with every other.
-    match crate::wasm::build(root).and_then(|package| crate::wasm::bits(root, &package)) {
-        Ok(identical) => eprintln!("wasm module in Node: {identical} values bit-identical to native"),
-        Err(message) => failures.push(format!("wasm: {message}")),
-    }
-    if failures.is_empty() {
-        Ok(())
-    } else {
-        Err(failures.join("\n"))
-    }
-}
-
-/// How cargo builds for the thumb targets on this machine: (extra environment, extra
-/// arguments, target directory).
-fn build_settings(root: &Path, toolchain: TargetToolchain) -> (Vec<(String, String)>, Vec<String>, PathBuf) {
-    let target_dir = crate::target_dir(root);
-    match toolchain {
-        TargetToolchain::Rustup => (Vec::new(), Vec::new(), target_dir.join("firmware")),
-        TargetToolchain::DebianBuildStd => {
-            let mut envs: Vec<(String, String)> =
-                crate::setup::DEBIAN_ENVS.iter().map(|(k, v)| ((*k).to_owned(), (*v).to_owned())).collect();
-            // Debian's rustc has no rust-lld of its own.
-            for target in FIRMWARE_TARGETS {
-                let key = format!("CARGO_TARGET_{}_LINKER", target.to_uppercase().replace('-', "_"));
-                envs.push((key, "ld.lld-16".to_owned()));
-            }
-            (envs, vec!["-Zbuild-std=core".to_owned()], target_dir.join("firmware-debian"))
-        }
-    }
-}
-
-/// Runs cargo in tests/firmware (so that its .cargo/config.toml applies).
-fn cargo(firmware: &Path, toolchain: TargetToolchain, args: &[&str]) -> Result<(), String> {
-    let root = firmware.ancestors().nth(2).ok_or("tests/firmware has no root")?;
-    let (envs, extra, target_dir) = build_settings(root, toolchain);
-    let mut all: Vec<String> = args.iter().map(|a| (*a).to_owned()).collect();
-    if args.first().is_some_and(|a| *a != "fmt") {
-        // Cargo's own options go before a `--` that hands the rest to the compiler.
-        let at = all.iter().position(|a| a == "--").unwrap_or(all.len());
-        let mut own = vec!["--target-dir".to_owned(), target_dir.display().to_string()];
-        own.extend(extra);
-        all.splice(at..at, own);
-    }
-    eprintln!("+ (tests/firmware) cargo {}", all.join(" "));
-    let status = Command::new("cargo")
-        .args(&all)
-        .envs(envs)
-        .current_dir(firmware)
-        .status()
-        .map_err(|e| format!("cannot start cargo: {e}"))?;
-    if status.success() {
-        Ok(())
-    } else {
-        Err(format!("`cargo {}` in tests/firmware failed ({status})", all.join(" ")))
-    }
-}
-
-/// rustfmt and clippy (`-D warnings`) on the firmware crate, for both thumb targets and
-/// both feature sets. Clippy needs rustup's standard library for the targets, so with
-/// Debian's rustc (the fallback) only the format is checked.
-fn lint(firmware: &Path, toolchain: TargetToolchain) -> Result<(), String> {
-    cargo(firmware, toolchain, &["fmt", "--", "--check"])?;
-    if toolchain == TargetToolchain::DebianBuildStd {
-        eprintln!("clippy for the thumb targets needs rustup's targets; skipped with Debian's rustc");
-        return Ok(());
-    }
-    for target in FIRMWARE_TARGETS {
-        for features in [&[][..], &["--features", "upper"][..]] {
-            let mut args = vec!["clippy", "--quiet", "--release", "--target", target, "--bins", "--lib"];
-            args.extend(features);
-            args.extend(["--", "-D", "warnings"]);
-            cargo(firmware, toolchain, &args)?;
-        }
-    }
-    Ok(())
-}
-
-/// One QEMU run: exit status, stdout, seconds.
-pub(crate) struct QemuRun {
-    pub success: bool,
-    pub status: String,
-    pub stdout: String,
-    pub stderr: String,
-    pub seconds: f64,
-}
-
-pub(crate) fn qemu(target: &str, elf: &Path) -> Result<QemuRun, String> {
-    let mut args = vec![QEMU_TIMEOUT_S.to_owned(), "qemu-system-arm".to_owned()];
-    args.extend(qemu_args(target)?);
-    args.push(elf.display().to_string());
-    eprintln!("+ timeout {}", args.join(" "));
-    let started = Instant::now();
-    let output =
-        Command::new("timeout").args(&args).output().map_err(|e| format!("cannot start timeout: {e}"))?;
-    let seconds = started.elapsed().as_secs_f64();
-    let status = match output.status.code() {
-        Some(124) => format!("timed out after {QEMU_TIMEOUT_S} s"),
-        _ => output.status.to_string(),
-    };
-    Ok(QemuRun {
-        success: output.status.success(),
-        status,
-        stdout: String::from_utf8_lossy(&output.stdout).into_owned(),
-        stderr: String::from_utf8_lossy(&output.stderr).into_owned(),
-        seconds,
-    })
-}
-
-/// A firmware's output split into harness lines (`# ...`, without the prefix) and bit lines.
-pub(crate) fn split_output(stdout: &str) -> (Vec<String>, Vec<String>) {
-    let mut harness = Vec::new();
-    let mut bits = Vec::new();
-    for line in stdout.lines().map(str::trim_end).filter(|l| !l.is_empty()) {
-        match line.strip_prefix("# ") {
-            Some(rest) => harness.push(rest.to_owned()),
-            None => bits.push(line.to_owned()),
-        }
-    }
-    (harness, bits)
-}
-
 /// The number N of the harness line `PREFIX N ...` (e.g. `stack state 740 B`).
 fn figure(harness: &[String], prefix: &str) -> Result<u64, String> {
     harness
@@ -260,7 +76,7 @@ fn figure(harness: &[String], prefix: &str) -> Result<u64, String> {
 
 /// Reads an ELF image and fails if it links an allocator.
 fn read_elf(path: &Path) -> Result<Vec<u8>, String> {
-    let data = fs::read(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
+    let data = fs::read(path).map_err(|e| io_error("read", path, e))?;
     let file = object::File::parse(&*data).map_err(|e| format!("{}: {e}", path.display()))?;
     let names: Vec<String> = flash::symbols(&file).into_iter().map(|(name, _)| name).collect();
     no_heap(&names).map_err(|e| format!("{}: {e}", path.display()))?;
@@ -299,7 +115,7 @@ fn flash_pair(empty: &[u8], state: &[u8]) -> Result<Flash, String> {
     })
 }
 
-fn run_target(
+pub(super) fn run_target(
     root: &Path,
     toolchain: TargetToolchain,
     target: &str,
@@ -317,17 +133,16 @@ fn run_target(
     )?;
     let harness_elf = release.join("vectors");
     read_elf(&harness_elf)?;
-    let harness = qemu(target, &harness_elf)?;
-    let (lines, bits) = split_output(&harness.stdout);
+    let harness = qemu::run(target, &harness_elf)?;
+    let (lines, bits) = split_output(&harness.stdout_text());
     for line in lines.iter().filter(|l| l.starts_with("miss") || l.starts_with("error")) {
         eprintln!("{target}: {line}");
     }
     if !harness.success {
         return Err(format!(
-            "the vector harness failed in QEMU ({}); last output:\n{}{}",
+            "the vector harness failed in QEMU ({}); last output:\n{}",
             harness.status,
-            tail(&harness.stdout, 10),
-            tail(&harness.stderr, 5)
+            harness.last_lines()
         ));
     }
     let identical = vectors::compare_bits(target, native, &bits)?;
@@ -384,32 +199,16 @@ fn budget_pair(release: &Path, target: &str) -> Result<(Flash, u64), String> {
     let state_elf = release.join("budget-state");
     let state = read_elf(&state_elf)?;
     let flash = flash_pair(&empty, &state)?;
-    let run = qemu(target, &state_elf)?;
+    let run = qemu::run(target, &state_elf)?;
     if !run.success {
-        return Err(format!("budget-state failed in QEMU ({}):\n{}", run.status, tail(&run.stdout, 10)));
+        return Err(format!("budget-state failed in QEMU ({}):\n{}", run.status, run.last_lines()));
     }
-    let (lines, _) = split_output(&run.stdout);
+    let (lines, _) = split_output(&run.stdout_text());
     Ok((flash, figure(&lines, "stack state")?))
 }
 
-pub(crate) fn tail(text: &str, lines: usize) -> String {
-    let all: Vec<&str> = text.lines().collect();
-    all[all.len().saturating_sub(lines)..].iter().map(|l| format!("  {l}\n")).collect()
-}
-
-/// `cargo xtask bits --compare FILE`: another host's bit lines (e.g. the wasm module's,
-/// written by its Node script) against the native ones.
-pub fn compare_file(root: &Path, host: &str, path: &Path) -> Result<(), String> {
-    let text = fs::read_to_string(path).map_err(|e| format!("cannot read {}: {e}", path.display()))?;
-    let (_, other) = split_output(&text);
-    let native = vectors::bit_lines(&vectors::read_all(root)?)?;
-    let identical = vectors::compare_bits(host, &native, &other)?;
-    eprintln!("{host}: {identical} values bit-identical to the native build");
-    Ok(())
-}
-
 /// Every budget a target's figures exceed, as messages.
-fn budget_failures(report: &TargetReport) -> Vec<String> {
+pub(super) fn budget_failures(report: &TargetReport) -> Vec<String> {
     let mut failures = Vec::new();
     let target = &report.target;
     for (name, flash, budget) in [
@@ -436,7 +235,7 @@ fn kib(bytes: u64) -> String {
 }
 
 /// The figures of every target, as printed at the end of the run.
-fn summary(reports: &[TargetReport]) -> String {
+pub(super) fn summary(reports: &[TargetReport]) -> String {
     let mut text = String::from("\nfirmware figures:\n");
     for r in reports {
         let [harness, lower, upper] = r.stack_state;
@@ -521,19 +320,5 @@ mod tests {
         assert_eq!(budget_failures(&report(12 * 1024 + 1, 0, 0)).len(), 1);
         assert_eq!(budget_failures(&report(0, 40 * 1024 + 1, 0)).len(), 1);
         assert!(budget_failures(&report(0, 0, 1024 - 191))[0].contains("stack"));
-    }
-
-    /// The runners a person uses (`cargo run` in tests/firmware) start QEMU as this does.
-    #[test]
-    fn cargo_runners_match_the_qemu_arguments() {
-        let config =
-            fs::read_to_string(crate::workspace_root().join("tests/firmware/.cargo/config.toml")).unwrap();
-        for target in FIRMWARE_TARGETS {
-            let section = config.split(&format!("[target.{target}]")).nth(1).unwrap();
-            let runner = section.lines().find(|l| l.starts_with("runner")).unwrap();
-            let expected = format!("qemu-system-arm {}\"", qemu_args(target).unwrap().join(" "));
-            assert!(runner.starts_with("runner = \"timeout "), "{runner}");
-            assert!(runner.ends_with(&expected), "{runner} should end with {expected}");
-        }
     }
 }

@@ -1,7 +1,7 @@
 //! What the upper-atmosphere table costs in flash on a Cortex-M4F: the core is built for
 //! `thumbv7em-none-eabihf` (release, no LTO so that the rlib holds machine code), and the
 //! sizes of the table's statics are read from the symbol table of the object in the rlib.
-//! The symbol and section readers here also serve the firmware budgets (firmware.rs).
+//! The symbol and section readers here also serve the firmware budgets (firmware/harness.rs).
 
 use std::fs;
 use std::path::Path;
@@ -9,7 +9,8 @@ use std::path::Path;
 use object::read::archive::ArchiveFile;
 use object::{Object, ObjectSection, ObjectSymbol};
 
-use crate::run_command;
+use crate::io_error;
+use crate::process::Cmd;
 
 /// The budget for the table, bytes.
 pub const TABLE_BUDGET_BYTES: u64 = 24 * 1024;
@@ -38,9 +39,9 @@ pub fn table_sizes(
     args.extend(extra_args);
     let mut all_envs = vec![("CARGO_PROFILE_RELEASE_LTO", "false")];
     all_envs.extend(envs);
-    run_command(root, "cargo", &args, &all_envs)?;
+    Cmd::new("cargo").args(args).envs(all_envs).dir(root).run()?;
     let rlib = root.join(target_dir).join("thumbv7em-none-eabihf/release/libaerostrata.rlib");
-    let data = fs::read(&rlib).map_err(|e| format!("cannot read {}: {e}", rlib.display()))?;
+    let data = fs::read(&rlib).map_err(|e| io_error("read", &rlib, e))?;
     let archive = ArchiveFile::parse(&*data).map_err(|e| format!("{}: {e}", rlib.display()))?;
     let mut sizes = Vec::new();
     for member in archive.members() {

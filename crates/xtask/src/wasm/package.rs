@@ -1,0 +1,249 @@
+//! `cargo xtask wasm`: the npm package `aerostrata` under target/wasm/pkg (an ES module
+//! for browsers and bundlers in `web/`, a CommonJS build for Node in `node/`, the `.d.ts`
+//! types, package.json and README) within its size budget, and the web calculator's
+//! static site under target/wasm/site.
+
+use std::fs;
+use std::path::{Path, PathBuf};
+
+use super::table::fix_table_export;
+use super::toolchain::{cargo_wasm, wasm_bindgen_cli, wasm_opt, WASM_RUSTFLAGS};
+use crate::process::Cmd;
+use crate::setup::{self, WASM_TARGET};
+use crate::{io_error, target_dir};
+
+/// The size budget of the optimised `.wasm`, bytes (150 KiB) ...
+pub const MAX_WASM_BYTES: u64 = 150 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (60 KiB).
+pub const MAX_GZIP_BYTES: u64 = 60 * 1024;
+
+pub(super) const CRATE_DIR: &str = "bindings/wasm";
+const CALCULATOR_DIR: &str = "examples/web-calculator";
+/// The name of the package's files (`aerostrata.js`, `aerostrata_bg.wasm`, ...).
+const OUT_NAME: &str = "aerostrata";
+/// The release profile of the module (root Cargo.toml): optimised for size.
+const PROFILE: &str = "wasm-release";
+
+/// What `build` made.
+pub struct Package {
+    /// target/wasm/pkg
+    pub dir: PathBuf,
+    /// The optimised module's size, bytes.
+    pub wasm_bytes: u64,
+    /// Its size after `gzip -9`, bytes.
+    pub gzip_bytes: u64,
+}
+
+impl Package {
+    /// The sizes against the budget, as one line.
+    pub fn size_line(&self) -> String {
+        format!(
+            "aerostrata_bg.wasm: {} bytes ({:.1} KiB, budget {} KiB), gzip -9: {} bytes ({:.1} KiB, budget {} KiB)",
+            self.wasm_bytes,
+            self.wasm_bytes as f64 / 1024.0,
+            MAX_WASM_BYTES / 1024,
+            self.gzip_bytes,
+            self.gzip_bytes as f64 / 1024.0,
+            MAX_GZIP_BYTES / 1024
+        )
+    }
+
+    /// Ok when both sizes are within the budget.
+    pub fn check_budget(&self) -> Result<(), String> {
+        if self.wasm_bytes <= MAX_WASM_BYTES && self.gzip_bytes <= MAX_GZIP_BYTES {
+            Ok(())
+        } else {
+            Err(format!("over the size budget: {}", self.size_line()))
+        }
+    }
+}
+
+fn copy_dir(from: &Path, to: &Path) -> Result<(), String> {
+    fs::create_dir_all(to).map_err(|e| io_error("create", to, e))?;
+    for entry in fs::read_dir(from).map_err(|e| io_error("read", from, e))? {
+        let entry = entry.map_err(|e| io_error("read", from, e))?;
+        let path = entry.path();
+        let dest = to.join(entry.file_name());
+        if path.is_dir() {
+            copy_dir(&path, &dest)?;
+        } else {
+            fs::copy(&path, &dest).map_err(|e| io_error("copy", &path, e))?;
+        }
+    }
+    Ok(())
+}
+
+/// Every file under `dir` whose name ends in `.js`.
+fn js_files(dir: &Path, out: &mut Vec<PathBuf>) {
+    if let Ok(entries) = fs::read_dir(dir) {
+        for entry in entries.flatten() {
+            let path = entry.path();
+            if path.is_dir() {
+                js_files(&path, out);
+            } else if path.extension().is_some_and(|x| x == "js") {
+                out.push(path);
+            }
+        }
+    }
+}
+
+/// glue.js as CommonJS for the Node build: its `export function NAME` declarations
+/// become plain functions listed in `module.exports` (the file's header promises that
+/// this is all it exports).
+fn snippets_to_commonjs(node_dir: &Path) -> Result<(), String> {
+    let mut files = Vec::new();
+    js_files(&node_dir.join("snippets"), &mut files);
+    for path in files {
+        let text = fs::read_to_string(&path).map_err(|e| io_error("read", &path, e))?;
+        let mut names = Vec::new();
+        let mut out = String::new();
+        for line in text.lines() {
+            if let Some(rest) = line.strip_prefix("export function ") {
+                let name: String = rest.chars().take_while(|c| c.is_alphanumeric() || *c == '_').collect();
+                names.push(name);
+                out.push_str("function ");
+                out.push_str(rest);
+            } else if line.trim_start().starts_with("export ") || line.trim_start().starts_with("import ") {
+                return Err(format!(
+                    "{}: only `export function` declarations can be converted",
+                    path.display()
+                ));
+            } else {
+                out.push_str(line);
+            }
+            out.push('\n');
+        }
+        out.push_str(&format!("module.exports = {{ {} }};\n", names.join(", ")));
+        fs::write(&path, out).map_err(|e| io_error("write", &path, e))?;
+    }
+    Ok(())
+}
+
+/// The `"version"` of bindings/wasm/package.json.
+fn package_version(manifest: &str) -> Option<String> {
+    let value: serde_json::Value = serde_json::from_str(manifest).ok()?;
+    value.get("version")?.as_str().map(str::to_owned)
+}
+
+fn gzip_size(path: &Path) -> Result<u64, String> {
+    let output = Cmd::new("gzip").args(["-9", "-c", "-n"]).arg(path).quiet().capture()?;
+    Ok(output.stdout.len() as u64)
+}
+
+/// Builds the package into target/wasm/pkg and the calculator's site into
+/// target/wasm/site; returns the sizes.
+pub fn build(root: &Path) -> Result<Package, String> {
+    let toolchain = setup::wasm_target(root)?;
+    let bindgen = wasm_bindgen_cli(root)?;
+    wasm_opt(root)?;
+    let target = cargo_wasm(
+        root,
+        toolchain,
+        &["build", "--quiet", "-p", "aerostrata-wasm", "--profile", PROFILE, "--features", "standalone"],
+        "-Zbuild-std=core,alloc",
+        &[WASM_RUSTFLAGS],
+    )?;
+    let module = target.join(WASM_TARGET).join(PROFILE).join("aerostrata_wasm.wasm");
+    let out = target_dir(root).join("wasm");
+    let pkg = out.join("pkg");
+    if pkg.exists() {
+        fs::remove_dir_all(&pkg).map_err(|e| io_error("remove", &pkg, e))?;
+    }
+    let module_arg = module.to_string_lossy().into_owned();
+    let bindgen_arg = bindgen.to_string_lossy().into_owned();
+    for (target, dir) in [("web", "web"), ("nodejs", "node")] {
+        let dir_arg = pkg.join(dir).to_string_lossy().into_owned();
+        Cmd::new(&bindgen_arg)
+            .args(["--target", target, "--out-dir", &dir_arg, "--out-name", OUT_NAME, &module_arg])
+            .dir(root)
+            .run()?;
+    }
+    snippets_to_commonjs(&pkg.join("node"))?;
+    // The two builds' modules are the same file; optimise one and copy it over the other.
+    let web_wasm = pkg.join("web").join(format!("{OUT_NAME}_bg.wasm"));
+    let node_wasm = pkg.join("node").join(format!("{OUT_NAME}_bg.wasm"));
+    let web_arg = web_wasm.to_string_lossy().into_owned();
+    Cmd::new("wasm-opt")
+        .args([
+            "-Oz",
+            "--converge",
+            "--strip-debug",
+            "--strip-producers",
+            "--strip-target-features",
+            // The features rustc enables for wasm32 by default.
+            "--enable-bulk-memory",
+            "--enable-nontrapping-float-to-int",
+            "--enable-sign-ext",
+            "--enable-reference-types",
+            "--enable-multivalue",
+            "--enable-mutable-globals",
+            "--enable-simd",
+            &web_arg,
+            "-o",
+            &web_arg,
+        ])
+        .dir(root)
+        .run()?;
+    fix_table_export(&web_wasm)?;
+    fs::copy(&web_wasm, &node_wasm).map_err(|e| io_error("copy", &web_wasm, e))?;
+
+    let crate_dir = root.join(CRATE_DIR);
+    let manifest_path = crate_dir.join("package.json");
+    let manifest = fs::read_to_string(&manifest_path).map_err(|e| io_error("read", &manifest_path, e))?;
+    let version = package_version(&manifest).ok_or(format!("{}: no \"version\"", manifest_path.display()))?;
+    if version != env!("CARGO_PKG_VERSION") {
+        return Err(format!(
+            "{} has version {version}, the crates {}: make them equal",
+            manifest_path.display(),
+            env!("CARGO_PKG_VERSION")
+        ));
+    }
+    fs::write(pkg.join("package.json"), &manifest).map_err(|e| io_error("write", &pkg, e))?;
+    // The root package is "type": "module" (the web build); the Node build is CommonJS.
+    fs::write(pkg.join("node").join("package.json"), "{ \"type\": \"commonjs\" }\n")
+        .map_err(|e| io_error("write", &pkg, e))?;
+    for (from, to) in [
+        (crate_dir.join("README.md"), pkg.join("README.md")),
+        (root.join("LICENSE-MIT"), pkg.join("LICENSE-MIT")),
+        (root.join("LICENSE-APACHE"), pkg.join("LICENSE-APACHE")),
+    ] {
+        fs::copy(&from, &to).map_err(|e| io_error("copy", &from, e))?;
+    }
+
+    // The calculator's static site: the page and the web build beside it.
+    let site = out.join("site");
+    if site.exists() {
+        fs::remove_dir_all(&site).map_err(|e| io_error("remove", &site, e))?;
+    }
+    copy_dir(&root.join(CALCULATOR_DIR), &site)?;
+    copy_dir(&pkg.join("web"), &site.join(OUT_NAME))?;
+
+    let wasm_bytes = fs::metadata(&web_wasm).map_err(|e| io_error("read", &web_wasm, e))?.len();
+    let gzip_bytes = gzip_size(&web_wasm)?;
+    let package = Package { dir: pkg, wasm_bytes, gzip_bytes };
+    let sizes = out.join("size.txt");
+    fs::write(&sizes, format!("{}\n", package.size_line())).map_err(|e| io_error("write", &sizes, e))?;
+    Ok(package)
+}
+
+/// `cargo xtask wasm`: builds the package and fails if it is over the size budget.
+pub fn run(root: &Path) -> Result<(), String> {
+    let package = build(root)?;
+    eprintln!("built {}", package.dir.display());
+    eprintln!("{}", package.size_line());
+    package.check_budget()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_package_version_is_read_from_package_json() {
+        assert_eq!(
+            package_version(r#"{"name": "aerostrata", "version": "1.2.3"}"#).as_deref(),
+            Some("1.2.3")
+        );
+        assert_eq!(package_version("{}"), None);
+    }
+}
