@@ -3,7 +3,7 @@
  * Rust tests read), every status, NULL arguments, bad arrays, outputs written only on
  * success, and handle lifetimes. Built as C99 with -Wall -Wextra -Werror -pedantic
  * against the static and the shared library, and run under AddressSanitizer with
- * UBSan and under Valgrind by `cargo xtask test` (crates/xtask/src/c.rs).
+ * UBSan and under Valgrind by `cargo xtask test` (crates/xtask/src/c/c_test.rs).
  *
  * Usage: test_aerostrata VECTOR_DIR        Ends with "N passed, N failed".
  */

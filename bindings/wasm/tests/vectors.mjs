@@ -1,6 +1,6 @@
 // The reference vectors of tests/vectors (format: tests/vectors/README.md), read and
 // evaluated through the wasm module along the same path as the native reader
-// (crates/xtask/src/vectors.rs, `Evaluator`), so that both give the same numbers.
+// (crates/xtask/src/rust/vectors.rs, `Evaluator`), so that both give the same numbers.
 
 import { readdirSync, readFileSync } from "node:fs";
 import { basename, join } from "node:path";
@@ -149,7 +149,7 @@ export function bits(value) {
 
 /**
  * `FILE INPUT COLUMN BITS` for every value of every row of every file, in the format of
- * `cargo xtask bits` (crates/xtask/src/vectors.rs, `bit_lines`).
+ * `cargo xtask bits` (crates/xtask/src/rust/vectors.rs, `bit_lines`).
  */
 export function bitLines(aerostrata, files) {
   const lines = [];

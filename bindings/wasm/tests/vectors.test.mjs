@@ -1,6 +1,6 @@
 // Every reference vector of tests/vectors within its file's tolerance, through the wasm
 // module (the same files and rules as the Rust reference test in
-// crates/xtask/src/vectors.rs). Sources: the files' own headers (U.S. Standard
+// crates/xtask/src/rust/vectors.rs). Sources: the files' own headers (U.S. Standard
 // Atmosphere 1976 and NACA Report 1135, from memory of the printed tables, each cell
 // checked against 30-digit computations; see tests/vectors/README.md).
 

@@ -2,7 +2,7 @@
 //! hold, inverses that must round-trip, and every solver's failure modes.
 //!
 //! (The NACA Report 1135 table values are checked cell by cell by the reference-vector
-//! test in crates/xtask/src/vectors.rs, from tests/vectors/naca1135_*.csv.)
+//! test in crates/xtask/src/rust/vectors.rs, from tests/vectors/naca1135_*.csv.)
 //!
 //! Tolerances, and why each is what it is:
 //! - `IDENTITY`: 1e-13 relative, for two f64 routes to one quantity, each a handful of

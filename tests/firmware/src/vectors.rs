@@ -1,5 +1,5 @@
 //! The reference vectors of `tests/vectors`, embedded by build.rs, and their evaluation
-//! through the core along the same path as `crates/xtask/src/vectors.rs` (the native
+//! through the core along the same path as `crates/xtask/src/rust/vectors.rs` (the native
 //! check): the state at the row's altitude for `us1976` files, the species from
 //! `US1976.species`, the isentropic ratios (with `qc_p`) and the normal-shock quantities
 //! (with `p1_p02 = 1 / p02_p1`) for the compressible-flow files.
