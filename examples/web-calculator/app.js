@@ -1,73 +1,53 @@
 // Stratacalc: a static page over the aerostrata WebAssembly module (the web build of
 // the npm package, served beside this file as ./aerostrata/). Every number shown comes
-// from the module; this file only reads the inputs, converts units at the edges with
-// the module's own exact factors (`unitFactors`) and draws.
+// from the module, and so does every quantity's name, label and unit (its catalogue,
+// `quantities()`); this file only reads the inputs, converts units at the edges with the
+// module's own conversions (`toUs`, `fromUs`) and draws.
 
 import init, {
   AtmosphereModel,
   dragN,
   dynamicPressureFromMachPa,
   dynamicPressurePa,
+  fromUs,
   machNumber,
+  quantities,
   reynoldsNumber,
-  unitFactors,
+  toUs,
   velocityFromMachMS,
 } from "./aerostrata/aerostrata.js";
 
 await init();
 
-const U = unitFactors();
 const $ = (id) => document.getElementById(id);
+
+/** The module's catalogue of quantities, by machine name. */
+const CATALOGUE = new Map(quantities().map((q) => [q.name, q]));
+const quantity = (name) => CATALOGUE.get(name);
 
 // --- units ---------------------------------------------------------------------------
 
 /** The current unit system: "si" or "us". */
 const units = () => document.querySelector('input[name="units"]:checked').value;
 
-// Each display unit: its label and how many SI units one of it is (value_SI = value * factor).
-const UNIT = {
-  si: {
-    temperature: ["K", 1],
-    pressure: ["Pa", 1],
-    density: ["kg/m³", 1],
-    speed: ["m/s", 1],
-    viscosity: ["Pa·s", 1],
-    kinematic: ["m²/s", 1],
-    conductivity: ["W/(m·K)", 1],
-    acceleration: ["m/s²", 1],
-    length: ["m", 1],
-    numberDensity: ["1/m³", 1],
-    frequency: ["Hz", 1],
-    molar: ["kg/kmol", 1],
-    force: ["N", 1],
-    area: ["m²", 1],
-    offset: ["K", 1],
-    time: ["s", 1],
-    ratio: ["", 1],
-  },
-  us: {
-    temperature: ["°R", U.rankineK],
-    pressure: ["lbf/ft²", U.psfPa],
-    density: ["slug/ft³", U.slugPerFt3KgM3],
-    speed: ["ft/s", U.footM],
-    viscosity: ["lbf·s/ft²", U.psfPa],
-    kinematic: ["ft²/s", U.footM * U.footM],
-    conductivity: ["W/(m·K)", 1],
-    acceleration: ["ft/s²", U.footM],
-    length: ["ft", U.footM],
-    numberDensity: ["1/ft³", 1 / (U.footM * U.footM * U.footM)],
-    frequency: ["Hz", 1],
-    molar: ["lb/lbmol", 1],
-    force: ["lbf", U.poundForceN],
-    area: ["ft²", U.footM * U.footM],
-    // A temperature difference: one degree Fahrenheit is one rankine.
-    offset: ["°F", U.rankineK],
-    time: ["s", 1],
-    ratio: ["", 1],
-  },
-};
+/** A unit symbol as the catalogue writes it ("kg/m3", "Pa s"), set for reading ("kg/m³", "Pa·s"). */
+function pretty(symbol) {
+  const superscript = { 2: "²", 3: "³" };
+  return symbol.replace(/([a-zA-Z])([23])\b/g, (_, letter, digit) => letter + superscript[digit]).replace(/ /g, "·");
+}
 
-const unitOf = (kind) => UNIT[units()][kind];
+/** The unit quantity `name` is shown in, in the current unit system. */
+const unitOf = (name) => pretty(units() === "us" ? quantity(name).usUnit : quantity(name).siUnit);
+
+/** An SI value of quantity `name` in the current unit system, and back. */
+const shownValue = (name, si) => (units() === "us" ? toUs(name, si) : si);
+const siValue = (name, shown) => (units() === "us" ? fromUs(name, shown) : shown);
+
+/** A catalogue label as a heading: its first letter capitalised. */
+const heading = (name) => {
+  const label = quantity(name).label;
+  return label.charAt(0).toUpperCase() + label.slice(1);
+};
 
 /** A value for display: six significant digits, exponent form when very large or small. */
 function show(value) {
@@ -77,40 +57,18 @@ function show(value) {
   return String(Number(value.toPrecision(6)));
 }
 
-// --- the state's quantities ----------------------------------------------------------
-
-const STATE_ROWS = [
-  ["geometricAltitudeM", "Geometric altitude", "length"],
-  ["geopotentialAltitudeM", "Geopotential altitude", "length"],
-  ["temperatureK", "Temperature", "temperature"],
-  ["molecularTemperatureK", "Molecular-scale temperature", "temperature"],
-  ["pressurePa", "Pressure", "pressure"],
-  ["densityKgM3", "Density", "density"],
-  ["speedOfSoundMS", "Speed of sound", "speed"],
-  ["dynamicViscosityPaS", "Dynamic viscosity", "viscosity"],
-  ["kinematicViscosityM2S", "Kinematic viscosity", "kinematic"],
-  ["thermalConductivityWMK", "Thermal conductivity", "conductivity"],
-  ["gravityMS2", "Gravity", "acceleration"],
-  ["pressureScaleHeightM", "Pressure scale height", "length"],
-  ["numberDensityM3", "Number density", "numberDensity"],
-  ["meanParticleSpeedMS", "Mean particle speed", "speed"],
-  ["meanFreePathM", "Mean free path", "length"],
-  ["collisionFrequencyHz", "Collision frequency", "frequency"],
-  ["meanMolarMassKgKmol", "Mean molar mass", "molar"],
-  ["temperatureRatio", "Temperature ratio θ", "ratio"],
-  ["pressureRatio", "Pressure ratio δ", "ratio"],
-  ["densityRatio", "Density ratio σ", "ratio"],
-];
+// --- result lists ------------------------------------------------------------------
 
 /**
- * Fills a <dl> with rows [key, label, kind, SI value or null, note]: the shown value in
- * the current units, the full SI value in `data-value` (for tests and copying).
+ * Fills a <dl> with rows [key, quantity name, SI value or null, note, label]: the label
+ * (the catalogue's unless given), the value shown in the current units, the full SI value
+ * in `data-value` (for tests and copying).
  */
 function fill(dl, rows) {
   dl.replaceChildren();
-  for (const [key, label, kind, value, note] of rows) {
+  for (const [key, name, value, note, label] of rows) {
     const dt = document.createElement("dt");
-    dt.textContent = label;
+    dt.textContent = label ?? heading(name);
     const dd = document.createElement("dd");
     dd.dataset.quantity = key;
     const u = document.createElement("dd");
@@ -120,14 +78,17 @@ function fill(dl, rows) {
       dd.dataset.value = "";
       u.textContent = note ?? "";
     } else {
-      const [label, factor] = unitOf(kind);
-      dd.textContent = show(value / factor);
+      dd.textContent = show(shownValue(name, value));
       dd.dataset.value = String(value);
-      u.textContent = label;
+      u.textContent = unitOf(name);
     }
     dl.append(dt, dd, u);
   }
 }
+
+/** The rows of every quantity of a catalogue group, read from a result object by key. */
+const groupRows = (group, result, note) =>
+  [...CATALOGUE.values()].filter((q) => q.group === group).map((q) => [q.key, q.name, result[q.key], note]);
 
 // --- reading inputs ------------------------------------------------------------------
 
@@ -191,10 +152,10 @@ function updatePoint() {
     results.classList.add("stale");
     return;
   }
-  const altitudeM = inputs.altitude * ($("altitude-unit").value === "ft" ? U.footM : 1);
-  const offsetK = inputs.offset * unitOf("offset")[1];
-  const lengthM = inputs.length * unitOf("length")[1];
-  const areaM2 = inputs.area * unitOf("area")[1];
+  const altitudeM = $("altitude-unit").value === "ft" ? fromUs("geometric_altitude", inputs.altitude) : inputs.altitude;
+  const offsetK = siValue("temperature_offset", inputs.offset);
+  const lengthM = siValue("reference_length", inputs.length);
+  const areaM2 = siValue("reference_area", inputs.area);
 
   const model = attempt("offset", () => modelFor(offsetK));
   if (model.error) return results.classList.add("stale");
@@ -219,7 +180,7 @@ function updatePoint() {
     velocity = v.value;
     mach = inputs.mach;
   } else {
-    velocity = inputs.velocity * unitOf("speed")[1];
+    velocity = siValue("true_airspeed", inputs.velocity);
     q = attempt("velocity", () => dynamicPressurePa(s.densityKgM3, velocity));
     if (q.error) return results.classList.add("stale");
   }
@@ -246,17 +207,15 @@ function updatePoint() {
   }
   results.classList.remove("stale");
   const above = "not defined above 86 km";
+  const row = (name, value, note) => [quantity(name).key, name, value, note];
   fill($("loads"), [
-    ["dynamicPressurePa", "Dynamic pressure q", "pressure", q.value],
-    ["dragN", "Drag", "force", drag.value],
-    ["mach", "Mach number", "ratio", mach, above],
-    ["reynoldsNumber", "Reynolds number", "ratio", reynolds, above],
-    ["velocityMS", "True airspeed", "speed", velocity],
+    row("dynamic_pressure", q.value),
+    row("drag", drag.value),
+    row("mach", mach, above),
+    row("reynolds_number", reynolds, above),
+    [quantity("velocity").key, "true_airspeed", velocity],
   ]);
-  fill(
-    $("state"),
-    STATE_ROWS.map(([key, label, kind]) => [key, label, kind, s[key], above]),
-  );
+  fill($("state"), groupRows("state", s, above));
   drawProfile(model.value, s);
 }
 
@@ -280,25 +239,30 @@ function drawProfile(model, s) {
   const bottom = Math.max(-5000, Math.min(0, z));
   const n = 241;
   const altitudes = Float64Array.from({ length: n }, (_, i) => bottom + ((top - bottom) * i) / (n - 1));
-  const columns = model.batch(altitudes, ["temperatureK", "pressurePa", "densityKgM3"]);
   const panels = [
-    ["temperatureK", "Temperature", "temperature", false, "#b4532a"],
-    ["pressurePa", "Pressure (log)", "pressure", true, "#2f6f8f"],
-    ["densityKgM3", "Density (log)", "density", true, "#5b7d3a"],
-  ];
+    ["temperature", false, "#b4532a"],
+    ["pressure", true, "#2f6f8f"],
+    ["density", true, "#5b7d3a"],
+  ].map(([name, log, colour]) => [quantity(name).key, name, log, colour]);
+  const columns = model.batch(
+    altitudes,
+    panels.map(([key]) => key),
+  );
   const [x0, width, gap, y0, height] = [70, 250, 30, 24, 290];
   const yOf = (alt) => y0 + height - ((alt - bottom) / (top - bottom)) * height;
   // The altitude axis, km (or thousand ft).
-  const [lengthLabel, lengthFactor] = unitOf("length");
-  const step = niceStep((top - bottom) / lengthFactor / 6);
-  for (let t = Math.ceil(bottom / lengthFactor / step) * step; t <= top / lengthFactor; t += step) {
-    const y = yOf(t * lengthFactor);
+  const lengthLabel = unitOf("geometric_altitude");
+  const shownTop = shownValue("geometric_altitude", top);
+  const shownBottom = shownValue("geometric_altitude", bottom);
+  const step = niceStep((shownTop - shownBottom) / 6);
+  for (let t = Math.ceil(shownBottom / step) * step; t <= shownTop; t += step) {
+    const y = yOf(siValue("geometric_altitude", t));
     svg.append(el("line", { x1: x0 - 4, x2: x0 + 3 * width + 2 * gap, y1: y, y2: y, class: "axis" }));
     svg.append(el("text", { x: x0 - 8, y: y + 4, "text-anchor": "end" }, show(t / 1000)));
   }
   const axisLabel = lengthLabel === "m" ? "altitude, km" : `altitude, thousand ${lengthLabel}`;
   svg.append(el("text", { x: 14, y: y0 + height / 2, transform: `rotate(-90 14 ${y0 + height / 2})`, "text-anchor": "middle" }, axisLabel));
-  panels.forEach(([key, label, kind, log, colour], i) => {
+  panels.forEach(([key, name, log, colour], i) => {
     const left = x0 + i * (width + gap);
     const values = columns[key];
     const f = log ? Math.log10 : (v) => v;
@@ -316,12 +280,12 @@ function drawProfile(model, s) {
     svg.append(el("rect", { x: left, y: y0, width, height, fill: "none", class: "axis" }));
     const points = Array.from(values, (v, j) => `${xOf(v).toFixed(1)},${yOf(altitudes[j]).toFixed(1)}`).join(" ");
     svg.append(el("polyline", { points, class: "curve", stroke: colour }));
-    const [unitLabel, factor] = unitOf(kind);
-    svg.append(el("text", { x: left + width / 2, y: y0 - 8, "text-anchor": "middle" }, `${label}, ${unitLabel}`));
+    const title = `${heading(name)}${log ? " (log)" : ""}, ${unitOf(name)}`;
+    svg.append(el("text", { x: left + width / 2, y: y0 - 8, "text-anchor": "middle" }, title));
     const lowValue = log ? 10 ** lo : lo;
     const highValue = log ? 10 ** hi : hi;
-    svg.append(el("text", { x: left, y: y0 + height + 16 }, show(lowValue / factor)));
-    svg.append(el("text", { x: left + width, y: y0 + height + 16, "text-anchor": "end" }, show(highValue / factor)));
+    svg.append(el("text", { x: left, y: y0 + height + 16 }, show(shownValue(name, lowValue))));
+    svg.append(el("text", { x: left + width, y: y0 + height + 16, "text-anchor": "end" }, show(shownValue(name, highValue))));
     // The current point.
     const cx = xOf(s[key]);
     const cy = yOf(z);
@@ -377,15 +341,15 @@ function updateFlight() {
   if (parsed.error) setMessage("flight", parsed.error);
   if (parsed.error || cd.error || area.error) return results.classList.add("stale");
   const offset = read("offset");
-  const offsetK = offset.error ? 0 : offset.value * unitOf("offset")[1];
-  const factor = $("flight-altitude-unit").value === "ft" ? U.footM : 1;
-  const z = Float64Array.from(parsed.z, (x) => x * factor);
-  const v = Float64Array.from(parsed.v, (x) => x * factor);
+  const offsetK = offset.error ? 0 : siValue("temperature_offset", offset.value);
+  const feet = $("flight-altitude-unit").value === "ft";
+  const z = Float64Array.from(parsed.z, (x) => (feet ? fromUs("altitude", x) : x));
+  const v = Float64Array.from(parsed.v, (x) => (feet ? fromUs("velocity", x) : x));
   let scan;
   try {
     scan = modelFor(offsetK).scanFlight(parsed.t, z, v, {
       drag: cd.value,
-      referenceAreaM2: area.value * unitOf("area")[1],
+      referenceAreaM2: siValue("reference_area", area.value),
     });
   } catch (e) {
     const field = /drag coefficient/.test(e.message) ? "flight-cd" : /reference area/.test(e.message) ? "flight-area" : "flight";
@@ -396,14 +360,14 @@ function updateFlight() {
   const { summary } = scan;
   const peak = summary.maxDynamicPressure;
   fill($("flight-summary"), [
-    ["maxDynamicPressurePa", "Maximum dynamic pressure", "pressure", peak.dynamicPressurePa],
-    ["maxDynamicPressureTimeS", "… at time", "time", peak.timeS],
-    ["maxDynamicPressureAltitudeM", "… at altitude", "length", peak.altitudeM],
-    ["maxDynamicPressureMach", "… at Mach", "ratio", peak.mach, "not defined"],
-    ["maxMach", "Maximum Mach number", "ratio", summary.maxMach?.value ?? null, "not defined"],
-    ["maxDragN", "Maximum drag", "force", summary.maxDrag?.value ?? null, "no drag"],
-    ["machOneUp", "Mach 1 crossings, up", "ratio", summary.machOneUp.count],
-    ["samples", "Samples", "ratio", summary.samples],
+    ["maxDynamicPressurePa", "dynamic_pressure", peak.dynamicPressurePa, null, `Maximum ${quantity("dynamic_pressure").label}`],
+    ["maxDynamicPressureTimeS", "time", peak.timeS, null, "… at time"],
+    ["maxDynamicPressureAltitudeM", "altitude", peak.altitudeM, null, "… at altitude"],
+    ["maxDynamicPressureMach", "mach", peak.mach, "not defined", "… at Mach"],
+    ["maxMach", "mach", summary.maxMach?.value ?? null, "not defined", `Maximum ${quantity("mach").label}`],
+    ["maxDragN", "drag", summary.maxDrag?.value ?? null, "no drag", `Maximum ${quantity("drag").label}`],
+    ["machOneUp", "mach", summary.machOneUp.count, null, "Mach 1 crossings, up"],
+    ["samples", "mach", summary.samples, null, "Samples"],
   ]);
   drawFlight(scan);
 }
@@ -426,8 +390,9 @@ function drawFlight(scan) {
   const yQ = (q) => y0 + height - (q / qMax) * height * 0.92;
   const yM = (m) => y0 + height - (m / machMax) * height * 0.92;
   svg.append(el("rect", { x: x0, y: y0, width, height, fill: "none", class: "axis" }));
-  const [pLabel, pFactor] = unitOf("pressure");
-  svg.append(el("text", { x: x0 - 8, y: y0 + 10, "text-anchor": "end" }, show(qMax / pFactor)));
+  const pLabel = unitOf("dynamic_pressure");
+  const pShown = (q) => show(shownValue("dynamic_pressure", q));
+  svg.append(el("text", { x: x0 - 8, y: y0 + 10, "text-anchor": "end" }, pShown(qMax)));
   svg.append(el("text", { x: x0 - 8, y: y0 + height, "text-anchor": "end" }, "0"));
   svg.append(el("text", { x: 16, y: y0 + height / 2, transform: `rotate(-90 16 ${y0 + height / 2})`, "text-anchor": "middle" }, `dynamic pressure, ${pLabel}`));
   svg.append(el("text", { x: x0 + width + 8, y: y0 + 10 }, show(machMax)));
@@ -450,14 +415,14 @@ function drawFlight(scan) {
   const py = yQ(peak.dynamicPressurePa);
   svg.append(el("polygon", { points: `${px},${py - 8} ${px + 8},${py} ${px},${py + 8} ${px - 8},${py}`, fill: "#1c2430", "data-marker": "max-q" }));
   svg.append(
-    el("text", { x: px + 12, y: py - 10 }, `max q ${show(peak.dynamicPressurePa / pFactor)} ${pLabel} at ${show(peak.timeS)} s`),
+    el("text", { x: px + 12, y: py - 10 }, `max q ${pShown(peak.dynamicPressurePa)} ${pLabel} at ${show(peak.timeS)} s`),
   );
 }
 
 // --- wiring ----------------------------------------------------------------------------
 
 function setUnitLabels() {
-  for (const span of document.querySelectorAll("[data-unit]")) span.textContent = unitOf(span.dataset.unit)[0];
+  for (const span of document.querySelectorAll("[data-unit]")) span.textContent = unitOf(span.dataset.unit);
 }
 
 function selectTab(tab) {
@@ -493,21 +458,19 @@ for (const radio of document.querySelectorAll('input[name="speed-kind"]')) {
     updatePoint();
   });
 }
-// Switching units converts the entered values, so that they keep their meaning.
-const CONVERTED = [
-  ["offset", "offset"],
-  ["velocity", "speed"],
-  ["area", "area"],
-  ["length", "length"],
-  ["flight-area", "area"],
-];
+// Switching units converts the entered values, so that they keep their meaning: each
+// field's quantity is named by its `data-unit` label.
+const CONVERTED = ["offset", "velocity", "area", "length", "flight-area"];
 let previousUnits = units();
 for (const radio of document.querySelectorAll('input[name="units"]')) {
   radio.addEventListener("change", () => {
     const now = units();
-    for (const [id, kind] of CONVERTED) {
+    for (const id of CONVERTED) {
       const r = read(id);
-      if (!r.error) $(id).value = show((r.value * UNIT[previousUnits][kind][1]) / UNIT[now][kind][1]);
+      const name = document.querySelector(`label[for="${id}"] [data-unit]`)?.dataset.unit;
+      if (r.error || name === undefined) continue;
+      const si = previousUnits === "us" ? fromUs(name, r.value) : r.value;
+      $(id).value = show(now === "us" ? toUs(name, si) : si);
     }
     previousUnits = now;
     setUnitLabels();
@@ -529,7 +492,7 @@ $("flight-demo").addEventListener("click", async () => {
   const response = await fetch("demo-flight.csv");
   $("flight-csv").value = await response.text();
   $("flight-cd").value = "0.45";
-  $("flight-area").value = String(0.0064 / unitOf("area")[1]);
+  $("flight-area").value = String(shownValue("reference_area", 0.0064));
   updateFlight();
 });
 

@@ -25,7 +25,7 @@ if (!url || !shots || !vectors) {
 const here = dirname(fileURLToPath(import.meta.url));
 const root = resolve(here, "..", "..");
 const require = createRequire(import.meta.url);
-const { evaluator, halfUnitOfLastDigit, readVectorFile, stateKey } = await import(join(root, "bindings/wasm/tests/vectors.mjs"));
+const { columnsOf, evaluator, halfUnitOfLastDigit, readVectorFile } = await import(join(root, "bindings/wasm/tests/vectors.mjs"));
 const aerostrata = require(process.env.AEROSTRATA_PKG ?? join(root, "target/wasm/pkg"));
 
 let passed = 0;
@@ -82,7 +82,7 @@ try {
     for (const [i, column] of file.columns.entries()) {
       const written = cells[i + 1];
       if (written === "") continue;
-      const ours = await value(stateKey(column));
+      const ours = await value(columnsOf(aerostrata).get(column).key);
       const tolerance = halfUnitOfLastDigit(written);
       check(ours !== null && Math.abs(ours - Number(written)) <= tolerance, `${column} at ${cells[0]} m: page ${ours}, vector ${written}`);
       compared++;

@@ -368,17 +368,8 @@ const AIRSPEED_KINDS: [fn(f64) -> Airspeed; 4] =
     [Airspeed::Calibrated, Airspeed::Equivalent, Airspeed::True, Airspeed::Mach];
 
 fn airspeeds_object(s: &Airspeeds) -> JsValue {
-    record(
-        "calibratedMS,equivalentMS,trueMS,mach,impactPressurePa,dynamicPressurePa",
-        &[
-            s.calibrated_m_s,
-            s.equivalent_m_s,
-            s.true_m_s,
-            s.mach,
-            s.impact_pressure_pa,
-            s.dynamic_pressure_pa,
-        ],
-    )
+    let values = Airspeeds::QUANTITIES.map(|q| s.get(q).unwrap_or(f64::NAN));
+    record(&crate::quantity::keys(Airspeeds::QUANTITIES), &values)
 }
 
 fn airspeeds_from(air: AirData, kind: &JsValue, value: &JsValue) -> Result<JsValue, JsValue> {

@@ -26,15 +26,12 @@ pub const POINT_REYNOLDS_NUMBER: u8 = 4;
 /// `defined` bit: drag coefficient and drag are defined (with a vehicle).
 pub const POINT_DRAG: u8 = 8;
 
-/// The per-sample columns, in the order of [`point_row`].
-const COLUMN_KEYS: &str =
-    "timeS,altitudeM,velocityMS,densityKgM3,pressurePa,temperatureK,speedOfSoundMS,mach,\
-dynamicPressurePa,reynoldsPerM,reynoldsNumber,dragCoefficient,dragN";
-const COLUMNS: usize = 13;
+/// How many per-sample columns: the catalogue's quantities of a flight point.
+const COLUMNS: usize = FlightPoint::QUANTITIES.len();
 
-/// A point's values in the order of [`COLUMNS`] (NaN where not defined) and its bits.
+/// A point's values in the order of [`FlightPoint::QUANTITIES`] (NaN where not defined)
+/// and its bits.
 fn point_row(p: &FlightPoint) -> ([f64; COLUMNS], u8) {
-    let nan = |v: Option<f64>| v.unwrap_or(f64::NAN);
     let mut defined = 0;
     if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
         defined |= POINT_MACH;
@@ -48,24 +45,7 @@ fn point_row(p: &FlightPoint) -> ([f64; COLUMNS], u8) {
     if p.drag_coefficient.is_some() && p.drag_n.is_some() {
         defined |= POINT_DRAG;
     }
-    (
-        [
-            p.time_s,
-            p.altitude_m,
-            p.velocity_m_s,
-            p.density_kg_m3,
-            p.pressure_pa,
-            p.temperature_k,
-            nan(p.speed_of_sound_m_s),
-            nan(p.mach),
-            p.dynamic_pressure_pa,
-            nan(p.reynolds_per_m),
-            nan(p.reynolds_number),
-            nan(p.drag_coefficient),
-            nan(p.drag_n),
-        ],
-        defined,
-    )
+    (FlightPoint::QUANTITIES.map(|q| p.get(q).unwrap_or(f64::NAN)), defined)
 }
 
 /// How many numbers the summary's flat layout has (see `glue.js`, `flightResult`).
@@ -212,7 +192,8 @@ impl AtmosphereModel {
         let velocity_m_s = js::numbers("velocityMS", &velocity_m_s)?;
         let vehicle = VehicleSpec::read(&vehicle)?;
         let scanned = scan(&self.model, vehicle.as_ref(), &time_s, &altitude_m, &velocity_m_s).js()?;
-        let points = js::columns(COLUMN_KEYS, &scanned.columns, time_s.len())?;
+        let keys = crate::quantity::keys(FlightPoint::QUANTITIES);
+        let points = js::columns(&keys, &scanned.columns, time_s.len())?;
         js::flight_result(&points, &scanned.defined, &summary_layout(&scanned.summary))
     }
 }

@@ -224,6 +224,17 @@ export function drag(name, value) {
   return options(name, value, "mach,cd,interpolation");
 }
 
+// A string argument of at most 4096 characters (a quantity's name, a value with a unit).
+export function text(name, value) {
+  if (typeof value !== "string") throw typeError(name, "a string", value);
+  if (value.length > 4096) throw new RangeError(name + " has " + value.length + " characters; the allowed range is 0 to 4096");
+  return value;
+}
+
+export function parseJson(text) {
+  return JSON.parse(text);
+}
+
 export function describeValue(value) {
   return describe(value);
 }

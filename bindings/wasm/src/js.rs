@@ -82,6 +82,15 @@ extern "C" {
     #[wasm_bindgen(catch)]
     pub fn drag(name: &str, value: &JsValue) -> Result<JsValue, JsValue>;
 
+    /// A JS string of at most 4096 characters, else a `TypeError` or `RangeError` naming
+    /// `name`.
+    #[wasm_bindgen(catch)]
+    pub fn text(name: &str, value: &JsValue) -> Result<String, JsValue>;
+
+    /// `JSON.parse(text)` of text this module wrote.
+    #[wasm_bindgen(catch, js_name = parseJson)]
+    pub fn parse_json(text: &str) -> Result<JsValue, JsValue>;
+
     /// A short description of a JS value for messages.
     #[wasm_bindgen(js_name = describeValue)]
     pub fn describe(value: &JsValue) -> String;

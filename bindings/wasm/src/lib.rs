@@ -45,11 +45,14 @@ mod error;
 mod flight;
 mod js;
 mod model;
+mod naming;
+mod quantity;
 mod text;
 
 pub use aero::*;
 pub use error::{Class, Failure};
 pub use model::{standard_species, standard_state, AtmosphereModel};
+pub use quantity::{from_us, quantities, to_us};
 
 use wasm_bindgen::prelude::*;
 
@@ -59,64 +62,50 @@ pub fn version() -> alloc::string::String {
     alloc::string::String::from(env!("CARGO_PKG_VERSION"))
 }
 
+/// The TypeScript types of the catalogue's quantities, written by build.rs from the core's
+/// catalogue.
+#[wasm_bindgen(typescript_custom_section)]
+const CATALOGUE_TYPES: &'static str = include_str!(concat!(env!("OUT_DIR"), "/catalogue.d.ts"));
+
 #[wasm_bindgen(typescript_custom_section)]
 const TYPES: &'static str = r#"
+/** What the catalogue says of one quantity (`quantities()`). */
+export interface QuantityInfo {
+  /** The stable id (the C interface's AEROSTRATA_QUANTITY_* value). */
+  id: number;
+  /** The machine name every door shares, snake_case (`speed_of_sound`). */
+  name: QuantityName;
+  /** The property name in this module's result objects (`speedOfSoundMS`). */
+  key: string;
+  /** The short symbol of tables (`a`). */
+  symbol: string;
+  /** A label for people, lower case but for proper names (`speed of sound`). */
+  label: string;
+  /** One line of what it is. */
+  description: string;
+  /** The SI unit's symbol; every value in and out of this module is in it. */
+  siUnit: string;
+  /** The US customary unit's symbol, for `toUs` and `fromUs`. */
+  usUnit: string;
+  /** The CSV column in SI units, as the command-line tool writes it. */
+  siColumn: string;
+  /** The CSV column in US units. */
+  usColumn: string;
+  /** Which result carries it. */
+  group: "state" | "species" | "flight" | "airspeed" | "altimetry" | "parameter";
+  /** Whether it can be undefined (the continuum properties above 86 km, a drag without a vehicle). */
+  mayBeUndefined: boolean;
+  /** Decimals for people, or `null` for six significant digits. */
+  decimals: number | null;
+  /** Shown in compact tables. */
+  primary: boolean;
+}
+
 /** Which kind of altitude a number is: geometric (above mean sea level, m) or geopotential (geopotential m). */
 export type AltitudeKind = "geometric" | "geopotential";
 
 /** The kinds of model `AtmosphereModel` holds. */
 export type ModelKind = "standard" | "exponential" | "isothermal" | "layered" | "tabulated";
-
-/**
- * The full state of the atmosphere at one altitude, SI units named in every field. The four
- * continuum properties are `null` where the model does not define them (the 1976 standard
- * above 86 km).
- */
-export interface AtmosphereState {
-  /** Geometric altitude Z, m. */
-  geometricAltitudeM: number;
-  /** Geopotential altitude H, geopotential m. */
-  geopotentialAltitudeM: number;
-  /** Kinetic temperature T, K. */
-  temperatureK: number;
-  /** Molecular-scale temperature T M0 / M, K. */
-  molecularTemperatureK: number;
-  /** Pressure p, Pa. */
-  pressurePa: number;
-  /** Density rho, kg/m^3. */
-  densityKgM3: number;
-  /** Speed of sound a, m/s (`null` above 86 km). */
-  speedOfSoundMS: number | null;
-  /** Dynamic viscosity mu, Pa s (`null` above 86 km). */
-  dynamicViscosityPaS: number | null;
-  /** Kinematic viscosity nu = mu / rho, m^2/s (`null` above 86 km). */
-  kinematicViscosityM2S: number | null;
-  /** Thermal conductivity k, W/(m K) (`null` above 86 km). */
-  thermalConductivityWMK: number | null;
-  /** Acceleration of gravity g, m/s^2. */
-  gravityMS2: number;
-  /** Pressure scale height R* T / (M g), m. */
-  pressureScaleHeightM: number;
-  /** Number density n, 1/m^3. */
-  numberDensityM3: number;
-  /** Mean particle speed, m/s. */
-  meanParticleSpeedMS: number;
-  /** Mean free path, m. */
-  meanFreePathM: number;
-  /** Mean collision frequency, 1/s. */
-  collisionFrequencyHz: number;
-  /** Mean molar mass M, kg/kmol. */
-  meanMolarMassKgKmol: number;
-  /** T / T0 (T0 = 288.15 K). */
-  temperatureRatio: number;
-  /** p / P0 (P0 = 101 325 Pa). */
-  pressureRatio: number;
-  /** rho / rho0 (rho0 = 1.225 kg/m^3). */
-  densityRatio: number;
-}
-
-/** The name of one quantity of `AtmosphereState`, for `AtmosphereModel.batch`. */
-export type StateQuantity = keyof AtmosphereState;
 
 /** The altitudes a model accepts. */
 export interface AltitudeRange {
@@ -128,22 +117,6 @@ export interface AltitudeRange {
   geopotentialMinM: number;
   /** Highest geopotential altitude, geopotential m. */
   geopotentialMaxM: number;
-}
-
-/** Number densities of the 1976 standard's six species above 86 km, 1/m^3. */
-export interface SpeciesNumberDensities {
-  /** Molecular nitrogen, 1/m^3. */
-  n2M3: number;
-  /** Atomic oxygen, 1/m^3. */
-  oM3: number;
-  /** Molecular oxygen, 1/m^3. */
-  o2M3: number;
-  /** Argon, 1/m^3. */
-  arM3: number;
-  /** Helium, 1/m^3. */
-  heM3: number;
-  /** Atomic hydrogen, 1/m^3 (zero below 150 km). */
-  hM3: number;
 }
 
 /**
@@ -211,38 +184,6 @@ export interface VehicleSpec {
   referenceAreaM2: number;
   /** Reference length for the Reynolds number, m. */
   referenceLengthM?: number;
-}
-
-/** One column per quantity, one entry per sample; NaN where `defined` lacks the quantity's bit. */
-export interface FlightPoints {
-  /** Time, s. */
-  timeS: Float64Array;
-  /** Geometric altitude, m. */
-  altitudeM: Float64Array;
-  /** Velocity as given, m/s. */
-  velocityMS: Float64Array;
-  /** Density, kg/m^3. */
-  densityKgM3: Float64Array;
-  /** Static pressure, Pa. */
-  pressurePa: Float64Array;
-  /** Kinetic temperature, K. */
-  temperatureK: Float64Array;
-  /** Speed of sound, m/s (bit 1). */
-  speedOfSoundMS: Float64Array;
-  /** Mach number (bit 1). */
-  mach: Float64Array;
-  /** Dynamic pressure rho V^2 / 2, Pa. */
-  dynamicPressurePa: Float64Array;
-  /** Unit Reynolds number rho |V| / mu, 1/m (bit 2). */
-  reynoldsPerM: Float64Array;
-  /** Reynolds number for the reference length (bit 4). */
-  reynoldsNumber: Float64Array;
-  /** Drag coefficient (bit 8). */
-  dragCoefficient: Float64Array;
-  /** Drag q Cd A, N (bit 8). */
-  dragN: Float64Array;
-  /** Per sample: 1 Mach defined, 2 unit Reynolds number, 4 Reynolds number, 8 drag. */
-  defined: Uint8Array;
 }
 
 /** The maximum dynamic pressure, refined between samples by a parabola through the three largest. */
@@ -332,21 +273,6 @@ export interface NormalShockRatios {
 
 /** The kind of an airspeed given to `airspeeds`. */
 export type AirspeedKind = "calibrated" | "equivalent" | "true" | "mach";
-
-/** Every airspeed of one flight condition. */
-export interface AirspeedSet {
-  /** Calibrated airspeed, m/s. */
-  calibratedMS: number;
-  /** Equivalent airspeed, m/s. */
-  equivalentMS: number;
-  /** True airspeed, m/s. */
-  trueMS: number;
-  mach: number;
-  /** Impact pressure pt - p, Pa. */
-  impactPressurePa: number;
-  /** Dynamic pressure rho V^2 / 2, Pa. */
-  dynamicPressurePa: number;
-}
 
 /** What a barometric altitude is measured from. */
 export type BarometricReferenceSpec = "standard" | { qnhPa: number } | { padPressurePa: number };

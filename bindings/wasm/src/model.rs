@@ -12,10 +12,14 @@ use aerostrata::{
 };
 use wasm_bindgen::prelude::*;
 
+use aerostrata::quantity::Group;
+use aerostrata::Quantity;
+
 use crate::aero::DragSpec;
 use crate::args::{self, altitude};
 use crate::error::{Failure, Js};
 use crate::js;
+use crate::quantity;
 use crate::text::Text;
 
 /// The models a handle can hold: any of the core's, owned.
@@ -26,72 +30,12 @@ pub(crate) fn standard(offset_k: f64) -> Result<Model, Failure> {
     Ok(Model::standard(offset_k)?)
 }
 
-/// One quantity of the state: its JS name and how it is read (the four continuum
-/// properties through the core's accessors, which name the altitude where they are not
-/// defined).
-type Quantity = (&'static str, fn(&State) -> aerostrata::Result<f64>);
-
-/// Every quantity of [`State`], in the order of `State::fields`, named as the JS state
-/// object names them.
-pub(crate) static QUANTITIES: [Quantity; 20] = [
-    ("geometricAltitudeM", |s| Ok(s.geometric_altitude_m)),
-    ("geopotentialAltitudeM", |s| Ok(s.geopotential_altitude_m)),
-    ("temperatureK", |s| Ok(s.temperature_k)),
-    ("molecularTemperatureK", |s| Ok(s.molecular_temperature_k)),
-    ("pressurePa", |s| Ok(s.pressure_pa)),
-    ("densityKgM3", |s| Ok(s.density_kg_m3)),
-    ("speedOfSoundMS", State::speed_of_sound),
-    ("dynamicViscosityPaS", State::dynamic_viscosity),
-    ("kinematicViscosityM2S", State::kinematic_viscosity),
-    ("thermalConductivityWMK", State::thermal_conductivity),
-    ("gravityMS2", |s| Ok(s.gravity_m_s2)),
-    ("pressureScaleHeightM", |s| Ok(s.pressure_scale_height_m)),
-    ("numberDensityM3", |s| Ok(s.number_density_m3)),
-    ("meanParticleSpeedMS", |s| Ok(s.mean_particle_speed_m_s)),
-    ("meanFreePathM", |s| Ok(s.mean_free_path_m)),
-    ("collisionFrequencyHz", |s| Ok(s.collision_frequency_hz)),
-    ("meanMolarMassKgKmol", |s| Ok(s.mean_molar_mass_kg_kmol)),
-    ("temperatureRatio", |s| Ok(s.temperature_ratio)),
-    ("pressureRatio", |s| Ok(s.pressure_ratio)),
-    ("densityRatio", |s| Ok(s.density_ratio)),
-];
-
-/// The names of [`QUANTITIES`], comma-separated, for `record`.
-const STATE_KEYS: &str = "geometricAltitudeM,geopotentialAltitudeM,temperatureK,molecularTemperatureK,\
-pressurePa,densityKgM3,speedOfSoundMS,dynamicViscosityPaS,kinematicViscosityM2S,thermalConductivityWMK,gravityMS2,\
-pressureScaleHeightM,numberDensityM3,meanParticleSpeedMS,meanFreePathM,collisionFrequencyHz,meanMolarMassKgKmol,\
-temperatureRatio,pressureRatio,densityRatio";
-
-/// The state as a plain object: every quantity by its JS name, `null` where the model does
-/// not define it (the continuum properties above 86 km).
+/// The state as a plain object: every quantity of the catalogue's state group by its JS
+/// key, `null` where the model does not define it (the continuum properties above 86 km).
 pub(crate) fn state_object(state: &State) -> JsValue {
-    let undefined = |v: Option<f64>| v.unwrap_or(f64::NAN);
-    let s = state;
-    js::record(
-        STATE_KEYS,
-        &[
-            s.geometric_altitude_m,
-            s.geopotential_altitude_m,
-            s.temperature_k,
-            s.molecular_temperature_k,
-            s.pressure_pa,
-            s.density_kg_m3,
-            undefined(s.speed_of_sound_m_s),
-            undefined(s.dynamic_viscosity_pa_s),
-            undefined(s.kinematic_viscosity_m2_s),
-            undefined(s.thermal_conductivity_w_m_k),
-            s.gravity_m_s2,
-            s.pressure_scale_height_m,
-            s.number_density_m3,
-            s.mean_particle_speed_m_s,
-            s.mean_free_path_m,
-            s.collision_frequency_hz,
-            s.mean_molar_mass_kg_kmol,
-            s.temperature_ratio,
-            s.pressure_ratio,
-            s.density_ratio,
-        ],
-    )
+    let values: Vec<f64> =
+        Quantity::of_group(Group::State).map(|q| state.get(q).unwrap_or(f64::NAN)).collect();
+    js::record(&quantity::keys(Quantity::of_group(Group::State)), &values)
 }
 
 fn range_object(range: &AltitudeRange) -> JsValue {
@@ -102,7 +46,9 @@ fn range_object(range: &AltitudeRange) -> JsValue {
 }
 
 fn species_object(n: &Species) -> JsValue {
-    js::record("n2M3,oM3,o2M3,arM3,heM3,hM3", &n.as_array())
+    // The catalogue's species group is the standard's order N2, O, O2, Ar, He, H, the
+    // order of `Species::as_array` (a test checks it).
+    js::record(&quantity::keys(Quantity::of_group(Group::Species)), &n.as_array())
 }
 
 /// An atmosphere model: the 1976 standard with a temperature offset, an exponential or
@@ -400,17 +346,10 @@ impl AtmosphereModel {
         #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
     ) -> Result<JsValue, JsValue> {
         let kind = args::altitude_kind("altitudeKind", &kind, true)?;
-        let columns = quantity_indices(&quantities)?;
+        let columns = state_quantities(&quantities)?;
         let altitudes = js::numbers("altitudesM", &altitudes)?;
         let values = batch_columns(&self.model, kind, &altitudes, &columns).js()?;
-        let mut keys = String::new();
-        for (i, &column) in columns.iter().enumerate() {
-            if i > 0 {
-                keys.push(',');
-            }
-            keys.push_str(QUANTITIES.get(column).map_or("", |q| q.0));
-        }
-        js::columns(&keys, &values, altitudes.len())
+        js::columns(&quantity::keys(columns.iter().copied()), &values, altitudes.len())
     }
 
     /// The geometric altitude (m) where `property` (`"pressure"` in Pa, `"density"` in
@@ -462,64 +401,36 @@ impl AtmosphereModel {
     }
 }
 
-/// The indices in [`QUANTITIES`] of the names listed in `quantities`.
-fn quantity_indices(quantities: &JsValue) -> Result<Vec<usize>, JsValue> {
-    let indices = js::choices("quantities", quantities, STATE_KEYS)?;
-    if indices.is_empty() || indices.len() > QUANTITIES.len() {
+/// The state quantities named (by JS key) in `quantities`: at least one, none twice.
+fn state_quantities(quantities: &JsValue) -> Result<Vec<Quantity>, JsValue> {
+    let state: Vec<Quantity> = Quantity::of_group(Group::State).collect();
+    let indices = js::choices("quantities", quantities, &quantity::keys(state.iter().copied()))?;
+    if indices.is_empty() || indices.len() > state.len() {
         return Err(Failure::range(
             Text::new("quantities lists ")
                 .u(indices.len())
                 .s(" names; the allowed range is 1 to ")
-                .u(QUANTITIES.len())
+                .u(state.len())
                 .done(),
         )
         .into());
     }
-    let mut out: Vec<usize> = Vec::with_capacity(indices.len());
+    let mut out: Vec<Quantity> = Vec::with_capacity(indices.len());
     for (i, &index) in indices.iter().enumerate() {
-        let index = index as usize;
-        if out.contains(&index) {
+        let Some(&q) = state.get(index as usize) else { continue };
+        if out.contains(&q) {
             return Err(Failure::plain(
                 Text::new(&args::place("quantities", i))
                     .s(": ")
-                    .s(QUANTITIES.get(index).map_or("", |q| q.0))
+                    .s(&quantity::key(q))
                     .s(" is listed twice")
                     .done(),
             )
             .into());
         }
-        out.push(index);
+        out.push(q);
     }
     Ok(out)
-}
-
-/// Quantity `column` of [`QUANTITIES`] of `state`, `None` where the model does not
-/// define it (the batch's hot path: no `Result` per value).
-#[inline]
-fn field(s: &State, column: usize) -> Option<f64> {
-    Some(match column {
-        0 => s.geometric_altitude_m,
-        1 => s.geopotential_altitude_m,
-        2 => s.temperature_k,
-        3 => s.molecular_temperature_k,
-        4 => s.pressure_pa,
-        5 => s.density_kg_m3,
-        6 => return s.speed_of_sound_m_s,
-        7 => return s.dynamic_viscosity_pa_s,
-        8 => return s.kinematic_viscosity_m2_s,
-        9 => return s.thermal_conductivity_w_m_k,
-        10 => s.gravity_m_s2,
-        11 => s.pressure_scale_height_m,
-        12 => s.number_density_m3,
-        13 => s.mean_particle_speed_m_s,
-        14 => s.mean_free_path_m,
-        15 => s.collision_frequency_hz,
-        16 => s.mean_molar_mass_kg_kmol,
-        17 => s.temperature_ratio,
-        18 => s.pressure_ratio,
-        19 => s.density_ratio,
-        _ => return None,
-    })
 }
 
 /// The batch itself, without JS: for every altitude the state, and from it each column,
@@ -528,32 +439,26 @@ pub(crate) fn batch_columns(
     model: &Model,
     kind: AltitudeKind,
     altitudes: &[f64],
-    columns: &[usize],
+    columns: &[Quantity],
 ) -> Result<Vec<f64>, Failure> {
     let count = altitudes.len();
     let mut out = args::zeroed(columns.len() * count)?;
     if count == 0 {
         return Ok(out);
     }
-    let mut outputs: Vec<(usize, &mut [f64])> = columns.iter().copied().zip(out.chunks_mut(count)).collect();
+    let mut outputs: Vec<(Quantity, &mut [f64])> =
+        columns.iter().copied().zip(out.chunks_mut(count)).collect();
     for (i, &meters) in altitudes.iter().enumerate() {
         let state = kind
             .altitude(meters)
             .and_then(|altitude| model.state(altitude))
             .map_err(|e| Failure::from(e).at(&args::place("altitudesM", i)))?;
         for (column, values) in &mut outputs {
-            match (field(&state, *column), values.get_mut(i)) {
-                (Some(v), Some(slot)) => *slot = v,
-                (None, _) => {
-                    // The core's own error, naming the quantity and the altitude.
-                    let error = QUANTITIES.get(*column).map(|(_, read)| read(&state));
-                    let failure = match error {
-                        Some(Err(e)) => Failure::from(e),
-                        _ => Failure::plain("no such quantity"),
-                    };
-                    return Err(failure.at(&args::place("altitudesM", i)));
-                }
-                (Some(_), None) => {}
+            // The core's own error (naming the quantity and the altitude) where the model
+            // does not define a value.
+            let value = state.get(*column).map_err(|e| Failure::from(e).at(&args::place("altitudesM", i)))?;
+            if let Some(slot) = values.get_mut(i) {
+                *slot = value;
             }
         }
     }
@@ -600,49 +505,20 @@ mod tests {
 
     use super::*;
 
-    /// The JS names are the core's field names in camelCase, in the same order, and each
-    /// reads its own field.
+    /// The state object and the species object carry every quantity of their catalogue
+    /// groups, in the order of the core's fields.
     #[test]
-    fn quantity_names_follow_the_core_fields() {
-        let camel = |snake: &str| {
-            let mut out = String::new();
-            let mut upper = false;
-            for c in snake.chars() {
-                if c == '_' {
-                    upper = true;
-                } else if upper {
-                    out.extend(c.to_uppercase());
-                    upper = false;
-                } else {
-                    out.push(c);
-                }
-            }
-            out
-        };
-        for altitude_m in [0.0, 11_000.0, 150_000.0] {
-            let state = US1976.state(Altitude::geometric_m(altitude_m).unwrap()).unwrap();
-            for (index, ((name, read), (field_name, value))) in
-                QUANTITIES.iter().zip(state.fields()).enumerate()
-            {
-                assert_eq!(*name, camel(field_name));
-                assert_eq!(read(&state).ok(), value, "{field_name} at {altitude_m} m");
-                assert_eq!(field(&state, index), value, "{field_name} at {altitude_m} m");
-            }
-        }
-    }
-
-    #[test]
-    fn the_state_keys_are_the_quantity_names() {
-        let keys: Vec<&str> = STATE_KEYS.split(',').collect();
-        let names: Vec<&str> = QUANTITIES.iter().map(|q| q.0).collect();
-        assert_eq!(keys, names);
+    fn species_follow_the_catalogue_order() {
+        let names: Vec<&str> = Quantity::of_group(Group::Species).map(|q| q.name()).collect();
+        assert_eq!(names, ["n_N2", "n_O", "n_O2", "n_Ar", "n_He", "n_H"], "the order of Species::as_array");
     }
 
     #[test]
     fn the_batch_gives_the_bits_of_single_states_and_names_a_bad_element() {
         let model = standard(0.0).unwrap();
         let altitudes = [0.0, 5_000.5, 86_000.0, 300_000.0];
-        let values = batch_columns(&model, AltitudeKind::Geometric, &altitudes, &[2, 5, 12]).unwrap();
+        let columns = [Quantity::Temperature, Quantity::Density, Quantity::NumberDensity];
+        let values = batch_columns(&model, AltitudeKind::Geometric, &altitudes, &columns).unwrap();
         let n = altitudes.len();
         for (i, &z) in altitudes.iter().enumerate() {
             let state = US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();
@@ -650,13 +526,16 @@ mod tests {
             assert_eq!(values[n + i].to_bits(), state.density_kg_m3.to_bits());
             assert_eq!(values[2 * n + i].to_bits(), state.number_density_m3.to_bits());
         }
-        let bad = batch_columns(&model, AltitudeKind::Geometric, &[0.0, f64::NAN], &[2]).unwrap_err();
+        let bad = batch_columns(&model, AltitudeKind::Geometric, &[0.0, f64::NAN], &[Quantity::Temperature])
+            .unwrap_err();
         assert!(
             bad.message.starts_with("altitudesM[1]: geometric altitude must be a finite number"),
             "{}",
             bad.message
         );
-        let undefined = batch_columns(&model, AltitudeKind::Geometric, &[0.0, 100_000.0], &[6]).unwrap_err();
+        let undefined =
+            batch_columns(&model, AltitudeKind::Geometric, &[0.0, 100_000.0], &[Quantity::SpeedOfSound])
+                .unwrap_err();
         assert_eq!(undefined.class, crate::error::Class::Plain);
         assert!(undefined.message.contains("speed of sound is not defined"), "{}", undefined.message);
     }

@@ -35,6 +35,13 @@ impl Text {
         self
     }
 
+    /// Appends a number as JS writes it.
+    #[must_use]
+    pub fn n(mut self, value: f64) -> Self {
+        push_number(&mut self.0, value);
+        self
+    }
+
     /// The message.
     pub fn done(self) -> String {
         self.0

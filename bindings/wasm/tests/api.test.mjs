@@ -190,13 +190,13 @@ test("compressible flow and airspeeds", () => {
   assert.ok(Math.abs(a.machFromImpactPressureRatio(a.impactPressureRatio(1.7)) - 1.7) < 1e-12);
   // At standard sea level CAS, EAS and TAS coincide (by their definitions).
   const sea = a.airspeeds(101325, 288.15, "calibrated", 100);
-  assert.ok(Math.abs(sea.trueMS - 100) < 1e-10 && Math.abs(sea.equivalentMS - 100) < 1e-10);
+  assert.ok(Math.abs(sea.trueAirspeedMS - 100) < 1e-10 && Math.abs(sea.equivalentAirspeedMS - 100) < 1e-10);
   // ISA at 10 000 m pressure altitude, Mach 0.8: TAS 239.5706, EAS 139.0549, CAS
   // 146.9851 m/s (tests/reference/airspeed_mpmath.py, as the core's doctest).
   const cruise = a.airspeedsAtPressureAltitude(10000, 223.15, "mach", 0.8);
-  assert.ok(Math.abs(cruise.trueMS - 239.5706) < 1e-4);
-  assert.ok(Math.abs(cruise.equivalentMS - 139.0549) < 1e-4);
-  assert.ok(Math.abs(cruise.calibratedMS - 146.9851) < 1e-4);
+  assert.ok(Math.abs(cruise.trueAirspeedMS - 239.5706) < 1e-4);
+  assert.ok(Math.abs(cruise.equivalentAirspeedMS - 139.0549) < 1e-4);
+  assert.ok(Math.abs(cruise.calibratedAirspeedMS - 146.9851) < 1e-4);
 });
 
 test("the flight scan: per-sample columns, the refined maximum q and the Mach 1 crossing", () => {

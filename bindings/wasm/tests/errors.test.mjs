@@ -227,6 +227,9 @@ const VALID = {
   standardState: [1000, "geometric", 5],
   standardSpecies: [2e5],
   unitFactors: [],
+  quantities: [],
+  toUs: ["temperature", 288.15],
+  fromUs: ["density", 0.002],
   version: [],
 };
 const STATIC = {

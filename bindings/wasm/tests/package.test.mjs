@@ -58,7 +58,8 @@ test("the types name every export in camelCase with units in the names and docs"
     "scanFlight(timeS: Float64Array | number[], altitudeM: Float64Array | number[], velocityMS: Float64Array | number[], vehicle?: VehicleSpec): FlightScanResult;",
     "static fromSoundingJson(json: string | SoundingJson): AtmosphereModel;",
     "export interface AtmosphereState {",
-    "  /** Pressure p, Pa. */",
+    "  /** Pressure p, Pa: static pressure of the air. */",
+    "export function quantities(): QuantityInfo[];",
     "  speedOfSoundMS: number | null;",
   ]) {
     assert.ok(dts.includes(declaration), `missing: ${declaration}`);

@@ -49,16 +49,13 @@ export function halfUnitOfLastDigit(written) {
   return 0.5 * 10 ** ((exponent === undefined ? 0 : Number(exponent)) - decimals);
 }
 
-/** The vectors' column names (`temperature_K`) as the state's keys (`temperatureK`). */
-export function stateKey(column) {
-  return column
-    .toLowerCase()
-    .split("_")
-    .map((part, i) => (i === 0 ? part : part.charAt(0).toUpperCase() + part.slice(1)))
-    .join("");
+/**
+ * The catalogue's quantities by their SI column name (`temperature_K`), as the module
+ * itself lists them: the vector files name their columns so.
+ */
+export function columnsOf(aerostrata) {
+  return new Map(aerostrata.quantities().map((q) => [q.siColumn, q]));
 }
-
-const SPECIES = { n_N2_m3: "n2M3", n_O_m3: "oM3", n_O2_m3: "o2M3", n_Ar_m3: "arM3", n_He_m3: "heM3", n_H_m3: "hM3" };
 
 function parameter(words, prefix, fallback) {
   const word = words.find((w) => w.startsWith(prefix));
@@ -73,6 +70,7 @@ export function evaluator(aerostrata, file) {
   const words = file.model.split(/\s+/);
   const kind = words[0];
   if (kind === "us1976") {
+    const columns = columnsOf(aerostrata);
     const model = aerostrata.AtmosphereModel.standard(parameter(words, "offset=", 0));
     const altitudeKind = { geometric_altitude_m: "geometric", geopotential_altitude_m: "geopotential" }[file.input];
     if (!altitudeKind) throw new Error(`${file.path}: unknown input column ${file.input}`);
@@ -80,7 +78,9 @@ export function evaluator(aerostrata, file) {
       const state = model.state(input, altitudeKind);
       let species;
       return (column) => {
-        if (column in SPECIES) {
+        const quantity = columns.get(column);
+        if (quantity === undefined) throw new Error(`${file.path}: no quantity named ${column}`);
+        if (quantity.group === "species") {
           if (species === undefined) {
             try {
               species = aerostrata.standardSpecies(input, altitudeKind);
@@ -91,11 +91,10 @@ export function evaluator(aerostrata, file) {
               species = null;
             }
           }
-          return species === null ? undefined : species[SPECIES[column]];
+          return species === null ? undefined : species[quantity.key];
         }
-        const key = stateKey(column);
-        if (!(key in state)) throw new Error(`${file.path}: no quantity named ${column}`);
-        return state[key] ?? undefined;
+        if (!(quantity.key in state)) throw new Error(`${file.path}: ${column} is not a quantity of the state`);
+        return state[quantity.key] ?? undefined;
       };
     };
   }

@@ -359,8 +359,10 @@ impl Quantity {
         // `name (unit)` or `name [unit]`.
         for (open, close) in [('(', ')'), ('[', ']')] {
             if let Some(inner) = heading.strip_suffix(close) {
-                if let Some(at) = inner.rfind(open) {
-                    let (name, unit) = (inner[..at].trim(), inner[at + 1..].trim());
+                // Slices through `get`: no panic path is linked in (the wasm module's size).
+                let split = inner.rfind(open).and_then(|at| Some((inner.get(..at)?, inner.get(at + 1..)?)));
+                if let Some((name, unit)) = split {
+                    let (name, unit) = (name.trim(), unit.trim());
                     let quantity = Quantity::ALL
                         .iter()
                         .copied()
@@ -381,12 +383,17 @@ impl Quantity {
             if heading.len() == name.len() && same_name(name, heading) {
                 return Ok(Column { quantity: q, unit: None });
             }
-            let fits = heading.len() > name.len() + 1
-                && heading.is_char_boundary(name.len())
-                && same_name(name, &heading[..name.len()])
-                && matches!(heading.as_bytes()[name.len()], b'_' | b' ');
-            if fits && best.is_none_or(|(b, _)| b.name().len() < name.len()) {
-                best = Some((q, &heading[name.len() + 1..]));
+            let fits = heading
+                .get(..name.len())
+                .filter(|start| same_name(name, start))
+                .and_then(|_| heading.get(name.len() + 1..))
+                .filter(|rest| {
+                    !rest.is_empty() && matches!(heading.as_bytes().get(name.len()), Some(b'_' | b' '))
+                });
+            if let Some(rest) = fits {
+                if best.is_none_or(|(b, _)| b.name().len() < name.len()) {
+                    best = Some((q, rest));
+                }
             }
         }
         let (quantity, unit) = best.ok_or(ColumnError::Unknown)?;

@@ -152,17 +152,10 @@ pub struct Unit {
     suffix: &'static str,
     dimension: Dimension,
     conversion: Conversion,
-    spellings: &'static [&'static str],
 }
 
-const fn unit(
-    symbol: &'static str,
-    suffix: &'static str,
-    dimension: Dimension,
-    factor: f64,
-    spellings: &'static [&'static str],
-) -> Unit {
-    Unit { symbol, suffix, dimension, conversion: Conversion::Factor(factor), spellings }
+const fn unit(symbol: &'static str, suffix: &'static str, dimension: Dimension, factor: f64) -> Unit {
+    Unit { symbol, suffix, dimension, conversion: Conversion::Factor(factor) }
 }
 
 impl Unit {
@@ -185,7 +178,7 @@ impl Unit {
 
     /// Every spelling [`parse`] accepts for this unit (the symbol and suffix among them).
     pub fn spellings(&self) -> &'static [&'static str] {
-        self.spellings
+        UNITS.iter().position(|u| u == self).and_then(|i| table::SPELLINGS.get(i)).copied().unwrap_or(&[])
     }
 
     /// `value`, in this unit, in SI.
@@ -238,11 +231,11 @@ impl Unit {
     /// first, then one that differs only in ASCII case when exactly one unit matches so.
     pub fn find(text: &str, dimension: Dimension) -> Option<&'static Unit> {
         let text = text.trim();
-        if let Some(unit) = dimension.units().find(|u| u.spellings.contains(&text)) {
+        if let Some(unit) = dimension.units().find(|u| u.spellings().contains(&text)) {
             return Some(unit);
         }
         let mut folded =
-            dimension.units().filter(|u| u.spellings.iter().any(|s| s.eq_ignore_ascii_case(text)));
+            dimension.units().filter(|u| u.spellings().iter().any(|s| s.eq_ignore_ascii_case(text)));
         let first = folded.next();
         if folded.next().is_some() {
             None
@@ -255,7 +248,7 @@ impl Unit {
     /// say "ft is a length, not a temperature").
     pub fn find_any(text: &str) -> Option<&'static Unit> {
         let text = text.trim();
-        UNITS.iter().find(|u| u.spellings.contains(&text))
+        UNITS.iter().zip(table::SPELLINGS).find(|(_, s)| s.contains(&text)).map(|(u, _)| u)
     }
 }
 
@@ -314,13 +307,13 @@ mod tests {
     #[test]
     fn spellings_name_one_unit_within_a_dimension() {
         for unit in UNITS {
-            assert!(unit.spellings.contains(&unit.symbol), "{}: its symbol", unit.symbol);
+            assert!(unit.spellings().contains(&unit.symbol), "{}: its symbol", unit.symbol);
             assert!(
-                unit.suffix.is_empty() || unit.spellings.contains(&unit.suffix),
+                unit.suffix.is_empty() || unit.spellings().contains(&unit.suffix),
                 "{}: its suffix",
                 unit.symbol
             );
-            for spelling in unit.spellings {
+            for spelling in unit.spellings() {
                 let found = Unit::find(spelling, unit.dimension).unwrap();
                 assert_eq!(found, unit, "{spelling:?}");
             }

@@ -65,7 +65,8 @@ pub enum UnitError<'a> {
 /// At most `max` characters of `text`, and whether it was cut.
 pub fn shorten(text: &str, max: usize) -> (&str, bool) {
     match text.char_indices().nth(max) {
-        Some((end, _)) => (&text[..end], true),
+        // `get`, not indexing: no panic path (and no formatting machinery) is linked in.
+        Some((end, _)) => (text.get(..end).unwrap_or(text), true),
         None => (text, false),
     }
 }
@@ -198,11 +199,12 @@ pub fn parse<'a>(
     if length == 0 {
         return Err(UnitError::NotANumber { text });
     }
-    let value: f64 = text[..length].parse().map_err(|_| UnitError::NotANumber { text })?;
+    let (number, rest) = text.split_at_checked(length).ok_or(UnitError::NotANumber { text })?;
+    let value: f64 = number.parse().map_err(|_| UnitError::NotANumber { text })?;
     if !value.is_finite() {
         return Err(UnitError::NotFinite { text });
     }
-    let rest = text[length..].trim_start();
+    let rest = rest.trim_start();
     if rest.starts_with(',') {
         return Err(UnitError::Separator { text });
     }

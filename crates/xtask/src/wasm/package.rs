@@ -12,10 +12,16 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (150 KiB) ...
-pub const MAX_WASM_BYTES: u64 = 150 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (60 KiB).
-pub const MAX_GZIP_BYTES: u64 = 60 * 1024;
+/// The size budget of the optimised `.wasm`, bytes (165 KiB) ...
+///
+/// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
+/// names, symbols, labels, descriptions and units a page builds its tables from, and the
+/// code that gives them out): about 16 KiB, 7 KiB compressed. Splitting the upper
+/// atmosphere's tables into a module of their own is what brings the default module down
+/// again (docs/performance.md).
+pub const MAX_WASM_BYTES: u64 = 165 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (70 KiB).
+pub const MAX_GZIP_BYTES: u64 = 70 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";
