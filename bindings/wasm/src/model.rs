@@ -500,7 +500,6 @@ pub fn standard_species(
 mod tests {
     extern crate std;
     use aerostrata::Altitude;
-    use std::string::String;
     use std::vec::Vec;
 
     use super::*;
