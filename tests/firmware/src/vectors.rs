@@ -4,7 +4,8 @@
 //! `US1976.species`, the isentropic ratios (with `qc_p`) and the normal-shock quantities
 //! (with `p1_p02 = 1 / p02_p1`) for the compressible-flow files.
 
-use aerostrata::{Altitude, Atmosphere, Error, PerfectGas, State, TemperatureOffset, US1976};
+use aerostrata::quantity::Group;
+use aerostrata::{Altitude, Atmosphere, Error, PerfectGas, Quantity, State, TemperatureOffset, US1976};
 
 /// A `# model:` line, parsed at build time.
 #[derive(Clone, Copy)]
@@ -53,9 +54,6 @@ pub struct VectorFile {
 }
 
 include!(concat!(env!("OUT_DIR"), "/vectors.rs"));
-
-/// Species columns, in the order of `Species::as_array`, named as `aerostrata eval --species`.
-pub const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
 
 /// Why a row could not be evaluated.
 pub enum Failure {
@@ -184,11 +182,21 @@ impl Evaluated {
     pub fn value(&self, column: &str) -> Option<Option<f64>> {
         match self {
             Evaluated::State(state, altitude) => {
-                if let Some(index) = SPECIES_COLUMNS.iter().position(|c| *c == column) {
-                    return Some(US1976.species(*altitude).ok().map(|n| n.as_array()[index]));
+                // Through the quantity catalogue, as the native check: a state quantity
+                // or a species, written in its SI unit (`temperature_K`).
+                let read = Quantity::from_column(column).ok()?;
+                let q = read.quantity;
+                if read.unit.is_some_and(|unit| unit != q.si()) {
+                    return None;
                 }
-                // `temperature_K` is the field `temperature_k`.
-                state.fields().iter().find(|(name, _)| name.eq_ignore_ascii_case(column)).map(|(_, v)| *v)
+                match q.info().group {
+                    Group::State => Some(state.get(q).ok()),
+                    Group::Species => {
+                        let index = Quantity::of_group(Group::Species).position(|s| s == q)?;
+                        Some(US1976.species(*altitude).ok().map(|n| n.as_array()[index]))
+                    }
+                    _ => None,
+                }
             }
             Evaluated::Flow(flow) => {
                 flow.values[..flow.len].iter().find(|(name, _)| *name == column).map(|(_, v)| Some(*v))

@@ -14,7 +14,7 @@ pub const GENERATED: &str = "bindings/c/src/catalogue.rs";
 
 /// The field of a record that holds `info`: its machine name and its SI unit, as the
 /// core's own field names read (`speed_of_sound_m_s`).
-fn field(info: &Info) -> String {
+pub fn field(info: &Info) -> String {
     match info.si.suffix() {
         "" => info.name.to_owned(),
         suffix => format!("{}_{}", info.name, suffix.to_ascii_lowercase()),

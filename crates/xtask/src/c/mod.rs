@@ -6,5 +6,7 @@
 mod altimeter;
 pub mod c_test;
 mod catalogue;
+
+pub use catalogue::field as field_name;
 pub mod header;
 pub mod package;

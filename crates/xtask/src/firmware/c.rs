@@ -12,6 +12,9 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
+use aerostrata::quantity::Group;
+use aerostrata::Quantity;
+
 use super::qemu;
 use crate::io_error;
 use crate::process::Cmd;
@@ -31,50 +34,27 @@ pub struct Report {
     pub seconds: f64,
 }
 
-/// The state columns the standard defines only where its air is a continuum.
-const CONTINUUM: [&str; 4] = [
-    "speed_of_sound_m_s",
-    "dynamic_viscosity_pa_s",
-    "kinematic_viscosity_m2_s",
-    "thermal_conductivity_w_m_k",
-];
-
-/// The C accessor of a vector column: (kind, struct, field).
+/// The C accessor of a vector column, found through the quantity catalogue: (kind,
+/// struct, field). A state quantity is a field of `AerostrataState` (generated from the
+/// catalogue: its name and SI unit); a species a field of `AerostrataSpecies` (`n_N2_m3`
+/// is `n2_m3`).
 fn accessor(column: &str) -> Result<(&'static str, &'static str, String), String> {
-    const STATE_FIELDS: [&str; 20] = [
-        "geometric_altitude_m",
-        "geopotential_altitude_m",
-        "temperature_k",
-        "molecular_temperature_k",
-        "pressure_pa",
-        "density_kg_m3",
-        "speed_of_sound_m_s",
-        "dynamic_viscosity_pa_s",
-        "kinematic_viscosity_m2_s",
-        "thermal_conductivity_w_m_k",
-        "gravity_m_s2",
-        "pressure_scale_height_m",
-        "number_density_m3",
-        "mean_particle_speed_m_s",
-        "mean_free_path_m",
-        "collision_frequency_hz",
-        "mean_molar_mass_kg_kmol",
-        "temperature_ratio",
-        "pressure_ratio",
-        "density_ratio",
-    ];
-    if let Some(species) = column.strip_prefix("n_") {
-        let field = species.to_ascii_lowercase();
-        if ["n2_m3", "o_m3", "o2_m3", "ar_m3", "he_m3", "h_m3"].contains(&field.as_str()) {
-            return Ok(("CASE_SPECIES", "AerostrataSpecies", field));
+    let unknown = || format!("column {column} has no field in the C interface");
+    let read = Quantity::from_column(column).map_err(|_| unknown())?;
+    let q = read.quantity;
+    if read.unit.is_some_and(|unit| unit != q.si()) {
+        return Err(unknown());
+    }
+    let info = q.info();
+    let field = crate::c::field_name(&info);
+    match info.group {
+        Group::State if info.may_be_undefined => Ok(("CASE_CONTINUUM", "AerostrataState", field)),
+        Group::State => Ok(("CASE_STATE", "AerostrataState", field)),
+        Group::Species => {
+            Ok(("CASE_SPECIES", "AerostrataSpecies", field.trim_start_matches("n_").to_ascii_lowercase()))
         }
+        _ => Err(unknown()),
     }
-    let field = column.to_ascii_lowercase();
-    if !STATE_FIELDS.contains(&field.as_str()) {
-        return Err(format!("column {column} has no field in the C interface"));
-    }
-    let kind = if CONTINUUM.contains(&field.as_str()) { "CASE_CONTINUUM" } else { "CASE_STATE" };
-    Ok((kind, "AerostrataState", field))
 }
 
 /// The standard-atmosphere files among the vectors, with their temperature offsets.

@@ -10,7 +10,8 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
+use aerostrata::quantity::Group;
+use aerostrata::{Altitude, Atmosphere, PerfectGas, Quantity, State, TemperatureOffset, US1976};
 
 use crate::io_error;
 
@@ -135,17 +136,24 @@ impl Row {
     }
 }
 
-/// Species columns, in the order of `Species::as_array`, named as `aerostrata eval --species`.
-const SPECIES_COLUMNS: [&str; 6] = ["n_N2_m3", "n_O_m3", "n_O2_m3", "n_Ar_m3", "n_He_m3", "n_H_m3"];
-
-/// The value a column names: a state field (`temperature_K` is the field
-/// `temperature_k`) or a species number density of the standard.
+/// The value a column names, found through the quantity catalogue: a state quantity or
+/// a species number density of the standard, written in its SI unit (`temperature_K`).
+/// `None` when the column names no such quantity; `Some(None)` where it is undefined.
 fn field(state: &State, altitude: Altitude, column: &str) -> Option<Option<f64>> {
-    if let Some(index) = SPECIES_COLUMNS.iter().position(|c| *c == column) {
-        return Some(US1976.species(altitude).ok().map(|n| n.as_array()[index]));
+    let read = Quantity::from_column(column).ok()?;
+    let q = read.quantity;
+    if read.unit.is_some_and(|unit| unit != q.si()) {
+        return None;
     }
-    let wanted = column.to_ascii_lowercase();
-    state.fields().iter().find(|(name, _)| *name == wanted).map(|(_, value)| *value)
+    match q.info().group {
+        Group::State => Some(state.get(q).ok()),
+        Group::Species => {
+            // The catalogue's species are in the order of `Species::as_array`.
+            let index = Quantity::of_group(Group::Species).position(|s| s == q)?;
+            Some(US1976.species(altitude).ok().map(|n| n.as_array()[index]))
+        }
+        _ => None,
+    }
 }
 
 /// One row of a vector file with what the core computes for it.

@@ -9,9 +9,11 @@
 #![no_std]
 #![no_main]
 
+use aerostrata::quantity::Group;
+use aerostrata::Quantity;
 use aerostrata::{Altitude, Atmosphere, State, US1976};
 use aerostrata_firmware::stack;
-use aerostrata_firmware::vectors::{Evaluated, Evaluator, FILES, SPECIES_COLUMNS};
+use aerostrata_firmware::vectors::{Evaluated, Evaluator, FILES};
 use core::hint::black_box;
 use cortex_m_rt::entry;
 use cortex_m_semihosting::hprintln;
@@ -38,7 +40,10 @@ fn main() -> ! {
                 continue;
             }
         };
-        let has_species = file.columns.iter().any(|c| SPECIES_COLUMNS.contains(c));
+        let has_species = file
+            .columns
+            .iter()
+            .any(|c| Quantity::from_column(c).is_ok_and(|read| read.quantity.info().group == Group::Species));
         for row in file.rows {
             let Some((evaluated, used)) = stack::measure(|| evaluator.row(file.input, row.input)) else {
                 hprintln!("# error the stack is too small to paint {} bytes", stack::PAINT_BYTES);
