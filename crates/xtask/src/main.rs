@@ -18,15 +18,18 @@
 //! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
+//! cargo xtask catalogue         every door lists every quantity as the core's catalogue does
+//!                               (after `wasm` and with the C package)
 //! ```
 //!
 //! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
 //! table and its flash cost; `upper.rs` and `vector_file.rs` here belong to it), `c/` and
-//! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`. Shared by all: `process.rs` (the
+//! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`, and `catalogue.rs` across them all. Shared by all: `process.rs` (the
 //! one way to run a program), `setup.rs` (what gets installed) and `test.rs` (the CI run).
 
 mod bench;
 mod c;
+mod catalogue;
 mod firmware;
 mod machine;
 mod process;
@@ -41,7 +44,8 @@ use std::process::ExitCode;
 
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
-                     | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench";
+                     | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
+                     | catalogue";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -76,6 +80,10 @@ fn main() -> ExitCode {
         }),
         Some("browser-test") => wasm::browser(&root),
         Some("wasm-bench") => wasm::bench::run(&root),
+        Some("catalogue") => {
+            catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg").join("node"))
+                .map(|line| eprintln!("{line}"))
+        }
         _ => Err(USAGE.to_owned()),
     };
     match result {

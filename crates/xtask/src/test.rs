@@ -101,6 +101,10 @@ pub fn run(root: &Path) -> Result<(), String> {
                 "web calculator in headless Chromium (cargo xtask browser-test)",
                 crate::wasm::browser(root),
             );
+            step(
+                "quantity catalogue: the same ids, names, units and columns in every door (cargo xtask catalogue)",
+                crate::catalogue::check(root, &package.dir.join("node")).map(|line| eprintln!("  {line}")),
+            );
         }
         Err(message) => step("wasm package build (cargo xtask wasm)", Err(message)),
     }
