@@ -7,9 +7,10 @@
 //! interpolation are cited where they are used.
 
 use crate::error::{finite, positive, within, Error, Result};
-use crate::flow::{positive_ratio, ratio_within, PerfectGas, MAX_MACH};
-use crate::inverse::{solve_bracketed, SolverSettings};
+use crate::flow::{PerfectGas, MAX_MACH};
 use crate::math::sqrt;
+use crate::ratio::{positive_ratio, ratio_within};
+use crate::solve::{solve_bracketed, SolverSettings};
 use crate::state::State;
 
 /// Highest speed any function here accepts, m/s: far beyond any flight through an
@@ -573,11 +574,11 @@ fn slope(mach: &[f64], cd: &[f64], k: usize) -> f64 {
 /// ```
 ///
 /// With a Mach-dependent Cd the balance is solved with the bracketed solver of
-/// [`crate::inverse`]. The root is bracketed before the first step:
+/// [`crate::solve`]. The root is bracketed before the first step:
 /// V_lo = sqrt(2 m g / (rho A Cd_max)) and V_hi = sqrt(2 m g / (rho A Cd_min)), with Cd_min
 /// and Cd_max the table's extreme values, give drag at most and at least the weight,
 /// since the curve never leaves [Cd_min, Cd_max]. The solver then converges within the
-/// bound of [`crate::inverse`]. The table's points between V_lo and V_hi are walked first,
+/// bound of [`crate::solve`]. The table's points between V_lo and V_hi are walked first,
 /// so the answer is the slowest balance in the first interval where drag reaches the
 /// weight: where drag grows with speed (d(Cd M^2)/dM > 0, true of real drag curves) it is
 /// the only one.

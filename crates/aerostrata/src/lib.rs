@@ -45,6 +45,8 @@ pub mod humidity;
 pub mod inverse;
 mod math;
 pub mod model;
+mod ratio;
+pub mod solve;
 mod state;
 
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
