@@ -13,8 +13,6 @@ mod standard;
 mod tabulated;
 #[cfg(feature = "upper")]
 pub mod upper;
-#[cfg(feature = "upper")]
-mod upper_table;
 
 #[cfg(feature = "alloc")]
 pub use any::AnyModel;
