@@ -21,8 +21,11 @@ pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
 pub use offset::TemperatureOffset;
 pub use standard::{Us1976, US1976};
+// `AltitudeKind` lives in `crate::altitude`; `aerostrata::model::AltitudeKind` stays a
+// public path.
+pub use crate::altitude::AltitudeKind;
 pub use tabulated::{
-    AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
+    MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
     MIN_HYDROSTATIC_RATIO, MIN_ROW_SPACING_M,
 };
 

@@ -10,9 +10,7 @@
 //! met by a per-pair effective gravity (see [`Tabulated`]). Humidity: Buck (1981), in
 //! [`crate::humidity`].
 
-use crate::altitude::{
-    Altitude, AltitudeRange, MAX_GEOMETRIC_M, MAX_GEOPOTENTIAL_M, MIN_GEOMETRIC_M, MIN_GEOPOTENTIAL_M,
-};
+use crate::altitude::{Altitude, AltitudeKind, AltitudeRange};
 use crate::constants::{GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use crate::error::{positive, Error, Result};
 use crate::gas::{Air, MAX_PRESSURE_PA, MAX_TEMPERATURE_K, MIN_PRESSURE_PA, MIN_TEMPERATURE_K};
@@ -54,52 +52,12 @@ const BISECTION_ITERATIONS: usize = 2200;
 
 // The names of a row's quantities in error messages; the CSV loader maps them back to
 // its columns.
-pub(crate) const Q_GEOMETRIC_ALTITUDE: &str = "geometric altitude";
-pub(crate) const Q_GEOPOTENTIAL_ALTITUDE: &str = "geopotential altitude";
 pub(crate) const Q_TEMPERATURE: &str = "temperature";
 pub(crate) const Q_HUMID_TEMPERATURE: &str = "temperature of a row with humidity";
 pub(crate) const Q_PRESSURE: &str = "pressure";
 pub(crate) const Q_DENSITY: &str = "density";
 pub(crate) const Q_DEW_POINT: &str = "dew point";
 pub(crate) const Q_RELATIVE_HUMIDITY: &str = "relative humidity";
-
-/// Which kind of altitude the rows of a table give.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
-pub enum AltitudeKind {
-    /// Geometric altitude above mean sea level, m.
-    Geometric,
-    /// Geopotential altitude, geopotential m.
-    Geopotential,
-}
-
-impl AltitudeKind {
-    /// `meters` of this kind as a tagged [`Altitude`].
-    ///
-    /// # Errors
-    /// As [`Altitude::geometric_m`] or [`Altitude::geopotential_m`].
-    pub fn altitude(self, meters: f64) -> Result<Altitude> {
-        match self {
-            Self::Geometric => Altitude::geometric_m(meters),
-            Self::Geopotential => Altitude::geopotential_m(meters),
-        }
-    }
-
-    fn quantity(self) -> &'static str {
-        match self {
-            Self::Geometric => Q_GEOMETRIC_ALTITUDE,
-            Self::Geopotential => Q_GEOPOTENTIAL_ALTITUDE,
-        }
-    }
-
-    fn band(self) -> (f64, f64) {
-        match self {
-            Self::Geometric => (MIN_GEOMETRIC_M, MAX_GEOMETRIC_M),
-            Self::Geopotential => (MIN_GEOPOTENTIAL_M, MAX_GEOPOTENTIAL_M),
-        }
-    }
-}
 
 /// One row of a table, as a user writes it: altitude, temperature, and either a pressure
 /// or a density, with optional humidity.
