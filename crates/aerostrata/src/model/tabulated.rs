@@ -18,7 +18,9 @@ use crate::humidity::{self, Humidity, MOLAR_MASS_RATIO};
 use crate::math::{exp, ln};
 use crate::state::State;
 
-use super::{Atmosphere, Layer, US1976};
+use super::atmosphere::Atmosphere;
+use super::layered::Layer;
+use super::standard::US1976;
 
 /// Smallest spacing allowed between the altitudes of two rows, m: closer rows carry no
 /// information a flight could use, and a floor keeps every per-pair slope finite.
