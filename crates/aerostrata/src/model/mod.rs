@@ -10,10 +10,8 @@ mod exponential;
 mod isothermal;
 mod layered;
 mod offset;
-#[cfg(feature = "std")]
-pub mod sounding_io;
+mod sounding;
 mod standard;
-mod tabulated;
 #[cfg(feature = "upper")]
 pub mod upper;
 
@@ -28,7 +26,10 @@ pub use standard::{Us1976, US1976};
 // `AltitudeKind` lives in `crate::altitude`; `aerostrata::model::AltitudeKind` stays a
 // public path.
 pub use crate::altitude::AltitudeKind;
-pub use tabulated::{
+pub use sounding::{
     MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
     MIN_HYDROSTATIC_RATIO, MIN_ROW_SPACING_M,
 };
+// The CSV loader and writer of soundings (`std`); its home is model/sounding/csv.rs.
+#[cfg(feature = "std")]
+pub use sounding::csv as sounding_io;
