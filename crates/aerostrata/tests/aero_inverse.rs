@@ -23,18 +23,13 @@ use aerostrata::{
 };
 use proptest::prelude::*;
 
+mod common;
+use common::relative;
+
 const ROUND_TRIP: f64 = 1e-9;
 const LAYER_BASE_M: f64 = 1e-9;
 const AIRSPEED: f64 = 1e-12;
 const SOLVED_M: f64 = 1e-6;
-
-fn relative(a: f64, b: f64) -> f64 {
-    if a == b {
-        0.0
-    } else {
-        ((a - b) / b).abs()
-    }
-}
 
 fn standard_pressure_at_geopotential(h: f64) -> f64 {
     US1976.pressure_pa(Altitude::geopotential_m(h).unwrap()).unwrap()
