@@ -1,7 +1,7 @@
 //! The bracketed root finder every iterative inverse of the core uses (an altitude from a
 //! property of the air, a Mach number from an area or impact-pressure ratio, a terminal
 //! velocity), with its tolerances: regula falsi with the Illinois modification (M. Dowell
-//! and P. Jarratt, BIT 11 (1971) 168-174), safeguarded by bisection.
+//! and P. Jarratt, BIT 11 (1971) 168-174; from memory), safeguarded by bisection.
 //!
 //! # The bracketed solver and its guarantee
 //!
