@@ -26,10 +26,9 @@ use std::fmt::{self, Write as _};
 use std::string::{String, ToString};
 use std::vec::Vec;
 
+use crate::altitude::AltitudeKind;
 use crate::constants::units::{fahrenheit_to_kelvin, CELSIUS_ZERO_K, FOOT_M, HPA_PA};
 use crate::error::Error;
-
-use crate::altitude::AltitudeKind;
 
 use super::rows::{
     SoundingLevel, SoundingRow, Q_DENSITY, Q_DEW_POINT, Q_HUMID_TEMPERATURE, Q_PRESSURE, Q_RELATIVE_HUMIDITY,
