@@ -1,6 +1,6 @@
 #!/usr/bin/env python3
 """Density of moist air by the CIPM-2007 equation, at 30 digits, for aerostrata's
-moist-air test (crates/aerostrata/tests/tabulated.rs).
+moist-air test (crates/aerostrata/tests/sounding_humidity.rs).
 
 Source: A. Picard, R. S. Davis, M. Glaeser and K. Fujii, "Revised formula for the
 density of moist air (CIPM-2007)", Metrologia 45 (2008) 149-155. Its coefficients

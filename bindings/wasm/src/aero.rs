@@ -6,9 +6,9 @@ use alloc::vec::Vec;
 
 use aerostrata::aero::{self, RarefactionRegime};
 use aerostrata::airspeed::{AirData, Airspeed, Airspeeds};
-use aerostrata::constants::units;
 use aerostrata::flow::{MachBranch, NormalShock};
 use aerostrata::inverse::{self, BarometricReference};
+use aerostrata::units;
 use aerostrata::{DragCurve, Interpolation, PerfectGas};
 use wasm_bindgen::prelude::*;
 

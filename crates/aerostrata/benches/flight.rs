@@ -25,6 +25,9 @@ use aerostrata::flight::{FlightScan, Sample, Vehicle};
 use aerostrata::{Altitude, Atmosphere, US1976};
 use criterion::{criterion_group, criterion_main, Criterion, SamplingMode, Throughput};
 
+mod common;
+use common::{bench_each, settings};
+
 /// Samples in the flight.
 const COUNT: usize = 1_000_000;
 /// Duration of the flight, s.
@@ -75,13 +78,6 @@ fn check_agreement(samples: &[Sample]) {
     }
 }
 
-fn configure() -> Criterion {
-    Criterion::default()
-        .sample_size(10)
-        .warm_up_time(Duration::from_secs(1))
-        .measurement_time(Duration::from_secs(12))
-}
-
 fn benchmarks(c: &mut Criterion) {
     let samples = flight();
     check_agreement(&samples);
@@ -92,42 +88,28 @@ fn benchmarks(c: &mut Criterion) {
     // One iteration is a whole flight (tens of ms): flat sampling, as criterion advises.
     group.sampling_mode(SamplingMode::Flat);
 
-    group.bench_function("states", |b| {
-        b.iter(|| {
-            for sample in &samples {
-                if let Ok(altitude) = Altitude::geometric_m(black_box(sample.altitude_m)) {
-                    let _ = black_box(US1976.state(altitude));
+    bench_each(&mut group, "states", &samples, |sample| {
+        Altitude::geometric_m(sample.altitude_m).and_then(|altitude| US1976.state(altitude))
+    });
+
+    for (id, vehicle) in [("scan", None), ("scan_vehicle", Some(vehicle))] {
+        group.bench_function(id, |b| {
+            b.iter(|| {
+                let mut scan = FlightScan::new(US1976, vehicle);
+                for sample in &samples {
+                    let _ = black_box(scan.push(black_box(*sample)));
                 }
-            }
+                black_box(scan.summary())
+            });
         });
-    });
-
-    group.bench_function("scan", |b| {
-        b.iter(|| {
-            let mut scan = FlightScan::new(US1976, None);
-            for sample in &samples {
-                let _ = black_box(scan.push(black_box(*sample)));
-            }
-            black_box(scan.summary())
-        });
-    });
-
-    group.bench_function("scan_vehicle", |b| {
-        b.iter(|| {
-            let mut scan = FlightScan::new(US1976, Some(vehicle));
-            for sample in &samples {
-                let _ = black_box(scan.push(black_box(*sample)));
-            }
-            black_box(scan.summary())
-        });
-    });
+    }
 
     group.finish();
 }
 
 criterion_group! {
     name = benches;
-    config = configure();
+    config = settings(10, Duration::from_secs(1), Duration::from_secs(12));
     targets = benchmarks
 }
 criterion_main!(benches);

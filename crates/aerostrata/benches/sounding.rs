@@ -20,31 +20,17 @@
 //! Before anything is timed, the sounding is checked to give a finite state at every
 //! sampled altitude and its own rows back at the rows.
 
-use std::hint::black_box;
-use std::time::Duration;
-
 use aerostrata::{Altitude, AltitudeKind, Atmosphere, SoundingLevel, SoundingRow, Tabulated, US1976};
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
+
+mod common;
+use common::{bench_each, per_evaluation, XorShift64};
 
 const COUNT: usize = 1024;
 const ROWS: usize = 200;
 const ROW_SPACING_M: f64 = 100.0;
 const SEED: u64 = 0x2545_f491_4f6c_dd1d;
 const GROUP: &str = "sounding";
-
-/// Marsaglia's xorshift64, as in the `state` benchmark.
-struct XorShift64(u64);
-
-impl XorShift64 {
-    fn next_unit(&mut self) -> f64 {
-        let mut x = self.0;
-        x ^= x << 13;
-        x ^= x >> 7;
-        x ^= x << 17;
-        self.0 = x;
-        (x >> 11) as f64 * (1.0 / (1u64 << 53) as f64)
-    }
-}
 
 /// Temperature (K) and dew point (K, below 10 km) of the invented profile at `z_m`.
 fn profile(z_m: f64) -> (f64, Option<f64>) {
@@ -92,13 +78,6 @@ fn check(table: &Tabulated<Vec<SoundingLevel>>, rows: &[SoundingRow], altitudes:
     }
 }
 
-fn configure() -> Criterion {
-    Criterion::default()
-        .sample_size(30)
-        .warm_up_time(Duration::from_millis(500))
-        .measurement_time(Duration::from_secs(2))
-}
-
 fn benchmarks(c: &mut Criterion) {
     let top_m = (ROWS - 1) as f64 * ROW_SPACING_M;
     let mut rng = XorShift64(SEED);
@@ -114,61 +93,19 @@ fn benchmarks(c: &mut Criterion) {
 
     let mut group = c.benchmark_group(GROUP);
     group.throughput(Throughput::Elements(COUNT as u64));
-    group.bench_function("standard_full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(US1976.state(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("sounding_full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(humid.state(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("sounding_dry_full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(dry.state(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("sounding_uneven_full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(uneven.state(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("sounding_moist_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(humid.moist_state(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("standard_density", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(US1976.density_kg_m3(black_box(altitude)));
-            }
-        });
-    });
-    group.bench_function("sounding_density", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(humid.density_kg_m3(black_box(altitude)));
-            }
-        });
-    });
+    bench_each(&mut group, "standard_full_state", &altitudes, |altitude| US1976.state(altitude));
+    bench_each(&mut group, "sounding_full_state", &altitudes, |altitude| humid.state(altitude));
+    bench_each(&mut group, "sounding_dry_full_state", &altitudes, |altitude| dry.state(altitude));
+    bench_each(&mut group, "sounding_uneven_full_state", &altitudes, |altitude| uneven.state(altitude));
+    bench_each(&mut group, "sounding_moist_state", &altitudes, |altitude| humid.moist_state(altitude));
+    bench_each(&mut group, "standard_density", &altitudes, |altitude| US1976.density_kg_m3(altitude));
+    bench_each(&mut group, "sounding_density", &altitudes, |altitude| humid.density_kg_m3(altitude));
     group.finish();
 }
 
 criterion_group! {
     name = benches;
-    config = configure();
+    config = per_evaluation();
     targets = benchmarks
 }
 criterion_main!(benches);

@@ -20,18 +20,18 @@
 //! Before anything is timed, both baselines are checked against the library (1e-12
 //! relative), so that the comparison is between implementations that agree.
 //!
-//! `std::hint::black_box` is used rather than `criterion::black_box`: in criterion 0.5
-//! without its nightly feature the latter is a volatile copy of its argument, which for
-//! a whole [`State`] (about 30 machine words) would charge a memory copy to `full_state`
-//! that the other benchmarks do not pay. (Later criterion releases re-export the
-//! standard one.)
-
-use std::hint::black_box;
-use std::time::Duration;
+//! `std::hint::black_box` is used (in benches/common) rather than `criterion::black_box`:
+//! in criterion 0.5 without its nightly feature the latter is a volatile copy of its
+//! argument, which for a whole [`State`] (about 30 machine words) would charge a memory
+//! copy to `full_state` that the other benchmarks do not pay. (Later criterion releases
+//! re-export the standard one.)
 
 use aerostrata::constants::{EARTH_RADIUS_M, G0_M_S2, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use aerostrata::{Air, Altitude, Atmosphere, Result, State, US1976};
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
+
+mod common;
+use common::{bench_each, per_evaluation, XorShift64};
 
 /// How many altitudes one iteration evaluates.
 const COUNT: usize = 1024;
@@ -49,25 +49,6 @@ const G0: f64 = 9.806_65;
 const M0: f64 = 28.964_4;
 const R_STAR: f64 = 8_314.32;
 const R0: f64 = 6_356_766.0;
-
-/// Marsaglia's xorshift64: tiny, deterministic, good enough to scatter altitudes.
-struct XorShift64(u64);
-
-impl XorShift64 {
-    fn next_u64(&mut self) -> u64 {
-        let mut x = self.0;
-        x ^= x << 13;
-        x ^= x >> 7;
-        x ^= x << 17;
-        self.0 = x;
-        x
-    }
-
-    /// Uniform in [0, 1), from the top 53 bits.
-    fn next_unit(&mut self) -> f64 {
-        (self.next_u64() >> 11) as f64 * (1.0 / (1u64 << 53) as f64)
-    }
-}
 
 /// The fixed altitudes, geometric metres.
 fn altitudes_m() -> Vec<f64> {
@@ -210,13 +191,6 @@ fn pow_sqrt_inputs(altitudes: &[Altitude]) -> Vec<(f64, f64, f64)> {
         .collect()
 }
 
-fn configure() -> Criterion {
-    Criterion::default()
-        .sample_size(30)
-        .warm_up_time(Duration::from_millis(500))
-        .measurement_time(Duration::from_secs(2))
-}
-
 fn benchmarks(c: &mut Criterion) {
     check_constants();
     let altitudes: Vec<Altitude> = altitudes_m()
@@ -235,60 +209,22 @@ fn benchmarks(c: &mut Criterion) {
     let mut group = c.benchmark_group(GROUP);
     group.throughput(Throughput::Elements(COUNT as u64));
 
-    group.bench_function("full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(US1976.state(black_box(altitude)));
-            }
-        });
+    bench_each(&mut group, "full_state", &altitudes, |altitude| US1976.state(altitude));
+    bench_each(&mut group, "full_state_upper", &upper, |altitude| US1976.state(altitude));
+    bench_each(&mut group, "density_only", &altitudes, |altitude| US1976.density_kg_m3(altitude));
+    bench_each(&mut group, "libm_pow_plus_sqrt", &pow_sqrt, |(ratio, exponent, t)| {
+        libm::pow(ratio, exponent) + libm::sqrt(t)
     });
-
-    group.bench_function("full_state_upper", |b| {
-        b.iter(|| {
-            for &altitude in &upper {
-                let _ = black_box(US1976.state(black_box(altitude)));
-            }
-        });
+    bench_each(&mut group, "baseline_layer_walk_density", &altitudes, |altitude| {
+        walk.density_kg_m3(altitude)
     });
-
-    group.bench_function("density_only", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(US1976.density_kg_m3(black_box(altitude)));
-            }
-        });
-    });
-
-    group.bench_function("libm_pow_plus_sqrt", |b| {
-        b.iter(|| {
-            for &(ratio, exponent, t) in &pow_sqrt {
-                black_box(libm::pow(black_box(ratio), black_box(exponent)) + libm::sqrt(black_box(t)));
-            }
-        });
-    });
-
-    group.bench_function("baseline_layer_walk_density", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                black_box(walk.density_kg_m3(black_box(altitude)));
-            }
-        });
-    });
-
-    group.bench_function("baseline_layer_walk_full_state", |b| {
-        b.iter(|| {
-            for &altitude in &altitudes {
-                let _ = black_box(walk.state(black_box(altitude)));
-            }
-        });
-    });
-
+    bench_each(&mut group, "baseline_layer_walk_full_state", &altitudes, |altitude| walk.state(altitude));
     group.finish();
 }
 
 criterion_group! {
     name = benches;
-    config = configure();
+    config = per_evaluation();
     targets = benchmarks
 }
 criterion_main!(benches);

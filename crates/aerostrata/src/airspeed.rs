@@ -212,7 +212,7 @@ impl AirData {
         let a = self.speed_of_sound_m_s;
         let sqrt_sigma = sqrt(self.density_kg_m3 / SEA_LEVEL_DENSITY_KG_M3);
         let mach = match given {
-            Airspeed::Mach(m) => crate::flow::ratio_within("Mach number", m, 0.0, MAX_MACH)?,
+            Airspeed::Mach(m) => crate::ratio::ratio_within("Mach number", m, 0.0, MAX_MACH)?,
             Airspeed::True(v) => within("true airspeed", "m/s", v, 0.0, MAX_MACH * a)? / a,
             Airspeed::Equivalent(v) => {
                 within("equivalent airspeed", "m/s", v, 0.0, MAX_MACH * a * sqrt_sigma)? / sqrt_sigma / a

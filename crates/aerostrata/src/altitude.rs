@@ -207,6 +207,46 @@ impl From<GeopotentialAltitude> for Altitude {
     }
 }
 
+/// Which kind of altitude a number is: what the rows of a table (a sounding) declare.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
+pub enum AltitudeKind {
+    /// Geometric altitude above mean sea level, m.
+    Geometric,
+    /// Geopotential altitude, geopotential m.
+    Geopotential,
+}
+
+impl AltitudeKind {
+    /// `meters` of this kind as a tagged [`Altitude`].
+    ///
+    /// # Errors
+    /// As [`Altitude::geometric_m`] or [`Altitude::geopotential_m`].
+    pub fn altitude(self, meters: f64) -> Result<Altitude> {
+        match self {
+            Self::Geometric => Altitude::geometric_m(meters),
+            Self::Geopotential => Altitude::geopotential_m(meters),
+        }
+    }
+
+    /// The kind's name, as error messages give it.
+    pub(crate) fn quantity(self) -> &'static str {
+        match self {
+            Self::Geometric => "geometric altitude",
+            Self::Geopotential => "geopotential altitude",
+        }
+    }
+
+    /// The band any altitude of this kind may hold, m.
+    pub(crate) fn band(self) -> (f64, f64) {
+        match self {
+            Self::Geometric => (MIN_GEOMETRIC_M, MAX_GEOMETRIC_M),
+            Self::Geopotential => (MIN_GEOPOTENTIAL_M, MAX_GEOPOTENTIAL_M),
+        }
+    }
+}
+
 /// The closed band of altitudes where a model is defined, held in both kinds of altitude
 /// so that a caller's altitude is checked in the kind the caller gave.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -8,9 +8,12 @@
 //! isentropic flow, for the normal shock, and Rayleigh's pitot formula. gamma is a
 //! parameter ([`PerfectGas`]); [`PerfectGas::AIR`] (gamma = 1.4) is the default.
 
-use crate::error::{finite, Error, Result};
-use crate::inverse::{solve_bracketed, SolverSettings};
+#[cfg(doc)]
+use crate::error::Error;
+use crate::error::Result;
 use crate::math::{exp, exp_m1, ln, ln_1p, sqrt};
+use crate::ratio::ratio_within;
+use crate::solve::{solve_bracketed, SolverSettings};
 
 /// Highest Mach number any relation here accepts. The perfect-gas model stops describing
 /// air long before (vibrational excitation and dissociation set in above Mach 5 to 8),
@@ -20,27 +23,6 @@ pub const MAX_MACH: f64 = 1.0e3;
 /// Lowest Mach number [`PerfectGas::area_ratio`] accepts (A/A* is 5.8e8 there for
 /// gamma = 1.4; at Mach 0 it is infinite).
 pub const MIN_AREA_RATIO_MACH: f64 = 1.0e-9;
-
-/// `value` if finite and within `[min, max]`, else [`Error::RatioOutOfRange`].
-#[inline]
-pub(crate) fn ratio_within(quantity: &'static str, value: f64, min: f64, max: f64) -> Result<f64> {
-    let value = finite(quantity, value)?;
-    if (min..=max).contains(&value) {
-        Ok(value)
-    } else {
-        Err(Error::RatioOutOfRange { quantity, value, min, max })
-    }
-}
-
-/// `value` if finite, strictly positive and at most `max`.
-#[inline]
-pub(crate) fn positive_ratio(quantity: &'static str, value: f64, max: f64) -> Result<f64> {
-    let value = finite(quantity, value)?;
-    if value <= 0.0 {
-        return Err(Error::RatioNotPositive { quantity, value });
-    }
-    ratio_within(quantity, value, 0.0, max)
-}
 
 #[inline]
 fn mach_within(quantity: &'static str, mach: f64, min: f64) -> Result<f64> {
@@ -294,7 +276,7 @@ impl PerfectGas {
     /// The Mach number on `branch` at which the area ratio A/A* is `ratio`, with the
     /// default solver settings ([`SolverSettings::MACH`]).
     ///
-    /// Solved for ln(A/A*) with the bracketed solver of [`crate::inverse`] on
+    /// Solved for ln(A/A*) with the bracketed solver of [`crate::solve`] on
     /// [`MIN_AREA_RATIO_MACH`]..=1 (subsonic) or 1..=[`MAX_MACH`] (supersonic), where
     /// A/A* is strictly monotone, so the root is unique and always bracketed.
     ///
@@ -309,7 +291,7 @@ impl PerfectGas {
     /// # Errors
     /// [`Error::NotFinite`] or [`Error::RatioOutOfRange`] for a ratio below 1 or above
     /// the branch's A/A* at its far end; [`Error::NoConvergence`] is not reachable with
-    /// the default settings (see [`crate::inverse`] for the bound).
+    /// the default settings (see [`crate::solve`] for the bound).
     pub fn mach_from_area_ratio(&self, ratio: f64, branch: MachBranch) -> Result<f64> {
         self.mach_from_area_ratio_with(ratio, branch, &SolverSettings::MACH)
     }
@@ -465,7 +447,7 @@ impl PerfectGas {
     /// Up to the sonic value ([`Self::sonic_impact_pressure_ratio`]) the isentropic
     /// relation is inverted in closed form; above it the Rayleigh formula, strictly
     /// increasing in M for M >= 1, is solved on 1..=[`MAX_MACH`] by the bracketed solver
-    /// of [`crate::inverse`] (unique root, always bracketed).
+    /// of [`crate::solve`] (unique root, always bracketed).
     ///
     /// ```text
     /// M = sqrt( (2/(gamma-1)) ((qc/p + 1)^((gamma-1)/gamma) - 1) )     qc/p <= sonic

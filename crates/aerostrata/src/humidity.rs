@@ -13,11 +13,11 @@
 //! Relative humidity is with respect to liquid water at every temperature, the
 //! meteorological convention for soundings (WMO), also below 0 degC.
 
-use crate::constants::units::CELSIUS_ZERO_K;
 use crate::constants::SEA_LEVEL_MOLAR_MASS_KG_KMOL;
 use crate::error::{positive, within, Error, Result};
 use crate::gas::Air;
 use crate::math::{exp, ln};
+use crate::units::CELSIUS_ZERO_K;
 
 /// Molar mass of water M_w, kg/kmol: 2 x 1.00794 + 15.9994, the IUPAC atomic weights of
 /// hydrogen and oxygen (from memory).

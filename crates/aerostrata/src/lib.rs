@@ -46,6 +46,8 @@ pub mod inverse;
 mod math;
 pub mod model;
 pub mod quantity;
+mod ratio;
+pub mod solve;
 mod state;
 pub mod units;
 

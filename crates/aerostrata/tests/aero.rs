@@ -25,17 +25,12 @@ use aerostrata::flow::{MachBranch, PerfectGas, MAX_MACH};
 use aerostrata::{Air, Altitude, Atmosphere, Error, SolverSettings, State, US1976};
 use proptest::prelude::*;
 
+mod common;
+use common::relative;
+
 const IDENTITY: f64 = 1e-13;
 const MPMATH: f64 = 1e-13;
 const SOLVED: f64 = 1e-12;
-
-fn relative(a: f64, b: f64) -> f64 {
-    if a == b {
-        0.0
-    } else {
-        ((a - b) / b).abs()
-    }
-}
 
 fn mach_round_trip_tolerance(m: f64) -> f64 {
     64.0 * f64::EPSILON * (m + 1.0 / m.max(1e-300)) + 1e-14

@@ -18,23 +18,18 @@ use aerostrata::inverse::{
     density_altitude_from, pressure_altitude, BarometricReference, Property,
 };
 use aerostrata::{
-    Air, Altitude, Atmosphere, Error, GeometricAltitude, Isothermal, LayerSpec, Layered, SolverSettings,
-    State, TemperatureOffset, US1976,
+    Air, Altitude, Atmosphere, Error, GeometricAltitude, Isothermal, Layer, LayerSpec, Layered,
+    SolverSettings, State, TemperatureOffset, US1976,
 };
 use proptest::prelude::*;
+
+mod common;
+use common::relative;
 
 const ROUND_TRIP: f64 = 1e-9;
 const LAYER_BASE_M: f64 = 1e-9;
 const AIRSPEED: f64 = 1e-12;
 const SOLVED_M: f64 = 1e-6;
-
-fn relative(a: f64, b: f64) -> f64 {
-    if a == b {
-        0.0
-    } else {
-        ((a - b) / b).abs()
-    }
-}
 
 fn standard_pressure_at_geopotential(h: f64) -> f64 {
     US1976.pressure_pa(Altitude::geopotential_m(h).unwrap()).unwrap()
@@ -189,6 +184,18 @@ fn barometric_references_are_checked() {
     );
 }
 
+/// An invented single-layer troposphere, 300 K at sea level falling 7 K/km to 10 km:
+/// its temperature falls strictly with altitude.
+fn invented_troposphere() -> Layered<[Layer; 1]> {
+    Layered::from_lapse_rates(
+        0.0,
+        300.0,
+        100_000.0,
+        &[LayerSpec { top_geopotential_m: 10_000.0, lapse_rate_k_m: -0.007 }],
+    )
+    .unwrap()
+}
+
 #[test]
 fn generic_solver_over_other_models() {
     // Isothermal: H = -Hs ln(p / p0) in geopotential altitude, Hs = R* T / (M0 g0).
@@ -211,13 +218,7 @@ fn generic_solver_over_other_models() {
     assert!(density_altitude(rho).unwrap().meters() > 2_500.0);
     // Any property, by closure: temperature falls strictly through this invented
     // single-layer troposphere.
-    let troposphere = Layered::from_lapse_rates(
-        0.0,
-        300.0,
-        100_000.0,
-        &[LayerSpec { top_geopotential_m: 10_000.0, lapse_rate_k_m: -0.007 }],
-    )
-    .unwrap();
+    let troposphere = invented_troposphere();
     let z = altitude_where(
         &troposphere,
         "temperature",
@@ -248,13 +249,7 @@ fn the_altitude_solver_reports_non_convergence_and_bad_input() {
         Err(Error::NoConvergence { solver: "altitude solver", iterations: 3 }) => {}
         other => panic!("expected non-convergence, got {other:?}"),
     }
-    let troposphere = Layered::from_lapse_rates(
-        0.0,
-        300.0,
-        100_000.0,
-        &[LayerSpec { top_geopotential_m: 10_000.0, lapse_rate_k_m: -0.007 }],
-    )
-    .unwrap();
+    let troposphere = invented_troposphere();
     let e =
         altitude_where(&troposphere, "temperature", "K", Air::temperature_k, 250.0, &starved).unwrap_err();
     assert!(matches!(e, Error::NoConvergence { .. }), "{e}");

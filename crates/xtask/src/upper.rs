@@ -1,7 +1,8 @@
 //! `cargo xtask upper-table [--check]`: the number densities of the U.S. Standard
 //! Atmosphere 1976 above 86 km, integrated once from the standard's diffusion equations
 //! and written as the compact table the core interpolates
-//! (crates/aerostrata/src/model/upper_table.rs).
+//! (crates/aerostrata/src/model/upper/upper_table.rs: data only, in the `Segment` type
+//! of its sibling segment.rs).
 //!
 //! The equations and every coefficient: U.S. Standard Atmosphere, 1976, Part 1 (the
 //! section on the high-altitude region: molecular and eddy diffusion, thermal diffusion
@@ -22,7 +23,7 @@ use std::path::Path;
 use aerostrata::constants::{EARTH_RADIUS_M, G0_M_S2, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use aerostrata::model::upper::{temperature, MOLAR_MASS_KG_KMOL};
 
-pub const TABLE: &str = "crates/aerostrata/src/model/upper_table.rs";
+pub const TABLE: &str = "crates/aerostrata/src/model/upper/upper_table.rs";
 
 /// RK4 step for the five diffusing species, m.
 const STEP_M: f64 = 5.0;
@@ -312,7 +313,7 @@ fn generate(solution: &Solution, integration_error: f64, verbose: bool) -> (Stri
          // ln n). Hydrogen is zero below 150 km (its entries there are placeholders). Cubic\n\
          // Hermite interpolation of this table departs from the integration by at most\n\
          // {worst:.1e} in ln n.\n\n\
-         use super::upper::Segment;\n\n\
+         use super::segment::Segment;\n\n\
          #[rustfmt::skip]\n\
          pub(super) static SEGMENTS: [Segment; {}] = [\n{segments}];\n\n\
          #[rustfmt::skip]\n\

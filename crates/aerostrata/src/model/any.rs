@@ -4,13 +4,16 @@
 
 use alloc::vec::Vec;
 
+use super::atmosphere::Atmosphere;
+use super::exponential::Exponential;
+use super::isothermal::Isothermal;
+use super::layered::{Layer, Layered};
+use super::offset::TemperatureOffset;
+use super::sounding::{SoundingLevel, Tabulated};
+use super::standard::{Us1976, US1976};
 use crate::altitude::{Altitude, AltitudeRange};
 use crate::error::Result;
 use crate::gas::Air;
-use crate::model::{
-    Atmosphere, Exponential, Isothermal, Layer, Layered, SoundingLevel, Tabulated, TemperatureOffset, Us1976,
-    US1976,
-};
 
 /// Any model of the crate, owned.
 #[derive(Debug, Clone)]

@@ -7,7 +7,7 @@ use crate::error::{positive, Result};
 use crate::gas::Air;
 use crate::math::exp;
 
-use super::Atmosphere;
+use super::atmosphere::Atmosphere;
 
 /// Density falling exponentially with geometric altitude at a fixed temperature.
 ///

@@ -6,7 +6,7 @@ use crate::error::{positive, Result};
 use crate::gas::Air;
 use crate::math::exp;
 
-use super::Atmosphere;
+use super::atmosphere::Atmosphere;
 
 /// Dry air at one temperature in hydrostatic equilibrium, in geopotential altitude.
 ///

@@ -12,7 +12,7 @@ use crate::error::{Error, Result};
 use crate::gas::Air;
 use crate::math::{exp, ln_1p};
 
-use super::Atmosphere;
+use super::atmosphere::Atmosphere;
 
 /// One complete layer: its base and its constant lapse rate.
 #[derive(Debug, Clone, Copy, PartialEq)]

@@ -1,94 +1,35 @@
 //! Atmosphere models. A model yields the air (T, p, M) at an altitude; the full state is
-//! derived from that air once, in [`State::new`], for every model alike.
+//! derived from that air once, in [`State::new`](crate::State::new), for every model
+//! alike. The interface is in atmosphere.rs, each model in a file of its own, the
+//! standard above 86 km in upper/ and soundings in sounding/.
 
 #[cfg(feature = "alloc")]
 mod any;
+mod atmosphere;
 mod exponential;
 mod isothermal;
 mod layered;
 mod offset;
-#[cfg(feature = "std")]
-pub mod sounding_io;
+mod sounding;
 mod standard;
-mod tabulated;
 #[cfg(feature = "upper")]
 pub mod upper;
-#[cfg(feature = "upper")]
-mod upper_table;
 
 #[cfg(feature = "alloc")]
 pub use any::AnyModel;
+pub use atmosphere::Atmosphere;
 pub use exponential::Exponential;
 pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
 pub use offset::TemperatureOffset;
 pub use standard::{Us1976, US1976};
-pub use tabulated::{
-    AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
+// `AltitudeKind` lives in `crate::altitude`; `aerostrata::model::AltitudeKind` stays a
+// public path.
+pub use crate::altitude::AltitudeKind;
+pub use sounding::{
+    MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
     MIN_HYDROSTATIC_RATIO, MIN_ROW_SPACING_M,
 };
-
-use crate::altitude::{Altitude, AltitudeRange};
-use crate::error::Result;
-use crate::gas::Air;
-use crate::state::State;
-
-/// A model of the atmosphere: the air at any altitude of its range.
-///
-/// Implementors provide [`Atmosphere::range`] and [`Atmosphere::air`]; the rest are
-/// derived. The trait is object safe (`&dyn Atmosphere` works).
-pub trait Atmosphere {
-    /// The closed band of altitudes where the model is defined.
-    fn range(&self) -> AltitudeRange;
-
-    /// Kinetic temperature, pressure and mean molecular weight at `altitude`.
-    ///
-    /// # Errors
-    /// [`Error::OutOfRange`](crate::Error::OutOfRange) outside [`Atmosphere::range`];
-    /// model-specific errors (for example a temperature offset that drives the
-    /// temperature to or below 0 K).
-    fn air(&self, altitude: Altitude) -> Result<Air>;
-
-    /// The full state at `altitude`.
-    ///
-    /// # Errors
-    /// As [`Atmosphere::air`].
-    fn state(&self, altitude: Altitude) -> Result<State> {
-        // `map`, not `Ok(..?)`: the state is built in place instead of copied (measured).
-        self.air(altitude).map(|air| State::new(altitude, air))
-    }
-
-    /// Density at `altitude`, kg/m^3, without the rest of the state.
-    ///
-    /// # Errors
-    /// As [`Atmosphere::air`].
-    fn density_kg_m3(&self, altitude: Altitude) -> Result<f64> {
-        self.air(altitude).map(|air| air.density_kg_m3())
-    }
-
-    /// Pressure at `altitude`, Pa.
-    ///
-    /// # Errors
-    /// As [`Atmosphere::air`].
-    fn pressure_pa(&self, altitude: Altitude) -> Result<f64> {
-        self.air(altitude).map(|air| air.pressure_pa())
-    }
-
-    /// Kinetic temperature at `altitude`, K.
-    ///
-    /// # Errors
-    /// As [`Atmosphere::air`].
-    fn temperature_k(&self, altitude: Altitude) -> Result<f64> {
-        self.air(altitude).map(|air| air.temperature_k())
-    }
-}
-
-impl<A: Atmosphere + ?Sized> Atmosphere for &A {
-    fn range(&self) -> AltitudeRange {
-        (**self).range()
-    }
-
-    fn air(&self, altitude: Altitude) -> Result<Air> {
-        (**self).air(altitude)
-    }
-}
+// The CSV loader and writer of soundings (`std`); its home is model/sounding/csv.rs.
+#[cfg(feature = "std")]
+pub use sounding::csv as sounding_io;

@@ -4,7 +4,7 @@ use crate::altitude::{Altitude, AltitudeRange};
 use crate::error::{finite, Result};
 use crate::gas::Air;
 
-use super::Atmosphere;
+use super::atmosphere::Atmosphere;
 
 /// `base` with its temperature shifted by `offset_k` (ISA + dT).
 ///

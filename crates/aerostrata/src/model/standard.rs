@@ -13,7 +13,8 @@ use crate::constants::{SEA_LEVEL_MOLAR_MASS_KG_KMOL, SEA_LEVEL_PRESSURE_PA, SEA_
 use crate::error::Result;
 use crate::gas::Air;
 
-use super::{Atmosphere, Layer, Layered};
+use super::atmosphere::Atmosphere;
+use super::layered::{Layer, Layered};
 
 /// The U.S. Standard Atmosphere, 1976, -5 km to 1000 km geometric (86 km without the
 /// `upper` feature).
@@ -173,7 +174,7 @@ impl Atmosphere for Us1976 {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::model::LayerSpec;
+    use crate::model::layered::LayerSpec;
 
     #[test]
     fn base_pressures_match_the_chain_rebuilt_at_run_time() {

@@ -1,5 +1,9 @@
-//! What the no-panic property tests of every test file share.
+//! What the test files share: the generator of hostile f64 for the no-panic property
+//! tests, the relative difference every tolerance is stated in, and the finiteness check
+//! of a state. Each test file uses a part of it, so the rest is dead code there.
+#![allow(dead_code)]
 
+use aerostrata::State;
 use proptest::prelude::*;
 
 /// Any f64 at all, weighted toward the ones that break code: NaN, infinities, signed
@@ -24,4 +28,22 @@ pub fn wild() -> impl Strategy<Value = f64> {
         -1e7..1e7f64,
         any::<f64>(),
     ]
+}
+
+/// |a - b| / |b|, and 0 when the two are exactly equal (so that equal zeros pass).
+pub fn relative(a: f64, b: f64) -> f64 {
+    if a == b {
+        0.0
+    } else {
+        ((a - b) / b).abs()
+    }
+}
+
+/// A state that came out Ok must be wholly finite: no silent NaN or infinity.
+pub fn assert_finite(state: &State) {
+    for (name, value) in state.fields() {
+        if let Some(value) = value {
+            assert!(value.is_finite(), "{name} = {value}");
+        }
+    }
 }

@@ -7,7 +7,7 @@
 // Hermite interpolation of this table departs from the integration by at most
 // 3.1e-7 in ln n.
 
-use super::upper::Segment;
+use super::segment::Segment;
 
 #[rustfmt::skip]
 pub(super) static SEGMENTS: [Segment; 15] = [

@@ -10,13 +10,16 @@
 //! own integration everywhere (proved by a test of the generator). No integration at run
 //! time.
 
+mod segment;
+mod upper_table;
+
 use crate::altitude::AltitudeRange;
 use crate::constants::{AVOGADRO_PER_KMOL, EARTH_RADIUS_M};
 use crate::error::{Error, Result};
 use crate::gas::Air;
 use crate::math::{exp, sqrt};
 
-use super::upper_table::{LN_DENSITY, SEGMENTS, SLOPE};
+use upper_table::{LN_DENSITY, SEGMENTS, SLOPE};
 
 /// Where the upper part takes over, geometric m (86 km; at exactly 86 km the lower part
 /// answers).
@@ -107,20 +110,6 @@ pub fn temperature(z_m: f64) -> (f64, f64) {
         let decay = (T_INF_K - T10_K) * exp(-LAMBDA_PER_M * xi);
         (T_INF_K - decay, LAMBDA_PER_M * decay * ratio * ratio)
     }
-}
-
-/// One run of equally spaced table nodes.
-pub(crate) struct Segment {
-    /// Geometric altitude of the first node, m.
-    pub start_m: f64,
-    /// Geometric altitude of the last node, m.
-    pub end_m: f64,
-    /// Node spacing, m.
-    pub step_m: f64,
-    /// Index of the first node in the table.
-    pub first: u16,
-    /// Number of intervals (nodes - 1).
-    pub intervals: u16,
 }
 
 /// The geometric altitudes of the table's nodes, m, lowest first; where two runs of

@@ -26,11 +26,15 @@ use std::fmt::{self, Write as _};
 use std::string::{String, ToString};
 use std::vec::Vec;
 
-use crate::constants::units::{fahrenheit_to_kelvin, CELSIUS_ZERO_K, FOOT_M, HPA_PA};
+use crate::altitude::AltitudeKind;
 use crate::error::Error;
+use crate::units::{fahrenheit_to_kelvin, CELSIUS_ZERO_K, FOOT_M, HPA_PA};
 
-use super::tabulated::{error_field, Field};
-use super::{AltitudeKind, SoundingLevel, SoundingRow, Tabulated};
+use super::rows::{
+    SoundingLevel, SoundingRow, Q_DENSITY, Q_DEW_POINT, Q_HUMID_TEMPERATURE, Q_PRESSURE, Q_RELATIVE_HUMIDITY,
+    Q_TEMPERATURE,
+};
+use super::table::Tabulated;
 
 /// A sounding that could not be read: where (line, and column and cell where there is
 /// one) and why.
@@ -374,6 +378,55 @@ pub fn parse_csv(text: &str) -> Result<Tabulated<Vec<SoundingLevel>>, LoadError>
         .map_err(|error| located(error, header_line, &layout, &columns, &read))
 }
 
+/// Which value of a row an error is about, for the loaders that show the user's cell.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Field {
+    Altitude,
+    Temperature,
+    Pressure,
+    Density,
+    DewPoint,
+    RelativeHumidity,
+    /// The dew point or the relative humidity, whichever the row gives.
+    Humidity,
+    /// The pressure, or the density it was derived from.
+    PressureSource,
+}
+
+/// The row (counted from 0) and the value an error of a table is about.
+fn error_field(error: &Error) -> Option<(usize, Option<Field>)> {
+    let by_quantity = |quantity: &str| match quantity {
+        Q_TEMPERATURE | Q_HUMID_TEMPERATURE => Some(Field::Temperature),
+        Q_PRESSURE => Some(Field::PressureSource),
+        Q_DENSITY => Some(Field::Density),
+        Q_DEW_POINT => Some(Field::DewPoint),
+        Q_RELATIVE_HUMIDITY => Some(Field::RelativeHumidity),
+        _ => Some(Field::Altitude),
+    };
+    match *error {
+        Error::RowNotFinite { row, quantity, .. } => Some((
+            row,
+            match quantity {
+                Q_PRESSURE => Some(Field::Pressure),
+                other => by_quantity(other),
+            },
+        )),
+        Error::RowOutOfRange { row, quantity, .. } => Some((row, by_quantity(quantity))),
+        Error::RowNotPositive { row, quantity, .. } => {
+            Some((row, Some(if quantity == Q_DENSITY { Field::Density } else { Field::Pressure })))
+        }
+        Error::AltitudeNotIncreasing { row, .. } => Some((row, Some(Field::Altitude))),
+        Error::RowTemperatureNotPositive { row, .. } => Some((row, Some(Field::Temperature))),
+        Error::PressureNotDecreasing { row, .. } => Some((row, Some(Field::PressureSource))),
+        Error::RelativeHumidityOutOfRange { row, .. } => Some((row, Some(Field::RelativeHumidity))),
+        Error::DewPointAboveTemperature { row, .. } => Some((row, Some(Field::DewPoint))),
+        Error::VapourPressureTooHigh { row, .. } => Some((row, Some(Field::Humidity))),
+        Error::NotHydrostatic { row, .. } => Some((row + 1, Some(Field::PressureSource))),
+        Error::RowColumns { row, .. } => Some((row, None)),
+        _ => None,
+    }
+}
+
 /// The model's `error` placed at its line, column and cell.
 fn located(
     error: Error,
@@ -460,4 +513,17 @@ pub fn rows_to_csv(kind: AltitudeKind, rows: &[SoundingRow]) -> String {
 pub fn to_csv<S: AsRef<[SoundingLevel]>>(table: &Tabulated<S>) -> String {
     let rows: Vec<SoundingRow> = table.rows().copied().collect();
     rows_to_csv(table.kind(), &rows)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn error_fields_name_the_row_and_value() {
+        let e = Error::NotHydrostatic { row: 3, ratio: 3.3, min: 0.5, max: 2.0 };
+        assert_eq!(error_field(&e), Some((4, Some(Field::PressureSource))));
+        let e = Error::RowNotFinite { row: 1, quantity: Q_DEW_POINT, value: f64::NAN };
+        assert_eq!(error_field(&e), Some((1, Some(Field::DewPoint))));
+    }
 }

@@ -1,0 +1,154 @@
+//! Soundings through serde (the `serde` feature): a table serialises as what it was built
+//! from (its kind of altitude, its rows as given, what it does beyond them), and with
+//! `alloc` deserialises through the constructors' checks, row by row, so that a format
+//! that knows lines (JSON) reports the line of a bad row.
+
+use super::rows::SoundingLevel;
+use super::table::Tabulated;
+
+/// The rows of a table, serialised as given.
+struct Rows<'a>(&'a [SoundingLevel]);
+
+impl serde::Serialize for Rows<'_> {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        serializer.collect_seq(self.0.iter().map(SoundingLevel::row))
+    }
+}
+
+/// A table serialises as what it was built from: `altitude` (its kind), `rows` as
+/// given, and what it does `below` and `above` them.
+impl<S: AsRef<[SoundingLevel]>> serde::Serialize for Tabulated<S> {
+    fn serialize<Ser: serde::Serializer>(&self, serializer: Ser) -> Result<Ser::Ok, Ser::Error> {
+        use serde::ser::SerializeStruct;
+        let mut out = serializer.serialize_struct("Tabulated", 4)?;
+        out.serialize_field("altitude", &self.kind())?;
+        out.serialize_field("rows", &Rows(self.levels()))?;
+        out.serialize_field("below", &self.below())?;
+        out.serialize_field("above", &self.above())?;
+        out.end()
+    }
+}
+
+#[cfg(feature = "alloc")]
+mod owned {
+    use alloc::vec::Vec;
+    use core::fmt;
+
+    use serde::de::{DeserializeSeed, Error as _, MapAccess, SeqAccess, Visitor};
+
+    use crate::altitude::AltitudeKind;
+
+    use super::super::interpolate::OutsideTable;
+    use super::super::rows::{check_row, SoundingLevel, SoundingRow};
+    use super::super::table::Tabulated;
+
+    /// Rows checked one by one as they are read, each inside its own map visit, so
+    /// that a format that knows lines (JSON) reports the line of the bad row.
+    struct CheckedRows(Vec<SoundingRow>);
+
+    impl<'de> serde::Deserialize<'de> for CheckedRows {
+        fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
+            struct RowsVisitor;
+            impl<'de> Visitor<'de> for RowsVisitor {
+                type Value = CheckedRows;
+                fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+                    f.write_str("a list of sounding rows")
+                }
+                fn visit_seq<A: SeqAccess<'de>>(self, mut seq: A) -> Result<CheckedRows, A::Error> {
+                    let mut rows = Vec::with_capacity(seq.size_hint().unwrap_or(0).min(4096));
+                    while let Some(row) = seq.next_element_seed(RowSeed { before: &rows })? {
+                        rows.push(row);
+                    }
+                    Ok(CheckedRows(rows))
+                }
+            }
+            deserializer.deserialize_seq(RowsVisitor)
+        }
+    }
+
+    /// The names of a row's fields, as [`SoundingRow`] serialises them.
+    const FIELDS: [&str; 6] = [
+        "altitude_m",
+        "temperature_k",
+        "pressure_pa",
+        "density_kg_m3",
+        "dew_point_k",
+        "relative_humidity_percent",
+    ];
+
+    #[derive(serde::Deserialize)]
+    #[serde(field_identifier, rename_all = "snake_case")]
+    enum Field {
+        AltitudeM,
+        TemperatureK,
+        PressurePa,
+        DensityKgM3,
+        DewPointK,
+        RelativeHumidityPercent,
+    }
+
+    /// One row, read and checked against the rows `before` it.
+    struct RowSeed<'a> {
+        before: &'a [SoundingRow],
+    }
+
+    impl<'de> DeserializeSeed<'de> for RowSeed<'_> {
+        type Value = SoundingRow;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<SoundingRow, D::Error> {
+            deserializer.deserialize_struct("SoundingRow", &FIELDS, self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for RowSeed<'_> {
+        type Value = SoundingRow;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("a sounding row")
+        }
+        fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<SoundingRow, A::Error> {
+            let mut values: [Option<f64>; 6] = [None; 6];
+            let mut seen = [false; 6];
+            while let Some(field) = map.next_key::<Field>()? {
+                let slot = field as usize;
+                if core::mem::replace(&mut seen[slot], true) {
+                    return Err(A::Error::duplicate_field(FIELDS[slot]));
+                }
+                // `null` reads as "not given", as an absent field does.
+                values[slot] = map.next_value::<Option<f64>>()?;
+            }
+            let [altitude, temperature, pressure, density, dew_point, relative_humidity] = values;
+            let row = SoundingRow {
+                altitude_m: altitude.ok_or_else(|| A::Error::missing_field(FIELDS[0]))?,
+                temperature_k: temperature.ok_or_else(|| A::Error::missing_field(FIELDS[1]))?,
+                pressure_pa: pressure,
+                density_kg_m3: density,
+                dew_point_k: dew_point,
+                relative_humidity_percent: relative_humidity,
+            };
+            check_row(self.before.len(), &row, self.before).map_err(A::Error::custom)?;
+            Ok(row)
+        }
+    }
+
+    #[derive(serde::Deserialize)]
+    #[serde(deny_unknown_fields)]
+    struct Parts {
+        altitude: AltitudeKind,
+        rows: CheckedRows,
+        #[serde(default)]
+        below: OutsideTable,
+        #[serde(default)]
+        above: OutsideTable,
+    }
+
+    /// Reads what [`Tabulated`]'s `Serialize` writes, through the constructors'
+    /// checks.
+    impl<'de> serde::Deserialize<'de> for Tabulated<Vec<SoundingLevel>> {
+        fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
+            let parts = Parts::deserialize(deserializer)?;
+            Tabulated::from_rows_vec(parts.altitude, &parts.rows.0)
+                .and_then(|table| table.with_below(parts.below))
+                .and_then(|table| table.with_above(parts.above))
+                .map_err(D::Error::custom)
+        }
+    }
+}
