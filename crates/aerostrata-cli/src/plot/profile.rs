@@ -195,6 +195,17 @@ mod tests {
     }
 
     #[test]
+    fn quantities_are_read_by_their_catalogue_names() {
+        let command = clap::Command::new("plot");
+        let parse = |text: &str| QuantityParser.parse_ref(&command, None, std::ffi::OsStr::new(text));
+        assert_eq!(parse("speed_of_sound").unwrap(), Quantity::SpeedOfSound);
+        assert_eq!(parse("mean-free-path").unwrap(), Quantity::MeanFreePath);
+        assert!(parse("geometric_altitude").is_err(), "the altitudes are the vertical axis");
+        assert!(parse("speed").is_err());
+        assert_eq!(plottable().count(), Quantity::of_group(Group::State).count() - 2);
+    }
+
+    #[test]
     fn an_altitude_outside_the_model_is_the_cores_error() {
         let mut plot = ProfilePlot::new(vec![Quantity::Density], UnitSystem::Us, true);
         let error = plot.add("standard", &aerostrata::US1976, 0.0, 2.0e6).unwrap_err();
