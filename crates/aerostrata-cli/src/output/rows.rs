@@ -64,6 +64,18 @@ impl Column {
             text: false,
         }
     }
+
+    /// A column of text named `key` everywhere.
+    pub fn text(key: &'static str) -> Self {
+        Column {
+            key: key.to_owned(),
+            heading: key,
+            unit: "",
+            shown: true,
+            rounding: Rounding::Significant,
+            text: true,
+        }
+    }
 }
 
 /// One value of a row.
@@ -73,6 +85,8 @@ pub enum Cell<'a> {
     Number(Option<f64>),
     /// Text.
     Text(&'a str),
+    /// Yes or no (`true` or `false`).
+    Flag(bool),
 }
 
 impl Cell<'_> {
@@ -85,6 +99,7 @@ impl Cell<'_> {
                 format!("\"{}\"", text.replace('"', "\"\""))
             }
             Cell::Text(text) => text.to_owned(),
+            Cell::Flag(flag) => flag.to_string(),
         }
     }
 
@@ -93,6 +108,7 @@ impl Cell<'_> {
         match *self {
             Cell::Number(value) => value.map_or_else(|| "null".to_owned(), exact),
             Cell::Text(text) => serde_json::Value::from(text).to_string(),
+            Cell::Flag(flag) => flag.to_string(),
         }
     }
 
@@ -101,6 +117,7 @@ impl Cell<'_> {
         match *self {
             Cell::Number(value) => value.map_or_else(|| "-".to_owned(), |v| readable(rounding, v)),
             Cell::Text(text) => text.to_owned(),
+            Cell::Flag(flag) => flag.to_string(),
         }
     }
 }
@@ -306,5 +323,28 @@ mod tests {
         let long = written(Format::Table, TABLE_SIZING_ROWS + 1);
         assert_eq!(long.lines().count(), TABLE_SIZING_ROWS + 3);
         assert!(long.lines().all(|l| l.len() >= 8));
+    }
+
+    #[test]
+    fn text_cells_are_quoted_escaped_and_aligned_left() {
+        let write = |format: Format| {
+            let columns = vec![Column::text("name"), Column::text("note"), Column::text("flag")];
+            let mut writer = RowWriter::new(Vec::new(), format, columns).unwrap();
+            writer.cells(&[Cell::Text("a"), Cell::Text("x, \"y\" | z"), Cell::Flag(true)]).unwrap();
+            writer.cells(&[Cell::Text("long name"), Cell::Text("-"), Cell::Flag(false)]).unwrap();
+            String::from_utf8(writer.finish().unwrap()).unwrap()
+        };
+        assert_eq!(write(Format::Csv), "name,note,flag\na,\"x, \"\"y\"\" | z\",true\nlong name,-,false\n");
+        let json: serde_json::Value = serde_json::from_str(&write(Format::Json)).unwrap();
+        assert_eq!(json[0]["note"], "x, \"y\" | z");
+        assert_eq!(json[1]["flag"], false);
+        assert_eq!(
+            write(Format::Markdown),
+            "| name | note | flag |\n| --- | --- | --- |\n| a | x, \"y\" \\| z | true |\n| long name | - | false |\n"
+        );
+        assert_eq!(
+            write(Format::Table),
+            "name       note        flag\na          x, \"y\" | z  true\nlong name  -           false\n"
+        );
     }
 }
