@@ -492,7 +492,12 @@ fn plot_errors_exit_2_with_one_line() {
         "",
         "--to 1000 m must be above --from 5000 m",
     );
-    fails(2, &["plot", "profile", "--to", "NaN"], "", "--to must be a finite altitude in m, got NaN");
+    fails(
+        2,
+        &["plot", "profile", "--to", "NaN"],
+        "",
+        "--to must be a finite number (geometric altitude in m), got NaN",
+    );
     let sounding = concat!(env!("CARGO_MANIFEST_DIR"), "/../../examples/data/vessaro_key_hot_humid.csv");
     fails(
         2,

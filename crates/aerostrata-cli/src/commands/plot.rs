@@ -19,9 +19,9 @@ use crate::input::progress::When;
 use crate::input::samples::SampleReader;
 use crate::input::sounding;
 use crate::plot::chart::Figure;
-use crate::plot::flight::{flight_figure, FlightTrace};
+use crate::plot::flight::{flight_figure, flight_title, FlightTrace};
 use crate::plot::profile::{ProfilePlot, QuantityParser, Scale, MAX_PANELS};
-use crate::units::UnitSystem;
+use crate::units::{in_words, UnitSystem};
 
 #[derive(Subcommand)]
 pub enum PlotCommand {
@@ -83,9 +83,9 @@ pub struct FlightPlotArgs {
     labels: Vec<String>,
     #[command(flatten)]
     vehicle: VehicleArgs,
-    /// The title.
-    #[arg(long, value_name = "TEXT", default_value = "Dynamic pressure and Mach number")]
-    title: String,
+    /// The title [default: the quantities plotted].
+    #[arg(long, value_name = "TEXT")]
+    title: Option<String>,
     #[command(flatten)]
     out: OutputArgs,
 }
@@ -163,7 +163,8 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
     let unit = length.symbol();
     for (option, value) in [("--from", args.from), ("--to", args.to)] {
         if let Some(v) = value.filter(|v| !v.is_finite()) {
-            return Err(Failure::Input(format!("{option} must be a finite altitude in {unit}, got {v}")));
+            let what = in_words(altitude_quantity(args.geopotential), length);
+            return Err(Failure::Input(format!("{option} must be a finite number ({what}), got {v}")));
         }
     }
     let in_units = |m: f64| tidy(length.from_si(m));
@@ -223,5 +224,6 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         trace.summary = Some(scan.summary());
         traces.push(trace);
     }
-    Ok(flight_figure(&args.title, &traces, units))
+    let title = args.title.clone().unwrap_or_else(flight_title);
+    Ok(flight_figure(&title, &traces, units))
 }

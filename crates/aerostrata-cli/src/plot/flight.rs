@@ -7,8 +7,8 @@ use aerostrata::units::{Unit, KILOPASCAL};
 use aerostrata::Quantity;
 
 use crate::format::tidy_short;
-use crate::plot::axis_label;
 use crate::plot::chart::{Figure, Layout, Marker, Panel, Series};
+use crate::plot::{axis_label, capitalised};
 use crate::units::UnitSystem;
 
 /// At most this many points are kept of a flight for plotting.
@@ -73,6 +73,12 @@ fn pressure_unit(units: UnitSystem) -> &'static Unit {
         UnitSystem::Si => &KILOPASCAL,
         UnitSystem::Us => units.unit(Quantity::DynamicPressure),
     }
+}
+
+/// The flight figure's title when none is given: the two quantities it plots.
+pub fn flight_title() -> String {
+    let (q, mach) = (Quantity::DynamicPressure.info().label, Quantity::Mach.info().label);
+    capitalised(format!("{q} and {mach}"))
 }
 
 /// Dynamic pressure and Mach number against time for one or more flights, on two

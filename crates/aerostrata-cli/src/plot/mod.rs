@@ -8,7 +8,7 @@ pub mod flight;
 pub mod profile;
 
 pub use chart::{Figure, Layout, LegendPosition, Marker, Panel, Series};
-pub use flight::{flight_figure, trace_flight, FlightTrace, FLIGHT_PLOT_POINTS};
+pub use flight::{flight_figure, flight_title, trace_flight, FlightTrace, FLIGHT_PLOT_POINTS};
 
 use aerostrata::units::Unit;
 use aerostrata::Quantity;
@@ -21,4 +21,13 @@ pub fn axis_label(quantity: Quantity, unit: &Unit) -> String {
         "" => label.to_owned(),
         symbol => format!("{label} ({symbol})"),
     }
+}
+
+/// `text` with its first letter capitalised, as a title starts (the catalogue's labels
+/// are lower case but for proper names).
+pub(crate) fn capitalised(mut text: String) -> String {
+    if let Some(first) = text.get_mut(0..1) {
+        first.make_ascii_uppercase();
+    }
+    text
 }

@@ -9,8 +9,8 @@ use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
 use clap::ValueEnum;
 
 use crate::args::model::altitude_quantity;
-use crate::plot::axis_label;
 use crate::plot::chart::{Figure, Layout, LegendPosition, Panel, Series};
+use crate::plot::{axis_label, capitalised};
 use crate::units::UnitSystem;
 
 #[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -137,11 +137,7 @@ impl ProfilePlot {
         }
         let title = title.unwrap_or_else(|| {
             let labels: Vec<&str> = self.quantities.iter().map(|q| q.info().label).collect();
-            let mut title = labels.join(", ");
-            if let Some(first) = title.get_mut(0..1) {
-                first.make_ascii_uppercase();
-            }
-            format!("{title} against altitude")
+            capitalised(format!("{} against altitude", labels.join(", ")))
         });
         let width = 120 + 380 * self.panels.len() as u32;
         Figure { title, layout: Layout::SideBySide, panels: self.panels, size: (width.max(560), 640) }
