@@ -6,6 +6,8 @@
 
 use std::ops::Range;
 
+use aerostrata::quantity::Rounding;
+
 /// The shortest decimal that reads back to `value` exactly; exponent form for very large
 /// or small magnitudes.
 pub fn exact(value: f64) -> String {
@@ -17,23 +19,12 @@ pub fn exact(value: f64) -> String {
     }
 }
 
-/// How a column's values are rounded for people (CSV and JSON are always exact).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum Style {
-    /// A fixed number of decimals.
-    Fixed(usize),
-    /// Six significant digits as `1.22500E+00`, the way printed tables show them.
-    Scientific,
-    /// Six significant digits, plain where that is short.
-    Significant,
-}
-
-/// `value` rounded in `style`.
-pub fn readable(style: Style, value: f64) -> String {
-    match style {
-        Style::Fixed(decimals) => fixed(value, decimals),
-        Style::Scientific => scientific(value),
-        Style::Significant => SIGNIFICANT.write(value),
+/// `value` rounded as the catalogue says for people (CSV and JSON are always exact).
+pub fn readable(rounding: Rounding, value: f64) -> String {
+    match rounding {
+        Rounding::Decimals(decimals) => fixed(value, usize::from(decimals)),
+        Rounding::Scientific => scientific(value),
+        Rounding::Significant => SIGNIFICANT.write(value),
     }
 }
 
@@ -171,7 +162,7 @@ mod tests {
 
     #[test]
     fn each_form_writes_its_text() {
-        let significant: fn(f64) -> String = |v| readable(Style::Significant, v);
+        let significant: fn(f64) -> String = |v| readable(Rounding::Significant, v);
         let four_decimals: fn(f64) -> String = |v| fixed(v, 4);
         let cases: [Case; 26] = [
             // A printed table's six digits and exponent.

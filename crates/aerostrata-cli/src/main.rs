@@ -10,7 +10,7 @@
 use std::io;
 use std::process::ExitCode;
 
-use aerostrata_cli::commands::{airspeed, altitude, completions, eval, flight, man, plot, table};
+use aerostrata_cli::commands::{airspeed, altitude, completions, eval, flight, man, plot, quantities, table};
 use aerostrata_cli::Failure;
 use clap::{CommandFactory, Parser, Subcommand};
 
@@ -67,6 +67,12 @@ enum Command {
     /// flight's q and Mach number against time with the maximum q marked.
     #[command(subcommand)]
     Plot(plot::PlotCommand),
+    /// List the quantities of the core's catalogue: names, symbols, labels, SI and US
+    /// units, and the CSV column of each in either system.
+    #[command(
+        after_help = "Examples:\n  aerostrata quantities\n  aerostrata quantities --format json -o quantities.json"
+    )]
+    Quantities(quantities::QuantitiesArgs),
     /// Print a shell completion script.
     #[command(
         after_help = "Example:\n  aerostrata completions bash > ~/.local/share/bash-completion/completions/aerostrata"
@@ -89,6 +95,7 @@ fn main() -> ExitCode {
         Command::Airspeed(args) => airspeed::run(&args),
         Command::Altitude(args) => altitude::run(&args),
         Command::Plot(command) => plot::run(&command),
+        Command::Quantities(args) => quantities::run(&args),
         Command::Completions(args) => completions::run(&args, Cli::command()),
         Command::Man(args) => man::run(&args, Cli::command()),
     };

@@ -72,7 +72,7 @@ fn offset_and_geopotential_options() {
 
 #[test]
 fn bad_input_exits_2_with_one_line() {
-    fails_with(&["eval"], "0\nabc\n", "line 2: 'abc' is not an altitude");
+    fails_with(&["eval"], "0\nabc\n", "line 2: 'abc' is not a number (geometric altitude in m)");
     fails_with(
         &["eval"],
         "0\n\n1200000\n",

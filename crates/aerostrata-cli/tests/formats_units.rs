@@ -168,7 +168,7 @@ fn flight_round_trips_and_reads_headed_columns() {
         run(&[&["flight", "-", "--summary", "json"], &vehicle_si[..]].concat(), &flight_log(false));
     let (us, summary_us) =
         run(&[&["flight", "-", "--summary", "json"], &vehicle_us[..]].concat(), &flight_log(true));
-    assert!(us.starts_with("time_s,altitude_ft,velocity_ft_s,density_slug_ft3,speed_of_sound_ft_s,mach,dynamic_pressure_psf,reynolds_per_ft,"), "{us}");
+    assert!(us.starts_with("time_s,altitude_ft,velocity_ft_s,density_slug_ft3,pressure_psf,temperature_degF,speed_of_sound_ft_s,mach,dynamic_pressure_psf,reynolds_per_ft,"), "{us}");
     round_trip(&si, &us);
     // A header naming metres is read in metres whatever --units says.
     let (mixed, _) =
@@ -229,7 +229,7 @@ fn airspeed_and_altitude_round_trip() {
         ],
         &us_in,
     );
-    assert!(us.starts_with("pressure_inHg,pressure_altitude_ft,pressure_altitude_geometric_ft,height_above_pad_ft,density_altitude_ft"), "{us}");
+    assert!(us.starts_with("static_pressure_inHg,pressure_altitude_ft,pressure_altitude_geometric_ft,height_above_pad_ft,density_altitude_ft"), "{us}");
     round_trip(&si, &us);
     // Speeds in ft/s on request.
     let fts = stdout_of(&["airspeed", "--tas", "100", "--unit", "ft/s", "--altitude", "0"], "");
@@ -294,7 +294,12 @@ fn output_goes_to_a_file_only_on_success() {
     );
     // A failing run leaves neither a new file nor a half-written one, and keeps the old.
     let other = dir.join("eval.csv");
-    fails(2, &["eval", "-o", other.to_str().unwrap()], "0\n1000\nxyz\n", "line 3: 'xyz' is not an altitude");
+    fails(
+        2,
+        &["eval", "-o", other.to_str().unwrap()],
+        "0\n1000\nxyz\n",
+        "line 3: 'xyz' is not a number (geometric altitude in m)",
+    );
     assert!(!other.exists());
     fails(2, &["eval", "-o", path], "1e9\n", "line 1: geometric altitude");
     assert!(std::fs::read_to_string(&file).unwrap().starts_with("geometric_altitude_m,"));
@@ -487,7 +492,12 @@ fn plot_errors_exit_2_with_one_line() {
         "",
         "--to 1000 m must be above --from 5000 m",
     );
-    fails(2, &["plot", "profile", "--to", "NaN"], "", "--to must be a finite altitude in m, got NaN");
+    fails(
+        2,
+        &["plot", "profile", "--to", "NaN"],
+        "",
+        "--to must be a finite number (geometric altitude in m), got NaN",
+    );
     let sounding = concat!(env!("CARGO_MANIFEST_DIR"), "/../../examples/data/vessaro_key_hot_humid.csv");
     fails(
         2,
@@ -498,7 +508,7 @@ fn plot_errors_exit_2_with_one_line() {
     fails(2, &["plot", "profile", "--label", "a", "--label", "b"], "", "2 labels for 1 models");
     fails(2, &["plot", "profile", "speed"], "", "invalid value 'speed'");
     fails(2, &["plot", "flight", "/no/such/flight.csv"], "", "cannot open /no/such/flight.csv");
-    fails(2, &["plot", "flight", "-"], "0,0,0\n1,x,1\n", "-: line 2: 'x' is not a geometric altitude");
+    fails(2, &["plot", "flight", "-"], "0,0,0\n1,x,1\n", "-: line 2: 'x' is not a number (altitude in m)");
     fails(2, &["plot", "flight", "-"], "# nothing\n", "-: no samples to plot");
     fails(2, &["plot", "flight", "-", "--area", "1"], "", "--area needs --cd or --cd-table");
     let output = aerostrata().args(["plot", "flight"]).output().unwrap();
@@ -520,7 +530,7 @@ fn us_unit_errors_name_feet() {
         "",
         "--from: geometric altitude -20000 ft is outside",
     );
-    fails(2, &["eval", "--units", "us"], "abc\n", "'abc' is not an altitude (a number of feet)");
+    fails(2, &["eval", "--units", "us"], "abc\n", "'abc' is not a number (geometric altitude in ft)");
     fails(
         2,
         &["flight", "-", "--units", "us"],

@@ -4,13 +4,13 @@
 
 use std::path::PathBuf;
 
-use aerostrata::{Altitude, AltitudeRange, Atmosphere, TemperatureOffset, US1976};
+use aerostrata::{Altitude, AltitudeRange, Atmosphere, Quantity, TemperatureOffset, US1976};
 use clap::Args;
 
 use crate::failure::Failure;
 use crate::format::tidy;
 use crate::input::sounding;
-use crate::units::{Quantity, UnitSystem};
+use crate::units::UnitSystem;
 
 #[derive(Args)]
 pub struct ModelArgs {
@@ -44,7 +44,7 @@ impl ModelArgs {
                     "--offset applies to the standard and cannot be combined with --sounding".to_owned(),
                 ));
             }
-            let blend = self.blend.map(|depth| units.to_si(Quantity::Length, depth));
+            let blend = self.blend.map(|depth| units.to_si(Quantity::GeopotentialAltitude, depth));
             return Ok(Box::new(sounding::load(path, blend).map_err(Failure::Input)?));
         }
         Ok(Box::new(offset_model(self.offset, units)?))
@@ -64,7 +64,7 @@ pub fn offset_model(
     offset: f64,
     units: UnitSystem,
 ) -> Result<TemperatureOffset<aerostrata::Us1976>, Failure> {
-    TemperatureOffset::new(US1976, units.to_si(Quantity::TemperatureDifference, offset))
+    TemperatureOffset::new(US1976, units.to_si(Quantity::TemperatureOffset, offset))
         .map_err(|e| Failure::Input(format!("--offset: {e}")))
 }
 
@@ -77,8 +77,17 @@ pub fn band(range: AltitudeRange, geopotential: bool) -> (f64, f64) {
     }
 }
 
-/// An altitude given in `units`, checked against `range`; in US units the message names
-/// the value and the range in feet.
+/// The quantity an altitude is: geopotential or geometric.
+pub fn altitude_quantity(geopotential: bool) -> Quantity {
+    if geopotential {
+        Quantity::GeopotentialAltitude
+    } else {
+        Quantity::GeometricAltitude
+    }
+}
+
+/// An altitude given in `units`, checked against `range`; outside SI the message names
+/// the value and the range in the user's unit.
 ///
 /// # Errors
 /// The core's message for a value that is not finite or outside `range`.
@@ -88,27 +97,28 @@ pub fn altitude_in(
     geopotential: bool,
     range: AltitudeRange,
 ) -> Result<Altitude, String> {
-    let kind = if geopotential { "geopotential" } else { "geometric" };
-    let meters = units.to_si(Quantity::Length, value);
+    let quantity = altitude_quantity(geopotential);
+    let unit = units.unit(quantity);
+    let meters = unit.to_si(value);
     let altitude =
         if geopotential { Altitude::geopotential_m(meters) } else { Altitude::geometric_m(meters) };
-    match units {
-        UnitSystem::Si => altitude.and_then(|a| range.check(a)).map_err(|e| e.to_string()),
-        UnitSystem::Us => {
-            if !value.is_finite() {
-                return Err(format!("{kind} altitude must be a finite number, got {value}"));
-            }
-            let (lo, hi) = band(range, geopotential);
-            let checked = altitude.and_then(|a| range.check(a));
-            checked.map_err(|_| {
-                let feet = |m: f64| tidy(units.from_si(Quantity::Length, m));
-                format!(
-                    "{kind} altitude {} ft is outside the allowed range {} to {} ft",
-                    tidy(value),
-                    feet(lo),
-                    feet(hi)
-                )
-            })
-        }
+    let checked = altitude.and_then(|a| range.check(a));
+    if unit == quantity.si() {
+        return checked.map_err(|e| e.to_string());
     }
+    let label = quantity.info().label;
+    if !value.is_finite() {
+        return Err(format!("{label} must be a finite number, got {value}"));
+    }
+    let (lo, hi) = band(range, geopotential);
+    checked.map_err(|_| {
+        let symbol = unit.symbol();
+        let user = |m: f64| tidy(unit.from_si(m));
+        format!(
+            "{label} {} {symbol} is outside the allowed range {} to {} {symbol}",
+            tidy(value),
+            user(lo),
+            user(hi)
+        )
+    })
 }

@@ -12,8 +12,8 @@ use crate::units::UnitSystem;
 /// Units and destination, common to the commands that write data.
 #[derive(Args)]
 pub struct OutputArgs {
-    /// Units of every input and output: si (m, m/s, K, Pa, kg/m3) or us (ft, ft/s,
-    /// airspeeds in kt, degF, psf, altimetry in inHg, slug/ft3, lbf).
+    /// Units of every input and output: each quantity's SI or US customary unit, as
+    /// `aerostrata quantities` lists them.
     #[arg(long, value_enum, default_value_t = UnitSystem::Si)]
     pub units: UnitSystem,
     /// Write to FILE instead of stdout; a regular file appears only if the command

@@ -4,10 +4,11 @@
 
 use aerostrata::aero::{DragCurve, Interpolation};
 use aerostrata::flight::Vehicle;
+use aerostrata::Quantity;
 use clap::{Args, ValueEnum};
 
 use crate::failure::Failure;
-use crate::units::{Quantity, UnitSystem};
+use crate::units::UnitSystem;
 
 /// The drag model of a vehicle, as the options give it.
 #[derive(Args, Clone)]
@@ -95,11 +96,11 @@ impl VehicleArgs {
         };
         match (drag, self.area) {
             (Some(drag), Some(area)) => {
-                let area = units.to_si(Quantity::Area, area);
+                let area = units.to_si(Quantity::ReferenceArea, area);
                 let vehicle = Vehicle::new(drag, area).map_err(|e| Failure::Input(format!("--area: {e}")))?;
                 Ok(Some(match self.length {
                     Some(length) => vehicle
-                        .with_reference_length(units.to_si(Quantity::Length, length))
+                        .with_reference_length(units.to_si(Quantity::ReferenceLength, length))
                         .map_err(|e| Failure::Input(format!("--length: {e}")))?,
                     None => vehicle,
                 }))

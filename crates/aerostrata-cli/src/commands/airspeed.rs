@@ -2,17 +2,16 @@
 //! from any one of them, at a pressure altitude and outside air temperature, a static
 //! pressure and temperature, or an altitude of the standard (hot or cold) day.
 
-use aerostrata::airspeed::{AirData, Airspeed};
-use aerostrata::constants::units::{FOOT_PER_SECOND_M_S, KNOT_M_S};
-use aerostrata::Atmosphere;
-use clap::{ArgGroup, Args, ValueEnum};
+use aerostrata::airspeed::{AirData, Airspeed, Airspeeds};
+use aerostrata::units::{Dimension, Unit};
+use aerostrata::{Atmosphere, Quantity};
+use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
+use clap::{ArgGroup, Args};
 
 use crate::args::model::{altitude_in, offset_model};
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
-use crate::format::Style;
 use crate::output::rows::{Column, Format, RowWriter};
-use crate::units::{Quantity, UnitSystem};
 
 #[derive(Args)]
 #[command(group(ArgGroup::new("speed").required(true).args(["cas", "eas", "tas", "mach"])))]
@@ -29,9 +28,10 @@ pub struct AirspeedArgs {
     /// Mach number.
     #[arg(long, value_name = "M", allow_negative_numbers = true)]
     mach: Option<f64>,
-    /// Unit of the speeds, in and out [default: m/s, or kt with --units us].
-    #[arg(long, value_enum)]
-    unit: Option<SpeedUnit>,
+    /// Unit of the airspeeds, in and out: any unit of speed of the core [default: m/s,
+    /// or kt with --units us].
+    #[arg(long, value_name = "UNIT", value_parser = SpeedUnitParser)]
+    unit: Option<&'static Unit>,
     /// Pressure altitude, geopotential m or ft (what an altimeter set to 1013.25 hPa
     /// reads); with --oat.
     #[arg(long, value_name = "H", allow_negative_numbers = true, conflicts_with_all = ["pressure", "altitude"])]
@@ -56,51 +56,33 @@ pub struct AirspeedArgs {
     out: OutputArgs,
 }
 
-#[derive(Clone, Copy, ValueEnum)]
-pub enum SpeedUnit {
-    /// Metres per second.
-    #[value(name = "m/s")]
-    Ms,
-    /// Knots (international nautical miles per hour).
-    #[value(name = "kt")]
-    Kt,
-    /// Kilometres per hour.
-    #[value(name = "km/h")]
-    Kmh,
-    /// Feet per second.
-    #[value(name = "ft/s")]
-    Fts,
-}
+/// `--unit`: a unit of speed as the core spells it (`kt`, `km/h`, `knots`), its symbols
+/// offered to the help and the shell completions.
+#[derive(Clone)]
+struct SpeedUnitParser;
 
-impl SpeedUnit {
-    /// One unit in m/s.
-    fn m_s(self) -> f64 {
-        match self {
-            SpeedUnit::Ms => 1.0,
-            SpeedUnit::Kt => KNOT_M_S,
-            SpeedUnit::Kmh => 1.0 / 3.6,
-            SpeedUnit::Fts => FOOT_PER_SECOND_M_S,
+impl TypedValueParser for SpeedUnitParser {
+    type Value = &'static Unit;
+
+    fn parse_ref(
+        &self,
+        command: &clap::Command,
+        argument: Option<&clap::Arg>,
+        value: &std::ffi::OsStr,
+    ) -> Result<Self::Value, clap::Error> {
+        if let Some(unit) = value.to_str().and_then(|text| Unit::find(text, Dimension::Speed)) {
+            return Ok(unit);
+        }
+        // Not a unit of speed: clap's own message, listing the units.
+        let symbols: Vec<&'static str> = Dimension::Speed.units().map(Unit::symbol).collect();
+        match PossibleValuesParser::new(symbols).parse_ref(command, argument, value) {
+            Err(error) => Err(error),
+            Ok(_) => Err(clap::Error::new(clap::error::ErrorKind::InvalidValue).with_cmd(command)),
         }
     }
 
-    /// The suffix of column names.
-    fn suffix(self) -> &'static str {
-        match self {
-            SpeedUnit::Ms => "m_s",
-            SpeedUnit::Kt => "kt",
-            SpeedUnit::Kmh => "km_h",
-            SpeedUnit::Fts => "ft_s",
-        }
-    }
-
-    /// The symbol for a table heading.
-    fn symbol(self) -> &'static str {
-        match self {
-            SpeedUnit::Ms => "m/s",
-            SpeedUnit::Kt => "kt",
-            SpeedUnit::Kmh => "km/h",
-            SpeedUnit::Fts => "ft/s",
-        }
+    fn possible_values(&self) -> Option<Box<dyn Iterator<Item = PossibleValue> + '_>> {
+        Some(Box::new(Dimension::Speed.units().map(|u| PossibleValue::new(u.symbol()))))
     }
 }
 
@@ -125,7 +107,7 @@ fn conditions(args: &AirspeedArgs) -> Result<AirData, Failure> {
     })?;
     let oat = units.to_si(Quantity::Temperature, oat);
     match (args.pressure_altitude, args.pressure) {
-        (Some(h), None) => AirData::from_pressure_altitude(units.to_si(Quantity::Length, h), oat)
+        (Some(h), None) => AirData::from_pressure_altitude(units.to_si(Quantity::PressureAltitude, h), oat)
             .map_err(|e| input("--pressure-altitude/--oat", e)),
         (None, Some(p)) => {
             AirData::new(units.to_si(Quantity::Pressure, p), oat).map_err(|e| input("--pressure/--oat", e))
@@ -141,49 +123,33 @@ fn conditions(args: &AirspeedArgs) -> Result<AirData, Failure> {
 pub fn run(args: &AirspeedArgs) -> Result<(), Failure> {
     let units = args.out.units;
     let air = conditions(args)?;
-    let speed_unit = args.unit.unwrap_or(match units {
-        UnitSystem::Si => SpeedUnit::Ms,
-        UnitSystem::Us => SpeedUnit::Kt,
-    });
-    let unit = speed_unit.m_s();
+    // The airspeeds in --unit, or the catalogue's unit of each.
+    let unit = |q: Quantity| match args.unit {
+        Some(unit) if unit.dimension() == q.si().dimension() => unit,
+        _ => units.unit(q),
+    };
     let (given, option) = match (args.cas, args.eas, args.tas, args.mach) {
-        (Some(v), _, _, _) => (Airspeed::Calibrated(v * unit), "--cas"),
-        (_, Some(v), _, _) => (Airspeed::Equivalent(v * unit), "--eas"),
-        (_, _, Some(v), _) => (Airspeed::True(v * unit), "--tas"),
+        (Some(v), _, _, _) => (Airspeed::Calibrated(unit(Quantity::CalibratedAirspeed).to_si(v)), "--cas"),
+        (_, Some(v), _, _) => (Airspeed::Equivalent(unit(Quantity::EquivalentAirspeed).to_si(v)), "--eas"),
+        (_, _, Some(v), _) => (Airspeed::True(unit(Quantity::TrueAirspeed).to_si(v)), "--tas"),
         (_, _, _, Some(m)) => (Airspeed::Mach(m), "--mach"),
         _ => return Err(Failure::Input("give one of --cas, --eas, --tas or --mach".to_owned())),
     };
     let s = air.airspeeds(given).map_err(|e| Failure::Input(format!("{option}: {e}")))?;
-    let speed = |base: &str, heading: &str| Column {
-        key: format!("{base}_{}", speed_unit.suffix()),
-        heading: heading.to_owned(),
-        unit: speed_unit.symbol().to_owned(),
-        shown: true,
-        style: Style::Significant,
-    };
-    let columns = vec![
-        speed("calibrated_airspeed", "CAS"),
-        speed("equivalent_airspeed", "EAS"),
-        speed("true_airspeed", "TAS"),
-        Column::new(units, "mach", "M", Quantity::Dimensionless, Style::Significant),
-        Column::new(units, "impact_pressure", "qc", Quantity::Pressure, Style::Significant),
-        Column::new(units, "dynamic_pressure", "q", Quantity::Pressure, Style::Significant),
-        Column::new(units, "static_pressure", "p", Quantity::Pressure, Style::Significant),
-        Column::new(units, "density", "rho", Quantity::Density, Style::Scientific),
-        Column::new(units, "speed_of_sound", "a", Quantity::Speed, Style::Significant),
+    // The airspeeds, then the air they were found in (which has no `get` of its own).
+    let air_values = [
+        (Quantity::StaticPressure, air.pressure_pa()),
+        (Quantity::Density, air.density_kg_m3()),
+        (Quantity::SpeedOfSound, air.speed_of_sound_m_s()),
     ];
-    let u = |q: Quantity, v: f64| Some(units.from_si(q, v));
-    let values = [
-        Some(s.calibrated_m_s / unit),
-        Some(s.equivalent_m_s / unit),
-        Some(s.true_m_s / unit),
-        Some(s.mach),
-        u(Quantity::Pressure, s.impact_pressure_pa),
-        u(Quantity::Pressure, s.dynamic_pressure_pa),
-        u(Quantity::Pressure, air.pressure_pa()),
-        u(Quantity::Density, air.density_kg_m3()),
-        u(Quantity::Speed, air.speed_of_sound_m_s()),
-    ];
+    let mut columns: Vec<Column> =
+        Airspeeds::QUANTITIES.iter().map(|q| Column::in_unit(*q, unit(*q))).collect();
+    let mut values: Vec<Option<f64>> =
+        Airspeeds::QUANTITIES.iter().map(|q| s.get(*q).ok().map(|v| unit(*q).from_si(v))).collect();
+    for (q, value) in air_values {
+        columns.push(Column::of(units, q));
+        values.push(Some(units.from_si(q, value)));
+    }
     let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
     writer.row(&values)?;
     writer.finish()?.commit()

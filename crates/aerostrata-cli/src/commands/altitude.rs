@@ -5,15 +5,14 @@
 use aerostrata::inverse::{
     barometric_altitude_m, density_altitude_from, pressure_altitude, BarometricReference,
 };
+use aerostrata::Quantity;
 use clap::{ArgGroup, Args};
 
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
-use crate::format::Style;
-use crate::input::lines::{open_input, DataLines};
+use crate::input::lines::{number, open_input, DataLines};
 use crate::input::progress::When;
 use crate::output::rows::{Column, Format, RowWriter};
-use crate::units::{Quantity, UnitSystem};
 
 #[derive(Args)]
 #[command(group(ArgGroup::new("input").required(true).args(["pressure", "file"])))]
@@ -47,58 +46,53 @@ pub struct AltitudeArgs {
 /// writing fails.
 pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     let units = args.out.units;
-    let pressure_unit = units.unit(Quantity::AltimeterPressure);
-    let length = units.unit(Quantity::Length);
+    let pressure_unit = units.unit(Quantity::StaticPressure);
     let reference = match (args.qnh, args.pad) {
         (Some(setting), _) => Some((
-            "qnh_altitude",
-            "QNH",
+            Quantity::QnhAltitude,
             "--qnh",
-            BarometricReference::Qnh { setting_pa: pressure_unit.to_si(setting) },
+            BarometricReference::Qnh { setting_pa: units.to_si(Quantity::AltimeterSetting, setting) },
         )),
         (_, Some(pressure)) => Some((
-            "height_above_pad",
-            "h pad",
+            Quantity::HeightAbovePad,
             "--pad",
             BarometricReference::Pad { pressure_pa: pressure_unit.to_si(pressure) },
         )),
         _ => None,
     };
     // Check the reference once, up front, so that its error names its option.
-    if let Some((_, _, option, reference)) = reference {
+    if let Some((_, option, reference)) = reference {
         barometric_altitude_m(101_325.0, reference).map_err(|e| Failure::Input(format!("{option}: {e}")))?;
     }
     let temperature = args.temperature.map(|t| units.to_si(Quantity::Temperature, t));
-    let mut columns = vec![
-        Column::new(units, "pressure", "p", Quantity::AltimeterPressure, Style::Significant),
-        Column::new(units, "pressure_altitude", "Hp", Quantity::Length, Style::Fixed(1)),
-        Column::new(units, "pressure_altitude_geometric", "Zp", Quantity::Length, Style::Fixed(1)),
-    ];
-    if let Some((base, heading, _, _)) = reference {
-        columns.push(Column::new(units, base, heading, Quantity::Length, Style::Fixed(1)));
-    }
-    if temperature.is_some() {
-        columns.push(Column::new(units, "density_altitude", "Hd", Quantity::Length, Style::Fixed(1)));
-    }
+    let mut quantities =
+        vec![Quantity::StaticPressure, Quantity::PressureAltitude, Quantity::PressureAltitudeGeometric];
+    quantities.extend(reference.map(|(quantity, _, _)| quantity));
+    quantities.extend(temperature.map(|_| Quantity::DensityAltitude));
+    let columns = quantities.iter().map(|q| Column::of(units, *q)).collect();
     let row = |pressure: f64| -> Result<Vec<Option<f64>>, String> {
         let pa = pressure_unit.to_si(pressure);
-        // In US units the core's message (in Pa) follows the value as the user gave it.
-        let given = |e: aerostrata::Error| match units {
-            UnitSystem::Si => e.to_string(),
-            UnitSystem::Us => format!("{pressure} inHg: {e}"),
+        // Outside SI the core's message (in Pa) follows the value as the user gave it.
+        let given = |e: aerostrata::Error| {
+            if pressure_unit == Quantity::StaticPressure.si() {
+                e.to_string()
+            } else {
+                format!("{pressure} {}: {e}", pressure_unit.symbol())
+            }
         };
         let h = pressure_altitude(pa).map_err(given)?;
+        // The pressure as given: it is already in the column's unit.
         let mut cells = vec![
             Some(pressure),
-            Some(length.from_si(h.meters())),
-            Some(length.from_si(h.to_geometric().meters())),
+            Some(units.from_si(Quantity::PressureAltitude, h.meters())),
+            Some(units.from_si(Quantity::PressureAltitudeGeometric, h.to_geometric().meters())),
         ];
-        if let Some((_, _, _, reference)) = reference {
-            cells.push(Some(length.from_si(barometric_altitude_m(pa, reference).map_err(given)?)));
+        if let Some((quantity, _, reference)) = reference {
+            cells.push(Some(units.from_si(quantity, barometric_altitude_m(pa, reference).map_err(given)?)));
         }
         if let Some(t) = temperature {
             let d = density_altitude_from(pa, t).map_err(|e| format!("--temperature: {e}"))?;
-            cells.push(Some(length.from_si(d.meters())));
+            cells.push(Some(units.from_si(Quantity::DensityAltitude, d.meters())));
         }
         Ok(cells)
     };
@@ -113,13 +107,10 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     if let Some(values) = single {
         writer.row(&values)?;
     } else if let Some(lines) = &mut input {
-        let unit = pressure_unit.symbol;
-        while let Some((number, text)) = lines.next_line()? {
-            let pressure: f64 = text.parse().map_err(|_| {
-                Failure::Input(format!("line {number}: '{text}' is not a pressure (a number of {unit})"))
-            })?;
-            let values = row(pressure).map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
-            writer.row(&values)?;
+        while let Some((line, text)) = lines.next_line()? {
+            let at_line = |m: String| Failure::Input(format!("line {line}: {m}"));
+            let pressure = number(text, Quantity::StaticPressure, pressure_unit).map_err(at_line)?;
+            writer.row(&row(pressure).map_err(at_line)?)?;
         }
     }
     writer.finish()?.commit()

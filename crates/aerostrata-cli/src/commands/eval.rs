@@ -3,13 +3,14 @@
 
 use std::path::PathBuf;
 
+use aerostrata::model::upper::Species;
 use aerostrata::{Altitude, AltitudeRange, Atmosphere, State, US1976};
 use clap::Args;
 
-use crate::args::model::{altitude_in, ModelArgs};
+use crate::args::model::{altitude_in, altitude_quantity, ModelArgs};
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
-use crate::input::lines::{open_input, DataLines};
+use crate::input::lines::{number, open_input, DataLines};
 use crate::input::progress::When;
 use crate::output::rows::{Format, RowWriter};
 use crate::output::state::{state_columns, state_values};
@@ -59,7 +60,7 @@ pub fn run(args: &EvalArgs) -> Result<(), Failure> {
             let state = evaluate_line(atmosphere.as_ref(), range, text, args.model.geopotential, units)
                 .map_err(|m| Failure::Input(format!("line {number}: {m}")))?;
             let species = if args.species { species_at(&state) } else { None };
-            writer.row(&state_values(&state, units, args.species.then_some(species)))?;
+            writer.row(&state_values(&state, units, args.species.then_some(species.as_ref())))?;
         }
         Ok(())
     };
@@ -71,14 +72,11 @@ pub fn run(args: &EvalArgs) -> Result<(), Failure> {
 }
 
 /// The standard's species where it defines them (above 86 km).
-fn species_at(state: &State) -> Option<[f64; 6]> {
+fn species_at(state: &State) -> Option<Species> {
     if state.geometric_altitude_m <= aerostrata::model::upper::BASE_M {
         return None;
     }
-    Altitude::geometric_m(state.geometric_altitude_m)
-        .and_then(|a| US1976.species(a))
-        .ok()
-        .map(|n| n.as_array())
+    Altitude::geometric_m(state.geometric_altitude_m).and_then(|a| US1976.species(a)).ok()
 }
 
 fn evaluate_line(
@@ -88,8 +86,8 @@ fn evaluate_line(
     geopotential: bool,
     units: UnitSystem,
 ) -> Result<State, String> {
-    let unit = if units == UnitSystem::Si { "metres" } else { "feet" };
-    let value: f64 = text.parse().map_err(|_| format!("'{text}' is not an altitude (a number of {unit})"))?;
+    let altitude = altitude_quantity(geopotential);
+    let value = number(text, altitude, units.unit(altitude))?;
     altitude_in(units, value, geopotential, range)
         .and_then(|a| atmosphere.state(a).map_err(|e| e.to_string()))
 }

@@ -8,20 +8,20 @@ use std::io::{self, BufRead, Write};
 use std::path::PathBuf;
 
 use aerostrata::flight::{FlightPoint, FlightScan, FlightSummary};
-use aerostrata::{AltitudeRange, Atmosphere};
+use aerostrata::{AltitudeRange, Atmosphere, Quantity};
 use clap::{Args, ValueEnum};
-use serde_json::{json, Value};
+use serde_json::{json, Map, Value};
 
 use crate::args::model::{altitude_in, offset_model};
 use crate::args::output::OutputArgs;
 use crate::args::vehicle::VehicleArgs;
 use crate::failure::Failure;
-use crate::format::{fixed, Style};
+use crate::format::fixed;
 use crate::input::lines::open_input;
 use crate::input::progress::{Progress, When};
 use crate::input::samples::SampleReader;
 use crate::output::rows::{Column, Format, RowWriter};
-use crate::units::{Quantity, UnitSystem};
+use crate::units::{column, UnitSystem};
 
 #[derive(Args)]
 pub struct FlightArgs {
@@ -57,38 +57,15 @@ pub enum SummaryFormat {
     None,
 }
 
-/// The per-sample columns.
+/// The per-sample columns: every quantity a flight point carries.
 fn columns(units: UnitSystem) -> Vec<Column> {
-    vec![
-        Column::new(units, "time", "t", Quantity::Time, Style::Fixed(3)),
-        Column::new(units, "altitude", "Z", Quantity::Length, Style::Fixed(1)),
-        Column::new(units, "velocity", "V", Quantity::Speed, Style::Fixed(2)),
-        Column::new(units, "density", "rho", Quantity::Density, Style::Scientific),
-        Column::new(units, "speed_of_sound", "a", Quantity::Speed, Style::Fixed(2)),
-        Column::new(units, "mach", "M", Quantity::Dimensionless, Style::Fixed(4)),
-        Column::new(units, "dynamic_pressure", "q", Quantity::Pressure, Style::Significant),
-        Column::new(units, "reynolds", "Re/l", Quantity::PerLength, Style::Scientific),
-        Column::new(units, "reynolds_number", "Re", Quantity::Dimensionless, Style::Scientific),
-        Column::new(units, "drag_coefficient", "Cd", Quantity::Dimensionless, Style::Fixed(4)),
-        Column::new(units, "drag", "D", Quantity::Force, Style::Significant),
-    ]
+    FlightPoint::QUANTITIES.iter().map(|q| Column::of(units, *q)).collect()
 }
 
-fn values(p: &FlightPoint, units: UnitSystem) -> [Option<f64>; 11] {
-    let u = |q: Quantity, v: f64| units.from_si(q, v);
-    [
-        Some(p.time_s),
-        Some(u(Quantity::Length, p.altitude_m)),
-        Some(u(Quantity::Speed, p.velocity_m_s)),
-        Some(u(Quantity::Density, p.density_kg_m3)),
-        p.speed_of_sound_m_s.map(|a| u(Quantity::Speed, a)),
-        p.mach,
-        Some(u(Quantity::Pressure, p.dynamic_pressure_pa)),
-        p.reynolds_per_m.map(|r| u(Quantity::PerLength, r)),
-        p.reynolds_number,
-        p.drag_coefficient,
-        p.drag_n.map(|d| u(Quantity::Force, d)),
-    ]
+/// A sample's values in `units`; an empty cell where the point has none (the drag of a
+/// scan without a vehicle, the Mach number above 86 km).
+fn values(p: &FlightPoint, units: UnitSystem) -> Vec<Option<f64>> {
+    FlightPoint::QUANTITIES.iter().map(|q| p.get(*q).ok().map(|v| units.from_si(*q, v))).collect()
 }
 
 /// Runs `aerostrata flight`.
@@ -134,7 +111,7 @@ fn stream<R: BufRead, A: Atmosphere, W: Write>(
         let line = reader.line_number();
         if units == UnitSystem::Us {
             // Name an altitude out of range in the user's feet.
-            altitude_in(units, units.from_si(Quantity::Length, sample.altitude_m), false, range)
+            altitude_in(units, units.from_si(Quantity::Altitude, sample.altitude_m), false, range)
                 .map_err(|m| Failure::Input(format!("line {line}: {m}")))?;
         }
         let point = scan.push(sample).map_err(|e| Failure::Input(format!("line {line}: {e}")))?;
@@ -143,52 +120,65 @@ fn stream<R: BufRead, A: Atmosphere, W: Write>(
     Ok(())
 }
 
-/// The summary as JSON: the core's own fields in SI; in US units the same structure
-/// with lengths, speeds, pressures and the drag converted and their keys renamed.
+/// The summary as JSON: the core's own fields in SI. In US units the same structure,
+/// each value of a catalogue quantity converted and its key renamed to the quantity's US
+/// column; the `value` of an extreme (`max_drag`) is the quantity its key names.
 fn json_summary(summary: &FlightSummary, units: UnitSystem) -> Value {
     let mut value = serde_json::to_value(summary).unwrap_or(Value::Null);
     if units == UnitSystem::Si {
         return value;
     }
-    fn convert(value: &mut Value, units: UnitSystem, drag: bool) {
-        if let Value::Object(map) = value {
-            let renames = [
-                ("altitude_m", Quantity::Length, "altitude"),
-                ("velocity_m_s", Quantity::Speed, "velocity"),
-                ("dynamic_pressure_pa", Quantity::Pressure, "dynamic_pressure"),
-            ];
-            for (key, quantity, base) in renames {
-                if let Some(v) = map.remove(key) {
-                    let converted = v.as_f64().map_or(Value::Null, |v| json!(units.from_si(quantity, v)));
-                    map.insert(units.unit(quantity).key(base), converted);
-                }
-            }
-            if drag {
-                if let Some(v) = map.remove("value") {
-                    let converted =
-                        v.as_f64().map_or(Value::Null, |v| json!(units.from_si(Quantity::Force, v)));
-                    map.insert(units.unit(Quantity::Force).key("drag"), converted);
-                }
-            }
-        }
-    }
     if let Value::Object(map) = &mut value {
         for (key, item) in map.iter_mut() {
-            convert(item, units, key == "max_drag");
+            if let Value::Object(fields) = item {
+                let extreme = key.strip_prefix("max_").and_then(Quantity::from_name);
+                *fields = convert(std::mem::take(fields), extreme, units);
+            }
         }
         map.insert("units".to_owned(), json!("us"));
     }
     value
 }
 
+/// The quantity whose SI column a field of the core's summary is (`altitude_m`,
+/// `dynamic_pressure_pa`): the core spells its fields in lower case.
+fn si_quantity(key: &str) -> Option<Quantity> {
+    Quantity::ALL.iter().copied().find(|q| key.eq_ignore_ascii_case(&column(*q, q.si())))
+}
+
+/// `fields` (in SI) in `units`, in their order: a field of a quantity under its column in
+/// `units`, an extreme's `value` under its quantity's column when it has a unit.
+fn convert(fields: Map<String, Value>, extreme: Option<Quantity>, units: UnitSystem) -> Map<String, Value> {
+    fields
+        .into_iter()
+        .map(|(key, value)| {
+            let quantity = match extreme {
+                Some(q) if key == "value" && !units.unit(q).symbol().is_empty() => Some(q),
+                _ => si_quantity(&key),
+            };
+            match quantity {
+                Some(q) => {
+                    let converted = value.as_f64().map_or(Value::Null, |v| json!(units.from_si(q, v)));
+                    (units.column(q), converted)
+                }
+                None => (key, value),
+            }
+        })
+        .collect()
+}
+
+/// The summary for a person: the catalogue's symbols, labels and units, with a fixed
+/// number of decimals for each (more than the tables show: the summary is read once).
 fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
-    let length = units.unit(Quantity::Length);
-    let speed = units.unit(Quantity::Speed);
-    let pressure = units.unit(Quantity::Pressure);
-    let force = units.unit(Quantity::Force);
+    let value = |q: Quantity, si: f64, decimals: usize| {
+        format!("{} {}", fixed(units.from_si(q, si), decimals), units.unit(q).symbol())
+    };
+    let [t, q, altitude, velocity, drag] =
+        [Quantity::Time, Quantity::DynamicPressure, Quantity::Altitude, Quantity::Velocity, Quantity::Drag]
+            .map(Quantity::info);
+    let time = |time_s: f64| format!("{} = {}", t.symbol, value(Quantity::Time, time_s, 4));
     let at = |time_s: f64, altitude_m: f64| {
-        let altitude = fixed(length.from_si(altitude_m), 1);
-        format!("at t = {} s, altitude {altitude} {}", fixed(time_s, 4), length.symbol)
+        format!("at {}, {} {}", time(time_s), altitude.label, value(Quantity::Altitude, altitude_m, 1))
     };
     let mut text = format!("samples: {}\n", s.samples);
     text += &match &s.max_dynamic_pressure {
@@ -201,15 +191,15 @@ fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
                 format!("sample {}, not refined", p.sample_index)
             };
             format!(
-                "max q: {} {} {}, velocity {} {}, {mach} ({how})\n",
-                fixed(pressure.from_si(p.dynamic_pressure_pa), 1),
-                pressure.symbol,
+                "max {}: {} {}, {} {}, {mach} ({how})\n",
+                q.symbol,
+                value(Quantity::DynamicPressure, p.dynamic_pressure_pa, 1),
                 at(p.time_s, p.altitude_m),
-                fixed(speed.from_si(p.velocity_m_s), 2),
-                speed.symbol
+                velocity.label,
+                value(Quantity::Velocity, p.velocity_m_s, 2)
             )
         }
-        None => "max q: no samples\n".to_owned(),
+        None => format!("max {}: no samples\n", q.symbol),
     };
     text += &match &s.max_mach {
         Some(m) => format!("max Mach: {} {}\n", fixed(m.value, 4), at(m.time_s, m.altitude_m)),
@@ -218,20 +208,20 @@ fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
     for (name, crossings) in [("up", &s.mach_one_up), ("down", &s.mach_one_down)] {
         text += &match (crossings.first_time_s, crossings.last_time_s) {
             (Some(first), Some(last)) => format!(
-                "Mach 1 {name}: {} crossing(s), first at t = {} s, last at t = {} s\n",
+                "Mach 1 {name}: {} crossing(s), first at {}, last at {}\n",
                 crossings.count,
-                fixed(first, 4),
-                fixed(last, 4)
+                time(first),
+                time(last)
             ),
             _ => format!("Mach 1 {name}: none\n"),
         };
     }
     text += &match &s.max_drag {
         Some(d) => {
-            let drag = fixed(force.from_si(d.value), 2);
-            format!("max drag: {drag} {} {}\n", force.symbol, at(d.time_s, d.altitude_m))
+            let at = at(d.time_s, d.altitude_m);
+            format!("max {}: {} {at}\n", drag.label, value(Quantity::Drag, d.value, 2))
         }
-        None => "max drag: none (give --cd or --cd-table and --area)\n".to_owned(),
+        None => format!("max {}: none (give --cd or --cd-table and --area)\n", drag.label),
     };
     text
 }

@@ -7,4 +7,5 @@ pub mod eval;
 pub mod flight;
 pub mod man;
 pub mod plot;
+pub mod quantities;
 pub mod table;

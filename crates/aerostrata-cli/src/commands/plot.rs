@@ -6,10 +6,10 @@
 use std::io::Write;
 use std::path::{Path, PathBuf};
 
-use aerostrata::{Atmosphere, FlightScan};
+use aerostrata::{Atmosphere, FlightScan, Quantity};
 use clap::{Args, Subcommand};
 
-use crate::args::model::{band, offset_model};
+use crate::args::model::{altitude_quantity, band, offset_model};
 use crate::args::output::OutputArgs;
 use crate::args::vehicle::VehicleArgs;
 use crate::failure::Failure;
@@ -19,9 +19,9 @@ use crate::input::progress::When;
 use crate::input::samples::SampleReader;
 use crate::input::sounding;
 use crate::plot::chart::Figure;
-use crate::plot::flight::{flight_figure, FlightTrace};
-use crate::plot::profile::{PlotQuantity, ProfilePlot, Scale, MAX_PANELS};
-use crate::units::{Quantity, UnitSystem};
+use crate::plot::flight::{flight_figure, flight_title, FlightTrace};
+use crate::plot::profile::{ProfilePlot, QuantityParser, Scale, MAX_PANELS};
+use crate::units::{in_words, UnitSystem};
 
 #[derive(Subcommand)]
 pub enum PlotCommand {
@@ -43,10 +43,10 @@ pub enum PlotCommand {
 
 #[derive(Args)]
 pub struct ProfileArgs {
-    /// Quantities to plot, each on its own panel (at most 4) [default: temperature
-    /// pressure density].
-    #[arg(value_enum)]
-    quantities: Vec<PlotQuantity>,
+    /// Quantities of the state to plot by their catalogue names, each on its own panel
+    /// (at most 4) [default: temperature pressure density].
+    #[arg(value_parser = QuantityParser)]
+    quantities: Vec<Quantity>,
     /// A model, repeatable: `standard`, `offset=DT` (the standard with T + DT at its
     /// pressure; K or degF) or `sounding=FILE` [default: standard].
     #[arg(long = "model", value_name = "MODEL")]
@@ -83,9 +83,9 @@ pub struct FlightPlotArgs {
     labels: Vec<String>,
     #[command(flatten)]
     vehicle: VehicleArgs,
-    /// The title.
-    #[arg(long, value_name = "TEXT", default_value = "Dynamic pressure and Mach number")]
-    title: String,
+    /// The title [default: the quantities plotted].
+    #[arg(long, value_name = "TEXT")]
+    title: Option<String>,
     #[command(flatten)]
     out: OutputArgs,
 }
@@ -121,7 +121,7 @@ fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
         ("offset", Some(value)) => {
             let offset: f64 = value.parse().map_err(|_| bad("the offset is not a number"))?;
             let model = offset_model(offset, units).map_err(|f| f.within(&format!("--model '{spec}'")))?;
-            let unit = units.symbol(Quantity::TemperatureDifference);
+            let unit = units.unit(Quantity::TemperatureOffset).symbol();
             Ok(Model { label: format!("standard {offset:+} {unit}"), atmosphere: Box::new(model) })
         }
         ("sounding", Some(path)) => {
@@ -136,7 +136,7 @@ fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
 fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
     let units = args.out.units;
     let quantities = if args.quantities.is_empty() {
-        vec![PlotQuantity::Temperature, PlotQuantity::Pressure, PlotQuantity::Density]
+        vec![Quantity::Temperature, Quantity::Pressure, Quantity::Density]
     } else {
         args.quantities.clone()
     };
@@ -155,15 +155,16 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
         model.label.clone_from(label);
     }
     let band_of = |m: &Model| band(m.atmosphere.range(), args.geopotential);
-    let length = units.unit(Quantity::Length);
+    let length = units.unit(altitude_quantity(args.geopotential));
     let lowest = models.iter().map(|m| band_of(m).0).fold(f64::INFINITY, f64::min);
     let highest = models.iter().map(|m| band_of(m).1).fold(f64::NEG_INFINITY, f64::max);
     let from = args.from.map_or(lowest.max(0.0), |z| length.to_si(z));
     let to = args.to.map_or(highest.min(86_000.0), |z| length.to_si(z));
-    let unit = length.symbol;
+    let unit = length.symbol();
     for (option, value) in [("--from", args.from), ("--to", args.to)] {
         if let Some(v) = value.filter(|v| !v.is_finite()) {
-            return Err(Failure::Input(format!("{option} must be a finite altitude in {unit}, got {v}")));
+            let what = in_words(altitude_quantity(args.geopotential), length);
+            return Err(Failure::Input(format!("{option} must be a finite number ({what}), got {v}")));
         }
     }
     let in_units = |m: f64| tidy(length.from_si(m));
@@ -223,5 +224,6 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         trace.summary = Some(scan.summary());
         traces.push(trace);
     }
-    Ok(flight_figure(&args.title, &traces, units))
+    let title = args.title.clone().unwrap_or_else(flight_title);
+    Ok(flight_figure(&title, &traces, units))
 }

@@ -3,12 +3,12 @@
 
 use clap::Args;
 
-use crate::args::model::{altitude_in, band, ModelArgs};
+use crate::args::model::{altitude_in, altitude_quantity, band, ModelArgs};
 use crate::args::output::OutputArgs;
 use crate::failure::Failure;
 use crate::output::rows::{Format, RowWriter};
 use crate::output::state::{state_columns, state_values};
-use crate::units::{Quantity, UnitSystem};
+use crate::units::{in_words, UnitSystem};
 
 #[derive(Args)]
 pub struct TableArgs {
@@ -42,18 +42,20 @@ pub fn run(args: &TableArgs) -> Result<(), Failure> {
     let atmosphere = args.model.model(units)?;
     let range = atmosphere.range();
     let (bottom, top) = band(range, args.model.geopotential);
-    let length = units.unit(Quantity::Length);
+    let altitude = altitude_quantity(args.model.geopotential);
+    let length = units.unit(altitude);
     let from = args.from.unwrap_or_else(|| length.from_si(bottom.max(0.0)));
     let to = args.to.unwrap_or_else(|| length.from_si(top.min(86_000.0)));
+    // Round steps in either system: 1 km, or 5000 ft.
     let step = args.step.unwrap_or(match units {
         UnitSystem::Si => 1_000.0,
         UnitSystem::Us => 5_000.0,
     });
-    let unit = length.symbol;
-    let name = if unit == "m" { "metres" } else { "feet" };
+    let unit = length.symbol();
     for (option, value) in [("--from", from), ("--to", to), ("--step", step)] {
         if !value.is_finite() {
-            return Err(Failure::Input(format!("{option} must be a finite number of {name}, got {value}")));
+            let what = in_words(altitude, length);
+            return Err(Failure::Input(format!("{option} must be a finite number ({what}), got {value}")));
         }
     }
     if step <= 0.0 {

@@ -6,8 +6,12 @@ use std::fs::File;
 use std::io::{self, BufRead, BufReader};
 use std::path::Path;
 
+use aerostrata::units::Unit;
+use aerostrata::Quantity;
+
 use crate::failure::Failure;
 use crate::input::progress::{Progress, When};
+use crate::units::in_words;
 
 /// A file, or stdin for `-` or no file, with a progress line when asked.
 ///
@@ -23,6 +27,14 @@ pub fn open_input(path: Option<&Path>, when: When) -> Result<Progress<Box<dyn Bu
             Ok(Progress::new(Box::new(BufReader::with_capacity(1 << 16, file)), size, when))
         }
     }
+}
+
+/// `text` (a cell or a line) read as a number: `quantity` in `unit`.
+///
+/// # Errors
+/// A message naming the text, the quantity and the unit expected.
+pub fn number(text: &str, quantity: Quantity, unit: &Unit) -> Result<f64, String> {
+    text.parse().map_err(|_| format!("'{text}' is not a number ({})", in_words(quantity, unit)))
 }
 
 /// The data lines of a text input, one at a time (any number of lines in bounded memory).

@@ -5,10 +5,12 @@
 use std::io::BufRead;
 
 use aerostrata::flight::Sample;
+use aerostrata::units::Unit;
+use aerostrata::Quantity;
 
 use crate::failure::Failure;
-use crate::input::lines::DataLines;
-use crate::units::{Quantity, Unit, UnitSystem};
+use crate::input::lines::{number, DataLines};
+use crate::units::{column, UnitSystem};
 
 /// Where the samples' values sit in a row, and their units.
 #[derive(Clone, Copy)]
@@ -17,8 +19,8 @@ struct Layout {
     altitude: usize,
     velocity: usize,
     cells: usize,
-    altitude_unit: Unit,
-    velocity_unit: Unit,
+    altitude_unit: &'static Unit,
+    velocity_unit: &'static Unit,
 }
 
 /// Reads samples one line at a time from CSV text.
@@ -68,72 +70,74 @@ impl<R: BufRead> SampleReader<R> {
     }
 }
 
-/// The layout a first line gives, and whether it is a header (it has a cell `time_s`).
+/// The layout a first line gives, and whether it is a header (it has the time's column).
 fn layout_of(text: &str, units: UnitSystem) -> Result<(Layout, bool), String> {
     let cells: Vec<&str> = text.split(',').map(str::trim).collect();
-    if !cells.contains(&"time_s") {
+    let time = cells.iter().position(|c| *c == time_column());
+    if time.is_none() {
         let layout = Layout {
             time: 0,
             altitude: 1,
             velocity: 2,
             cells: 3,
-            altitude_unit: units.unit(Quantity::Length),
-            velocity_unit: units.unit(Quantity::Speed),
+            altitude_unit: units.unit(Quantity::Altitude),
+            velocity_unit: units.unit(Quantity::Velocity),
         };
         return Ok((layout, false));
     }
+    // A header names each column in either system's unit, whatever --units says.
     let find = |quantity: Quantity| {
-        [UnitSystem::Si, UnitSystem::Us].into_iter().find_map(|system| {
-            let unit = system.unit(quantity);
-            let base = if quantity == Quantity::Length { "altitude" } else { "velocity" };
-            cells.iter().position(|c| *c == unit.key(base)).map(|i| (i, unit))
-        })
+        [quantity.si(), quantity.us()]
+            .into_iter()
+            .find_map(|unit| cells.iter().position(|c| *c == column(quantity, unit)).map(|i| (i, unit)))
     };
-    let time = cells.iter().position(|c| *c == "time_s");
-    match (time, find(Quantity::Length), find(Quantity::Speed)) {
-        (Some(time), Some((altitude, altitude_unit)), Some((velocity, velocity_unit))) => Ok((
-            Layout { time, altitude, velocity, cells: cells.len(), altitude_unit, velocity_unit },
-            true,
-        )),
-        _ => Err(format!(
-            "header '{text}' needs the columns time_s, altitude_m or altitude_ft, and velocity_m_s or velocity_ft_s"
-        )),
+    match (time, find(Quantity::Altitude), find(Quantity::Velocity)) {
+        (Some(time), Some((altitude, altitude_unit)), Some((velocity, velocity_unit))) => {
+            Ok((Layout { time, altitude, velocity, cells: cells.len(), altitude_unit, velocity_unit }, true))
+        }
+        _ => {
+            let either = |q: Quantity| format!("{} or {}", column(q, q.si()), column(q, q.us()));
+            Err(format!(
+                "header '{text}' needs the columns {}, {}, and {}",
+                time_column(),
+                either(Quantity::Altitude),
+                either(Quantity::Velocity)
+            ))
+        }
     }
+}
+
+/// The time's column: always in seconds.
+fn time_column() -> String {
+    column(Quantity::Time, Quantity::Time.si())
 }
 
 fn parse_sample(text: &str, layout: Layout) -> Result<Sample, String> {
     let cells: Vec<&str> = text.split(',').map(str::trim).collect();
     if cells.len() != layout.cells {
-        let names = format!(
-            "time_s,altitude_{},velocity_{}",
-            layout.altitude_unit.suffix, layout.velocity_unit.suffix
-        );
+        let names = [
+            time_column(),
+            column(Quantity::Altitude, layout.altitude_unit),
+            column(Quantity::Velocity, layout.velocity_unit),
+        ];
         return Err(if layout.cells == 3 {
-            format!("expected 3 values ({names}), got {} in '{text}'", cells.len())
+            format!("expected 3 values ({}), got {} in '{text}'", names.join(","), cells.len())
         } else {
             format!("expected {} values as in the header, got {} in '{text}'", layout.cells, cells.len())
         });
     }
-    let number = |cell: &str, what: &str| -> Result<f64, String> {
-        cell.parse().map_err(|_| format!("'{cell}' is not a {what}"))
-    };
-    let unit_name = |unit: Unit, metric: &str, us: &str| {
-        if unit.suffix.starts_with('m') {
-            metric.to_owned()
-        } else {
-            us.to_owned()
-        }
-    };
-    let time_s = number(cells[layout.time], "time (a number of seconds)")?;
-    let altitude = number(
-        cells[layout.altitude],
-        &format!("geometric altitude (a number of {})", unit_name(layout.altitude_unit, "metres", "feet")),
-    )?;
-    let velocity =
-        number(cells[layout.velocity], &format!("velocity (a number of {})", layout.velocity_unit.symbol))?;
+    let time = Quantity::Time.si();
     Ok(Sample {
-        time_s,
-        altitude_m: layout.altitude_unit.to_si(altitude),
-        velocity_m_s: layout.velocity_unit.to_si(velocity),
+        time_s: time.to_si(number(cells[layout.time], Quantity::Time, time)?),
+        altitude_m: layout.altitude_unit.to_si(number(
+            cells[layout.altitude],
+            Quantity::Altitude,
+            layout.altitude_unit,
+        )?),
+        velocity_m_s: layout.velocity_unit.to_si(number(
+            cells[layout.velocity],
+            Quantity::Velocity,
+            layout.velocity_unit,
+        )?),
     })
 }

@@ -8,10 +8,13 @@
 
 use std::io::{self, Write};
 
+use aerostrata::quantity::Rounding;
+use aerostrata::units::Unit;
+use aerostrata::Quantity;
 use clap::ValueEnum;
 
-use crate::format::{exact, readable, Style};
-use crate::units::{Quantity, UnitSystem};
+use crate::format::{exact, readable};
+use crate::units::{column, UnitSystem};
 
 /// Output format of a tabular command.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -32,31 +35,90 @@ pub struct Column {
     /// The CSV and JSON name, with its unit (`pressure_Pa`).
     pub key: String,
     /// The short heading of the terminal and Markdown tables (`p`).
-    pub heading: String,
+    pub heading: &'static str,
     /// The unit's symbol for those tables (`Pa`).
-    pub unit: String,
+    pub unit: &'static str,
     /// Shown in the terminal and Markdown tables (CSV and JSON show every column).
     pub shown: bool,
-    /// Rounding for the terminal and Markdown tables.
-    pub style: Style,
+    /// Rounding of numbers for the terminal and Markdown tables.
+    pub rounding: Rounding,
+    /// Holds text (aligned left in the tables) rather than numbers.
+    pub text: bool,
 }
 
 impl Column {
-    /// A column of `quantity` named `base` in `units`.
-    pub fn new(units: UnitSystem, base: &str, heading: &str, quantity: Quantity, style: Style) -> Self {
-        let unit = units.unit(quantity);
+    /// The column of `quantity` in `units`, as the catalogue names, shows and rounds it.
+    pub fn of(units: UnitSystem, quantity: Quantity) -> Self {
+        Column::in_unit(quantity, units.unit(quantity))
+    }
+
+    /// The column of `quantity` in `unit` (a unit the user picked, such as `--unit kt`).
+    pub fn in_unit(quantity: Quantity, unit: &'static Unit) -> Self {
+        let info = quantity.info();
         Column {
-            key: unit.key(base),
-            heading: heading.to_owned(),
-            unit: unit.symbol.to_owned(),
-            shown: true,
-            style,
+            key: column(quantity, unit),
+            heading: info.symbol,
+            unit: unit.symbol(),
+            shown: info.primary,
+            rounding: info.rounding,
+            text: false,
         }
     }
 
-    /// The same column, left out of the terminal and Markdown tables.
-    pub fn hidden(self) -> Self {
-        Column { shown: false, ..self }
+    /// A column of text named `key` everywhere.
+    pub fn text(key: &'static str) -> Self {
+        Column {
+            key: key.to_owned(),
+            heading: key,
+            unit: "",
+            shown: true,
+            rounding: Rounding::Significant,
+            text: true,
+        }
+    }
+}
+
+/// One value of a row.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Cell<'a> {
+    /// A number, or nothing (an empty CSV cell, JSON `null`, `-` in the tables).
+    Number(Option<f64>),
+    /// Text.
+    Text(&'a str),
+    /// Yes or no (`true` or `false`).
+    Flag(bool),
+}
+
+impl Cell<'_> {
+    /// As CSV has it: exact digits; text quoted when it holds a comma, a quote or a line
+    /// break (RFC 4180).
+    fn csv(&self) -> String {
+        match *self {
+            Cell::Number(value) => value.map(exact).unwrap_or_default(),
+            Cell::Text(text) if text.contains([',', '"', '\n', '\r']) => {
+                format!("\"{}\"", text.replace('"', "\"\""))
+            }
+            Cell::Text(text) => text.to_owned(),
+            Cell::Flag(flag) => flag.to_string(),
+        }
+    }
+
+    /// As JSON has it: exact digits or `null`, a string, `true` or `false`.
+    fn json(&self) -> String {
+        match *self {
+            Cell::Number(value) => value.map_or_else(|| "null".to_owned(), exact),
+            Cell::Text(text) => serde_json::Value::from(text).to_string(),
+            Cell::Flag(flag) => flag.to_string(),
+        }
+    }
+
+    /// As the tables show it to people: rounded numbers, `-` for nothing.
+    fn readable(&self, rounding: Rounding) -> String {
+        match *self {
+            Cell::Number(value) => value.map_or_else(|| "-".to_owned(), |v| readable(rounding, v)),
+            Cell::Text(text) => text.to_owned(),
+            Cell::Flag(flag) => flag.to_string(),
+        }
     }
 }
 
@@ -82,7 +144,7 @@ impl<W: Write> RowWriter<W> {
     pub fn new(mut out: W, format: Format, columns: Vec<Column>) -> io::Result<Self> {
         match format {
             Format::Csv => {
-                let keys: Vec<&str> = columns.iter().map(|c| c.key.as_str()).collect();
+                let keys: Vec<String> = columns.iter().map(|c| Cell::Text(&c.key).csv()).collect();
                 writeln!(out, "{}", keys.join(","))?;
             }
             Format::Json => write!(out, "[")?,
@@ -91,30 +153,41 @@ impl<W: Write> RowWriter<W> {
                 let headings: Vec<String> = shown
                     .clone()
                     .map(|c| {
+                        let heading = markdown(c.heading);
                         if c.unit.is_empty() {
-                            c.heading.clone()
+                            heading
                         } else {
-                            format!("{} ({})", c.heading, c.unit)
+                            format!("{heading} ({})", markdown(c.unit))
                         }
                     })
                     .collect();
                 writeln!(out, "| {} |", headings.join(" | "))?;
-                writeln!(out, "|{}", shown.map(|_| " ---: |").collect::<String>())?;
+                let rule: String = shown.map(|c| if c.text { " --- |" } else { " ---: |" }).collect();
+                writeln!(out, "|{rule}")?;
             }
             Format::Table => {}
         }
         Ok(RowWriter { out, format, columns, rows: 0, pending: Vec::new(), widths: None })
     }
 
-    /// One row, a value (or nothing) per column.
+    /// One row of numbers, a value (or nothing) per column.
     ///
     /// # Errors
     /// Writing fails.
     pub fn row(&mut self, values: &[Option<f64>]) -> io::Result<()> {
-        debug_assert_eq!(values.len(), self.columns.len());
+        let cells: Vec<Cell> = values.iter().map(|v| Cell::Number(*v)).collect();
+        self.cells(&cells)
+    }
+
+    /// One row, a cell per column.
+    ///
+    /// # Errors
+    /// Writing fails.
+    pub fn cells(&mut self, cells: &[Cell]) -> io::Result<()> {
+        debug_assert_eq!(cells.len(), self.columns.len());
         match self.format {
             Format::Csv => {
-                let cells: Vec<String> = values.iter().map(|v| v.map(exact).unwrap_or_default()).collect();
+                let cells: Vec<String> = cells.iter().map(Cell::csv).collect();
                 writeln!(self.out, "{}", cells.join(","))?;
             }
             Format::Json => {
@@ -122,20 +195,17 @@ impl<W: Write> RowWriter<W> {
                 let fields: Vec<String> = self
                     .columns
                     .iter()
-                    .zip(values)
-                    .map(|(c, v)| {
-                        let key = serde_json::Value::from(c.key.as_str());
-                        format!("{key}: {}", v.map_or_else(|| "null".to_owned(), exact))
-                    })
+                    .zip(cells)
+                    .map(|(c, v)| format!("{}: {}", Cell::Text(&c.key).json(), v.json()))
                     .collect();
                 write!(self.out, "{separator}{{{}}}", fields.join(", "))?;
             }
             Format::Markdown => {
-                let cells = self.shown_cells(values);
+                let cells: Vec<String> = self.shown_cells(cells).iter().map(|c| markdown(c)).collect();
                 writeln!(self.out, "| {} |", cells.join(" | "))?;
             }
             Format::Table => {
-                let cells = self.shown_cells(values);
+                let cells = self.shown_cells(cells);
                 match &self.widths {
                     Some(_) => self.table_line(&cells)?,
                     None => {
@@ -151,20 +221,29 @@ impl<W: Write> RowWriter<W> {
         Ok(())
     }
 
-    fn shown_cells(&self, values: &[Option<f64>]) -> Vec<String> {
-        self.columns
-            .iter()
-            .zip(values)
-            .filter(|(c, _)| c.shown)
-            .map(|(c, v)| v.map_or_else(|| "-".to_owned(), |v| readable(c.style, v)))
-            .collect()
+    fn shown_cells(&self, cells: &[Cell]) -> Vec<String> {
+        self.columns.iter().zip(cells).filter(|(c, _)| c.shown).map(|(c, v)| v.readable(c.rounding)).collect()
     }
 
+    /// A line of the terminal table: numbers aligned right, text left.
     fn table_line(&mut self, cells: &[String]) -> io::Result<()> {
         let widths = self.widths.as_deref().unwrap_or(&[]);
-        let padded: Vec<String> =
-            cells.iter().zip(widths).map(|(text, width)| format!("{text:>width$}")).collect();
-        writeln!(self.out, "{}", padded.join("  "))
+        let shown = self.columns.iter().filter(|c| c.shown);
+        let padded: Vec<String> = cells
+            .iter()
+            .zip(widths)
+            .zip(shown)
+            .map(
+                |((text, width), c)| {
+                    if c.text {
+                        format!("{text:<width$}")
+                    } else {
+                        format!("{text:>width$}")
+                    }
+                },
+            )
+            .collect();
+        writeln!(self.out, "{}", padded.join("  ").trim_end())
     }
 
     /// Sizes the terminal table's columns from the rows held back and writes them.
@@ -176,17 +255,20 @@ impl<W: Write> RowWriter<W> {
             .map(|(i, c)| {
                 self.pending
                     .iter()
-                    .map(|row| row[i].len())
-                    .chain([c.heading.len(), c.unit.len()])
+                    .map(|row| row[i].chars().count())
+                    .chain([c.heading.chars().count(), c.unit.chars().count()])
                     .max()
                     .unwrap_or(0)
             })
             .collect();
-        let headings: Vec<String> = shown.iter().map(|c| c.heading.clone()).collect();
-        let units: Vec<String> = shown.iter().map(|c| c.unit.clone()).collect();
+        let headings: Vec<String> = shown.iter().map(|c| c.heading.to_owned()).collect();
+        let units: Vec<String> = shown.iter().map(|c| c.unit.to_owned()).collect();
         self.widths = Some(widths);
         self.table_line(&headings)?;
-        self.table_line(&units)?;
+        // Columns that are all text or pure numbers have no unit line.
+        if units.iter().any(|u| !u.is_empty()) {
+            self.table_line(&units)?;
+        }
         for row in std::mem::take(&mut self.pending) {
             self.table_line(&row)?;
         }
@@ -207,14 +289,19 @@ impl<W: Write> RowWriter<W> {
     }
 }
 
+/// `text` in a Markdown table cell: a `|` would end the cell.
+fn markdown(text: &str) -> String {
+    text.replace('|', "\\|")
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
 
     fn written(format: Format, rows: usize) -> String {
         let columns = vec![
-            Column::new(UnitSystem::Si, "x", "x", Quantity::Length, Style::Fixed(1)),
-            Column::new(UnitSystem::Si, "y", "y", Quantity::Dimensionless, Style::Significant).hidden(),
+            Column::of(UnitSystem::Si, Quantity::Altitude),
+            Column { shown: false, ..Column::of(UnitSystem::Si, Quantity::Mach) },
         ];
         let mut writer = RowWriter::new(Vec::new(), format, columns).unwrap();
         for i in 0..rows {
@@ -225,16 +312,39 @@ mod tests {
 
     #[test]
     fn every_format_writes_rows() {
-        assert_eq!(written(Format::Csv, 2), "x_m,y\n0,0.5\n1000,\n");
+        assert_eq!(written(Format::Csv, 2), "altitude_m,mach\n0,0.5\n1000,\n");
         assert_eq!(written(Format::Json, 0), "[]\n");
         let json: serde_json::Value = serde_json::from_str(&written(Format::Json, 2)).unwrap();
-        assert_eq!(json[1]["x_m"], 1000.0);
-        assert!(json[1]["y"].is_null());
-        assert_eq!(written(Format::Markdown, 1), "| x (m) |\n| ---: |\n| 0.0 |\n");
-        assert_eq!(written(Format::Table, 2), "     x\n     m\n   0.0\n1000.0\n");
+        assert_eq!(json[1]["altitude_m"], 1000.0);
+        assert!(json[1]["mach"].is_null());
+        assert_eq!(written(Format::Markdown, 1), "| Z (m) |\n| ---: |\n| 0.0 |\n");
+        assert_eq!(written(Format::Table, 2), "     Z\n     m\n   0.0\n1000.0\n");
         // Past the sizing rows the widths stay; a wider value pushes its line out.
         let long = written(Format::Table, TABLE_SIZING_ROWS + 1);
         assert_eq!(long.lines().count(), TABLE_SIZING_ROWS + 3);
         assert!(long.lines().all(|l| l.len() >= 8));
+    }
+
+    #[test]
+    fn text_cells_are_quoted_escaped_and_aligned_left() {
+        let write = |format: Format| {
+            let columns = vec![Column::text("name"), Column::text("note"), Column::text("flag")];
+            let mut writer = RowWriter::new(Vec::new(), format, columns).unwrap();
+            writer.cells(&[Cell::Text("a"), Cell::Text("x, \"y\" | z"), Cell::Flag(true)]).unwrap();
+            writer.cells(&[Cell::Text("long name"), Cell::Text("-"), Cell::Flag(false)]).unwrap();
+            String::from_utf8(writer.finish().unwrap()).unwrap()
+        };
+        assert_eq!(write(Format::Csv), "name,note,flag\na,\"x, \"\"y\"\" | z\",true\nlong name,-,false\n");
+        let json: serde_json::Value = serde_json::from_str(&write(Format::Json)).unwrap();
+        assert_eq!(json[0]["note"], "x, \"y\" | z");
+        assert_eq!(json[1]["flag"], false);
+        assert_eq!(
+            write(Format::Markdown),
+            "| name | note | flag |\n| --- | --- | --- |\n| a | x, \"y\" \\| z | true |\n| long name | - | false |\n"
+        );
+        assert_eq!(
+            write(Format::Table),
+            "name       note        flag\na          x, \"y\" | z  true\nlong name  -           false\n"
+        );
     }
 }

@@ -3,10 +3,13 @@
 //! scan's exact summary) marked.
 
 use aerostrata::flight::{FlightSummary, Sample};
+use aerostrata::units::{Unit, KILOPASCAL};
+use aerostrata::Quantity;
 
 use crate::format::tidy_short;
 use crate::plot::chart::{Figure, Layout, Marker, Panel, Series};
-use crate::units::{Quantity, UnitSystem};
+use crate::plot::{axis_label, capitalised};
+use crate::units::UnitSystem;
 
 /// At most this many points are kept of a flight for plotting.
 pub const FLIGHT_PLOT_POINTS: usize = 1024;
@@ -63,59 +66,70 @@ impl FlightTrace {
     }
 }
 
-/// Dynamic pressure on plots: kPa in SI (readable ticks), psf in US units.
-fn plot_pressure(units: UnitSystem, pa: f64) -> f64 {
+/// The unit of dynamic pressure on plots: kPa in SI (readable ticks), the catalogue's
+/// unit otherwise.
+fn pressure_unit(units: UnitSystem) -> &'static Unit {
     match units {
-        UnitSystem::Si => pa / 1000.0,
-        UnitSystem::Us => units.from_si(Quantity::Pressure, pa),
+        UnitSystem::Si => &KILOPASCAL,
+        UnitSystem::Us => units.unit(Quantity::DynamicPressure),
     }
 }
 
-fn plot_pressure_unit(units: UnitSystem) -> &'static str {
-    match units {
-        UnitSystem::Si => "kPa",
-        UnitSystem::Us => units.symbol(Quantity::Pressure),
-    }
+/// The flight figure's title when none is given: the two quantities it plots.
+pub fn flight_title() -> String {
+    let (q, mach) = (Quantity::DynamicPressure.info().label, Quantity::Mach.info().label);
+    capitalised(format!("{q} and {mach}"))
 }
 
 /// Dynamic pressure and Mach number against time for one or more flights, on two
 /// stacked panels, each flight's maximum q marked on both.
 pub fn flight_figure(title: &str, traces: &[FlightTrace], units: UnitSystem) -> Figure {
-    let q_unit = plot_pressure_unit(units);
+    let (q, t) = (Quantity::DynamicPressure.info(), Quantity::Time.info());
+    let q_unit = pressure_unit(units);
+    let t_unit = units.unit(Quantity::Time);
     let against_time = |y_label: String| Panel {
-        x_label: "time (s)".to_owned(),
+        x_label: axis_label(Quantity::Time, t_unit),
         y_label,
         y_from_zero: true,
         ..Panel::default()
     };
-    let mut q = against_time(format!("dynamic pressure q ({q_unit})"));
-    let mut mach = against_time("Mach number".to_owned());
+    // q's symbol too: it names the maximum marked on the panel.
+    let mut q_panel = against_time(format!("{} {} ({})", q.label, q.symbol, q_unit.symbol()));
+    let mut mach = against_time(axis_label(Quantity::Mach, units.unit(Quantity::Mach)));
     for (index, trace) in traces.iter().enumerate() {
         let line = |y: &dyn Fn(&(f64, f64, f64)) -> f64| Series {
             label: trace.label.clone(),
-            points: trace.points.iter().map(|p| (p.0, y(p))).collect(),
+            points: trace.points.iter().map(|p| (t_unit.from_si(p.0), y(p))).collect(),
             dashed: false,
             color: index,
         };
-        q.series.push(line(&|p| plot_pressure(units, p.1)));
+        q_panel.series.push(line(&|p| q_unit.from_si(p.1)));
         mach.series.push(line(&|p| p.2));
         if let Some(peak) = trace.summary.as_ref().and_then(|s| s.max_dynamic_pressure) {
-            let value = plot_pressure(units, peak.dynamic_pressure_pa);
-            q.markers.push(Marker {
-                at: (peak.time_s, value),
-                text: format!("max q {} {q_unit} at t = {} s", tidy_short(value), tidy_short(peak.time_s)),
+            let (time, value) = (t_unit.from_si(peak.time_s), q_unit.from_si(peak.dynamic_pressure_pa));
+            q_panel.markers.push(Marker {
+                at: (time, value),
+                text: format!(
+                    "max {} {} {} at {} = {} {}",
+                    q.symbol,
+                    tidy_short(value),
+                    q_unit.symbol(),
+                    t.symbol,
+                    tidy_short(time),
+                    t_unit.symbol()
+                ),
                 color: index,
             });
             if let Some(m) = peak.mach {
                 mach.markers.push(Marker {
-                    at: (peak.time_s, m),
-                    text: format!("Mach {} at max q", tidy_short(m)),
+                    at: (time, m),
+                    text: format!("Mach {} at max {}", tidy_short(m), q.symbol),
                     color: index,
                 });
             }
         }
     }
-    Figure { title: title.to_owned(), layout: Layout::Stacked, panels: vec![q, mach], size: (900, 720) }
+    Figure { title: title.to_owned(), layout: Layout::Stacked, panels: vec![q_panel, mach], size: (900, 720) }
 }
 
 /// A convenience for callers that hold whole samples: the trace of `samples` as the

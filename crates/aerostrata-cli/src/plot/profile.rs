@@ -2,12 +2,16 @@
 //! side, each model a line of evenly spaced evaluations on every panel, on a log axis
 //! where a quantity spans decades.
 
-use aerostrata::{Altitude, Atmosphere};
+use aerostrata::quantity::Group;
+use aerostrata::units::{Unit, KILOMETRE};
+use aerostrata::{Altitude, Atmosphere, Quantity};
+use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
 use clap::ValueEnum;
 
-use crate::output::state::state_field;
+use crate::args::model::altitude_quantity;
 use crate::plot::chart::{Figure, Layout, LegendPosition, Panel, Series};
-use crate::units::{Quantity, UnitSystem};
+use crate::plot::{axis_label, capitalised};
+use crate::units::UnitSystem;
 
 #[derive(Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum Scale {
@@ -19,39 +23,41 @@ pub enum Scale {
     Log,
 }
 
-/// The state quantities that can be plotted.
-#[derive(Clone, Copy, PartialEq, Eq, Debug, ValueEnum)]
-pub enum PlotQuantity {
-    Temperature,
-    MolecularTemperature,
-    Pressure,
-    Density,
-    SpeedOfSound,
-    DynamicViscosity,
-    KinematicViscosity,
-    ThermalConductivity,
-    Gravity,
-    PressureScaleHeight,
-    NumberDensity,
-    MeanParticleSpeed,
-    MeanFreePath,
-    CollisionFrequency,
-    MeanMolarMass,
-    TemperatureRatio,
-    PressureRatio,
-    DensityRatio,
+/// The quantities a profile can plot: the state's, but for the altitudes it is plotted
+/// against.
+pub fn plottable() -> impl Iterator<Item = Quantity> {
+    Quantity::of_group(Group::State)
+        .filter(|q| !matches!(q, Quantity::GeometricAltitude | Quantity::GeopotentialAltitude))
 }
 
-impl PlotQuantity {
-    /// Its index in `State::fields`.
-    fn field(self) -> usize {
-        self as usize + 2
+/// A plottable quantity by its catalogue name (`speed_of_sound`; `speed-of-sound` too),
+/// the names offered to the help and the shell completions.
+#[derive(Clone)]
+pub struct QuantityParser;
+
+impl TypedValueParser for QuantityParser {
+    type Value = Quantity;
+
+    fn parse_ref(
+        &self,
+        command: &clap::Command,
+        argument: Option<&clap::Arg>,
+        value: &std::ffi::OsStr,
+    ) -> Result<Quantity, clap::Error> {
+        let name = value.to_str().map(|text| text.replace('-', "_"));
+        if let Some(quantity) = plottable().find(|q| Some(q.name()) == name.as_deref()) {
+            return Ok(quantity);
+        }
+        // Not one of them: clap's own message, listing them.
+        let names: Vec<&'static str> = plottable().map(Quantity::name).collect();
+        match PossibleValuesParser::new(names).parse_ref(command, argument, value) {
+            Err(error) => Err(error),
+            Ok(_) => Err(clap::Error::new(clap::error::ErrorKind::InvalidValue).with_cmd(command)),
+        }
     }
 
-    /// Its name in words (`speed of sound`) and the quantity of its unit.
-    fn name(self) -> (String, Quantity) {
-        let (base, quantity) = state_field(self.field());
-        (base.replace('_', " "), quantity)
+    fn possible_values(&self) -> Option<Box<dyn Iterator<Item = PossibleValue> + '_>> {
+        Some(Box::new(plottable().map(|q| PossibleValue::new(q.name()))))
     }
 }
 
@@ -62,7 +68,7 @@ const PROFILE_POINTS: usize = 300;
 
 /// A profile figure being drawn, one model's line at a time.
 pub struct ProfilePlot {
-    quantities: Vec<PlotQuantity>,
+    quantities: Vec<Quantity>,
     units: UnitSystem,
     geopotential: bool,
     panels: Vec<Panel>,
@@ -71,21 +77,16 @@ pub struct ProfilePlot {
 
 impl ProfilePlot {
     /// Empty panels for `quantities` in `units`, against geopotential or geometric altitude.
-    pub fn new(quantities: Vec<PlotQuantity>, units: UnitSystem, geopotential: bool) -> Self {
-        let kind = if geopotential { "geopotential" } else { "geometric" };
-        let altitude_unit = altitude_scale(units).1;
+    pub fn new(quantities: Vec<Quantity>, units: UnitSystem, geopotential: bool) -> Self {
+        let altitude = altitude_quantity(geopotential);
         let panels = quantities
             .iter()
-            .map(|q| {
-                let (name, quantity) = q.name();
-                let symbol = units.symbol(quantity);
-                Panel {
-                    x_label: if symbol.is_empty() { name } else { format!("{name} ({symbol})") },
-                    y_label: format!("{kind} altitude ({altitude_unit})"),
-                    // Low and to the left is where profiles of the air leave room.
-                    legend: LegendPosition::LowerLeft,
-                    ..Panel::default()
-                }
+            .map(|q| Panel {
+                x_label: axis_label(*q, units.unit(*q)),
+                y_label: axis_label(altitude, altitude_unit(units, altitude)),
+                // Low and to the left is where profiles of the air leave room.
+                legend: LegendPosition::LowerLeft,
+                ..Panel::default()
             })
             .collect();
         ProfilePlot { quantities, units, geopotential, panels, lines: 0 }
@@ -103,18 +104,17 @@ impl ProfilePlot {
         from_m: f64,
         to_m: f64,
     ) -> Result<(), aerostrata::Error> {
-        let altitude_scale = altitude_scale(self.units).0;
+        let altitude_unit = altitude_unit(self.units, altitude_quantity(self.geopotential));
         let mut lines = vec![Vec::with_capacity(PROFILE_POINTS + 1); self.quantities.len()];
         for i in 0..=PROFILE_POINTS {
             let z = (from_m + (to_m - from_m) * i as f64 / PROFILE_POINTS as f64).min(to_m);
             let altitude =
                 if self.geopotential { Altitude::geopotential_m(z) } else { Altitude::geometric_m(z) };
             let state = altitude.and_then(|a| atmosphere.state(a))?;
-            let fields = state.fields();
             for (line, q) in lines.iter_mut().zip(&self.quantities) {
-                let (_, quantity) = state_field(q.field());
-                let value = fields[q.field()].1.map_or(f64::NAN, |v| self.units.from_si(quantity, v));
-                line.push((value, z * altitude_scale));
+                // A gap in the line where the model leaves the quantity undefined.
+                let value = state.get(*q).map_or(f64::NAN, |v| self.units.from_si(*q, v));
+                line.push((value, altitude_unit.from_si(z)));
             }
         }
         for (panel_index, (panel, points)) in self.panels.iter_mut().zip(lines).enumerate() {
@@ -136,23 +136,20 @@ impl ProfilePlot {
             };
         }
         let title = title.unwrap_or_else(|| {
-            let names: Vec<String> = self.quantities.iter().map(|q| q.name().0).collect();
-            let mut title = names.join(", ");
-            if let Some(first) = title.get_mut(0..1) {
-                first.make_ascii_uppercase();
-            }
-            format!("{title} against altitude")
+            let labels: Vec<&str> = self.quantities.iter().map(|q| q.info().label).collect();
+            capitalised(format!("{} against altitude", labels.join(", ")))
         });
         let width = 120 + 380 * self.panels.len() as u32;
         Figure { title, layout: Layout::SideBySide, panels: self.panels, size: (width.max(560), 640) }
     }
 }
 
-/// Altitudes on the plot: km in SI, ft in US units (the factor from m, and the unit).
-fn altitude_scale(units: UnitSystem) -> (f64, &'static str) {
+/// The unit of the altitude axis: km in SI (readable ticks up to 1000 km), the
+/// catalogue's unit otherwise.
+fn altitude_unit(units: UnitSystem, altitude: Quantity) -> &'static Unit {
     match units {
-        UnitSystem::Si => (1e-3, "km"),
-        UnitSystem::Us => (1.0 / aerostrata::constants::units::FOOT_M, "ft"),
+        UnitSystem::Si => &KILOMETRE,
+        UnitSystem::Us => units.unit(altitude),
     }
 }
 
@@ -176,7 +173,7 @@ mod tests {
 
     #[test]
     fn one_legend_and_a_log_axis_where_a_quantity_spans_decades() {
-        let quantities = vec![PlotQuantity::Temperature, PlotQuantity::Pressure];
+        let quantities = vec![Quantity::Temperature, Quantity::Pressure];
         let mut plot = ProfilePlot::new(quantities, UnitSystem::Si, false);
         plot.add("standard", &aerostrata::US1976, 0.0, 50_000.0).unwrap();
         let figure = plot.figure(Scale::Auto, None);
@@ -194,8 +191,19 @@ mod tests {
     }
 
     #[test]
+    fn quantities_are_read_by_their_catalogue_names() {
+        let command = clap::Command::new("plot");
+        let parse = |text: &str| QuantityParser.parse_ref(&command, None, std::ffi::OsStr::new(text));
+        assert_eq!(parse("speed_of_sound").unwrap(), Quantity::SpeedOfSound);
+        assert_eq!(parse("mean-free-path").unwrap(), Quantity::MeanFreePath);
+        assert!(parse("geometric_altitude").is_err(), "the altitudes are the vertical axis");
+        assert!(parse("speed").is_err());
+        assert_eq!(plottable().count(), Quantity::of_group(Group::State).count() - 2);
+    }
+
+    #[test]
     fn an_altitude_outside_the_model_is_the_cores_error() {
-        let mut plot = ProfilePlot::new(vec![PlotQuantity::Density], UnitSystem::Us, true);
+        let mut plot = ProfilePlot::new(vec![Quantity::Density], UnitSystem::Us, true);
         let error = plot.add("standard", &aerostrata::US1976, 0.0, 2.0e6).unwrap_err();
         assert!(error.to_string().contains("outside the allowed range"), "{error}");
     }
