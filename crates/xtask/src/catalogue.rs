@@ -190,3 +190,25 @@ pub fn check(root: &Path, package_dir: &Path) -> Result<String, String> {
         core.len()
     ))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_door_that_lags_is_named_with_the_first_difference() {
+        let core = core_entries();
+        assert!(compare("a door", &core, &core).is_ok());
+        let mut renamed = core.clone();
+        renamed[2].us_unit = "degR".to_owned();
+        let message = compare("a door", &core, &renamed).unwrap_err();
+        assert!(message.starts_with("a door differs from the core at id 2"), "{message}");
+        let short = &core[..core.len() - 1];
+        assert!(compare("a door", &core, short).unwrap_err().contains("lists 50 quantities, the core 51"));
+        let text = r#"[{"id": 0, "name": "geometric_altitude", "siUnit": "m", "usUnit": "ft",
+            "siColumn": "geometric_altitude_m", "usColumn": "geometric_altitude_ft"}]"#;
+        let keys = ["id", "name", "siUnit", "usUnit", "siColumn", "usColumn"];
+        assert_eq!(json_entries("js", text, keys).unwrap()[0], core[0]);
+        assert!(json_entries("js", "[{}]", keys).unwrap_err().contains("no \"id\""));
+    }
+}

@@ -80,10 +80,8 @@ fn main() -> ExitCode {
         }),
         Some("browser-test") => wasm::browser(&root),
         Some("wasm-bench") => wasm::bench::run(&root),
-        Some("catalogue") => {
-            catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg").join("node"))
-                .map(|line| eprintln!("{line}"))
-        }
+        Some("catalogue") => catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg"))
+            .map(|line| eprintln!("{line}")),
         _ => Err(USAGE.to_owned()),
     };
     match result {

@@ -103,7 +103,7 @@ pub fn run(root: &Path) -> Result<(), String> {
             );
             step(
                 "quantity catalogue: the same ids, names, units and columns in every door (cargo xtask catalogue)",
-                crate::catalogue::check(root, &package.dir.join("node")).map(|line| eprintln!("  {line}")),
+                crate::catalogue::check(root, &package.dir).map(|line| eprintln!("  {line}")),
             );
         }
         Err(message) => step("wasm package build (cargo xtask wasm)", Err(message)),
