@@ -4,6 +4,10 @@
 use super::point::{bad_sample, compute, FlightPoint, Sample, Vehicle};
 use super::summary::{extreme, refine, Crossings, Extreme, FlightSummary, Kept, Peak};
 use crate::aero::CdSegment;
+#[cfg(doc)]
+use super::MAX_TIME_S;
+#[cfg(doc)]
+use crate::error::Error;
 use crate::error::Result;
 use crate::model::Atmosphere;
 
