@@ -10,10 +10,12 @@
 
 mod factors;
 mod parse;
+mod read;
 mod table;
 
 pub use factors::*;
 pub use parse::{parse, shorten, Reading, UnitError, UnitList};
+pub use read::{read, Part, Plausible, ReadError, Tidy};
 pub use table::*;
 
 /// What a unit measures. Two units convert into each other only within one dimension.
