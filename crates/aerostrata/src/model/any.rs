@@ -10,6 +10,7 @@ use super::isothermal::Isothermal;
 use super::layered::{Layer, Layered};
 use super::offset::TemperatureOffset;
 use super::sounding::{SoundingLevel, Tabulated};
+use super::spec::ModelSpec;
 use super::standard::{Us1976, US1976};
 use crate::altitude::{Altitude, AltitudeRange};
 use crate::error::Result;
@@ -45,6 +46,28 @@ impl AnyModel {
     pub fn standard(offset_k: f64) -> Result<Self> {
         let offset = TemperatureOffset::new(US1976, offset_k)?;
         Ok(if offset_k == 0.0 { Self::Us1976 } else { Self::Standard(offset) })
+    }
+}
+
+impl AnyModel {
+    /// The model a spec names, for the specs that need no file (`standard`, `offset`,
+    /// `isothermal`, `exponential`); `None` for `sounding` and `layers`, whose files the
+    /// door reads.
+    ///
+    /// # Errors
+    /// The model's constructor's, for parameters it refuses.
+    pub fn from_spec(spec: &ModelSpec<'_>) -> Option<Result<Self>> {
+        Some(match *spec {
+            ModelSpec::Standard => Ok(Self::Us1976),
+            ModelSpec::Offset { offset_k } => Self::standard(offset_k),
+            ModelSpec::Isothermal { temperature_k, pressure_pa } => {
+                Isothermal::new(temperature_k, pressure_pa).map(Self::Isothermal)
+            }
+            ModelSpec::Exponential { density_kg_m3, scale_height_m, temperature_k } => {
+                Exponential::new(density_kg_m3, scale_height_m, temperature_k).map(Self::Exponential)
+            }
+            _ => return None,
+        })
     }
 }
 

@@ -11,6 +11,7 @@ mod isothermal;
 mod layered;
 mod offset;
 mod sounding;
+pub mod spec;
 mod standard;
 #[cfg(feature = "upper")]
 pub mod upper;
@@ -22,6 +23,7 @@ pub use exponential::Exponential;
 pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
 pub use offset::TemperatureOffset;
+pub use spec::{ModelSpec, SpecError};
 pub use standard::{Us1976, US1976};
 // `AltitudeKind` lives in `crate::altitude`; `aerostrata::model::AltitudeKind` stays a
 // public path.
