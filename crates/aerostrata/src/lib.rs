@@ -58,7 +58,8 @@ pub use gas::Air;
 pub use model::AnyModel;
 pub use model::{AltitudeKind, MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated};
 pub use model::{
-    Atmosphere, Exponential, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset, Us1976, US1976,
+    Atmosphere, Exponential, HydrostaticOffset, Isothermal, Layer, LayerSpec, Layered, TemperatureOffset,
+    Us1976, US1976,
 };
 pub use quantity::Quantity;
 pub use state::State;

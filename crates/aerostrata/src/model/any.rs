@@ -6,6 +6,7 @@ use alloc::vec::Vec;
 
 use super::atmosphere::Atmosphere;
 use super::exponential::Exponential;
+use super::hydrostatic_offset::HydrostaticOffset;
 use super::isothermal::Isothermal;
 use super::layered::{Layer, Layered};
 use super::offset::TemperatureOffset;
@@ -24,6 +25,8 @@ pub enum AnyModel {
     Us1976,
     /// The 1976 standard with a temperature offset.
     Standard(TemperatureOffset<Us1976>),
+    /// The 1976 standard with a temperature offset, in hydrostatic balance.
+    HydrostaticOffset(HydrostaticOffset),
     /// An exponential density profile.
     Exponential(Exponential),
     /// An isothermal atmosphere.
@@ -51,7 +54,7 @@ impl AnyModel {
 
 impl AnyModel {
     /// The model a spec names, for the specs that need no file (`standard`, `offset`,
-    /// `isothermal`, `exponential`); `None` for `sounding` and `layers`, whose files the
+    /// `hydrostatic-offset`, `isothermal`, `exponential`); `None` for `sounding` and `layers`, whose files the
     /// door reads.
     ///
     /// # Errors
@@ -60,6 +63,9 @@ impl AnyModel {
         Some(match *spec {
             ModelSpec::Standard => Ok(Self::Us1976),
             ModelSpec::Offset { offset_k } => Self::standard(offset_k),
+            ModelSpec::HydrostaticOffset { offset_k, sea_level_pressure_pa } => {
+                HydrostaticOffset::new(offset_k, sea_level_pressure_pa).map(Self::HydrostaticOffset)
+            }
             ModelSpec::Isothermal { temperature_k, pressure_pa } => {
                 Isothermal::new(temperature_k, pressure_pa).map(Self::Isothermal)
             }
@@ -76,6 +82,7 @@ impl Atmosphere for AnyModel {
         match self {
             Self::Us1976 => US1976.range(),
             Self::Standard(m) => m.range(),
+            Self::HydrostaticOffset(m) => m.range(),
             Self::Exponential(m) => m.range(),
             Self::Isothermal(m) => m.range(),
             Self::Layers(m) => m.range(),
@@ -87,6 +94,7 @@ impl Atmosphere for AnyModel {
         match self {
             Self::Us1976 => US1976.air(altitude),
             Self::Standard(m) => m.air(altitude),
+            Self::HydrostaticOffset(m) => m.air(altitude),
             Self::Exponential(m) => m.air(altitude),
             Self::Isothermal(m) => m.air(altitude),
             Self::Layers(m) => m.air(altitude),

@@ -7,6 +7,7 @@
 mod any;
 mod atmosphere;
 mod exponential;
+mod hydrostatic_offset;
 mod isothermal;
 mod layered;
 mod offset;
@@ -20,6 +21,7 @@ pub mod upper;
 pub use any::AnyModel;
 pub use atmosphere::Atmosphere;
 pub use exponential::Exponential;
+pub use hydrostatic_offset::HydrostaticOffset;
 pub use isothermal::Isothermal;
 pub use layered::{Layer, LayerSpec, Layered};
 pub use offset::TemperatureOffset;

@@ -10,8 +10,8 @@ use core::fmt;
 use crate::units::{self, Plausible, ReadError, Unit};
 
 /// The grammar, for help texts and messages.
-pub const GRAMMAR: &str = "standard | offset=DT | isothermal=T[,p0=P] | exponential=RHO0,SCALE_HEIGHT[,T] \
-                           | sounding=FILE[,blend=DH] | layers=FILE";
+pub const GRAMMAR: &str = "standard | offset=DT | hydrostatic-offset=DT[,p0=P] | isothermal=T[,p0=P] \
+                           | exponential=RHO0,SCALE_HEIGHT[,T] | sounding=FILE[,blend=DH] | layers=FILE";
 
 /// A model as a spec names it.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -24,6 +24,14 @@ pub enum ModelSpec<'a> {
     Offset {
         /// The offset, K.
         offset_k: f64,
+    },
+    /// The standard with every temperature shifted by `offset_k` and the pressure in
+    /// hydrostatic balance from `sea_level_pressure_pa` ([`crate::HydrostaticOffset`]).
+    HydrostaticOffset {
+        /// The offset, K.
+        offset_k: f64,
+        /// The pressure at geopotential altitude 0, Pa (101 325 Pa unless given).
+        sea_level_pressure_pa: f64,
     },
     /// An isothermal atmosphere ([`crate::Isothermal`]).
     Isothermal {
@@ -208,6 +216,32 @@ impl<'a> ModelSpec<'a> {
             )?;
             return Ok(ModelSpec::Offset { offset_k });
         }
+        if is("hydrostatic-offset") {
+            let [dt, p] = values::<2>("hydrostatic-offset", args.unwrap_or(""))?;
+            let offset_k = value(
+                "hydrostatic-offset",
+                "an offset DT",
+                dt,
+                &units::KELVIN_DIFFERENCE,
+                &Plausible::TEMPERATURE_OFFSET,
+            )?;
+            let sea_level_pressure_pa = match p {
+                None => crate::constants::SEA_LEVEL_PRESSURE_PA,
+                Some(text) => {
+                    let p0 = keyed(text, "p0")
+                        .ok_or(SpecError::Unexpected { model: "hydrostatic-offset", text })?;
+                    let plausible = &Plausible::SEA_LEVEL_PRESSURE;
+                    value(
+                        "hydrostatic-offset",
+                        "a sea-level pressure p0",
+                        Some(p0),
+                        &units::PASCAL,
+                        plausible,
+                    )?
+                }
+            };
+            return Ok(ModelSpec::HydrostaticOffset { offset_k, sea_level_pressure_pa });
+        }
         if is("isothermal") {
             let [t, p] = values::<2>("isothermal", args.unwrap_or(""))?;
             let temperature_k =
@@ -285,6 +319,18 @@ mod tests {
         assert_eq!(ModelSpec::parse(" Standard "), Ok(ModelSpec::Standard));
         assert_eq!(ModelSpec::parse("offset=15"), Ok(ModelSpec::Offset { offset_k: 15.0 }));
         assert_eq!(ModelSpec::parse("offset=-10C"), Ok(ModelSpec::Offset { offset_k: -10.0 }));
+        assert_eq!(
+            ModelSpec::parse("hydrostatic-offset=+15K"),
+            Ok(ModelSpec::HydrostaticOffset { offset_k: 15.0, sea_level_pressure_pa: 101_325.0 })
+        );
+        assert_eq!(
+            ModelSpec::parse("Hydrostatic-Offset=-10C,p0=1030hPa"),
+            Ok(ModelSpec::HydrostaticOffset { offset_k: -10.0, sea_level_pressure_pa: 103_000.0 })
+        );
+        assert!(
+            ModelSpec::parse("hydrostatic-offset=15,p0=1030").is_err(),
+            "1030 Pa is no sea-level pressure"
+        );
         assert_eq!(
             ModelSpec::parse("isothermal=250"),
             Ok(ModelSpec::Isothermal { temperature_k: 250.0, pressure_pa: 101_325.0 })

@@ -43,7 +43,7 @@ pub struct Us1976;
 pub const US1976: Us1976 = Us1976;
 
 /// Geometric range of the lower standard, m.
-const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
+pub(super) const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
 
 /// Geometric range of the whole model, m.
 #[cfg(feature = "upper")]
@@ -57,7 +57,7 @@ const RANGE: AltitudeRange = LOWER_RANGE;
 /// rounded to f64; a unit test rebuilds them with [`Layered::from_lapse_rates`] and
 /// checks agreement. (The standard prints them as 101325.0, 22632.06, 5474.889,
 /// 868.0187, 110.9063, 66.93887, 3.956420 Pa.)
-const LAYERS: [Layer; 7] = [
+pub(super) const LAYERS: [Layer; 7] = [
     layer(0.0, SEA_LEVEL_TEMPERATURE_K, SEA_LEVEL_PRESSURE_PA, -6.5e-3),
     layer(11_000.0, 216.65, 22_632.063_973_462_93, 0.0),
     layer(20_000.0, 216.65, 5_474.888_669_677_78, 1.0e-3),
@@ -69,8 +69,7 @@ const LAYERS: [Layer; 7] = [
 
 /// Top of the last layer, geopotential m (86 km geometric, rounded as the standard does);
 /// the range itself runs to 86 km geometric (84 852.05 m), extending the last layer.
-#[cfg(test)]
-const LAYERS_TOP_GEOPOTENTIAL_M: f64 = 84_852.0;
+pub(super) const LAYERS_TOP_GEOPOTENTIAL_M: f64 = 84_852.0;
 
 const fn layer(
     base_geopotential_m: f64,
@@ -98,7 +97,7 @@ const RANGE_80KM: AltitudeRange =
     AltitudeRange::from_geometric(MOLAR_MASS_RATIO_START_M, MOLAR_MASS_RATIO_START_M);
 
 /// M/M0 at geometric altitude `z_m` (1 below 80 km).
-fn molar_mass_ratio(z_m: f64) -> f64 {
+pub(super) fn molar_mass_ratio(z_m: f64) -> f64 {
     if z_m <= MOLAR_MASS_RATIO_START_M {
         return 1.0;
     }
