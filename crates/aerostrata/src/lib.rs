@@ -49,6 +49,7 @@ pub mod quantity;
 mod ratio;
 pub mod solve;
 mod state;
+pub mod table;
 pub mod units;
 
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};

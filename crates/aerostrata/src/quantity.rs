@@ -404,6 +404,8 @@ impl Quantity {
     }
 }
 
+impl core::error::Error for ColumnError<'_> {}
+
 #[cfg(test)]
 mod tests {
     use super::*;

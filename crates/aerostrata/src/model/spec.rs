@@ -309,6 +309,8 @@ fn find_ignoring_case(hay: &str, needle: &str) -> Option<usize> {
         .find(|&i| hay.get(i..i + needle.len()).is_some_and(|window| window.eq_ignore_ascii_case(needle)))
 }
 
+impl core::error::Error for SpecError<'_> {}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -221,3 +221,5 @@ pub fn parse<'a>(
         }),
     }
 }
+
+impl core::error::Error for UnitError<'_> {}

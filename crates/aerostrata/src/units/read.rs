@@ -254,6 +254,8 @@ impl fmt::Display for ReadError<'_> {
     }
 }
 
+impl core::error::Error for ReadError<'_> {}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -1,0 +1,364 @@
+//! Reading tables of numbers (soundings, flight logs, lists of altitudes): the one reader
+//! of column headings and cells that every door uses, so that a file means the same
+//! thing to the command line, the web page and a program.
+//!
+//! A heading names a quantity of the catalogue with or without a unit, in any of the
+//! spellings [`Quantity::from_column`] reads (`altitude_ft`, `altitude (ft)`,
+//! `Altitude [m]`); a heading the reader does not take is kept out of the computation
+//! (the door warns about it). A cell is a number, optionally with a unit of its own
+//! (`35000ft`); a bare number is in its column's unit. Cells are separated by commas, or
+//! by semicolons or tabs where the header line holds no comma; a UTF-8 byte-order mark
+//! and double quotes around a cell are dropped. No allocation: a header holds at most
+//! [`MAX_COLUMNS`] columns.
+
+use core::fmt;
+
+use crate::quantity::{ColumnError, Quantity};
+use crate::units::{self, Reading, Unit, UnitError};
+
+/// The most columns a table may have.
+pub const MAX_COLUMNS: usize = 64;
+
+/// A column the reader takes: its quantity and the unit of its bare numbers.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Column {
+    /// The quantity the heading names.
+    pub quantity: Quantity,
+    /// The unit of the column's bare numbers: the heading's, or the reader's default.
+    pub unit: &'static Unit,
+    /// Whether the heading named the unit.
+    pub explicit: bool,
+}
+
+/// The columns of a table, read from its header line.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Header {
+    delimiter: char,
+    columns: [Option<Column>; MAX_COLUMNS],
+    count: usize,
+}
+
+/// Why a header line cannot be read. Column indexes count from 0.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum HeaderError<'a> {
+    /// More than [`MAX_COLUMNS`] columns.
+    TooManyColumns {
+        /// How many the line has (counted up to one past the limit).
+        count: usize,
+    },
+    /// A heading names a quantity the reader takes, with a unit of another dimension or
+    /// an unknown unit.
+    Unit {
+        /// The column.
+        index: usize,
+        /// The heading as written.
+        heading: &'a str,
+        /// Why (the quantity and the unit as written).
+        error: ColumnError<'a>,
+    },
+    /// Two columns name the same quantity.
+    Duplicate {
+        /// The quantity.
+        quantity: Quantity,
+        /// The first column naming it.
+        first: usize,
+        /// The second.
+        second: usize,
+    },
+}
+
+/// Why a row cannot be read. Column indexes count from 0.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum CellError<'a> {
+    /// The row has another number of cells than the header has columns.
+    Count {
+        /// Columns of the header.
+        expected: usize,
+        /// Cells of the row (counted up to one past the header's).
+        found: usize,
+    },
+    /// A cell of a column the reader takes is not a number of its quantity.
+    Value {
+        /// The column.
+        index: usize,
+        /// The cell as written.
+        text: &'a str,
+        /// Why.
+        error: UnitError<'a>,
+    },
+}
+
+/// The line without a UTF-8 byte-order mark and a trailing carriage return.
+pub fn clean(line: &str) -> &str {
+    line.strip_prefix('\u{feff}').unwrap_or(line).trim_end_matches(['\r', '\n'])
+}
+
+/// The cell separator of a header line: a comma, or a semicolon or tab where it holds no
+/// comma.
+pub fn delimiter_of(header: &str) -> char {
+    if header.contains(',') {
+        ','
+    } else if header.contains(';') {
+        ';'
+    } else if header.contains('\t') {
+        '\t'
+    } else {
+        ','
+    }
+}
+
+/// The cells of `line`, trimmed, with surrounding double quotes dropped.
+pub fn cells(line: &str, delimiter: char) -> impl Iterator<Item = &str> {
+    clean(line).split(delimiter).map(|cell| {
+        let cell = cell.trim();
+        cell.strip_prefix('"').and_then(|c| c.strip_suffix('"')).map_or(cell, str::trim)
+    })
+}
+
+/// Whether `line` is a header rather than a row: its first cell does not start like a
+/// number (an optional sign, then a digit or a point).
+pub fn is_header(line: &str) -> bool {
+    let first = cells(line, delimiter_of(clean(line))).next().unwrap_or("");
+    let unsigned = first.strip_prefix(['+', '-']).unwrap_or(first);
+    !first.is_empty() && !unsigned.starts_with(|c: char| c.is_ascii_digit() || c == '.')
+}
+
+impl Header {
+    /// Reads a header line: each heading that names a quantity `accepts` takes is a
+    /// column, with the heading's unit or else `default_unit(quantity)`; the others are
+    /// kept out (see [`Header::ignored`]).
+    ///
+    /// ```
+    /// use aerostrata::table::Header;
+    /// use aerostrata::Quantity;
+    /// let flight = [Quantity::Time, Quantity::Altitude, Quantity::Velocity];
+    /// let header = Header::read("time_s;Altitude [ft];speed;velocity (kt)", |q| flight.contains(&q), |q| q.si())?;
+    /// assert_eq!(header.position(Quantity::Altitude), Some(1));
+    /// assert_eq!(header.ignored().collect::<Vec<_>>(), [2]);
+    /// let mut values = [None; 4];
+    /// header.read_row("1.5;3280.84;x;100", &mut values)?;
+    /// assert_eq!(values[1], Some(3280.84 * 0.3048));
+    /// # Ok::<(), Box<dyn std::error::Error>>(())
+    /// ```
+    ///
+    /// # Errors
+    /// [`HeaderError`]: too many columns, a taken quantity with a wrong unit, a quantity
+    /// named twice.
+    pub fn read<'a>(
+        line: &'a str,
+        accepts: impl Fn(Quantity) -> bool,
+        default_unit: impl Fn(Quantity) -> &'static Unit,
+    ) -> Result<Header, HeaderError<'a>> {
+        let line = clean(line);
+        let delimiter = delimiter_of(line);
+        let mut header = Header { delimiter, columns: [None; MAX_COLUMNS], count: 0 };
+        for (index, heading) in cells(line, delimiter).enumerate() {
+            if index >= MAX_COLUMNS {
+                return Err(HeaderError::TooManyColumns { count: index + 1 });
+            }
+            header.count = index + 1;
+            let column = match Quantity::from_column(heading) {
+                Ok(read) if accepts(read.quantity) => Column {
+                    quantity: read.quantity,
+                    unit: read.unit.unwrap_or_else(|| default_unit(read.quantity)),
+                    explicit: read.unit.is_some(),
+                },
+                Err(error @ ColumnError::Unit { quantity, .. }) if accepts(quantity) => {
+                    return Err(HeaderError::Unit { index, heading, error });
+                }
+                _ => continue,
+            };
+            if let Some(first) = header.position(column.quantity) {
+                return Err(HeaderError::Duplicate { quantity: column.quantity, first, second: index });
+            }
+            if let Some(slot) = header.columns.get_mut(index) {
+                *slot = Some(column);
+            }
+        }
+        Ok(header)
+    }
+
+    /// How many columns the header line has (taken or not).
+    pub fn count(&self) -> usize {
+        self.count
+    }
+
+    /// The column at `index`, if the reader takes it.
+    pub fn column(&self, index: usize) -> Option<Column> {
+        self.columns.get(index).copied().flatten()
+    }
+
+    /// Where `quantity` is, if a column names it.
+    pub fn position(&self, quantity: Quantity) -> Option<usize> {
+        self.columns.iter().position(|c| c.is_some_and(|c| c.quantity == quantity))
+    }
+
+    /// The indexes of the columns the reader does not take, for a warning.
+    pub fn ignored(&self) -> impl Iterator<Item = usize> + '_ {
+        (0..self.count).filter(|&i| self.column(i).is_none())
+    }
+
+    /// The cell separator.
+    pub fn delimiter(&self) -> char {
+        self.delimiter
+    }
+
+    /// Reads a row into `out` (at least [`Header::count`] long): `out[i]` is column i's
+    /// value in SI, `None` for an empty cell or a column the reader does not take.
+    ///
+    /// # Errors
+    /// [`CellError::Count`] for a row of another width than the header, and
+    /// [`CellError::Value`] for a taken cell that is not a number of its quantity.
+    pub fn read_row<'a>(&self, line: &'a str, out: &mut [Option<f64>]) -> Result<(), CellError<'a>> {
+        let mut found = 0;
+        for (index, text) in cells(line, self.delimiter).enumerate() {
+            found = index + 1;
+            if index >= self.count {
+                break;
+            }
+            let value = match self.column(index) {
+                Some(column) if !text.is_empty() => {
+                    Some(read_cell(text, column.unit).map(|r| r.si()).map_err(|error| CellError::Value {
+                        index,
+                        text,
+                        error,
+                    })?)
+                }
+                _ => None,
+            };
+            if let Some(slot) = out.get_mut(index) {
+                *slot = value;
+            }
+        }
+        if found != self.count {
+            return Err(CellError::Count { expected: self.count, found });
+        }
+        Ok(())
+    }
+}
+
+fn read_cell<'a>(text: &'a str, unit: &'static Unit) -> Result<Reading, UnitError<'a>> {
+    units::parse(text, unit.dimension(), unit)
+}
+
+impl fmt::Display for HeaderError<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            HeaderError::TooManyColumns { count } => {
+                write!(f, "the header has {count} or more columns; a table has at most {MAX_COLUMNS}")
+            }
+            HeaderError::Unit { index, heading, error } => {
+                let (shown, cut) = units::shorten(heading, 40);
+                write!(f, "column {} '{shown}{}': {error}", index + 1, if cut { "..." } else { "" })
+            }
+            HeaderError::Duplicate { quantity, first, second } => write!(
+                f,
+                "columns {} and {} both give the {}; keep one",
+                first + 1,
+                second + 1,
+                quantity.info().label
+            ),
+        }
+    }
+}
+
+impl fmt::Display for CellError<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            CellError::Count { expected, found } => {
+                write!(f, "{found} cells, but the header has {expected} columns")
+            }
+            CellError::Value { index, error, .. } => write!(f, "column {}: {error}", index + 1),
+        }
+    }
+}
+
+impl core::error::Error for HeaderError<'_> {}
+
+impl core::error::Error for CellError<'_> {}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::units::{FOOT, KELVIN};
+
+    const FLIGHT: [Quantity; 3] = [Quantity::Time, Quantity::Altitude, Quantity::Velocity];
+
+    fn flight_header(line: &str) -> Result<Header, HeaderError<'_>> {
+        Header::read(line, |q| FLIGHT.contains(&q), |q| q.si())
+    }
+
+    #[test]
+    fn headings_in_every_spelling_and_unknown_ones_kept_out() {
+        let header =
+            flight_header("\u{feff}\"time (s)\",altitude_ft,Velocity [m/s],wind_speed_kt\r").unwrap();
+        assert_eq!(header.count(), 4);
+        assert_eq!(
+            header.column(1),
+            Some(Column { quantity: Quantity::Altitude, unit: &FOOT, explicit: true })
+        );
+        assert_eq!(header.ignored().collect::<std::vec::Vec<_>>(), [3]);
+        let mut row = [None; 4];
+        header.read_row("1,1000,250,30", &mut row).unwrap();
+        assert_eq!(row, [Some(1.0), Some(304.8), Some(250.0), None]);
+        // A cell's own unit wins over the column's.
+        header.read_row("1,1km,250kt,", &mut row).unwrap();
+        assert_eq!(row[1], Some(1000.0));
+        assert!((row[2].unwrap() - 250.0 * 1852.0 / 3600.0).abs() < 1e-12);
+        // A header without units takes the reader's default.
+        let header = Header::read(
+            "altitude;temperature",
+            |_| true,
+            |q| if q.si() == &KELVIN { &KELVIN } else { &FOOT },
+        )
+        .unwrap();
+        assert_eq!(header.delimiter(), ';');
+        assert_eq!(header.column(0).unwrap().unit, &FOOT);
+        assert!(!header.column(0).unwrap().explicit);
+    }
+
+    #[test]
+    fn errors_name_the_column() {
+        assert_eq!(
+            flight_header("time,altitude (kg)").unwrap_err().to_string(),
+            "column 2 'altitude (kg)': unknown unit 'kg' for the altitude; write m, km, ft, mi or nmi"
+        );
+        assert_eq!(
+            flight_header("time_s,altitude_m,altitude_ft").unwrap_err().to_string(),
+            "columns 2 and 3 both give the altitude; keep one"
+        );
+        let header = flight_header("time,altitude,velocity").unwrap();
+        let mut row = [None; 3];
+        assert_eq!(
+            header.read_row("1,2", &mut row).unwrap_err().to_string(),
+            "2 cells, but the header has 3 columns"
+        );
+        assert_eq!(
+            header.read_row("1,2,3,4", &mut row).unwrap_err(),
+            CellError::Count { expected: 3, found: 4 }
+        );
+        assert_eq!(
+            header.read_row("1,abc,3", &mut row).unwrap_err().to_string(),
+            "column 2: 'abc' is not a number"
+        );
+        assert_eq!(
+            header.read_row("1,2degC,3", &mut row).unwrap_err().to_string(),
+            "column 2: 'degC' is a unit of temperature, not of length; write m, km, ft, mi or nmi"
+        );
+        let wide = "q,".repeat(80);
+        assert!(matches!(flight_header(&wide), Err(HeaderError::TooManyColumns { count: 65 })));
+    }
+
+    #[test]
+    fn headers_are_told_from_rows() {
+        assert!(is_header("time_s,altitude_m"));
+        assert!(is_header("\u{feff}Altitude [m]"));
+        assert!(!is_header("0,1000"));
+        assert!(!is_header("35000ft"));
+        assert!(!is_header("-5,3"));
+        assert!(!is_header(".5"));
+        assert!(!is_header(""));
+    }
+}
