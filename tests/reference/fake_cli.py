@@ -19,6 +19,7 @@ import sys
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import usa76_mpmath as ref  # noqa: E402
+from vector_tools import perturbation  # noqa: E402
 
 COLUMNS = [
     "geometric_altitude_m", "geopotential_altitude_m", "temperature_K",
@@ -81,13 +82,7 @@ def main(argv):
         sys.stderr.write("usage: fake_cli.py eval FILE\n")
         return 2
     mode = os.environ.get("FAKE_CLI_MODE", "mpmath")
-    perturb = os.environ.get("FAKE_CLI_PERTURB")
-    p_col, p_rel, p_zmin = None, 0.0, -math.inf
-    if perturb:
-        parts = perturb.split(":")
-        p_col, p_rel = parts[0], float(parts[1])
-        if len(parts) > 2:
-            p_zmin = float(parts[2])
+    perturb = perturbation()
     print(",".join(COLUMNS))
     with open(argv[1]) as f:
         for line in f:
@@ -99,8 +94,7 @@ def main(argv):
             else:
                 values = {k: float(v) for k, v in ref.state(z).items()}
             values["unused_column"] = -1.0
-            if p_col and z >= p_zmin:
-                values[p_col] *= 1.0 + p_rel
+            perturb(values, z)
             print(",".join(repr(float(values[c])) for c in COLUMNS))
     return 0
 

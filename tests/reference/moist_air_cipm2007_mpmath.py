@@ -21,6 +21,8 @@ import sys
 
 from mpmath import exp, mp, mpf
 
+from vector_tools import Tally
+
 mp.dps = 30
 
 R = mpf("8.314472")          # J/(mol K), the CIPM-2007 value
@@ -81,20 +83,18 @@ def density(t_c, p, rh):
 
 
 def main():
-    passed = failed = 0
+    tally = Tally()
     for t_c, expected in HANDBOOK:
         value = saturation_pa(mpf(t_c) + mpf("273.15"))
         # The handbook's last digit, and 1e-4 relative for the fit itself.
-        if abs(value - mpf(expected)) <= mpf("2e-4") * mpf(expected):
-            passed += 1
-        else:
-            failed += 1
+        ok = abs(value - mpf(expected)) <= mpf("2e-4") * mpf(expected)
+        tally.record(ok)
+        if not ok:
             print(f"self-test: p_sv({t_c} degC) = {mp.nstr(value, 8)} Pa, handbook {expected} Pa", file=sys.stderr)
     for t_c, p, rh in POINTS:
         rho, z, m_a = density(mpf(t_c), mpf(p), mpf(rh))
         print(t_c, p, rh, mp.nstr(rho, 12), mp.nstr(z, 12), mp.nstr(m_a, 9))
-    print(f"{passed} passed, {failed} failed")
-    return 1 if failed else 0
+    return tally.close()
 
 
 if __name__ == "__main__":

@@ -20,17 +20,12 @@ Every mode ends with a line "N passed, N failed" and exits 1 on any failure.
 Standard library + mpmath only.
 """
 
-import argparse
-import csv
-import os
 import random
-import subprocess
 import sys
-import tempfile
 
 from mpmath import mp, mpf
 
-from vector_tools import Tally, allowed_error, half_unit_of_last_digit, read_vector_file
+from vector_tools import Tally, check_us1976_vectors, cli_rows, half_unit_of_last_digit, run_mode
 
 mp.dps = 30
 
@@ -238,31 +233,11 @@ def comparison_altitudes():
     return fixed + rand
 
 
-def run_cli(binary, altitudes):
-    with tempfile.NamedTemporaryFile("w", suffix=".txt", delete=False) as f:
-        for z in altitudes:
-            f.write(repr(z) + "\n")
-        path = f.name
-    try:
-        proc = subprocess.run([binary, "eval", path], capture_output=True,
-                              text=True, check=False)
-    finally:
-        os.unlink(path)
-    if proc.returncode != 0:
-        raise RuntimeError("%s eval exited with %d:\n%s"
-                           % (binary, proc.returncode, proc.stderr.strip()))
-    lines = [ln for ln in proc.stdout.splitlines() if ln.strip()]
-    return list(csv.DictReader(lines))
-
-
 def compare_cli(binary):
     tally = Tally()
     altitudes = comparison_altitudes()
-    try:
-        rows = run_cli(binary, altitudes)
-    except (OSError, RuntimeError) as exc:
-        print("cannot run the CLI: %s" % exc)
-        tally.record(False)
+    rows = cli_rows(binary, ["eval"], altitudes, tally)
+    if rows is None:
         return tally.close()
     if len(rows) != len(altitudes):
         print("CLI returned %d rows for %d altitudes" % (len(rows), len(altitudes)))
@@ -375,47 +350,16 @@ def self_test():
 # Mode 3: check a vector file against mpmath
 # ---------------------------------------------------------------------------
 def check_vectors(path):
-    tally = Tally()
-    model, tolerances, header, rows = read_vector_file(path)
-    if model != "us1976":
-        print("%s: model %r is not checked by this script" % (path, model))
-        tally.record(False)
-        return tally.close()
-    empty = 0
-    for row in rows:
-        ref = state(row[0])
-        for col, text in zip(header[1:], row[1:]):
-            if not text.strip():
-                empty += 1
-                continue
-            diff = abs(mpf(text) - ref[col])
-            limit = allowed_error(tolerances[col], text, ref[col], mpf)
-            ok = diff <= limit
-            tally.record(ok)
-            if not ok:
-                print("  Z = %-7s %-28s file %-12s mpmath %-16s off by %.2f x tolerance"
-                      % (row[0], col, text, mp.nstr(ref[col], 10), float(diff / limit)))
-    print("%s: %d rows, %d filled cells, %d empty cells"
-          % (path, len(rows), tally.passed + tally.failed, empty))
-    return tally.close()
+    def miss(z, col, text, ref, ratio):
+        return ("  Z = %-7s %-28s file %-12s mpmath %-16s off by %.2f x tolerance"
+                % (z, col, text, mp.nstr(ref, 10), float(ratio)))
+    return check_us1976_vectors(path, lambda altitudes: map(state, altitudes), mpf, miss)
 
 
 def main(argv):
-    root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
-    parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
-    parser.add_argument("binary", nargs="?",
-                        default=os.path.join(root, "target", "debug", "aerostrata"),
-                        help="aerostrata CLI (default: target/debug/aerostrata)")
-    parser.add_argument("--self-test", action="store_true",
-                        help="check the reference against printed values")
-    parser.add_argument("--check-vectors", metavar="CSV",
-                        help="check a vector file against the reference")
-    args = parser.parse_args(argv)
-    if args.self_test:
-        return self_test()
-    if args.check_vectors:
-        return check_vectors(args.check_vectors)
-    return compare_cli(args.binary)
+    return run_mode(argv, __doc__, compare_cli,
+                    ("--self-test", "check the reference against printed values", self_test),
+                    check_vectors, "reference")
 
 
 if __name__ == "__main__":

@@ -14,12 +14,12 @@ Environment:
   FAKE_CLI_BLANK=COLUMN                write COLUMN empty in every row
 """
 
-import math
 import os
 import sys
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import usa76_upper_scipy as ref  # noqa: E402
+from vector_tools import perturbation  # noqa: E402
 
 COLUMNS = (["geometric_altitude_m", "temperature_K", "pressure_Pa", "density_kg_m3",
             "mean_molar_mass_kg_kmol", "number_density_m3"] + ref.SPECIES_COLS
@@ -31,14 +31,8 @@ def main(argv):
     if len(argv) != 3 or argv[0] != "eval" or argv[1] != "--species":
         sys.stderr.write("usage: usa76_upper_fake_cli.py eval --species FILE\n")
         return 2
-    perturb = os.environ.get("FAKE_CLI_PERTURB")
+    perturb = perturbation()
     blank = os.environ.get("FAKE_CLI_BLANK")
-    p_col, p_rel, p_zmin = None, 0.0, -math.inf
-    if perturb:
-        parts = perturb.split(":")
-        p_col, p_rel = parts[0], float(parts[1])
-        if len(parts) > 2:
-            p_zmin = float(parts[2])
     with open(argv[2]) as f:
         alts = [float(ln) for ln in f if ln.strip() and not ln.startswith("#")]
     upper = [z for z in alts if z > ref.Z_BOT]
@@ -52,8 +46,7 @@ def main(argv):
             values.update({c: None for c in ref.SPECIES_COLS})
         values["geometric_altitude_m"] = z
         values["unused_column"] = -1.0
-        if p_col and z >= p_zmin and values.get(p_col) is not None:
-            values[p_col] *= 1.0 + p_rel
+        perturb(values, z)
         if blank:
             values[blank] = None
         print(",".join("" if values.get(c) is None else repr(float(values[c]))

@@ -36,18 +36,15 @@ Every mode ends with a line "N passed, N failed" and exits 1 on any failure.
 Needs numpy and scipy (python3 -m pip install scipy numpy).
 """
 
-import argparse
 import csv
 import math
 import os
-import subprocess
 import sys
-import tempfile
 
 import numpy as np
 from scipy.integrate import solve_ivp
 
-from vector_tools import Tally, allowed_error, half_unit_of_last_digit, read_vector_file
+from vector_tools import Tally, check_us1976_vectors, cli_rows, half_unit_of_last_digit, run_mode
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
@@ -285,23 +282,6 @@ T_LIMIT = 1e-12
 N_LIMIT = 1e-6
 
 
-def run_cli(binary, altitudes):
-    with tempfile.NamedTemporaryFile("w", suffix=".txt", delete=False) as f:
-        for z in altitudes:
-            f.write(repr(z) + "\n")
-        path = f.name
-    try:
-        proc = subprocess.run([binary, "eval", "--species", path],
-                              capture_output=True, text=True, check=False)
-    finally:
-        os.unlink(path)
-    if proc.returncode != 0:
-        raise RuntimeError("%s eval --species exited with %d:\n%s"
-                           % (binary, proc.returncode, proc.stderr.strip()))
-    lines = [ln for ln in proc.stdout.splitlines() if ln.strip()]
-    return list(csv.DictReader(lines))
-
-
 def _cell(row, col):
     text = (row.get(col) or "").strip()
     return float(text) if text else None
@@ -309,11 +289,8 @@ def _cell(row, col):
 
 def compare_cli(binary):
     tally = Tally()
-    try:
-        rows = run_cli(binary, CLI_ALTITUDES)
-    except (OSError, RuntimeError) as exc:
-        print("cannot run the CLI: %s" % exc)
-        tally.record(False)
+    rows = cli_rows(binary, ["eval", "--species"], CLI_ALTITUDES, tally)
+    if rows is None:
         return tally.close()
     needed = ["geometric_altitude_m", "temperature_K"] + SPECIES_COLS + BULK_COLS
     missing = [c for c in needed if rows and c not in rows[0]]
@@ -426,33 +403,11 @@ def reference_rows(altitudes):
 
 
 def check_vectors(path):
-    tally = Tally()
-    model, tolerances, header, rows = read_vector_file(path)
-    if model != "us1976":
-        print("%s: model %r is not checked by this script" % (path, model))
-        tally.record(False)
-        return tally.close()
-    refs = reference_rows([float(r[0]) for r in rows])
-    empty = 0
-    for row, ref in zip(rows, refs):
-        for col, text in zip(header[1:], row[1:]):
-            if not text.strip():
-                empty += 1
-                continue
-            if col not in ref:
-                print("  Z = %-8s %-24s no computed value (%s)" % (row[0], col, text))
-                tally.record(False)
-                continue
-            diff = abs(float(text) - ref[col])
-            limit = allowed_error(tolerances[col], text, ref[col])
-            ok = diff <= limit
-            tally.record(ok)
-            if not ok:
-                print("  Z = %-8s %-24s file %-11s computed %-17.10e off by %.2f x tolerance"
-                      % (row[0], col, text, ref[col], diff / limit))
-    print("%s: %d rows, %d filled cells, %d empty cells"
-          % (path, len(rows), tally.passed + tally.failed, empty))
-    return tally.close()
+    def miss(z, col, text, ref, ratio):
+        return ("  Z = %-8s %-24s file %-11s computed %-17.10e off by %.2f x tolerance"
+                % (z, col, text, ref, ratio))
+    return check_us1976_vectors(
+        path, lambda altitudes: reference_rows([float(z) for z in altitudes]), float, miss)
 
 
 # ---------------------------------------------------------------------------
@@ -508,26 +463,13 @@ def draft(path):
 
 
 def main(argv):
-    root = os.path.dirname(os.path.dirname(HERE))
-    parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
-    parser.add_argument("binary", nargs="?",
-                        default=os.path.join(root, "target", "debug", "aerostrata"),
-                        help="aerostrata CLI (default: target/debug/aerostrata)")
-    parser.add_argument("--self-check", action="store_true",
-                        help="show the integration converged; show the 86 km jump")
-    parser.add_argument("--check-vectors", metavar="CSV",
-                        help="check a vector file against the integration")
-    parser.add_argument("--draft", nargs="?", metavar="CSV",
-                        const=os.path.join(HERE, "usa76_upper_memory_draft.csv"),
-                        help="compare the memory draft with the integration")
-    args = parser.parse_args(argv)
-    if args.self_check:
-        return self_check()
-    if args.check_vectors:
-        return check_vectors(args.check_vectors)
-    if args.draft:
-        return draft(args.draft)
-    return compare_cli(args.binary)
+    draft_mode = ("--draft", {"nargs": "?", "metavar": "CSV",
+                              "const": os.path.join(HERE, "usa76_upper_memory_draft.csv"),
+                              "help": "compare the memory draft with the integration"}, draft)
+    return run_mode(argv, __doc__, compare_cli,
+                    ("--self-check", "show the integration converged; show the 86 km jump",
+                     self_check),
+                    check_vectors, "integration", [draft_mode])
 
 
 if __name__ == "__main__":

@@ -18,41 +18,24 @@ use crate::js::{self, record};
 
 /// A function of JS numbers that returns the core's `Result<f64>`: each argument is read
 /// with `js::number` (a `TypeError` unless it is a JS number), the core does the rest.
+/// After a `;`, the name under which the body gets the perfect gas of a last, optional
+/// argument `gamma`, the ratio of specific heats (default 1.4, air; 1.01 to 1.7).
 /// Its docs are `#[doc = "..."]` attributes rather than `///` comments: forwarded through
 /// a macro, `///` arrives as a raw string that wasm-bindgen would copy into the `.d.ts`
 /// with its `r"` prefix.
 macro_rules! number_function {
     (
         $(#[doc = $doc:literal])*
-        $js:ident => fn $name:ident($($arg:ident as $js_arg:ident),* $(,)?) $body:block
-    ) => {
-        $(#[doc = $doc])*
-        #[wasm_bindgen(js_name = $js)]
-        pub fn $name(
-            $(#[wasm_bindgen(js_name = $js_arg, unchecked_param_type = "number")] $arg: JsValue),*
-        ) -> Result<f64, JsValue> {
-            $(let $arg = js::number(stringify!($js_arg), &$arg)?;)*
-            let result: aerostrata::Result<f64> = $body;
-            result.js()
-        }
-    };
-}
-
-/// A function of JS numbers and an optional ratio of specific heats `gamma` (default
-/// 1.4, air; 1.01 to 1.7).
-macro_rules! gas_function {
-    (
-        $(#[doc = $doc:literal])*
-        $js:ident => fn $name:ident($gas:ident, $($arg:ident as $js_arg:ident),* $(,)?) $body:block
+        $js:ident => fn $name:ident($($arg:ident as $js_arg:ident),* $(; $gas:ident)? $(,)?) $body:block
     ) => {
         $(#[doc = $doc])*
         #[wasm_bindgen(js_name = $js)]
         pub fn $name(
             $(#[wasm_bindgen(js_name = $js_arg, unchecked_param_type = "number")] $arg: JsValue,)*
-            #[wasm_bindgen(js_name = gamma, unchecked_optional_param_type = "number")] gamma: JsValue,
+            $(#[wasm_bindgen(js_name = gamma, unchecked_optional_param_type = "number")] $gas: JsValue,)?
         ) -> Result<f64, JsValue> {
             $(let $arg = js::number(stringify!($js_arg), &$arg)?;)*
-            let $gas = gas(&gamma)?;
+            $(let $gas = gas(&$gas)?;)?
             let result: aerostrata::Result<f64> = $body;
             result.js()
         }
@@ -74,12 +57,12 @@ number_function! {
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " Dynamic pressure from Mach number, q = gamma p M^2 / 2, Pa, at static pressure"]
     #[doc = " `staticPressurePa` (Pa) and Mach number `mach`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a pressure or Mach number out of range."]
-    dynamicPressureFromMachPa => fn dynamic_pressure_from_mach_pa(gas, pressure as staticPressurePa, mach as mach) {
+    dynamicPressureFromMachPa => fn dynamic_pressure_from_mach_pa(pressure as staticPressurePa, mach as mach; gas) {
         aero::dynamic_pressure_from_mach_pa(pressure, mach, gas)
     }
 }
@@ -247,38 +230,38 @@ pub fn isentropic(
     ))
 }
 
-gas_function! {
+number_function! {
     #[doc = " The isentropic area ratio A/A* at Mach number `mach`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a Mach number outside 1e-9 to 1000."]
-    areaRatio => fn area_ratio(gas, mach as mach) {
+    areaRatio => fn area_ratio(mach as mach; gas) {
         gas.area_ratio(mach)
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " The Mach number whose isentropic static-to-total pressure ratio p/pt is `ratio`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a ratio outside the values Mach 0 to 1000 give."]
-    machFromPressureRatio => fn mach_from_pressure_ratio(gas, ratio as ratio) {
+    machFromPressureRatio => fn mach_from_pressure_ratio(ratio as ratio; gas) {
         gas.mach_from_pressure_ratio(ratio)
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " The Mach number whose isentropic static-to-total temperature ratio T/Tt is `ratio`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a ratio outside the values Mach 0 to 1000 give."]
-    machFromTemperatureRatio => fn mach_from_temperature_ratio(gas, ratio as ratio) {
+    machFromTemperatureRatio => fn mach_from_temperature_ratio(ratio as ratio; gas) {
         gas.mach_from_temperature_ratio(ratio)
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " The Mach number whose isentropic static-to-total density ratio rho/rhot is `ratio`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a ratio outside the values Mach 0 to 1000 give."]
-    machFromDensityRatio => fn mach_from_density_ratio(gas, ratio as ratio) {
+    machFromDensityRatio => fn mach_from_density_ratio(ratio as ratio; gas) {
         gas.mach_from_density_ratio(ratio)
     }
 }
@@ -335,31 +318,31 @@ pub fn normal_shock(
     Ok(shock_object(&gas(&gamma)?.normal_shock(mach).js()?))
 }
 
-gas_function! {
+number_function! {
     #[doc = " Impact pressure over static pressure, (pt - p) / p, at Mach number `mach`: the"]
     #[doc = " isentropic pitot relation up to Mach 1, the Rayleigh pitot formula above."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a Mach number outside 0 to 1000."]
-    impactPressureRatio => fn impact_pressure_ratio(gas, mach as mach) {
+    impactPressureRatio => fn impact_pressure_ratio(mach as mach; gas) {
         gas.impact_pressure_ratio(mach)
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " Impact pressure qc = pt - p, Pa, at static pressure `staticPressurePa` (Pa) and"]
     #[doc = " Mach number `mach`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a value out of range."]
-    impactPressurePa => fn impact_pressure_pa(gas, pressure as staticPressurePa, mach as mach) {
+    impactPressurePa => fn impact_pressure_pa(pressure as staticPressurePa, mach as mach; gas) {
         gas.impact_pressure_pa(pressure, mach)
     }
 }
 
-gas_function! {
+number_function! {
     #[doc = " The Mach number whose impact-to-static pressure ratio qc / p is `ratio`."]
     #[doc = ""]
     #[doc = " Throws a `RangeError` for a ratio outside the values Mach 0 to 1000 give."]
-    machFromImpactPressureRatio => fn mach_from_impact_pressure_ratio(gas, ratio as ratio) {
+    machFromImpactPressureRatio => fn mach_from_impact_pressure_ratio(ratio as ratio; gas) {
         gas.mach_from_impact_pressure_ratio(ratio)
     }
 }
@@ -392,10 +375,9 @@ pub fn airspeeds(
     #[wasm_bindgen(js_name = givenKind, unchecked_param_type = "AirspeedKind")] kind: JsValue,
     #[wasm_bindgen(js_name = given, unchecked_param_type = "number")] given: JsValue,
 ) -> Result<JsValue, JsValue> {
-    let air =
-        AirData::new(js::number("staticPressurePa", &pressure)?, js::number("temperatureK", &temperature)?)
-            .js()?;
-    airspeeds_from(air, &kind, &given)
+    let [pressure, temperature] =
+        args::numbers([("staticPressurePa", &pressure), ("temperatureK", &temperature)])?;
+    airspeeds_from(AirData::new(pressure, temperature).js()?, &kind, &given)
 }
 
 /// As `airspeeds`, with the static pressure given as a pressure altitude
@@ -410,12 +392,9 @@ pub fn airspeeds_at_pressure_altitude(
     #[wasm_bindgen(js_name = givenKind, unchecked_param_type = "AirspeedKind")] kind: JsValue,
     #[wasm_bindgen(js_name = given, unchecked_param_type = "number")] given: JsValue,
 ) -> Result<JsValue, JsValue> {
-    let air = AirData::from_pressure_altitude(
-        js::number("pressureAltitudeM", &altitude)?,
-        js::number("temperatureK", &temperature)?,
-    )
-    .js()?;
-    airspeeds_from(air, &kind, &given)
+    let [altitude, temperature] =
+        args::numbers([("pressureAltitudeM", &altitude), ("temperatureK", &temperature)])?;
+    airspeeds_from(AirData::from_pressure_altitude(altitude, temperature).js()?, &kind, &given)
 }
 
 number_function! {

@@ -15,6 +15,16 @@ use crate::error::{Failure, Js};
 use crate::js;
 use crate::text::Text;
 
+/// The numbers of several arguments, each given with its JS name, read in order: the
+/// first that is not a JS number is the `TypeError` of [`js::number`] naming it.
+pub fn numbers<const N: usize>(named: [(&str, &JsValue); N]) -> Result<[f64; N], JsValue> {
+    let mut out = [0.0; N];
+    for (slot, (name, value)) in out.iter_mut().zip(named) {
+        *slot = js::number(name, value)?;
+    }
+    Ok(out)
+}
+
 /// `len` zeros, or a `RangeError` when the module's memory cannot hold them (rather
 /// than the trap an infallible allocation would be).
 pub fn zeroed(len: usize) -> Result<Vec<f64>, Failure> {

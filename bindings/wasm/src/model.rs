@@ -118,12 +118,12 @@ impl AtmosphereModel {
         #[wasm_bindgen(js_name = scaleHeightM, unchecked_param_type = "number")] scale_height: JsValue,
         #[wasm_bindgen(js_name = temperatureK, unchecked_param_type = "number")] temperature: JsValue,
     ) -> Result<AtmosphereModel, JsValue> {
-        let model = Exponential::new(
-            js::number("seaLevelDensityKgM3", &density)?,
-            js::number("scaleHeightM", &scale_height)?,
-            js::number("temperatureK", &temperature)?,
-        )
-        .js()?;
+        let [density, scale_height, temperature] = args::numbers([
+            ("seaLevelDensityKgM3", &density),
+            ("scaleHeightM", &scale_height),
+            ("temperatureK", &temperature),
+        ])?;
+        let model = Exponential::new(density, scale_height, temperature).js()?;
         Ok(Self::new(Model::Exponential(model), "exponential"))
     }
 
@@ -136,12 +136,9 @@ impl AtmosphereModel {
         #[wasm_bindgen(js_name = temperatureK, unchecked_param_type = "number")] temperature: JsValue,
         #[wasm_bindgen(js_name = seaLevelPressurePa, unchecked_param_type = "number")] pressure: JsValue,
     ) -> Result<AtmosphereModel, JsValue> {
-        let model = Isothermal::new(
-            js::number("temperatureK", &temperature)?,
-            js::number("seaLevelPressurePa", &pressure)?,
-        )
-        .js()?;
-        Ok(Self::new(Model::Isothermal(model), "isothermal"))
+        let [temperature, pressure] =
+            args::numbers([("temperatureK", &temperature), ("seaLevelPressurePa", &pressure)])?;
+        Ok(Self::new(Model::Isothermal(Isothermal::new(temperature, pressure).js()?), "isothermal"))
     }
 
     /// User layers of constant lapse rate, stacked from a base at geopotential altitude
@@ -164,9 +161,11 @@ impl AtmosphereModel {
         #[wasm_bindgen(js_name = lapseRatesKPerM, unchecked_param_type = "Float64Array | number[]")]
         lapse_rates: JsValue,
     ) -> Result<AtmosphereModel, JsValue> {
-        let base = js::number("baseGeopotentialM", &base)?;
-        let temperature = js::number("baseTemperatureK", &temperature)?;
-        let pressure = js::number("basePressurePa", &pressure)?;
+        let [base, temperature, pressure] = args::numbers([
+            ("baseGeopotentialM", &base),
+            ("baseTemperatureK", &temperature),
+            ("basePressurePa", &pressure),
+        ])?;
         let tops = js::numbers("topsGeopotentialM", &tops)?;
         let lapse_rates = js::numbers("lapseRatesKPerM", &lapse_rates)?;
         args::table_rows("topsGeopotentialM", tops.len())?;
@@ -392,8 +391,7 @@ impl AtmosphereModel {
         #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
     ) -> Result<f64, JsValue> {
         let altitude = altitude("altitudeM", &altitude_m, &kind)?;
-        let mass = js::number("massKg", &mass)?;
-        let area = js::number("referenceAreaM2", &area)?;
+        let [mass, area] = args::numbers([("massKg", &mass), ("referenceAreaM2", &area)])?;
         let drag = DragSpec::read("drag", &drag)?;
         let state = self.model.state(altitude).js()?;
         let curve = drag.curve().js()?;

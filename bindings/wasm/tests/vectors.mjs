@@ -100,42 +100,42 @@ export function evaluator(aerostrata, file) {
   }
   const gamma = parameter(words, "gamma=", 1.4);
   if (file.input !== "mach") throw new Error(`${file.path}: unknown input column ${file.input} (expected mach)`);
-  if (kind === "isentropic") {
-    return (mach) => {
-      const r = aerostrata.isentropic(mach, gamma);
-      const values = {
-        p_p0: r.pressureRatio,
-        rho_rho0: r.densityRatio,
-        t_t0: r.temperatureRatio,
-        a_astar: aerostrata.areaRatio(mach, gamma),
-        qc_p: aerostrata.impactPressureRatio(mach, gamma),
-      };
-      return (column) => {
-        if (!(column in values)) throw new Error(`${file.path}: no quantity named ${column}`);
-        return values[column];
-      };
+  const ratios = flowRatios[kind];
+  if (ratios === undefined) throw new Error(`${file.path}: unknown model '${file.model}'`);
+  return (mach) => {
+    const values = ratios(aerostrata, mach, gamma);
+    return (column) => {
+      if (!(column in values)) throw new Error(`${file.path}: no quantity named ${column}`);
+      return values[column];
     };
-  }
-  if (kind === "normal_shock") {
-    return (mach) => {
-      const s = aerostrata.normalShock(mach, gamma);
-      const values = {
-        m2: s.downstreamMach,
-        p2_p1: s.pressureRatio,
-        rho2_rho1: s.densityRatio,
-        t2_t1: s.temperatureRatio,
-        p02_p01: s.totalPressureRatio,
-        p02_p1: s.pitotPressureRatio,
-        p1_p02: 1 / s.pitotPressureRatio,
-      };
-      return (column) => {
-        if (!(column in values)) throw new Error(`${file.path}: no quantity named ${column}`);
-        return values[column];
-      };
-    };
-  }
-  throw new Error(`${file.path}: unknown model '${file.model}'`);
+  };
 }
+
+/** The compressible-flow models of the vector files: their columns at a Mach number. */
+const flowRatios = {
+  isentropic(aerostrata, mach, gamma) {
+    const r = aerostrata.isentropic(mach, gamma);
+    return {
+      p_p0: r.pressureRatio,
+      rho_rho0: r.densityRatio,
+      t_t0: r.temperatureRatio,
+      a_astar: aerostrata.areaRatio(mach, gamma),
+      qc_p: aerostrata.impactPressureRatio(mach, gamma),
+    };
+  },
+  normal_shock(aerostrata, mach, gamma) {
+    const s = aerostrata.normalShock(mach, gamma);
+    return {
+      m2: s.downstreamMach,
+      p2_p1: s.pressureRatio,
+      rho2_rho1: s.densityRatio,
+      t2_t1: s.temperatureRatio,
+      p02_p01: s.totalPressureRatio,
+      p02_p1: s.pitotPressureRatio,
+      p1_p02: 1 / s.pitotPressureRatio,
+    };
+  },
+};
 
 const scratch = new Float64Array(1);
 const scratchBits = new BigUint64Array(scratch.buffer);

@@ -5,7 +5,8 @@
 //! value and the allowed range), 1 for an internal or I/O failure.
 //!
 //! This file holds the top-level arguments, the dispatch and the exit status; each
-//! subcommand lives in `aerostrata_cli::commands`.
+//! subcommand, with its arguments and the examples its help ends with, lives in
+//! `aerostrata_cli::commands`.
 
 use std::io;
 use std::process::ExitCode;
@@ -35,33 +36,17 @@ struct Cli {
 #[derive(Subcommand)]
 enum Command {
     /// Tabulate the atmosphere over a range of altitudes.
-    #[command(
-        after_help = "Examples:\n  aerostrata table --from 0 --to 20000 --step 500 --offset 15 --format csv\n  \
-                            aerostrata table --units us --from 0 --to 40000 --step 5000 --format markdown"
-    )]
     Table(table::TableArgs),
     /// Evaluate the full state at altitudes read one per line, streaming (CSV by default).
-    #[command(after_help = "Examples:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10\n  \
-                            printf '120000\\n400000\\n' | aerostrata eval --species")]
     Eval(eval::EvalArgs),
     /// Scan a flight (CSV of time_s,altitude_m,velocity_m_s), streaming: per-sample q,
     /// Mach, Reynolds number and drag on stdout, the summary (max q, max Mach, Mach 1
     /// crossings, max drag) on stderr.
-    #[command(
-        after_help = "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
-                            --area 0.0182 --summary json"
-    )]
     Flight(flight::FlightArgs),
     /// Convert between calibrated, equivalent and true airspeed and Mach number.
-    #[command(
-        after_help = "Example:\n  aerostrata airspeed --cas 250 --unit kt --pressure-altitude 3048 --oat 268.15"
-    )]
     Airspeed(airspeed::AirspeedArgs),
     /// Pressure altitude from static pressure; density altitude, QNH or pad-relative
     /// altitude on request.
-    #[command(
-        after_help = "Example:\n  aerostrata altitude --pressure 84300 --pad 98100 --temperature 281.2"
-    )]
     Altitude(altitude::AltitudeArgs),
     /// Draw an SVG plot: state quantities against altitude for several models, or a
     /// flight's q and Mach number against time with the maximum q marked.
@@ -69,17 +54,10 @@ enum Command {
     Plot(plot::PlotCommand),
     /// List the quantities of the core's catalogue: names, symbols, labels, SI and US
     /// units, and the CSV column of each in either system.
-    #[command(
-        after_help = "Examples:\n  aerostrata quantities\n  aerostrata quantities --format json -o quantities.json"
-    )]
     Quantities(quantities::QuantitiesArgs),
     /// Print a shell completion script.
-    #[command(
-        after_help = "Example:\n  aerostrata completions bash > ~/.local/share/bash-completion/completions/aerostrata"
-    )]
     Completions(completions::CompletionsArgs),
     /// Print the manual page (roff), of the tool or of one subcommand.
-    #[command(after_help = "Example:\n  aerostrata man | man -l -")]
     Man(man::ManArgs),
 }
 

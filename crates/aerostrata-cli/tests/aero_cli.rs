@@ -82,49 +82,31 @@ fn flight_with_a_vehicle_and_files() {
 
 #[test]
 fn flight_bad_input_exits_2_with_one_line() {
-    fails_with(&["flight", "-"], "0,0,0\n1,abc,3\n", "line 2: 'abc' is not a number (altitude in m)");
-    fails_with(
-        &["flight", "-"],
-        "0,0,0\n\n0,10,3\n",
-        "line 3: flight sample point 1: time (s) must be after",
-    );
-    fails_with(
-        &["flight", "-"],
-        "# comment\n0,0,0\n1,-6000,3\n",
-        "line 3: geometric altitude -6000 m is outside the allowed range -5000 to",
-    );
-    fails_with(&["flight", "-"], "0,0,NaN\n", "line 1: velocity must be a finite number, got NaN");
-    fails_with(&["flight", "-"], "0,0\n", "line 1: expected 3 values");
-    fails_with(&["flight", "-"], "time,altitude,velocity\n", "line 1: 'time' is not a number (time in s)");
-    fails_with(&["flight", "-", "--cd", "0.5"], "", "--cd and --cd-table need --area");
-    fails_with(&["flight", "-", "--area", "0.5"], "", "--area needs --cd or --cd-table");
-    fails_with(&["flight", "-", "--length", "2"], "", "--length needs");
-    fails_with(
-        &["flight", "-", "--cd", "-1", "--area", "1"],
-        "",
-        "--cd: drag coefficient must be greater than 0",
-    );
-    fails_with(
-        &["flight", "-", "--cd-table", "0:0.4,2:0.5,1:0.6", "--area", "1"],
-        "",
-        "--cd-table: drag table point 2: Mach number must be above the previous point's, got 1",
-    );
-    fails_with(
-        &["flight", "-", "--cd-table", "0:0.4,x", "--area", "1"],
-        "",
-        "--cd-table: 'x' is not MACH:CD",
-    );
-    fails_with(
-        &["flight", "-", "--cd", "0.5", "--area", "0"],
-        "",
-        "--area: reference area must be greater than 0",
-    );
-    fails_with(&["flight", "/no/such/file"], "", "cannot open /no/such/file");
-    fails_with(
-        &["flight", "-", "--offset", "-400"],
-        "0,0,0\n",
-        "line 1: temperature must be greater than 0 K",
-    );
+    each_fails_with(&[
+        (&["flight", "-"], "0,0,0\n1,abc,3\n", "line 2: 'abc' is not a number (altitude in m)"),
+        (&["flight", "-"], "0,0,0\n\n0,10,3\n", "line 3: flight sample point 1: time (s) must be after"),
+        (
+            &["flight", "-"],
+            "# comment\n0,0,0\n1,-6000,3\n",
+            "line 3: geometric altitude -6000 m is outside the allowed range -5000 to",
+        ),
+        (&["flight", "-"], "0,0,NaN\n", "line 1: velocity must be a finite number, got NaN"),
+        (&["flight", "-"], "0,0\n", "line 1: expected 3 values"),
+        (&["flight", "-"], "time,altitude,velocity\n", "line 1: 'time' is not a number (time in s)"),
+        (&["flight", "-", "--cd", "0.5"], "", "--cd and --cd-table need --area"),
+        (&["flight", "-", "--area", "0.5"], "", "--area needs --cd or --cd-table"),
+        (&["flight", "-", "--length", "2"], "", "--length needs"),
+        (&["flight", "-", "--cd", "-1", "--area", "1"], "", "--cd: drag coefficient must be greater than 0"),
+        (
+            &["flight", "-", "--cd-table", "0:0.4,2:0.5,1:0.6", "--area", "1"],
+            "",
+            "--cd-table: drag table point 2: Mach number must be above the previous point's, got 1",
+        ),
+        (&["flight", "-", "--cd-table", "0:0.4,x", "--area", "1"], "", "--cd-table: 'x' is not MACH:CD"),
+        (&["flight", "-", "--cd", "0.5", "--area", "0"], "", "--area: reference area must be greater than 0"),
+        (&["flight", "/no/such/file"], "", "cannot open /no/such/file"),
+        (&["flight", "-", "--offset", "-400"], "0,0,0\n", "line 1: temperature must be greater than 0 K"),
+    ]);
 }
 
 #[test]
@@ -159,42 +141,44 @@ fn airspeed_conversions() {
 
 #[test]
 fn airspeed_bad_input_exits_2_with_one_line() {
-    fails_with(
-        &["airspeed", "--tas", "-5", "--pressure", "1e5", "--oat", "288"],
-        "",
-        "--tas: true airspeed -5 m/s is outside the allowed range 0 to",
-    );
-    fails_with(&["airspeed", "--mach", "0.5"], "", "give --pressure-altitude H or --pressure P with --oat T");
-    fails_with(
-        &["airspeed", "--mach", "0.5", "--oat", "250"],
-        "",
-        "--oat needs --pressure-altitude H or --pressure P",
-    );
-    fails_with(
-        &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "288", "--offset", "3"],
-        "",
-        "--offset applies to --altitude only",
-    );
-    fails_with(
-        &["airspeed", "--mach", "0.5", "--pressure-altitude", "-6000", "--oat", "250"],
-        "",
-        "--pressure-altitude/--oat: geopotential altitude -6000 m is outside the allowed range",
-    );
-    fails_with(
-        &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "-3"],
-        "",
-        "temperature must be greater than 0 K",
-    );
-    fails_with(
-        &["airspeed", "--cas", "NaN", "--altitude", "0"],
-        "",
-        "--cas: calibrated airspeed must be a finite number",
-    );
-    fails_with(
-        &["airspeed", "--mach", "0.5", "--altitude", "-7000"],
-        "",
-        "--altitude: geometric altitude -7000 m is outside",
-    );
+    each_fails_with(&[
+        (
+            &["airspeed", "--tas", "-5", "--pressure", "1e5", "--oat", "288"],
+            "",
+            "--tas: true airspeed -5 m/s is outside the allowed range 0 to",
+        ),
+        (&["airspeed", "--mach", "0.5"], "", "give --pressure-altitude H or --pressure P with --oat T"),
+        (
+            &["airspeed", "--mach", "0.5", "--oat", "250"],
+            "",
+            "--oat needs --pressure-altitude H or --pressure P",
+        ),
+        (
+            &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "288", "--offset", "3"],
+            "",
+            "--offset applies to --altitude only",
+        ),
+        (
+            &["airspeed", "--mach", "0.5", "--pressure-altitude", "-6000", "--oat", "250"],
+            "",
+            "--pressure-altitude/--oat: geopotential altitude -6000 m is outside the allowed range",
+        ),
+        (
+            &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "-3"],
+            "",
+            "temperature must be greater than 0 K",
+        ),
+        (
+            &["airspeed", "--cas", "NaN", "--altitude", "0"],
+            "",
+            "--cas: calibrated airspeed must be a finite number",
+        ),
+        (
+            &["airspeed", "--mach", "0.5", "--altitude", "-7000"],
+            "",
+            "--altitude: geometric altitude -7000 m is outside",
+        ),
+    ]);
     // Two speeds, or none: a usage error (exit 2).
     let output =
         aerostrata().args(["airspeed", "--cas", "1", "--tas", "2", "--altitude", "0"]).output().unwrap();
@@ -224,35 +208,29 @@ fn altitude_from_pressure() {
 
 #[test]
 fn altitude_bad_input_exits_2_with_one_line() {
-    fails_with(
-        &["altitude", "--pressure", "2e6"],
-        "",
-        "--pressure: pressure 2000000 Pa is outside the allowed range",
-    );
-    fails_with(
-        &["altitude", "--pressure", "0"],
-        "",
-        "--pressure: pressure must be greater than 0 Pa, got 0 Pa",
-    );
-    fails_with(&["altitude", "--pressure", "inf"], "", "pressure must be a finite number, got inf");
-    fails_with(
-        &["altitude", "--pressure", "9e4", "--qnh", "NaN"],
-        "",
-        "--qnh: QNH setting must be a finite number",
-    );
-    fails_with(
-        &["altitude", "--pressure", "9e4", "--pad", "5e5"],
-        "",
-        "--pad: pad pressure 500000 Pa is outside",
-    );
-    fails_with(
-        &["altitude", "--pressure", "9e4", "--temperature", "0"],
-        "",
-        "--temperature: temperature must be greater than 0 K",
-    );
-    fails_with(&["altitude", "-"], "101325\nabc\n", "line 2: 'abc' is not a number (static pressure in Pa)");
-    fails_with(&["altitude", "-"], "101325\n\n-4\n", "line 3: pressure must be greater than 0 Pa");
-    fails_with(&["altitude", "/no/such/file"], "", "cannot open /no/such/file");
+    each_fails_with(&[
+        (
+            &["altitude", "--pressure", "2e6"],
+            "",
+            "--pressure: pressure 2000000 Pa is outside the allowed range",
+        ),
+        (&["altitude", "--pressure", "0"], "", "--pressure: pressure must be greater than 0 Pa, got 0 Pa"),
+        (&["altitude", "--pressure", "inf"], "", "pressure must be a finite number, got inf"),
+        (
+            &["altitude", "--pressure", "9e4", "--qnh", "NaN"],
+            "",
+            "--qnh: QNH setting must be a finite number",
+        ),
+        (&["altitude", "--pressure", "9e4", "--pad", "5e5"], "", "--pad: pad pressure 500000 Pa is outside"),
+        (
+            &["altitude", "--pressure", "9e4", "--temperature", "0"],
+            "",
+            "--temperature: temperature must be greater than 0 K",
+        ),
+        (&["altitude", "-"], "101325\nabc\n", "line 2: 'abc' is not a number (static pressure in Pa)"),
+        (&["altitude", "-"], "101325\n\n-4\n", "line 3: pressure must be greater than 0 Pa"),
+        (&["altitude", "/no/such/file"], "", "cannot open /no/such/file"),
+    ]);
     let output = aerostrata().args(["altitude"]).output().unwrap();
     assert_eq!(output.status.code(), Some(2));
 }

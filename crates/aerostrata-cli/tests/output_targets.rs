@@ -6,9 +6,10 @@
 
 mod common;
 
+use std::ffi::CString;
 use std::fs;
 use std::os::unix::fs::{FileTypeExt, OpenOptionsExt, PermissionsExt};
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use common::{fails, run, scratch, stdout_of};
 
@@ -29,6 +30,15 @@ fn names(dir: &Path) -> Vec<String> {
         fs::read_dir(dir).unwrap().map(|e| e.unwrap().file_name().into_string().unwrap()).collect();
     names.sort();
     names
+}
+
+/// A fresh scratch folder `folder` and the path `name` in it, with the path as the C
+/// string the libc call that makes a node there takes.
+fn node_path(folder: &str, name: &str) -> (PathBuf, PathBuf, CString) {
+    let dir = scratch(folder);
+    let path = dir.join(name);
+    let c_path = CString::new(path.to_str().unwrap()).unwrap();
+    (dir, path, c_path)
 }
 
 #[test]
@@ -66,9 +76,7 @@ fn symbolic_links_are_followed_not_replaced() {
 
 #[test]
 fn a_fifo_is_written_into_and_stays_a_fifo() {
-    let dir = scratch("out-fifo");
-    let fifo = dir.join("pipe");
-    let name = std::ffi::CString::new(fifo.to_str().unwrap()).unwrap();
+    let (dir, fifo, name) = node_path("out-fifo", "pipe");
     // SAFETY: a valid NUL-terminated path; mkfifo only creates a node.
     assert_eq!(unsafe { libc::mkfifo(name.as_ptr(), 0o600) }, 0, "mkfifo");
     // The read end is opened first without blocking, so that neither side waits on the
@@ -86,9 +94,7 @@ fn a_fifo_is_written_into_and_stays_a_fifo() {
 
 #[test]
 fn a_device_node_is_written_into_and_stays_a_device() {
-    let dir = scratch("out-device");
-    let device = dir.join("null");
-    let name = std::ffi::CString::new(device.to_str().unwrap()).unwrap();
+    let (dir, device, name) = node_path("out-device", "null");
     // A node of the null device (major 1, minor 3 on Linux) of our own, in our own folder.
     // SAFETY: a valid NUL-terminated path; mknod only creates a node.
     let made = unsafe { libc::mknod(name.as_ptr(), libc::S_IFCHR | 0o666, libc::makedev(1, 3)) };

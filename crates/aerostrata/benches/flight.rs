@@ -23,10 +23,10 @@ use std::time::Duration;
 use aerostrata::aero::{DragCurve, Interpolation};
 use aerostrata::flight::{FlightScan, Sample, Vehicle};
 use aerostrata::{Altitude, Atmosphere, US1976};
-use criterion::{criterion_group, criterion_main, Criterion, SamplingMode, Throughput};
+use criterion::{Criterion, SamplingMode};
 
 mod common;
-use common::{bench_each, settings};
+use common::{bench_each, bench_main, group_of, settings};
 
 /// Samples in the flight.
 const COUNT: usize = 1_000_000;
@@ -83,8 +83,7 @@ fn benchmarks(c: &mut Criterion) {
     check_agreement(&samples);
     let vehicle = vehicle();
 
-    let mut group = c.benchmark_group(GROUP);
-    group.throughput(Throughput::Elements(COUNT as u64));
+    let mut group = group_of(c, GROUP, COUNT);
     // One iteration is a whole flight (tens of ms): flat sampling, as criterion advises.
     group.sampling_mode(SamplingMode::Flat);
 
@@ -107,9 +106,4 @@ fn benchmarks(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group! {
-    name = benches;
-    config = settings(10, Duration::from_secs(1), Duration::from_secs(12));
-    targets = benchmarks
-}
-criterion_main!(benches);
+bench_main!(benchmarks, settings(10, Duration::from_secs(1), Duration::from_secs(12)));

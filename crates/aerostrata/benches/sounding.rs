@@ -21,10 +21,10 @@
 //! sampled altitude and its own rows back at the rows.
 
 use aerostrata::{Altitude, AltitudeKind, Atmosphere, SoundingLevel, SoundingRow, Tabulated, US1976};
-use criterion::{criterion_group, criterion_main, Criterion, Throughput};
+use criterion::Criterion;
 
 mod common;
-use common::{bench_each, per_evaluation, XorShift64};
+use common::{bench_each, bench_main, group_of, per_evaluation, XorShift64};
 
 const COUNT: usize = 1024;
 const ROWS: usize = 200;
@@ -91,8 +91,7 @@ fn benchmarks(c: &mut Criterion) {
     check(&dry, &dry_rows, &altitudes);
     check(&uneven, &uneven_rows, &altitudes);
 
-    let mut group = c.benchmark_group(GROUP);
-    group.throughput(Throughput::Elements(COUNT as u64));
+    let mut group = group_of(c, GROUP, COUNT);
     bench_each(&mut group, "standard_full_state", &altitudes, |altitude| US1976.state(altitude));
     bench_each(&mut group, "sounding_full_state", &altitudes, |altitude| humid.state(altitude));
     bench_each(&mut group, "sounding_dry_full_state", &altitudes, |altitude| dry.state(altitude));
@@ -103,9 +102,4 @@ fn benchmarks(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group! {
-    name = benches;
-    config = per_evaluation();
-    targets = benchmarks
-}
-criterion_main!(benches);
+bench_main!(benchmarks, per_evaluation());

@@ -28,10 +28,10 @@
 
 use aerostrata::constants::{EARTH_RADIUS_M, G0_M_S2, GAS_CONSTANT_J_KMOL_K, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use aerostrata::{Air, Altitude, Atmosphere, Result, State, US1976};
-use criterion::{criterion_group, criterion_main, Criterion, Throughput};
+use criterion::Criterion;
 
 mod common;
-use common::{bench_each, per_evaluation, XorShift64};
+use common::{bench_each, bench_main, group_of, per_evaluation, XorShift64};
 
 /// How many altitudes one iteration evaluates.
 const COUNT: usize = 1024;
@@ -206,8 +206,7 @@ fn benchmarks(c: &mut Criterion) {
         .map(|z| Altitude::geometric_m(86_000.0 + 914_000.0 * z / TOP_M).expect("valid"))
         .collect();
 
-    let mut group = c.benchmark_group(GROUP);
-    group.throughput(Throughput::Elements(COUNT as u64));
+    let mut group = group_of(c, GROUP, COUNT);
 
     bench_each(&mut group, "full_state", &altitudes, |altitude| US1976.state(altitude));
     bench_each(&mut group, "full_state_upper", &upper, |altitude| US1976.state(altitude));
@@ -222,9 +221,4 @@ fn benchmarks(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group! {
-    name = benches;
-    config = per_evaluation();
-    targets = benchmarks
-}
-criterion_main!(benches);
+bench_main!(benchmarks, per_evaluation());

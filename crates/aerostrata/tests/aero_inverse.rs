@@ -18,21 +18,30 @@ use aerostrata::inverse::{
     density_altitude_from, pressure_altitude, BarometricReference, Property,
 };
 use aerostrata::{
-    Air, Altitude, Atmosphere, Error, GeometricAltitude, Isothermal, Layer, LayerSpec, Layered,
-    SolverSettings, State, TemperatureOffset, US1976,
+    Air, Altitude, Atmosphere, Error, GeometricAltitude, GeopotentialAltitude, Isothermal, Layer, LayerSpec,
+    Layered, SolverSettings, State, TemperatureOffset, US1976,
 };
 use proptest::prelude::*;
 
 mod common;
-use common::relative;
+use common::{relative, standard_at_geopotential};
 
 const ROUND_TRIP: f64 = 1e-9;
 const LAYER_BASE_M: f64 = 1e-9;
 const AIRSPEED: f64 = 1e-12;
 const SOLVED_M: f64 = 1e-6;
 
-fn standard_pressure_at_geopotential(h: f64) -> f64 {
-    US1976.pressure_pa(Altitude::geopotential_m(h).unwrap()).unwrap()
+/// The round trip value -> altitude -> value through the 1976 standard from geometric
+/// altitude `z` m: the value `value_at` gives there, the altitude `inverse` finds for it,
+/// and the value back at that altitude.
+fn round_trip(
+    z: f64,
+    value_at: impl Fn(Altitude) -> aerostrata::Result<f64>,
+    inverse: impl Fn(f64) -> aerostrata::Result<GeopotentialAltitude>,
+) -> (f64, GeopotentialAltitude, f64) {
+    let value = value_at(Altitude::geometric_m(z).unwrap()).unwrap();
+    let h = inverse(value).unwrap();
+    (value, h, value_at(Altitude::Geopotential(h)).unwrap())
 }
 
 #[test]
@@ -103,9 +112,7 @@ fn above_86_km_the_solver_answers_where_the_model_goes_there() {
         if z > range.geometric_max_m {
             continue;
         }
-        let p = US1976.pressure_pa(Altitude::geometric_m(z).unwrap()).unwrap();
-        let h = pressure_altitude(p).unwrap();
-        let back = US1976.pressure_pa(Altitude::Geopotential(h)).unwrap();
+        let (p, h, back) = round_trip(z, |at| US1976.pressure_pa(at), pressure_altitude);
         assert!(relative(back, p) < ROUND_TRIP, "{z} m: {p} Pa -> {h:?} -> {back} Pa");
         checked += 1;
     }
@@ -117,9 +124,7 @@ proptest! {
 
     #[test]
     fn pressure_altitude_round_trips(z in -5_000.0..86_000.0f64) {
-        let p = US1976.pressure_pa(Altitude::geometric_m(z).unwrap()).unwrap();
-        let h = pressure_altitude(p).unwrap();
-        let back = US1976.pressure_pa(Altitude::Geopotential(h)).unwrap();
+        let (p, h, back) = round_trip(z, |at| US1976.pressure_pa(at), pressure_altitude);
         prop_assert!(relative(back, p) <= ROUND_TRIP, "{z} m: {p} Pa -> {h:?} -> {back} Pa");
         // And in altitude: dH = dp / (rho g0); 1e-9 relative in p is at most 0.01 mm at
         // sea level and 0.6 mm near 86 km (scale height 5 km), so 1 mm.
@@ -128,9 +133,7 @@ proptest! {
 
     #[test]
     fn density_altitude_round_trips(z in -5_000.0..86_000.0f64) {
-        let rho = US1976.density_kg_m3(Altitude::geometric_m(z).unwrap()).unwrap();
-        let h = density_altitude(rho).unwrap();
-        let back = US1976.density_kg_m3(Altitude::Geopotential(h)).unwrap();
+        let (rho, h, back) = round_trip(z, |at| US1976.density_kg_m3(at), density_altitude);
         prop_assert!(relative(back, rho) <= ROUND_TRIP, "{z} m: {rho} -> {h:?} -> {back}");
     }
 
@@ -138,7 +141,7 @@ proptest! {
     // Below 80 km geometric (79 006 m'), where the kinetic temperature is T_M and M = M0,
     // so the dry-air density of (p, T) is the standard's own.
     fn density_altitude_on_a_standard_day_is_the_altitude(h in -5_000.0..79_000.0f64) {
-        let s = US1976.state(Altitude::geopotential_m(h).unwrap()).unwrap();
+        let s = standard_at_geopotential(h);
         let d = density_altitude_from(s.pressure_pa, s.temperature_k).unwrap();
         let p = pressure_altitude(s.pressure_pa).unwrap();
         prop_assert!((d.meters() - h).abs() < 1e-3 && (p.meters() - h).abs() < 1e-3);
@@ -163,7 +166,7 @@ proptest! {
         prop_assert!((p < pad) == (above_pad > 0.0) || p == pad);
         // QNH: the setting that makes the altimeter read the field's elevation at the field.
         let field = pressure_altitude(pad).unwrap().meters();
-        let qnh = standard_pressure_at_geopotential(field - elevation);
+        let qnh = standard_at_geopotential(field - elevation).pressure_pa;
         let reading = barometric_altitude_m(pad, BarometricReference::Qnh { setting_pa: qnh }).unwrap();
         prop_assert!((reading - elevation).abs() < 1e-6, "QNH {qnh}: reads {reading}, field {elevation}");
     }

@@ -16,16 +16,12 @@ use aerostrata::{
 use proptest::prelude::*;
 
 mod common;
-use common::{assert_finite, relative, wild};
+use common::{assert_finite, relative, standard_at, standard_at_geopotential, wild};
 
 const GAS_LAW_TOLERANCE: f64 = 1e-14;
 const HYDROSTATIC_TOLERANCE: f64 = 1e-7;
 const CONTINUITY_TOLERANCE: f64 = 1e-12;
 const ROUND_TRIP_TOLERANCE_M: f64 = 1e-9;
-
-fn standard_at(z: f64) -> State {
-    US1976.state(Altitude::geometric_m(z).unwrap()).unwrap()
-}
 
 proptest! {
     #![proptest_config(ProptestConfig { cases: 2000, ..ProptestConfig::default() })]
@@ -39,7 +35,7 @@ proptest! {
 
     #[test]
     fn hydrostatic_law_holds(h in -5_000.0..84_850.0f64) {
-        let at = |h: f64| US1976.state(Altitude::geopotential_m(h).unwrap()).unwrap();
+        let at = standard_at_geopotential;
         let step = 0.01;
         let dp_dh = (at(h + step).pressure_pa - at(h - step).pressure_pa) / (2.0 * step);
         let expected = -at(h).density_kg_m3 * G0_M_S2;

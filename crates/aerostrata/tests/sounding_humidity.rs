@@ -14,20 +14,28 @@ use common::relative;
 /// Buck's fit (1981, from memory) is within 0.1 % of it from 0 to 40 degC and reads
 /// 0.14 % high at 50 degC and 0.38 % at 60 degC, the top of aerostrata's band; the
 /// tolerances are those deviations rounded up, so a wrong coefficient fails.
-const HANDBOOK_VAPOUR_PRESSURE: [(f64, f64, f64); 8] = [
-    (0.0, 611.2, 0.0002),
-    (10.0, 1228.1, 0.001),
-    (20.0, 2339.3, 0.001),
-    (25.0, 3169.9, 0.001),
-    (30.0, 4246.9, 0.001),
-    (40.0, 7384.9, 0.001),
-    (50.0, 12_352.0, 0.002),
-    (60.0, 19_946.0, 0.004),
+const HANDBOOK_VAPOUR_PRESSURE: [HandbookPoint; 8] = [
+    HandbookPoint { t_c: 0.0, pa: 611.2, tolerance: 0.0002 },
+    HandbookPoint { t_c: 10.0, pa: 1228.1, tolerance: 0.001 },
+    HandbookPoint { t_c: 20.0, pa: 2339.3, tolerance: 0.001 },
+    HandbookPoint { t_c: 25.0, pa: 3169.9, tolerance: 0.001 },
+    HandbookPoint { t_c: 30.0, pa: 4246.9, tolerance: 0.001 },
+    HandbookPoint { t_c: 40.0, pa: 7384.9, tolerance: 0.001 },
+    HandbookPoint { t_c: 50.0, pa: 12_352.0, tolerance: 0.002 },
+    HandbookPoint { t_c: 60.0, pa: 19_946.0, tolerance: 0.004 },
 ];
+
+/// A point of the handbook table: temperature, degC; vapour pressure, Pa; and the relative
+/// tolerance Buck's fit gets there.
+struct HandbookPoint {
+    t_c: f64,
+    pa: f64,
+    tolerance: f64,
+}
 
 #[test]
 fn saturation_vapour_pressure_matches_a_handbook_table() {
-    for (t_c, handbook, tolerance) in HANDBOOK_VAPOUR_PRESSURE {
+    for HandbookPoint { t_c, pa: handbook, tolerance } in HANDBOOK_VAPOUR_PRESSURE {
         let e = humidity::pure_water_saturation_vapour_pressure_pa(t_c + 273.15).unwrap();
         assert!(relative(e, handbook) <= tolerance, "{t_c} degC: {e} Pa vs {handbook} Pa");
     }

@@ -29,33 +29,18 @@ const HYDROSTATIC_BALANCE: f64 = 1e-6;
 const HYDROSTATIC_STEP_M: f64 = 5.0;
 
 fn wild_row() -> impl Strategy<Value = SoundingRow> {
-    (
-        wild(),
-        wild(),
-        proptest::option::of(wild()),
-        proptest::option::of(wild()),
-        proptest::option::of(wild()),
-        proptest::option::of(wild()),
-    )
-        .prop_map(
-            |(
-                altitude_m,
-                temperature_k,
+    let optional = || proptest::option::of(wild());
+    (wild(), wild(), optional(), optional(), optional(), optional()).prop_map(
+        |(altitude_m, temperature_k, pressure_pa, density_kg_m3, dew_point_k, relative_humidity_percent)| {
+            SoundingRow {
                 pressure_pa,
                 density_kg_m3,
                 dew_point_k,
                 relative_humidity_percent,
-            )| {
-                SoundingRow {
-                    altitude_m,
-                    temperature_k,
-                    pressure_pa,
-                    density_kg_m3,
-                    dew_point_k,
-                    relative_humidity_percent,
-                }
-            },
-        )
+                ..SoundingRow::new(altitude_m, temperature_k)
+            }
+        },
+    )
 }
 
 /// A valid table: a hot, humid invented profile with random spacing, lapse rates and

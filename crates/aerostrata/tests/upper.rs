@@ -15,12 +15,11 @@
 
 use aerostrata::constants::{AVOGADRO_PER_KMOL, BOLTZMANN_J_K};
 use aerostrata::model::upper::{table_nodes, temperature, MOLAR_MASS_KG_KMOL};
-use aerostrata::{Altitude, Atmosphere, State, US1976};
+use aerostrata::{Altitude, Atmosphere, US1976};
 use proptest::prelude::*;
 
-fn state(z: f64) -> State {
-    US1976.state(Altitude::geometric_m(z).unwrap()).unwrap()
-}
+mod common;
+use common::standard_at;
 
 fn ln_species(z: f64) -> [f64; 6] {
     US1976.species(Altitude::geometric_m(z).unwrap()).unwrap().as_array().map(f64::ln)
@@ -33,14 +32,14 @@ proptest! {
     fn pressure_and_density_fall_strictly(z in 86_000.0..1_000_000.0f64, gap in 0.01..100_000.0f64) {
         let upper = (z + gap).min(1_000_000.0);
         prop_assume!(upper > z);
-        let (low, high) = (state(z), state(upper));
+        let (low, high) = (standard_at(z), standard_at(upper));
         prop_assert!(high.pressure_pa < low.pressure_pa, "p at {z} and {upper}");
         prop_assert!(high.density_kg_m3 < low.density_kg_m3, "rho at {z} and {upper}");
     }
 
     #[test]
     fn gas_law_and_mass_sum_hold(z in 86_000.0..1_000_000.0f64) {
-        let s = state(z);
+        let s = standard_at(z);
         let n = US1976.species(Altitude::geometric_m(z).unwrap()).unwrap();
         let total = n.total_m3();
         let mass: f64 = n.as_array().iter().zip(MOLAR_MASS_KG_KMOL).map(|(n, m)| n * m / AVOGADRO_PER_KMOL).sum();
@@ -96,8 +95,8 @@ fn interpolant_is_continuous_with_bounded_slope_jumps_at_nodes() {
 
 #[test]
 fn the_parts_meet_at_86_km_within_the_standards_own_step() {
-    let lower = state(86_000.0);
-    let upper = state(f64::from_bits(86_000.0f64.to_bits() + 1));
+    let lower = standard_at(86_000.0);
+    let upper = standard_at(f64::from_bits(86_000.0f64.to_bits() + 1));
     let jump = |a: f64, b: f64| ((b - a) / a).abs();
     // The standard's own discontinuity: its 86 km species sum to a pressure 1.05e-5 above
     // its layered pressure, and T7 = 186.8673 K is given for 84.852 km' exactly.
@@ -132,5 +131,7 @@ fn range_and_errors() {
     // Geopotential input above 86 km goes to the upper part too.
     let h = Altitude::geometric_m(300_000.0).unwrap().geopotential();
     let via_h = US1976.state(Altitude::Geopotential(h)).unwrap();
-    assert!(((via_h.density_kg_m3 - state(300_000.0).density_kg_m3) / via_h.density_kg_m3).abs() < 1e-12);
+    assert!(
+        ((via_h.density_kg_m3 - standard_at(300_000.0).density_kg_m3) / via_h.density_kg_m3).abs() < 1e-12
+    );
 }

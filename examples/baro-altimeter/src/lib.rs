@@ -190,21 +190,22 @@ pub fn barometer_log(site: Site, truth: &TrueFlight, noise: &mut Noise) -> Vec<R
         .collect()
 }
 
-/// The altimeter's gains: an alpha-beta filter on height (common practice, no source).
+/// The altimeter's tuning: the gains of an alpha-beta filter on height (common
+/// practice, no source) and the height at which it arms.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Gains {
+pub struct Tuning {
     /// Share of each height residual taken into the height.
     pub alpha: f64,
     /// Share of each residual (per sample interval) taken into the vertical speed.
     pub beta: f64,
+    /// Height above the pad at which the altimeter arms (launch detected), m.
+    pub arm_height_m: f64,
 }
 
-/// The gains used: smooth enough for a few tenths of a metre of noise at 50 Hz, quick
-/// enough that the vertical speed lags the truth by a few tenths of a second.
-pub const GAINS: Gains = Gains { alpha: 0.12, beta: 0.008 };
-
-/// Height above the pad at which the altimeter arms (launch detected), m.
-pub const ARM_HEIGHT_M: f64 = 30.0;
+/// The tuning used: gains smooth enough for a few tenths of a metre of noise at 50 Hz,
+/// quick enough that the vertical speed lags the truth by a few tenths of a second; armed
+/// 30 m above the pad.
+pub const TUNING: Tuning = Tuning { alpha: 0.12, beta: 0.008, arm_height_m: 30.0 };
 
 /// One processed sample.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -226,7 +227,7 @@ pub struct Processed {
 pub struct Detection {
     /// The pad pressure it zeroed on (mean of the readings before ignition), Pa.
     pub pad_pressure_pa: f64,
-    /// When it armed (filtered height above [`ARM_HEIGHT_M`]), s.
+    /// When it armed (filtered height above [`Tuning::arm_height_m`]), s.
     pub launch_time_s: f64,
     /// When it called apogee (first filtered vertical speed at or below 0 after arming), s.
     pub apogee_time_s: f64,
@@ -238,7 +239,7 @@ pub struct Detection {
 ///
 /// # Errors
 /// The core's message for a reading outside the standard's pressures, with its time.
-pub fn process(log: &[Reading], gains: Gains) -> Result<(Vec<Processed>, Option<Detection>), String> {
+pub fn process(log: &[Reading], tuning: Tuning) -> Result<(Vec<Processed>, Option<Detection>), String> {
     let pad: Vec<f64> = log.iter().filter(|r| r.time_s < 0.0).map(|r| r.pressure_pa).collect();
     if pad.is_empty() {
         return Err("the log has no readings before ignition to zero on".to_owned());
@@ -258,10 +259,10 @@ pub fn process(log: &[Reading], gains: Gains) -> Result<(Vec<Processed>, Option<
         last_time = Some(reading.time_s);
         let predicted = h + v * dt;
         let residual = z - predicted;
-        h = predicted + gains.alpha * residual;
-        v += gains.beta / dt * residual;
+        h = predicted + tuning.alpha * residual;
+        v += tuning.beta / dt * residual;
         highest = highest.max(h);
-        if launch.is_none() && h > ARM_HEIGHT_M {
+        if launch.is_none() && h > tuning.arm_height_m {
             launch = Some(reading.time_s);
         }
         if launch.is_some() && apogee.is_none() && v <= 0.0 {

@@ -7,7 +7,7 @@ use std::fmt::Write as _;
 use std::path::PathBuf;
 
 use aerostrata_cli::plot::{Figure, Layout, LegendPosition, Marker, Panel, Series};
-use baro_altimeter::{barometer_log, process, true_flight, Noise, GAINS, HOT_DESERT_PAD, NOISE_PA, SAMPLE_S};
+use baro_altimeter::{barometer_log, process, true_flight, Noise, HOT_DESERT_PAD, NOISE_PA, SAMPLE_S};
 
 fn main() -> Result<(), Box<dyn std::error::Error>> {
     let root = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../..");
@@ -18,7 +18,7 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
     let site = HOT_DESERT_PAD;
     let truth = true_flight(site);
     let log = barometer_log(site, &truth, &mut Noise::new(19_761_976));
-    let (rows, detection) = process(&log, GAINS)?;
+    let (rows, detection) = process(&log, baro_altimeter::TUNING)?;
     let detection = detection.ok_or("the altimeter never called apogee")?;
     let true_height = truth.apogee_altitude_m - site.pad_altitude_m;
 
@@ -87,66 +87,67 @@ fn figure(
     detection: &baro_altimeter::Detection,
     true_height: f64,
 ) -> Figure {
-    let mut height = Panel {
+    let height = Panel {
         x_label: "time since ignition (s)".to_owned(),
         y_label: "height above the pad (m)".to_owned(),
         legend: LegendPosition::LowerRight,
+        series: vec![
+            altimeter_line("barometric, raw", 5, rows.iter().map(|r| (r.time_s, r.height_m))),
+            altimeter_line(
+                "barometric, filtered",
+                0,
+                rows.iter().step_by(2).map(|r| (r.time_s, r.filtered_height_m)),
+            ),
+            true_line(
+                "true (geometric)",
+                truth.points.iter().step_by(5).map(|p| (p.time_s, p.altitude_m - pad_m)),
+            ),
+        ],
+        markers: vec![
+            Marker {
+                at: (truth.apogee_time_s, true_height),
+                text: format!("true apogee {true_height:.0} m at {:.2} s", truth.apogee_time_s),
+                color: 1,
+            },
+            Marker {
+                at: (detection.apogee_time_s, detection.apogee_height_m),
+                text: format!(
+                    "detected {:.0} m at {:.2} s",
+                    detection.apogee_height_m, detection.apogee_time_s
+                ),
+                color: 0,
+            },
+        ],
         ..Panel::default()
     };
-    height.series.push(Series {
-        label: "barometric, raw".to_owned(),
-        points: rows.iter().map(|r| (r.time_s, r.height_m)).collect(),
-        dashed: false,
-        color: 5,
-    });
-    height.series.push(Series {
-        label: "barometric, filtered".to_owned(),
-        points: rows.iter().step_by(2).map(|r| (r.time_s, r.filtered_height_m)).collect(),
-        dashed: false,
-        color: 0,
-    });
-    height.series.push(Series {
-        label: "true (geometric)".to_owned(),
-        points: truth.points.iter().step_by(5).map(|p| (p.time_s, p.altitude_m - pad_m)).collect(),
-        dashed: true,
-        color: 1,
-    });
-    height.markers.push(Marker {
-        at: (truth.apogee_time_s, true_height),
-        text: format!("true apogee {true_height:.0} m at {:.2} s", truth.apogee_time_s),
-        color: 1,
-    });
-    height.markers.push(Marker {
-        at: (detection.apogee_time_s, detection.apogee_height_m),
-        text: format!("detected {:.0} m at {:.2} s", detection.apogee_height_m, detection.apogee_time_s),
-        color: 0,
-    });
-    let mut speed = Panel {
+    let speed = Panel {
         x_label: "time since ignition (s)".to_owned(),
         y_label: "vertical speed (m/s)".to_owned(),
+        series: vec![
+            altimeter_line("filtered", 0, rows.iter().map(|r| (r.time_s, r.vertical_speed_m_s))),
+            true_line("true", truth.points.iter().step_by(5).map(|p| (p.time_s, p.velocity_m_s))),
+        ],
+        markers: vec![Marker {
+            at: (detection.apogee_time_s, 0.0),
+            text: format!("apogee called at {:.2} s", detection.apogee_time_s),
+            color: 0,
+        }],
         ..Panel::default()
     };
-    speed.series.push(Series {
-        label: "filtered".to_owned(),
-        points: rows.iter().map(|r| (r.time_s, r.vertical_speed_m_s)).collect(),
-        dashed: false,
-        color: 0,
-    });
-    speed.series.push(Series {
-        label: "true".to_owned(),
-        points: truth.points.iter().step_by(5).map(|p| (p.time_s, p.velocity_m_s)).collect(),
-        dashed: true,
-        color: 1,
-    });
-    speed.markers.push(Marker {
-        at: (detection.apogee_time_s, 0.0),
-        text: format!("apogee called at {:.2} s", detection.apogee_time_s),
-        color: 0,
-    });
     Figure {
         title: "Barometric altimeter on an invented log (ISA + 8 K, 50 Hz, 3 Pa noise)".to_owned(),
         layout: Layout::Stacked,
         panels: vec![height, speed],
         size: (900, 760),
     }
+}
+
+/// A solid line of what the altimeter computed, in palette colour `color`.
+fn altimeter_line(label: &str, color: usize, points: impl Iterator<Item = (f64, f64)>) -> Series {
+    Series { label: label.to_owned(), points: points.collect(), dashed: false, color }
+}
+
+/// A dashed line of the true flight, in the truth's colour (that of its apogee marker).
+fn true_line(label: &str, points: impl Iterator<Item = (f64, f64)>) -> Series {
+    Series { label: label.to_owned(), points: points.collect(), dashed: true, color: 1 }
 }

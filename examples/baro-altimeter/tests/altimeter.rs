@@ -22,7 +22,7 @@ fn apogee_is_detected_within_tolerance_for_every_noise_draw() {
     assert!((3_000.0..3_500.0).contains(&true_height) && (24.0..27.0).contains(&truth.apogee_time_s));
     for seed in [19_761_976, 1, 2, 3, 42, 1_234_567] {
         let log = barometer_log(site, &truth, &mut Noise::new(seed));
-        let (rows, detection) = process(&log, GAINS).unwrap();
+        let (rows, detection) = process(&log, TUNING).unwrap();
         let d = detection.expect("apogee detected");
         let late = d.apogee_time_s - truth.apogee_time_s;
         assert!((-EARLY_S..=LATE_S).contains(&late), "seed {seed}: late by {late} s");
@@ -41,7 +41,7 @@ fn the_pad_zeroes_the_altimeter() {
     let site = HOT_DESERT_PAD;
     let truth = true_flight(site);
     let log = barometer_log(site, &truth, &mut Noise::new(7));
-    let (rows, detection) = process(&log, GAINS).unwrap();
+    let (rows, detection) = process(&log, TUNING).unwrap();
     let day = TemperatureOffset::new(US1976, site.offset_k).unwrap();
     let pad = day.pressure_pa(Altitude::geometric_m(site.pad_altitude_m).unwrap()).unwrap();
     // 150 readings with 3 Pa noise: the mean is within 1 Pa (over 3 standard errors).
@@ -62,12 +62,12 @@ fn noise_has_the_stated_spread() {
 #[test]
 fn bad_logs_are_errors_not_panics() {
     let only_flight = [Reading { time_s: 0.0, pressure_pa: 85_000.0 }];
-    assert!(process(&only_flight, GAINS).unwrap_err().contains("no readings before ignition"));
+    assert!(process(&only_flight, TUNING).unwrap_err().contains("no readings before ignition"));
     let bad = [Reading { time_s: -1.0, pressure_pa: 85_000.0 }, Reading { time_s: 0.0, pressure_pa: -5.0 }];
-    let message = process(&bad, GAINS).unwrap_err();
+    let message = process(&bad, TUNING).unwrap_err();
     assert!(message.contains("t = 0 s") && message.contains("pressure"), "{message}");
     // A log that never climbs never calls apogee.
     let flat: Vec<Reading> =
         (0..300).map(|i| Reading { time_s: -3.0 + 0.02 * i as f64, pressure_pa: 85_000.0 }).collect();
-    assert!(process(&flat, GAINS).unwrap().1.is_none());
+    assert!(process(&flat, TUNING).unwrap().1.is_none());
 }

@@ -14,6 +14,9 @@ use crate::failure::Failure;
 use crate::output::rows::{Column, Format, RowWriter};
 
 #[derive(Args)]
+#[command(
+    after_help = "Example:\n  aerostrata airspeed --cas 250 --unit kt --pressure-altitude 3048 --oat 268.15"
+)]
 #[command(group(ArgGroup::new("speed").required(true).args(["cas", "eas", "tas", "mach"])))]
 pub struct AirspeedArgs {
     /// Calibrated airspeed, in --unit.

@@ -15,6 +15,7 @@ use crate::input::progress::When;
 use crate::output::rows::{Column, Format, RowWriter};
 
 #[derive(Args)]
+#[command(after_help = "Example:\n  aerostrata altitude --pressure 84300 --pad 98100 --temperature 281.2")]
 #[command(group(ArgGroup::new("input").required(true).args(["pressure", "file"])))]
 pub struct AltitudeArgs {
     /// Static pressure, Pa (inHg with --units us).

@@ -10,6 +10,9 @@ use crate::failure::Failure;
 use crate::output::destination::Destination;
 
 #[derive(Args)]
+#[command(
+    after_help = "Example:\n  aerostrata completions bash > ~/.local/share/bash-completion/completions/aerostrata"
+)]
 pub struct CompletionsArgs {
     /// The shell.
     #[arg(value_enum)]

@@ -17,6 +17,8 @@ use crate::output::state::{state_columns, state_values};
 use crate::units::UnitSystem;
 
 #[derive(Args)]
+#[command(after_help = "Examples:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10\n  \
+                       printf '120000\\n400000\\n' | aerostrata eval --species")]
 pub struct EvalArgs {
     /// File of altitudes (m, or ft with --units us), one per line; `-` or nothing reads
     /// stdin. Blank lines and lines starting with `#` are skipped.

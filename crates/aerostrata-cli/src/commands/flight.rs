@@ -24,6 +24,8 @@ use crate::output::rows::{Column, Format, RowWriter};
 use crate::units::{column, UnitSystem};
 
 #[derive(Args)]
+#[command(after_help = "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
+                       --area 0.0182 --summary json")]
 pub struct FlightArgs {
     /// CSV of samples, one per line: time_s,altitude_m,velocity_m_s (time in s,
     /// geometric altitude, velocity relative to the air, its sign ignored; ft and ft/s

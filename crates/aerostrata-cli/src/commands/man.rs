@@ -9,6 +9,7 @@ use crate::failure::Failure;
 use crate::output::destination::Destination;
 
 #[derive(Args)]
+#[command(after_help = "Example:\n  aerostrata man | man -l -")]
 pub struct ManArgs {
     /// A subcommand (e.g. `plot profile`) whose page to print instead of the tool's.
     subcommand: Vec<String>,

@@ -27,21 +27,17 @@ use crate::units::{in_words, UnitSystem};
 pub enum PlotCommand {
     /// State quantities against altitude, one panel per quantity, every model on the same
     /// axes (a log scale where a quantity spans decades).
-    #[command(
-        after_help = "Example:\n  aerostrata plot profile temperature density --model standard --model offset=15 \\\n    \
-                            --model sounding=examples/data/vessaro_key_hot_humid.csv --to 30000 -o profile.svg"
-    )]
     Profile(ProfileArgs),
     /// Dynamic pressure and Mach number against time for one or more flights (CSV as for
     /// `aerostrata flight`), each flight's maximum q marked.
-    #[command(
-        after_help = "Example:\n  aerostrata plot flight full.csv throttled.csv --label 'full thrust' --label throttled \\\n    \
-                            --cd-table 0:0.4,1:0.6,2:0.45 --area 0.03 -o q.svg"
-    )]
     Flight(FlightPlotArgs),
 }
 
 #[derive(Args)]
+#[command(
+    after_help = "Example:\n  aerostrata plot profile temperature density --model standard --model offset=15 \\\n    \
+                 --model sounding=examples/data/vessaro_key_hot_humid.csv --to 30000 -o profile.svg"
+)]
 pub struct ProfileArgs {
     /// Quantities of the state to plot by their catalogue names, each on its own panel
     /// (at most 4) [default: temperature pressure density].
@@ -74,6 +70,10 @@ pub struct ProfileArgs {
 }
 
 #[derive(Args)]
+#[command(
+    after_help = "Example:\n  aerostrata plot flight full.csv throttled.csv --label 'full thrust' --label throttled \\\n    \
+                 --cd-table 0:0.4,1:0.6,2:0.45 --area 0.03 -o q.svg"
+)]
 pub struct FlightPlotArgs {
     /// Flight files (CSV as for `aerostrata flight`), each its own line; `-` reads stdin.
     #[arg(required = true)]

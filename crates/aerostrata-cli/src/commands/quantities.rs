@@ -14,6 +14,9 @@ use crate::output::rows::{Cell, Column, Format, RowWriter};
 use crate::units::column;
 
 #[derive(Args)]
+#[command(
+    after_help = "Examples:\n  aerostrata quantities\n  aerostrata quantities --format json -o quantities.json"
+)]
 pub struct QuantitiesArgs {
     /// Output format (the tables leave out the descriptions; CSV and JSON carry them).
     #[arg(long, value_enum, default_value_t = Format::Table)]

@@ -11,6 +11,10 @@ use crate::output::state::{state_columns, state_values};
 use crate::units::{in_words, UnitSystem};
 
 #[derive(Args)]
+#[command(
+    after_help = "Examples:\n  aerostrata table --from 0 --to 20000 --step 500 --offset 15 --format csv\n  \
+                 aerostrata table --units us --from 0 --to 40000 --step 5000 --format markdown"
+)]
 pub struct TableArgs {
     /// Lowest altitude, m or ft [default: 0, or the model's bottom if higher].
     #[arg(long, value_name = "Z", allow_negative_numbers = true)]

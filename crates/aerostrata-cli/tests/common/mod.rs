@@ -46,6 +46,13 @@ pub fn fails_with(args: &[&str], stdin: &str, words: &str) {
     fails(2, args, stdin, words);
 }
 
+/// `fails_with` for each case: (arguments, stdin, words of the one line on stderr).
+pub fn each_fails_with(cases: &[(&[&str], &str, &str)]) {
+    for (args, stdin, words) in cases {
+        fails_with(args, stdin, words);
+    }
+}
+
 /// The cells of column `name` of a CSV text; `None` for an empty cell.
 pub fn column(csv: &str, name: &str) -> Vec<Option<f64>> {
     let mut lines = csv.lines();

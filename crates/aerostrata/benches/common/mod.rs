@@ -1,13 +1,14 @@
 //! What the benchmarks share: the generator of their fixed pseudo-random altitudes,
-//! criterion's settings, and the timed loop over a prepared set of inputs. Each benchmark
-//! uses a part of it, so the rest is dead code there.
+//! criterion's settings, the group of a benchmark binary, the timed loop over a prepared
+//! set of inputs, and the binary's `main`. Each benchmark uses a part of it, so the rest
+//! is dead code there.
 #![allow(dead_code)]
 
 use std::hint::black_box;
 use std::time::Duration;
 
 use criterion::measurement::WallTime;
-use criterion::{BenchmarkGroup, Criterion};
+use criterion::{BenchmarkGroup, Criterion, Throughput};
 
 /// Marsaglia's xorshift64 (G. Marsaglia, "Xorshift RNGs", Journal of Statistical Software
 /// 8 (2003); from memory): tiny, deterministic, good enough to scatter altitudes.
@@ -40,6 +41,14 @@ pub fn per_evaluation() -> Criterion {
     settings(30, Duration::from_millis(500), Duration::from_secs(2))
 }
 
+/// The benchmark group `name` (the first part of each benchmark's id), one iteration of
+/// which is `elements` evaluations: criterion reports the throughput per evaluation.
+pub fn group_of<'a>(c: &'a mut Criterion, name: &str, elements: usize) -> BenchmarkGroup<'a, WallTime> {
+    let mut group = c.benchmark_group(name);
+    group.throughput(Throughput::Elements(elements as u64));
+    group
+}
+
 /// Times `f` over every element of `inputs` as benchmark `id` of `group`: one criterion
 /// iteration is one pass, each input and each result behind `black_box`, so that the
 /// compiler neither hoists the work out of the loop nor drops it.
@@ -57,3 +66,17 @@ pub fn bench_each<T: Copy, R>(
         });
     });
 }
+
+/// The `main` of a benchmark binary: criterion's group `benches` running the function
+/// `$benchmarks` with the settings `$config`.
+macro_rules! bench_main {
+    ($benchmarks:path, $config:expr) => {
+        criterion::criterion_group! {
+            name = benches;
+            config = $config;
+            targets = $benchmarks
+        }
+        criterion::criterion_main!(benches);
+    };
+}
+pub(crate) use bench_main;

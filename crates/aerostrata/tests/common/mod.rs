@@ -1,9 +1,10 @@
 //! What the test files share: the generator of hostile f64 for the no-panic property
-//! tests, the relative difference every tolerance is stated in, and the finiteness check
-//! of a state. Each test file uses a part of it, so the rest is dead code there.
+//! tests, the relative difference every tolerance is stated in, the 1976 standard's state
+//! at an altitude in its range, and the finiteness check of a state. Each test file uses a
+//! part of it, so the rest is dead code there.
 #![allow(dead_code)]
 
-use aerostrata::State;
+use aerostrata::{Altitude, Atmosphere, State, US1976};
 use proptest::prelude::*;
 
 /// Any f64 at all, weighted toward the ones that break code: NaN, infinities, signed
@@ -37,6 +38,16 @@ pub fn relative(a: f64, b: f64) -> f64 {
     } else {
         ((a - b) / b).abs()
     }
+}
+
+/// The 1976 standard's state at geometric altitude `z_m`, m, inside its range.
+pub fn standard_at(z_m: f64) -> State {
+    US1976.state(Altitude::geometric_m(z_m).unwrap()).unwrap()
+}
+
+/// The 1976 standard's state at geopotential altitude `h_m`, m', inside its range.
+pub fn standard_at_geopotential(h_m: f64) -> State {
+    US1976.state(Altitude::geopotential_m(h_m).unwrap()).unwrap()
 }
 
 /// A state that came out Ok must be wholly finite: no silent NaN or infinity.

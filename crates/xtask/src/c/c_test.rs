@@ -10,7 +10,16 @@ use crate::io_error;
 use crate::process::Cmd;
 use crate::target_dir;
 
-const C_TEST: &str = "bindings/c/tests/test_aerostrata.c";
+/// The C tests, by subject, linked into one program (main() is in test_aerostrata.c; the
+/// helpers they share are in check.h beside them).
+const C_TESTS: [&str; 6] = [
+    "bindings/c/tests/test_aerostrata.c",
+    "bindings/c/tests/test_vectors.c",
+    "bindings/c/tests/test_status.c",
+    "bindings/c/tests/test_models.c",
+    "bindings/c/tests/test_aero.c",
+    "bindings/c/tests/test_catalogue.c",
+];
 const CTYPES_TEST: &str = "bindings/c/tests/test_ctypes.py";
 const C_FLAGS: [&str; 5] = ["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"];
 
@@ -42,7 +51,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     std::fs::create_dir_all(&work).map_err(|e| io_error("create", &work, e))?;
     let s = |p: &Path| p.to_string_lossy().into_owned();
     let include = format!("-I{}", s(&package.prefix.join("include")));
-    let source = s(&root.join(C_TEST));
+    let sources: Vec<String> = C_TESTS.iter().map(|file| s(&root.join(file))).collect();
     let vectors = s(&root.join("tests/vectors"));
     let static_lib = s(&package.static_lib);
     let lib_dir_arg = format!("-L{}", s(&lib_dir));
@@ -74,7 +83,8 @@ pub fn run(root: &Path) -> Result<(), String> {
         let out = s(&work.join(exe));
         let mut args: Vec<&str> = C_FLAGS.to_vec();
         args.extend_from_slice(extra);
-        args.extend_from_slice(&[&include, &source]);
+        args.push(&include);
+        args.extend(sources.iter().map(String::as_str));
         args.extend_from_slice(link);
         args.extend_from_slice(&system_libs);
         args.extend_from_slice(&["-o", &out]);
