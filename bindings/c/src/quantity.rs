@@ -1,7 +1,7 @@
 //! The quantity catalogue through C: what each quantity id means (name, symbol, label,
 //! description, SI and US units), its US conversion, and reading a state's or a flight
 //! sample's value by id. The ids and the records are generated from the core's catalogue
-//! (`catalogue.rs`); nothing here lists quantities.
+//! by the build script (`catalogue.rs`); nothing here lists quantities.
 
 use core::ffi::{c_char, CStr};
 
@@ -242,8 +242,8 @@ pub unsafe extern "C" fn aerostrata_flight_point_get(
 mod tests {
     use super::*;
 
-    /// The generated texts are the core catalogue's: a stale catalogue.rs fails here even
-    /// without `cargo xtask header --check`.
+    /// The generated texts are the core catalogue's, and each CSV column reads back as its
+    /// quantity in its unit.
     #[test]
     fn generated_texts_match_the_core_catalogue() {
         assert_eq!(TEXTS.len(), Quantity::ALL.len());
