@@ -3,9 +3,9 @@
 
 use super::point::{bad_sample, compute, FlightPoint, Sample, Vehicle};
 use super::summary::{extreme, refine, Crossings, Extreme, FlightSummary, Kept, Peak};
-use crate::aero::CdSegment;
 #[cfg(doc)]
 use super::MAX_TIME_S;
+use crate::aero::CdSegment;
 #[cfg(doc)]
 use crate::error::Error;
 use crate::error::Result;
