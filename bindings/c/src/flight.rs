@@ -181,22 +181,18 @@ pub const AEROSTRATA_POINT_REYNOLDS_NUMBER: u32 = 4;
 /// `AerostrataFlightPoint::defined` bit: `drag_coefficient` and `drag_n` are set.
 pub const AEROSTRATA_POINT_DRAG: u32 = 8;
 
+// The bits are the core's (`FlightPoint::defined`) under their C names; written out above
+// because cbindgen reads only literal values.
+const _: () = assert!(
+    AEROSTRATA_POINT_MACH == FlightPoint::DEFINED_MACH as u32
+        && AEROSTRATA_POINT_REYNOLDS_PER_M == FlightPoint::DEFINED_REYNOLDS_PER_M as u32
+        && AEROSTRATA_POINT_REYNOLDS_NUMBER == FlightPoint::DEFINED_REYNOLDS_NUMBER as u32
+        && AEROSTRATA_POINT_DRAG == FlightPoint::DEFINED_DRAG as u32
+);
+
 impl From<&FlightPoint> for AerostrataFlightPoint {
     fn from(p: &FlightPoint) -> Self {
-        let mut defined = 0;
-        if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
-            defined |= AEROSTRATA_POINT_MACH;
-        }
-        if p.reynolds_per_m.is_some() {
-            defined |= AEROSTRATA_POINT_REYNOLDS_PER_M;
-        }
-        if p.reynolds_number.is_some() {
-            defined |= AEROSTRATA_POINT_REYNOLDS_NUMBER;
-        }
-        if p.drag_coefficient.is_some() && p.drag_n.is_some() {
-            defined |= AEROSTRATA_POINT_DRAG;
-        }
-        Self::from_values(|q| p.get(q).unwrap_or(f64::NAN), defined)
+        Self::from_values(|q| p.get(q).unwrap_or(f64::NAN), u32::from(p.defined()))
     }
 }
 
