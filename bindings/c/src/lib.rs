@@ -45,6 +45,7 @@ pub use model::*;
 pub use quantity::*;
 pub use spreadsheet::*;
 
+use alloc::boxed::Box;
 use core::ffi::c_char;
 
 #[cfg(feature = "panic-handler")]
@@ -73,6 +74,42 @@ pub(crate) fn write<T>(out: *mut T, value: T) {
     // SAFETY: every caller has checked `out` for NULL first (see `error::require`); its
     // validity and alignment are the caller's contract stated in the header.
     unsafe { out.write(value) }
+}
+
+/// Checks `out` for NULL, runs `f` and writes its value to `*out` on success, inside the
+/// panic boundary: the shape of every function with one output.
+pub(crate) fn output<T>(out: *mut T, f: impl FnOnce() -> Result<T, Failure>) -> AerostrataStatus {
+    error::guard(|| {
+        error::require("out", out)?;
+        let value = f()?;
+        write(out, value);
+        Ok(())
+    })
+}
+
+/// A new opaque handle that owns `value`, released by [`free_handle`] (the `_free`
+/// function of its type).
+pub(crate) fn into_handle<T>(value: T) -> *mut T {
+    Box::into_raw(Box::new(value))
+}
+
+/// What the handle `handle` (the argument `name`) holds, or NULL-pointer status.
+pub(crate) fn handle_ref<'a, T>(name: &'static str, handle: *const T) -> Result<&'a T, Failure> {
+    error::require(name, handle)?;
+    // SAFETY: non-NULL, and a live handle from `into_handle` (the caller's contract).
+    Ok(unsafe { &*handle })
+}
+
+/// Releases a handle made by [`into_handle`]; NULL does nothing.
+///
+/// The handle must not be used afterwards, nor released twice (the caller's contract).
+pub(crate) unsafe fn free_handle<T>(handle: *mut T) {
+    if !handle.is_null() {
+        let _ = error::catch(|| {
+            // SAFETY: made by Box::into_raw in `into_handle`, and released once.
+            drop(unsafe { Box::from_raw(handle) });
+        });
+    }
 }
 
 /// Checks `count` elements at `data` before a slice is made over them: NULL is fine

@@ -11,6 +11,6 @@ pub mod c_test;
 #[path = "../../../../bindings/c/build/catalogue.rs"]
 mod catalogue;
 
-pub use catalogue::field as field_name;
+pub use catalogue::{field as field_name, species_field};
 pub mod header;
 pub mod package;
