@@ -1041,27 +1041,27 @@ typedef struct AerostrataState {
  */
 typedef struct AerostrataSpecies {
   /**
-   * Molecular nitrogen, 1/m^3.
+   * N2 number density, 1/m3: molecules of nitrogen per volume, above 86 km.
    */
   double n2_m3;
   /**
-   * Atomic oxygen, 1/m^3.
+   * O number density, 1/m3: atoms of oxygen per volume, above 86 km.
    */
   double o_m3;
   /**
-   * Molecular oxygen, 1/m^3.
+   * O2 number density, 1/m3: molecules of oxygen per volume, above 86 km.
    */
   double o2_m3;
   /**
-   * Argon, 1/m^3.
+   * Ar number density, 1/m3: atoms of argon per volume, above 86 km.
    */
   double ar_m3;
   /**
-   * Helium, 1/m^3.
+   * He number density, 1/m3: atoms of helium per volume, above 86 km.
    */
   double he_m3;
   /**
-   * Atomic hydrogen, 1/m^3 (zero below 150 km).
+   * H number density, 1/m3: atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
    */
   double h_m3;
 } AerostrataSpecies;

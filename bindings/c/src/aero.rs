@@ -1,28 +1,19 @@
 //! Aerodynamic, compressible-flow, airspeed and inverse-altitude helpers: each a thin
 //! call of the core function of the same name. All are thread-safe and allocate nothing.
 
-use aerostrata_core::airspeed::{AirData, Airspeed};
+use aerostrata_core::airspeed::{AirData, Airspeed, Airspeeds};
+use aerostrata_core::flow::{Isentropic, NormalShock};
 use aerostrata_core::inverse::{self, BarometricReference};
 use aerostrata_core::{aero, PerfectGas};
 
-use crate::error::{guard, require, AerostrataStatus, Failure};
-use crate::write;
+use crate::error::{AerostrataStatus, Failure};
+use crate::output;
 
 /// The ratio of specific heats of air, for the `gamma` arguments (1.4).
 pub const AEROSTRATA_GAMMA_AIR: f64 = 1.4;
 
 fn gas(gamma: f64) -> Result<PerfectGas, Failure> {
     Ok(PerfectGas::new(gamma)?)
-}
-
-/// Runs `f` and writes its value to `out` on success: the shape of every scalar helper.
-fn scalar(out: *mut f64, f: impl FnOnce() -> Result<f64, Failure>) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let value = f()?;
-        write(out, value);
-        Ok(())
-    })
 }
 
 /// Dynamic pressure q = rho V^2 / 2, Pa, of air of density `density_kg_m3` at
@@ -36,7 +27,7 @@ pub unsafe extern "C" fn aerostrata_dynamic_pressure_pa(
     velocity_m_s: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::dynamic_pressure_pa(density_kg_m3, velocity_m_s)?))
+    output(out, || Ok(aero::dynamic_pressure_pa(density_kg_m3, velocity_m_s)?))
 }
 
 /// Dynamic pressure (gamma / 2) p M^2, Pa, from static pressure `static_pressure_pa` and
@@ -51,7 +42,7 @@ pub unsafe extern "C" fn aerostrata_dynamic_pressure_from_mach_pa(
     gamma: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::dynamic_pressure_from_mach_pa(static_pressure_pa, mach, gas(gamma)?)?))
+    output(out, || Ok(aero::dynamic_pressure_from_mach_pa(static_pressure_pa, mach, gas(gamma)?)?))
 }
 
 /// Drag force q Cd A, N.
@@ -65,7 +56,7 @@ pub unsafe extern "C" fn aerostrata_drag_n(
     reference_area_m2: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::drag_n(dynamic_pressure_pa, drag_coefficient, reference_area_m2)?))
+    output(out, || Ok(aero::drag_n(dynamic_pressure_pa, drag_coefficient, reference_area_m2)?))
 }
 
 /// Mach number |V| / a.
@@ -78,7 +69,7 @@ pub unsafe extern "C" fn aerostrata_mach_number(
     speed_of_sound_m_s: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::mach_number(velocity_m_s, speed_of_sound_m_s)?))
+    output(out, || Ok(aero::mach_number(velocity_m_s, speed_of_sound_m_s)?))
 }
 
 /// True speed V = M a, m/s, of Mach number `mach` in air of speed of sound
@@ -92,7 +83,7 @@ pub unsafe extern "C" fn aerostrata_velocity_from_mach_m_s(
     speed_of_sound_m_s: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::velocity_from_mach_m_s(mach, speed_of_sound_m_s)?))
+    output(out, || Ok(aero::velocity_from_mach_m_s(mach, speed_of_sound_m_s)?))
 }
 
 /// Reynolds number rho |V| L / mu for reference length `length_m`.
@@ -106,7 +97,7 @@ pub unsafe extern "C" fn aerostrata_reynolds_number(
     dynamic_viscosity_pa_s: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::reynolds_number(density_kg_m3, velocity_m_s, length_m, dynamic_viscosity_pa_s)?))
+    output(out, || Ok(aero::reynolds_number(density_kg_m3, velocity_m_s, length_m, dynamic_viscosity_pa_s)?))
 }
 
 /// Knudsen number lambda / L.
@@ -118,7 +109,7 @@ pub unsafe extern "C" fn aerostrata_knudsen_number(
     length_m: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::knudsen_number(mean_free_path_m, length_m)?))
+    output(out, || Ok(aero::knudsen_number(mean_free_path_m, length_m)?))
 }
 
 /// Ballistic coefficient m / (Cd A), kg/m^2.
@@ -132,7 +123,7 @@ pub unsafe extern "C" fn aerostrata_ballistic_coefficient_kg_m2(
     reference_area_m2: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(aero::ballistic_coefficient_kg_m2(mass_kg, drag_coefficient, reference_area_m2)?))
+    output(out, || Ok(aero::ballistic_coefficient_kg_m2(mass_kg, drag_coefficient, reference_area_m2)?))
 }
 
 /// The isentropic static-to-total ratios at one Mach number.
@@ -160,20 +151,14 @@ pub unsafe extern "C" fn aerostrata_isentropic(
     mach: f64,
     out: *mut AerostrataIsentropic,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let r = gas(gamma)?.isentropic(mach)?;
-        write(
-            out,
-            AerostrataIsentropic {
-                mach: r.mach,
-                pressure_ratio: r.pressure_ratio,
-                temperature_ratio: r.temperature_ratio,
-                density_ratio: r.density_ratio,
-            },
-        );
-        Ok(())
-    })
+    output(out, || Ok(gas(gamma)?.isentropic(mach)?.into()))
+}
+
+impl From<Isentropic> for AerostrataIsentropic {
+    fn from(r: Isentropic) -> Self {
+        let Isentropic { mach, pressure_ratio, temperature_ratio, density_ratio } = r;
+        Self { mach, pressure_ratio, temperature_ratio, density_ratio }
+    }
 }
 
 /// Mach number from the isentropic static-to-total pressure ratio p / p0 (0 to 1].
@@ -185,7 +170,7 @@ pub unsafe extern "C" fn aerostrata_mach_from_pressure_ratio(
     pressure_ratio: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(gas(gamma)?.mach_from_pressure_ratio(pressure_ratio)?))
+    output(out, || Ok(gas(gamma)?.mach_from_pressure_ratio(pressure_ratio)?))
 }
 
 /// The state behind a normal shock relative to the state ahead of it.
@@ -217,23 +202,21 @@ pub unsafe extern "C" fn aerostrata_normal_shock(
     mach: f64,
     out: *mut AerostrataNormalShock,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let s = gas(gamma)?.normal_shock(mach)?;
-        write(
-            out,
-            AerostrataNormalShock {
-                upstream_mach: s.upstream_mach,
-                downstream_mach: s.downstream_mach,
-                pressure_ratio: s.pressure_ratio,
-                density_ratio: s.density_ratio,
-                temperature_ratio: s.temperature_ratio,
-                total_pressure_ratio: s.total_pressure_ratio,
-                pitot_pressure_ratio: s.pitot_pressure_ratio,
-            },
-        );
-        Ok(())
-    })
+    output(out, || Ok(gas(gamma)?.normal_shock(mach)?.into()))
+}
+
+impl From<NormalShock> for AerostrataNormalShock {
+    fn from(s: NormalShock) -> Self {
+        Self {
+            upstream_mach: s.upstream_mach,
+            downstream_mach: s.downstream_mach,
+            pressure_ratio: s.pressure_ratio,
+            density_ratio: s.density_ratio,
+            temperature_ratio: s.temperature_ratio,
+            total_pressure_ratio: s.total_pressure_ratio,
+            pitot_pressure_ratio: s.pitot_pressure_ratio,
+        }
+    }
 }
 
 /// Impact pressure qc (pitot minus static), Pa, at static pressure `static_pressure_pa`
@@ -247,7 +230,7 @@ pub unsafe extern "C" fn aerostrata_impact_pressure_pa(
     mach: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(gas(gamma)?.impact_pressure_pa(static_pressure_pa, mach)?))
+    output(out, || Ok(gas(gamma)?.impact_pressure_pa(static_pressure_pa, mach)?))
 }
 
 /// Mach number from the impact-pressure ratio qc / p (the inverse of the pitot
@@ -260,17 +243,8 @@ pub unsafe extern "C" fn aerostrata_mach_from_impact_pressure_ratio(
     impact_pressure_ratio: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(gas(gamma)?.mach_from_impact_pressure_ratio(impact_pressure_ratio)?))
+    output(out, || Ok(gas(gamma)?.mach_from_impact_pressure_ratio(impact_pressure_ratio)?))
 }
-
-/// `given_kind` value: the given airspeed is calibrated airspeed (CAS), m/s.
-pub const AEROSTRATA_CALIBRATED: u32 = 0;
-/// `given_kind` value: equivalent airspeed (EAS), m/s.
-pub const AEROSTRATA_EQUIVALENT: u32 = 1;
-/// `given_kind` value: true airspeed (TAS), m/s.
-pub const AEROSTRATA_TRUE: u32 = 2;
-/// `given_kind` value: Mach number.
-pub const AEROSTRATA_MACH: u32 = 3;
 
 /// Every airspeed of one flight condition.
 #[repr(C)]
@@ -290,12 +264,30 @@ pub struct AerostrataAirspeeds {
     pub dynamic_pressure_pa: f64,
 }
 
-fn airspeeds(
-    air: AirData,
-    given_kind: u32,
-    given: f64,
-    out: *mut AerostrataAirspeeds,
-) -> Result<(), Failure> {
+impl From<Airspeeds> for AerostrataAirspeeds {
+    fn from(s: Airspeeds) -> Self {
+        Self {
+            calibrated_m_s: s.calibrated_m_s,
+            equivalent_m_s: s.equivalent_m_s,
+            true_m_s: s.true_m_s,
+            mach: s.mach,
+            impact_pressure_pa: s.impact_pressure_pa,
+            dynamic_pressure_pa: s.dynamic_pressure_pa,
+        }
+    }
+}
+
+/// `given_kind` value: the given airspeed is calibrated airspeed (CAS), m/s.
+pub const AEROSTRATA_CALIBRATED: u32 = 0;
+/// `given_kind` value: equivalent airspeed (EAS), m/s.
+pub const AEROSTRATA_EQUIVALENT: u32 = 1;
+/// `given_kind` value: true airspeed (TAS), m/s.
+pub const AEROSTRATA_TRUE: u32 = 2;
+/// `given_kind` value: Mach number.
+pub const AEROSTRATA_MACH: u32 = 3;
+
+/// Every airspeed in `air` from `given` of `given_kind`.
+fn airspeeds(air: AirData, given_kind: u32, given: f64) -> Result<AerostrataAirspeeds, Failure> {
     let given = match given_kind {
         AEROSTRATA_CALIBRATED => Airspeed::Calibrated(given),
         AEROSTRATA_EQUIVALENT => Airspeed::Equivalent(given),
@@ -309,19 +301,7 @@ fn airspeeds(
             ))
         }
     };
-    let s = air.airspeeds(given)?;
-    write(
-        out,
-        AerostrataAirspeeds {
-            calibrated_m_s: s.calibrated_m_s,
-            equivalent_m_s: s.equivalent_m_s,
-            true_m_s: s.true_m_s,
-            mach: s.mach,
-            impact_pressure_pa: s.impact_pressure_pa,
-            dynamic_pressure_pa: s.dynamic_pressure_pa,
-        },
-    );
-    Ok(())
+    Ok(air.airspeeds(given)?.into())
 }
 
 /// Every airspeed (CAS, EAS, TAS, Mach) from one of them, `given` of `given_kind`
@@ -338,10 +318,7 @@ pub unsafe extern "C" fn aerostrata_airspeeds(
     given: f64,
     out: *mut AerostrataAirspeeds,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        airspeeds(AirData::new(static_pressure_pa, temperature_k)?, given_kind, given, out)
-    })
+    output(out, || airspeeds(AirData::new(static_pressure_pa, temperature_k)?, given_kind, given))
 }
 
 /// As `aerostrata_airspeeds`, with the static pressure given as a pressure altitude
@@ -354,14 +331,8 @@ pub unsafe extern "C" fn aerostrata_airspeeds_at_pressure_altitude(
     given: f64,
     out: *mut AerostrataAirspeeds,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        airspeeds(
-            AirData::from_pressure_altitude(pressure_altitude_m, temperature_k)?,
-            given_kind,
-            given,
-            out,
-        )
+    output(out, || {
+        airspeeds(AirData::from_pressure_altitude(pressure_altitude_m, temperature_k)?, given_kind, given)
     })
 }
 
@@ -371,7 +342,7 @@ pub unsafe extern "C" fn aerostrata_airspeeds_at_pressure_altitude(
 /// NULL_POINTER.
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_pressure_altitude_m(pressure_pa: f64, out: *mut f64) -> AerostrataStatus {
-    scalar(out, || Ok(inverse::pressure_altitude(pressure_pa)?.meters()))
+    output(out, || Ok(inverse::pressure_altitude(pressure_pa)?.meters()))
 }
 
 /// Density altitude, geopotential m: where the 1976 standard has density
@@ -383,7 +354,7 @@ pub unsafe extern "C" fn aerostrata_density_altitude_m(
     density_kg_m3: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(inverse::density_altitude(density_kg_m3)?.meters()))
+    output(out, || Ok(inverse::density_altitude(density_kg_m3)?.meters()))
 }
 
 /// Density altitude, geopotential m, of dry air at pressure `pressure_pa` and
@@ -396,7 +367,7 @@ pub unsafe extern "C" fn aerostrata_density_altitude_from_m(
     temperature_k: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || Ok(inverse::density_altitude_from(pressure_pa, temperature_k)?.meters()))
+    output(out, || Ok(inverse::density_altitude_from(pressure_pa, temperature_k)?.meters()))
 }
 
 /// `reference_kind` value: the standard's sea level, 101 325 Pa (`reference_pa` ignored).
@@ -418,7 +389,7 @@ pub unsafe extern "C" fn aerostrata_barometric_altitude_m(
     reference_pa: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    scalar(out, || {
+    output(out, || {
         let reference = match reference_kind {
             AEROSTRATA_REFERENCE_STANDARD => BarometricReference::StandardSeaLevel,
             AEROSTRATA_REFERENCE_QNH => BarometricReference::Qnh { setting_pa: reference_pa },

@@ -3,13 +3,12 @@
 use aerostrata_core::aero::terminal_velocity_m_s;
 use aerostrata_core::flight::{samples_from_slices, FlightPoint, FlightScan, FlightSummary};
 use aerostrata_core::{Atmosphere, DragCurve, Interpolation, Vehicle};
-use alloc::boxed::Box;
 use alloc::vec::Vec;
 
 use crate::catalogue::AerostrataFlightPoint;
 use crate::error::{guard, require, AerostrataStatus, Failure};
 use crate::model::{altitude, model_ref};
-use crate::{slice, slice_mut, write, AerostrataModel};
+use crate::{free_handle, handle_ref, into_handle, output, slice, slice_mut, write, AerostrataModel};
 
 /// `interpolation` value: straight lines between the table's points.
 pub const AEROSTRATA_LINEAR: u32 = 0;
@@ -40,11 +39,11 @@ impl AerostrataDragCurve {
     }
 }
 
-fn publish(curve: Curve, out: *mut *mut AerostrataDragCurve) -> Result<(), Failure> {
+/// A new handle to `curve`, once it is checked.
+fn publish(curve: Curve) -> Result<*mut AerostrataDragCurve, Failure> {
     let handle = AerostrataDragCurve { curve };
-    handle.get()?; // validated before anything is written
-    write(out, Box::into_raw(Box::new(handle)));
-    Ok(())
+    handle.get()?;
+    Ok(into_handle(handle))
 }
 
 /// Makes a Mach-independent drag coefficient `drag_coefficient` (above 0, at most 100).
@@ -58,10 +57,7 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_constant(
     drag_coefficient: f64,
     out: *mut *mut AerostrataDragCurve,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        publish(Curve::Constant(drag_coefficient), out)
-    })
+    output(out, || publish(Curve::Constant(drag_coefficient)))
 }
 
 /// Makes a table of `count` drag coefficients `cd` at Mach numbers `mach` (strictly
@@ -82,8 +78,7 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
     interpolation: u32,
     out: *mut *mut AerostrataDragCurve,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
+    output(out, || {
         let interpolation = match interpolation {
             AEROSTRATA_LINEAR => Interpolation::Linear,
             AEROSTRATA_MONOTONE_CUBIC => Interpolation::MonotoneCubic,
@@ -97,7 +92,7 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
         };
         let mach = slice("mach", mach, count)?.to_vec();
         let cd = slice("cd", cd, count)?.to_vec();
-        publish(Curve::Table { mach, cd, interpolation }, out)
+        publish(Curve::Table { mach, cd, interpolation })
     })
 }
 
@@ -105,19 +100,11 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
 /// afterwards, nor freed twice, nor be in use by another thread.
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_drag_curve_free(curve: *mut AerostrataDragCurve) {
-    if !curve.is_null() {
-        let _ = crate::error::catch(|| {
-            // SAFETY: made by Box::into_raw in `publish` and released once (the caller's
-            // contract).
-            drop(unsafe { Box::from_raw(curve) });
-        });
-    }
+    free_handle(curve)
 }
 
 fn curve_ref<'a>(curve: *const AerostrataDragCurve) -> Result<&'a AerostrataDragCurve, Failure> {
-    require("curve", curve)?;
-    // SAFETY: non-NULL and a live handle (the caller's contract).
-    Ok(unsafe { &*curve })
+    handle_ref("curve", curve)
 }
 
 /// The drag coefficient of `curve` at Mach `mach`, written to `*out`.
@@ -130,13 +117,7 @@ pub unsafe extern "C" fn aerostrata_drag_curve_cd(
     mach: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
-        let c = curve_ref(curve)?;
-        require("out", out)?;
-        let cd = c.get()?.cd(mach)?;
-        write(out, cd);
-        Ok(())
-    })
+    output(out, || Ok(curve_ref(curve)?.get()?.cd(mach)?))
 }
 
 /// The terminal velocity, m/s, of a body of `mass_kg` with drag curve `curve` referred to
@@ -161,14 +142,11 @@ pub unsafe extern "C" fn aerostrata_terminal_velocity_m_s(
     curve: *const AerostrataDragCurve,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
+    output(out, || {
         let m = model_ref(model)?;
         let c = curve_ref(curve)?;
-        require("out", out)?;
         let state = m.state(altitude(altitude_m, altitude_kind)?)?;
-        let v = terminal_velocity_m_s(&state, mass_kg, reference_area_m2, &c.get()?)?;
-        write(out, v);
-        Ok(())
+        Ok(terminal_velocity_m_s(&state, mass_kg, reference_area_m2, &c.get()?)?)
     })
 }
 
@@ -181,22 +159,18 @@ pub const AEROSTRATA_POINT_REYNOLDS_NUMBER: u32 = 4;
 /// `AerostrataFlightPoint::defined` bit: `drag_coefficient` and `drag_n` are set.
 pub const AEROSTRATA_POINT_DRAG: u32 = 8;
 
+// The bits are the core's (`FlightPoint::defined`) under their C names; written out above
+// because cbindgen reads only literal values.
+const _: () = assert!(
+    AEROSTRATA_POINT_MACH == FlightPoint::DEFINED_MACH as u32
+        && AEROSTRATA_POINT_REYNOLDS_PER_M == FlightPoint::DEFINED_REYNOLDS_PER_M as u32
+        && AEROSTRATA_POINT_REYNOLDS_NUMBER == FlightPoint::DEFINED_REYNOLDS_NUMBER as u32
+        && AEROSTRATA_POINT_DRAG == FlightPoint::DEFINED_DRAG as u32
+);
+
 impl From<&FlightPoint> for AerostrataFlightPoint {
     fn from(p: &FlightPoint) -> Self {
-        let mut defined = 0;
-        if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
-            defined |= AEROSTRATA_POINT_MACH;
-        }
-        if p.reynolds_per_m.is_some() {
-            defined |= AEROSTRATA_POINT_REYNOLDS_PER_M;
-        }
-        if p.reynolds_number.is_some() {
-            defined |= AEROSTRATA_POINT_REYNOLDS_NUMBER;
-        }
-        if p.drag_coefficient.is_some() && p.drag_n.is_some() {
-            defined |= AEROSTRATA_POINT_DRAG;
-        }
-        Self::from_values(|q| p.get(q).unwrap_or(f64::NAN), defined)
+        Self::from_values(|q| p.get(q).unwrap_or(f64::NAN), u32::from(p.defined()))
     }
 }
 

@@ -4,15 +4,14 @@ use aerostrata_core::{
     Air, Altitude, AltitudeKind, Atmosphere, Exponential, Isothermal, LayerSpec, Layered, SoundingRow, State,
     Tabulated, US1976,
 };
-use alloc::boxed::Box;
 use alloc::vec::Vec;
 
 use aerostrata_core::quantity::Group;
 use aerostrata_core::Quantity;
 
-use crate::catalogue::AerostrataState;
+use crate::catalogue::{AerostrataSpecies, AerostrataState};
 use crate::error::{guard, require, AerostrataStatus, Failure};
-use crate::{slice, slice_mut, write};
+use crate::{free_handle, handle_ref, into_handle, output, slice, slice_mut, write};
 
 /// The models a handle can hold: any of the core's, owned.
 pub(crate) type Model = aerostrata_core::AnyModel;
@@ -78,8 +77,13 @@ fn standard(offset_k: f64) -> Result<Model, Failure> {
     Ok(Model::standard(offset_k)?)
 }
 
-fn publish(model: Model, out: *mut *mut AerostrataModel) {
-    write(out, Box::into_raw(Box::new(AerostrataModel { model })));
+/// Checks `out` for NULL, makes the model and writes a new handle to it to `*out`: the
+/// shape of every `aerostrata_model_new_*`.
+fn new_model(
+    out: *mut *mut AerostrataModel,
+    make: impl FnOnce() -> Result<Model, Failure>,
+) -> AerostrataStatus {
+    output(out, || Ok(into_handle(AerostrataModel { model: make()? })))
 }
 
 /// Makes the 1976 standard atmosphere (-5 km to 1000 km geometric) with every
@@ -95,11 +99,7 @@ pub unsafe extern "C" fn aerostrata_model_new_us1976(
     offset_k: f64,
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        publish(standard(offset_k)?, out);
-        Ok(())
-    })
+    new_model(out, || standard(offset_k))
 }
 
 /// Makes an exponential atmosphere: density `sea_level_density_kg_m3` at 0 m falling by
@@ -114,11 +114,8 @@ pub unsafe extern "C" fn aerostrata_model_new_exponential(
     temperature_k: f64,
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let model = Exponential::new(sea_level_density_kg_m3, scale_height_m, temperature_k)?;
-        publish(Model::Exponential(model), out);
-        Ok(())
+    new_model(out, || {
+        Ok(Model::Exponential(Exponential::new(sea_level_density_kg_m3, scale_height_m, temperature_k)?))
     })
 }
 
@@ -133,11 +130,7 @@ pub unsafe extern "C" fn aerostrata_model_new_isothermal(
     sea_level_pressure_pa: f64,
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        publish(Model::Isothermal(Isothermal::new(temperature_k, sea_level_pressure_pa)?), out);
-        Ok(())
-    })
+    new_model(out, || Ok(Model::Isothermal(Isothermal::new(temperature_k, sea_level_pressure_pa)?)))
 }
 
 /// One user layer: where it ends and its constant lapse rate.
@@ -169,8 +162,7 @@ pub unsafe extern "C" fn aerostrata_model_new_layers(
     count: usize,
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
+    new_model(out, || {
         let given = slice("layers", layers, count)?;
         let specs: Vec<LayerSpec> = given
             .iter()
@@ -178,8 +170,7 @@ pub unsafe extern "C" fn aerostrata_model_new_layers(
             .collect();
         let model =
             Layered::from_lapse_rates_vec(base_geopotential_m, base_temperature_k, base_pressure_pa, &specs)?;
-        publish(Model::Layers(model), out);
-        Ok(())
+        Ok(Model::Layers(model))
     })
 }
 
@@ -237,8 +228,7 @@ pub unsafe extern "C" fn aerostrata_model_new_sounding(
     count: usize,
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
+    new_model(out, || {
         let kind = self::altitude_kind(altitude_kind)?;
         let given = slice("rows", rows, count)?;
         let all = AEROSTRATA_ROW_PRESSURE
@@ -264,8 +254,7 @@ pub unsafe extern "C" fn aerostrata_model_new_sounding(
                 has(AEROSTRATA_ROW_RELATIVE_HUMIDITY).then_some(r.relative_humidity_percent);
             converted.push(row);
         }
-        publish(Model::Sounding(Tabulated::from_rows_vec(kind, &converted)?), out);
-        Ok(())
+        Ok(Model::Sounding(Tabulated::from_rows_vec(kind, &converted)?))
     })
 }
 
@@ -274,19 +263,11 @@ pub unsafe extern "C" fn aerostrata_model_new_sounding(
 /// by another thread.
 #[no_mangle]
 pub unsafe extern "C" fn aerostrata_model_free(model: *mut AerostrataModel) {
-    if !model.is_null() {
-        let _ = crate::error::catch(|| {
-            // SAFETY: made by Box::into_raw in `publish`, and released once (the caller's
-            // contract).
-            drop(unsafe { Box::from_raw(model) });
-        });
-    }
+    free_handle(model)
 }
 
 pub(crate) fn model_ref<'a>(model: *const AerostrataModel) -> Result<&'a Model, Failure> {
-    require("model", model)?;
-    // SAFETY: non-NULL, and a live handle from `publish` (the caller's contract).
-    Ok(unsafe { &(*model).model })
+    Ok(&handle_ref("model", model)?.model)
 }
 
 /// The geometric altitude range of `model`, m: writes the lowest and highest altitudes
@@ -323,13 +304,7 @@ pub unsafe extern "C" fn aerostrata_model_state(
     altitude_kind: u32,
     out: *mut AerostrataState,
 ) -> AerostrataStatus {
-    guard(|| {
-        let m = model_ref(model)?;
-        require("out", out)?;
-        let state = m.state(altitude(altitude_m, altitude_kind)?)?;
-        write(out, state.into());
-        Ok(())
-    })
+    output(out, || Ok(model_ref(model)?.state(altitude(altitude_m, altitude_kind)?)?.into()))
 }
 
 /// The full state of `model` at each of the `count` altitudes `altitudes_m` (all of
@@ -428,32 +403,10 @@ pub unsafe extern "C" fn aerostrata_us1976_state(
     offset_k: f64,
     out: *mut AerostrataState,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
+    output(out, || {
         let h = altitude(altitude_m, altitude_kind)?;
-        let state = Model::standard(offset_k)?.state(h)?;
-        write(out, state.into());
-        Ok(())
+        Ok(Model::standard(offset_k)?.state(h)?.into())
     })
-}
-
-/// The number densities of the six species of the 1976 standard's upper part, 1/m^3, in
-/// the standard's order.
-#[repr(C)]
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct AerostrataSpecies {
-    /// Molecular nitrogen, 1/m^3.
-    pub n2_m3: f64,
-    /// Atomic oxygen, 1/m^3.
-    pub o_m3: f64,
-    /// Molecular oxygen, 1/m^3.
-    pub o2_m3: f64,
-    /// Argon, 1/m^3.
-    pub ar_m3: f64,
-    /// Helium, 1/m^3.
-    pub he_m3: f64,
-    /// Atomic hydrogen, 1/m^3 (zero below 150 km).
-    pub h_m3: f64,
 }
 
 /// The six species' number densities of the 1976 standard at `altitude_m` metres of
@@ -467,21 +420,9 @@ pub unsafe extern "C" fn aerostrata_us1976_species(
     altitude_kind: u32,
     out: *mut AerostrataSpecies,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
+    output(out, || {
         let n = US1976.species(altitude(altitude_m, altitude_kind)?)?;
-        write(
-            out,
-            AerostrataSpecies {
-                n2_m3: n.n2_m3,
-                o_m3: n.o_m3,
-                o2_m3: n.o2_m3,
-                ar_m3: n.ar_m3,
-                he_m3: n.he_m3,
-                h_m3: n.h_m3,
-            },
-        );
-        Ok(())
+        Ok(AerostrataSpecies::from_values(|q| n.get(q))?)
     })
 }
 

@@ -1,16 +1,17 @@
 //! The quantity catalogue through C: what each quantity id means (name, symbol, label,
 //! description, SI and US units), its US conversion, and reading a state's or a flight
 //! sample's value by id. The ids and the records are generated from the core's catalogue
-//! (`catalogue.rs`); nothing here lists quantities.
+//! by the build script (`catalogue.rs`); nothing here lists quantities.
 
 use core::ffi::{c_char, CStr};
 
 use aerostrata_core::quantity::Group;
+use aerostrata_core::units::Unit;
 use aerostrata_core::{Error, Quantity};
 
 use crate::catalogue::{AerostrataFlightPoint, AerostrataState, TEXTS};
 use crate::error::{guard, require, AerostrataStatus, Failure};
-use crate::write;
+use crate::{output, write};
 
 /// `AerostrataQuantityInfo::group`: a property of the atmosphere's state.
 pub const AEROSTRATA_GROUP_STATE: u32 = 0;
@@ -147,6 +148,17 @@ fn finite(name: &'static str, value: f64) -> Result<f64, Failure> {
     }
 }
 
+/// `value` of quantity `quantity_id` through `convert` with the quantity's US unit,
+/// written to `*out`: the shape of both conversions.
+fn convert_us(
+    quantity_id: u32,
+    value: f64,
+    out: *mut f64,
+    convert: fn(&Unit, f64) -> f64,
+) -> AerostrataStatus {
+    output(out, || Ok(convert(quantity(quantity_id)?.us(), finite("value", value)?)))
+}
+
 /// Converts `si`, a value of quantity `quantity` in its SI unit, to the quantity's US
 /// customary unit (`us_unit` of `aerostrata_quantity_info`), written to `*out`.
 ///
@@ -157,12 +169,7 @@ pub unsafe extern "C" fn aerostrata_quantity_to_us(
     si: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let q = quantity(quantity_id)?;
-        write(out, q.info().us.from_si(finite("value", si)?));
-        Ok(())
-    })
+    convert_us(quantity_id, si, out, Unit::from_si)
 }
 
 /// Converts `us`, a value of quantity `quantity` in its US customary unit, to its SI
@@ -175,22 +182,36 @@ pub unsafe extern "C" fn aerostrata_quantity_from_us(
     us: f64,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("out", out)?;
-        let q = quantity(quantity_id)?;
-        write(out, q.info().us.to_si(finite("value", us)?));
-        Ok(())
-    })
+    convert_us(quantity_id, us, out, Unit::to_si)
 }
 
-/// The value of `q` in a record: the field, or NOT_CARRIED for a quantity the record has
-/// no field for, or UNDEFINED where the field is NaN.
-fn field(value: Option<f64>, q: Quantity, result: &'static str, altitude_m: f64) -> Result<f64, Failure> {
-    match value {
-        None => Err(Error::NotCarried { quantity: q.name(), result }.into()),
-        Some(v) if v.is_nan() => Err(Error::Undefined { quantity: q.info().label, altitude_m }.into()),
-        Some(v) => Ok(v),
-    }
+/// The value of quantity `quantity_id` in the record at `record` (the argument `name`,
+/// the result `result`, at `altitude_m` of it), written to `*out`: the field `get` gives,
+/// or NOT_CARRIED for a quantity the record has no field for, or UNDEFINED where the
+/// field is NaN. `record` must be NULL or point to a valid record.
+unsafe fn record_get<R>(
+    name: &'static str,
+    record: *const R,
+    quantity_id: u32,
+    out: *mut f64,
+    result: &'static str,
+    read: impl FnOnce(&R, Quantity) -> (Option<f64>, f64),
+) -> AerostrataStatus {
+    guard(|| {
+        require(name, record)?;
+        require("out", out)?;
+        let q = quantity(quantity_id)?;
+        // SAFETY: non-NULL, and a valid record by the caller's contract.
+        let (value, altitude_m) = read(unsafe { &*record }, q);
+        match value {
+            None => Err(Error::NotCarried { quantity: q.name(), result }.into()),
+            Some(v) if v.is_nan() => Err(Error::Undefined { quantity: q.label(), altitude_m }.into()),
+            Some(v) => {
+                write(out, v);
+                Ok(())
+            }
+        }
+    })
 }
 
 /// The value of quantity `quantity` in `*state` (in its SI unit), written to `*out`: the
@@ -205,14 +226,8 @@ pub unsafe extern "C" fn aerostrata_state_get(
     quantity_id: u32,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("state", state)?;
-        require("out", out)?;
-        let q = quantity(quantity_id)?;
-        // SAFETY: non-NULL, and a valid state by the caller's contract.
-        let s = unsafe { &*state };
-        write(out, field(s.get(q), q, "an atmosphere state", s.geometric_altitude_m)?);
-        Ok(())
+    record_get("state", state, quantity_id, out, "an atmosphere state", |s, q| {
+        (s.get(q), s.geometric_altitude_m)
     })
 }
 
@@ -227,23 +242,15 @@ pub unsafe extern "C" fn aerostrata_flight_point_get(
     quantity_id: u32,
     out: *mut f64,
 ) -> AerostrataStatus {
-    guard(|| {
-        require("point", point)?;
-        require("out", out)?;
-        let q = quantity(quantity_id)?;
-        // SAFETY: non-NULL, and a valid point by the caller's contract.
-        let p = unsafe { &*point };
-        write(out, field(p.get(q), q, "a flight point", p.altitude_m)?);
-        Ok(())
-    })
+    record_get("point", point, quantity_id, out, "a flight point", |p, q| (p.get(q), p.altitude_m))
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
 
-    /// The generated texts are the core catalogue's: a stale catalogue.rs fails here even
-    /// without `cargo xtask header --check`.
+    /// The generated texts are the core catalogue's, and each CSV column reads back as its
+    /// quantity in its unit.
     #[test]
     fn generated_texts_match_the_core_catalogue() {
         assert_eq!(TEXTS.len(), Quantity::ALL.len());

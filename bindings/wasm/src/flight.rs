@@ -17,35 +17,14 @@ use crate::js;
 use crate::model::AtmosphereModel;
 use crate::text::Text;
 
-/// `defined` bit of a flight point: Mach number and speed of sound are defined.
-pub const POINT_MACH: u8 = 1;
-/// `defined` bit: the unit Reynolds number is defined.
-pub const POINT_REYNOLDS_PER_M: u8 = 2;
-/// `defined` bit: the Reynolds number (with a reference length) is defined.
-pub const POINT_REYNOLDS_NUMBER: u8 = 4;
-/// `defined` bit: drag coefficient and drag are defined (with a vehicle).
-pub const POINT_DRAG: u8 = 8;
-
 /// How many per-sample columns: the catalogue's quantities of a flight point.
 const COLUMNS: usize = FlightPoint::QUANTITIES.len();
 
 /// A point's values in the order of [`FlightPoint::QUANTITIES`] (NaN where not defined)
-/// and its bits.
+/// and its bits ([`FlightPoint::defined`]: 1 Mach, 2 unit Reynolds number, 4 Reynolds
+/// number, 8 drag, as `scanFlight` documents them).
 fn point_row(p: &FlightPoint) -> ([f64; COLUMNS], u8) {
-    let mut defined = 0;
-    if p.mach.is_some() && p.speed_of_sound_m_s.is_some() {
-        defined |= POINT_MACH;
-    }
-    if p.reynolds_per_m.is_some() {
-        defined |= POINT_REYNOLDS_PER_M;
-    }
-    if p.reynolds_number.is_some() {
-        defined |= POINT_REYNOLDS_NUMBER;
-    }
-    if p.drag_coefficient.is_some() && p.drag_n.is_some() {
-        defined |= POINT_DRAG;
-    }
-    (FlightPoint::QUANTITIES.map(|q| p.get(q).unwrap_or(f64::NAN)), defined)
+    (FlightPoint::QUANTITIES.map(|q| p.get(q).unwrap_or(f64::NAN)), p.defined())
 }
 
 /// How many numbers the summary's flat layout has (see `glue.js`, `flightResult`).
@@ -221,7 +200,7 @@ mod tests {
         assert_eq!(scanned.summary.mach_one_up.count, 1);
         // Without a vehicle no drag and no Reynolds number.
         let bare = scan(US1976, None, &t, &z, &v).unwrap();
-        assert_eq!(bare.defined, vec![POINT_MACH | POINT_REYNOLDS_PER_M; 5]);
+        assert_eq!(bare.defined, vec![FlightPoint::DEFINED_MACH | FlightPoint::DEFINED_REYNOLDS_PER_M; 5]);
         assert!(bare.columns[12 * 5..].iter().all(|d| d.is_nan()));
         assert_eq!(bare.columns.len(), COLUMNS * 5);
         let summary = summary_layout(&scanned.summary);

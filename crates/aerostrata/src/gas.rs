@@ -33,8 +33,7 @@ use crate::math::{exp, sqrt};
 /// A parcel of air: kinetic temperature, pressure, mean molecular weight, density and
 /// number density, all finite and positive (checked on construction).
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(feature = "serde", serde(try_from = "AirParameters"))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Air {
     temperature_k: f64,
     pressure_pa: f64,
@@ -333,27 +332,17 @@ pub(crate) fn conductivity(temperature_k: f64) -> f64 {
         / (temperature_k + CONDUCTIVITY_TEMPERATURE_K * damping)
 }
 
-/// What deserialisation reads before [`Air::new`] validates it.
-#[cfg(feature = "serde")]
-#[derive(serde::Deserialize)]
-struct AirParameters {
-    temperature_k: f64,
-    pressure_pa: f64,
-    molar_mass_kg_kmol: f64,
-    density_kg_m3: f64,
-    number_density_m3: f64,
-    continuum: bool,
-}
-
-#[cfg(feature = "serde")]
-impl TryFrom<AirParameters> for Air {
-    type Error = crate::Error;
-    fn try_from(p: AirParameters) -> Result<Self> {
-        if p.continuum {
-            Self::new(p.temperature_k, p.pressure_pa, p.molar_mass_kg_kmol)
-        } else {
-            Self::from_number_density(p.temperature_k, p.number_density_m3, p.density_kg_m3)
-        }
+deserialize_through! {
+    /// What deserialisation reads before [`Air::new`] (or, for the free-molecular air,
+    /// [`Air::from_number_density`]) validates it.
+    AirParameters {
+        temperature_k: f64, pressure_pa: f64, molar_mass_kg_kmol: f64,
+        density_kg_m3: f64, number_density_m3: f64, continuum: bool,
+    } => Air,
+    if continuum {
+        Air::new(temperature_k, pressure_pa, molar_mass_kg_kmol)
+    } else {
+        Air::from_number_density(temperature_k, number_density_m3, density_kg_m3)
     }
 }
 

@@ -33,6 +33,10 @@
 #[cfg(feature = "alloc")]
 extern crate alloc;
 
+// First: its macro serves the modules below.
+#[macro_use]
+mod deserialize;
+
 pub mod aero;
 pub mod airspeed;
 pub mod altitude;

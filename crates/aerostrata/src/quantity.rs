@@ -265,6 +265,11 @@ impl Quantity {
         NAMES[self as usize]
     }
 
+    /// The label for people (`speed of sound`).
+    pub fn label(self) -> &'static str {
+        LABELS[self as usize]
+    }
+
     /// The SI unit.
     pub fn si(self) -> &'static Unit {
         SI[self as usize]

@@ -100,7 +100,7 @@ impl State {
     /// # Errors
     /// [`Error::Undefined`] where the model does not define it.
     pub fn speed_of_sound(&self) -> Result<f64> {
-        self.defined("speed of sound", self.speed_of_sound_m_s)
+        self.get(Quantity::SpeedOfSound)
     }
 
     /// Dynamic viscosity, Pa s.
@@ -108,7 +108,7 @@ impl State {
     /// # Errors
     /// [`Error::Undefined`] where the model does not define it.
     pub fn dynamic_viscosity(&self) -> Result<f64> {
-        self.defined("dynamic viscosity", self.dynamic_viscosity_pa_s)
+        self.get(Quantity::DynamicViscosity)
     }
 
     /// Kinematic viscosity, m^2/s.
@@ -116,7 +116,7 @@ impl State {
     /// # Errors
     /// [`Error::Undefined`] where the model does not define it.
     pub fn kinematic_viscosity(&self) -> Result<f64> {
-        self.defined("kinematic viscosity", self.kinematic_viscosity_m2_s)
+        self.get(Quantity::KinematicViscosity)
     }
 
     /// Thermal conductivity, W/(m K).
@@ -124,7 +124,7 @@ impl State {
     /// # Errors
     /// [`Error::Undefined`] where the model does not define it.
     pub fn thermal_conductivity(&self) -> Result<f64> {
-        self.defined("thermal conductivity", self.thermal_conductivity_w_m_k)
+        self.get(Quantity::ThermalConductivity)
     }
 
     /// The value of `quantity`, in its SI unit ([`Quantity::info`]).
@@ -150,10 +150,6 @@ impl State {
             Q::MolecularTemperature => Ok(self.molecular_temperature_k),
             Q::Pressure => Ok(self.pressure_pa),
             Q::Density => Ok(self.density_kg_m3),
-            Q::SpeedOfSound => self.speed_of_sound(),
-            Q::DynamicViscosity => self.dynamic_viscosity(),
-            Q::KinematicViscosity => self.kinematic_viscosity(),
-            Q::ThermalConductivity => self.thermal_conductivity(),
             Q::Gravity => Ok(self.gravity_m_s2),
             Q::PressureScaleHeight => Ok(self.pressure_scale_height_m),
             Q::NumberDensity => Ok(self.number_density_m3),
@@ -164,38 +160,46 @@ impl State {
             Q::TemperatureRatio => Ok(self.temperature_ratio),
             Q::PressureRatio => Ok(self.pressure_ratio),
             Q::DensityRatio => Ok(self.density_ratio),
+            // The continuum properties, undefined in the free-molecular air.
+            Q::SpeedOfSound => self.defined(quantity, self.speed_of_sound_m_s),
+            Q::DynamicViscosity => self.defined(quantity, self.dynamic_viscosity_pa_s),
+            Q::KinematicViscosity => self.defined(quantity, self.kinematic_viscosity_m2_s),
+            Q::ThermalConductivity => self.defined(quantity, self.thermal_conductivity_w_m_k),
             other => Err(Error::NotCarried { quantity: other.name(), result: "an atmosphere state" }),
         }
     }
 
-    fn defined(&self, quantity: &'static str, value: Option<f64>) -> Result<f64> {
-        value.ok_or(Error::Undefined { quantity, altitude_m: self.geometric_altitude_m })
+    fn defined(&self, quantity: Quantity, value: Option<f64>) -> Result<f64> {
+        value.ok_or(Error::Undefined { quantity: quantity.label(), altitude_m: self.geometric_altitude_m })
     }
 
-    /// Every field as (name, value), `None` for the undefined ones, in declaration order;
-    /// what comparisons and tabulations iterate over.
+    /// Every field as (name, value), `None` for the undefined ones, in declaration order
+    /// (the catalogue's order of the state's quantities, whose values [`State::get`]
+    /// gives); what comparisons and tabulations iterate over.
     pub fn fields(&self) -> [(&'static str, Option<f64>); 20] {
+        use Quantity as Q;
+        let field = |name, quantity| (name, self.get(quantity).ok());
         [
-            ("geometric_altitude_m", Some(self.geometric_altitude_m)),
-            ("geopotential_altitude_m", Some(self.geopotential_altitude_m)),
-            ("temperature_k", Some(self.temperature_k)),
-            ("molecular_temperature_k", Some(self.molecular_temperature_k)),
-            ("pressure_pa", Some(self.pressure_pa)),
-            ("density_kg_m3", Some(self.density_kg_m3)),
-            ("speed_of_sound_m_s", self.speed_of_sound_m_s),
-            ("dynamic_viscosity_pa_s", self.dynamic_viscosity_pa_s),
-            ("kinematic_viscosity_m2_s", self.kinematic_viscosity_m2_s),
-            ("thermal_conductivity_w_m_k", self.thermal_conductivity_w_m_k),
-            ("gravity_m_s2", Some(self.gravity_m_s2)),
-            ("pressure_scale_height_m", Some(self.pressure_scale_height_m)),
-            ("number_density_m3", Some(self.number_density_m3)),
-            ("mean_particle_speed_m_s", Some(self.mean_particle_speed_m_s)),
-            ("mean_free_path_m", Some(self.mean_free_path_m)),
-            ("collision_frequency_hz", Some(self.collision_frequency_hz)),
-            ("mean_molar_mass_kg_kmol", Some(self.mean_molar_mass_kg_kmol)),
-            ("temperature_ratio", Some(self.temperature_ratio)),
-            ("pressure_ratio", Some(self.pressure_ratio)),
-            ("density_ratio", Some(self.density_ratio)),
+            field("geometric_altitude_m", Q::GeometricAltitude),
+            field("geopotential_altitude_m", Q::GeopotentialAltitude),
+            field("temperature_k", Q::Temperature),
+            field("molecular_temperature_k", Q::MolecularTemperature),
+            field("pressure_pa", Q::Pressure),
+            field("density_kg_m3", Q::Density),
+            field("speed_of_sound_m_s", Q::SpeedOfSound),
+            field("dynamic_viscosity_pa_s", Q::DynamicViscosity),
+            field("kinematic_viscosity_m2_s", Q::KinematicViscosity),
+            field("thermal_conductivity_w_m_k", Q::ThermalConductivity),
+            field("gravity_m_s2", Q::Gravity),
+            field("pressure_scale_height_m", Q::PressureScaleHeight),
+            field("number_density_m3", Q::NumberDensity),
+            field("mean_particle_speed_m_s", Q::MeanParticleSpeed),
+            field("mean_free_path_m", Q::MeanFreePath),
+            field("collision_frequency_hz", Q::CollisionFrequency),
+            field("mean_molar_mass_kg_kmol", Q::MeanMolarMass),
+            field("temperature_ratio", Q::TemperatureRatio),
+            field("pressure_ratio", Q::PressureRatio),
+            field("density_ratio", Q::DensityRatio),
         ]
     }
 }

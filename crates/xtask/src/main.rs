@@ -27,6 +27,10 @@
 //! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`, and `catalogue.rs` across them all. Shared by all: `process.rs` (the
 //! one way to run a program), `setup.rs` (what gets installed) and `test.rs` (the CI run).
 
+// The C door's catalogue generator (c/mod.rs includes bindings/c/build/catalogue.rs) names
+// the core as the C crate does.
+extern crate aerostrata as aerostrata_core;
+
 mod bench;
 mod c;
 mod catalogue;

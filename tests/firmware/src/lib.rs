@@ -12,7 +12,8 @@ pub mod stack;
 #[cfg(feature = "upper")]
 pub mod vectors;
 
-use cortex_m_semihosting::debug;
+use core::hint::black_box;
+use cortex_m_semihosting::{debug, hprintln};
 
 /// Ends the run with QEMU's exit status 0 (`true`) or 1 (`false`).
 pub fn exit(success: bool) -> ! {
@@ -21,6 +22,29 @@ pub fn exit(success: bool) -> ! {
     loop {
         cortex_m::asm::bkpt();
     }
+}
+
+/// What the budget firmwares measure: `evaluate` at each of `altitudes_m` inside the
+/// stack measurement, its result kept alive with `black_box`. Prints the deepest stack as
+/// `# stack NAME N B` and says whether every evaluation succeeded.
+pub fn deepest_stack<T, E>(
+    name: &str,
+    altitudes_m: impl IntoIterator<Item = f64>,
+    mut evaluate: impl FnMut(f64) -> Result<T, E>,
+) -> bool {
+    let mut deepest = 0usize;
+    let mut ok = true;
+    for z in altitudes_m {
+        match stack::measure(|| evaluate(black_box(z))) {
+            Some((Ok(value), used)) => {
+                black_box(value);
+                deepest = deepest.max(used);
+            }
+            _ => ok = false,
+        }
+    }
+    hprintln!("# stack {} {} B", name, deepest);
+    ok
 }
 
 /// Geometric altitudes, m, at which the budget firmwares evaluate the state: one inside

@@ -1,11 +1,12 @@
 //! The reference vectors of `tests/vectors`, embedded by build.rs, and their evaluation
-//! through the core along the same path as `crates/xtask/src/rust/vectors.rs` (the native
-//! check): the state at the row's altitude for `us1976` files, the species from
-//! `US1976.species`, the isentropic ratios (with `qc_p`) and the normal-shock quantities
-//! (with `p1_p02 = 1 / p02_p1`) for the compressible-flow files.
+//! through the core by the very code of the native check (`crates/xtask/src/rust/vectors.rs`):
+//! the state at the row's altitude for `us1976` files, and the value of each column from
+//! `crates/xtask/src/vector_values.rs`, included here.
 
-use aerostrata::quantity::Group;
-use aerostrata::{Altitude, Atmosphere, Error, PerfectGas, Quantity, State, TemperatureOffset, US1976};
+use aerostrata::{Altitude, Atmosphere, Error, PerfectGas, State, TemperatureOffset, US1976};
+
+#[path = "../../../crates/xtask/src/vector_values.rs"]
+mod values;
 
 /// A `# model:` line, parsed at build time.
 #[derive(Clone, Copy)]
@@ -113,13 +114,13 @@ impl Evaluator {
                 if input != Input::Mach {
                     return Err(Failure::Input("(expected mach)"));
                 }
-                return Ok(Evaluated::Flow(FlowValues::isentropic(gas, value)?));
+                return Ok(Evaluated::Isentropic(values::isentropic(gas, value)?));
             }
             Evaluator::NormalShock(gas) => {
                 if input != Input::Mach {
                     return Err(Failure::Input("(expected mach)"));
                 }
-                return Ok(Evaluated::Flow(FlowValues::normal_shock(gas, value)?));
+                return Ok(Evaluated::NormalShock(values::normal_shock(gas, value)?));
             }
         };
         let altitude = match input {
@@ -131,49 +132,11 @@ impl Evaluator {
     }
 }
 
-/// The named values of a compressible-flow row.
-pub struct FlowValues {
-    values: [(&'static str, f64); 7],
-    len: usize,
-}
-
-impl FlowValues {
-    fn isentropic(gas: &PerfectGas, mach: f64) -> Result<Self, Error> {
-        Ok(FlowValues {
-            values: [
-                ("p_p0", gas.pressure_ratio(mach)?),
-                ("rho_rho0", gas.density_ratio(mach)?),
-                ("t_t0", gas.temperature_ratio(mach)?),
-                ("a_astar", gas.area_ratio(mach)?),
-                ("qc_p", gas.impact_pressure_ratio(mach)?),
-                ("", 0.0),
-                ("", 0.0),
-            ],
-            len: 5,
-        })
-    }
-
-    fn normal_shock(gas: &PerfectGas, mach: f64) -> Result<Self, Error> {
-        let shock = gas.normal_shock(mach)?;
-        Ok(FlowValues {
-            values: [
-                ("m2", shock.downstream_mach),
-                ("p2_p1", shock.pressure_ratio),
-                ("rho2_rho1", shock.density_ratio),
-                ("t2_t1", shock.temperature_ratio),
-                ("p02_p01", shock.total_pressure_ratio),
-                ("p02_p1", shock.pitot_pressure_ratio),
-                ("p1_p02", 1.0 / shock.pitot_pressure_ratio),
-            ],
-            len: 7,
-        })
-    }
-}
-
 /// The computed values of one row.
 pub enum Evaluated {
     State(State, Altitude),
-    Flow(FlowValues),
+    Isentropic([(&'static str, f64); 5]),
+    NormalShock([(&'static str, f64); 7]),
 }
 
 impl Evaluated {
@@ -181,26 +144,9 @@ impl Evaluated {
     /// defines none.
     pub fn value(&self, column: &str) -> Option<Option<f64>> {
         match self {
-            Evaluated::State(state, altitude) => {
-                // Through the quantity catalogue, as the native check: a state quantity
-                // or a species, written in its SI unit (`temperature_K`).
-                let read = Quantity::from_column(column).ok()?;
-                let q = read.quantity;
-                if read.unit.is_some_and(|unit| unit != q.si()) {
-                    return None;
-                }
-                match q.info().group {
-                    Group::State => Some(state.get(q).ok()),
-                    Group::Species => {
-                        let index = Quantity::of_group(Group::Species).position(|s| s == q)?;
-                        Some(US1976.species(*altitude).ok().map(|n| n.as_array()[index]))
-                    }
-                    _ => None,
-                }
-            }
-            Evaluated::Flow(flow) => {
-                flow.values[..flow.len].iter().find(|(name, _)| *name == column).map(|(_, v)| Some(*v))
-            }
+            Evaluated::State(state, altitude) => values::atmosphere(state, *altitude, column),
+            Evaluated::Isentropic(columns) => values::flow(columns, column),
+            Evaluated::NormalShock(columns) => values::flow(columns, column),
         }
     }
 }

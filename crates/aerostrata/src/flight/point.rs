@@ -122,6 +122,28 @@ impl FlightPoint {
         Quantity::Drag,
     ];
 
+    /// Bit of [`FlightPoint::defined`]: the speed of sound and the Mach number are defined.
+    pub const DEFINED_MACH: u8 = 1;
+    /// Bit of [`FlightPoint::defined`]: the unit Reynolds number is defined.
+    pub const DEFINED_REYNOLDS_PER_M: u8 = 2;
+    /// Bit of [`FlightPoint::defined`]: the Reynolds number is defined (a reference length
+    /// was given).
+    pub const DEFINED_REYNOLDS_NUMBER: u8 = 4;
+    /// Bit of [`FlightPoint::defined`]: the drag coefficient and the drag are defined (a
+    /// vehicle was given).
+    pub const DEFINED_DRAG: u8 = 8;
+
+    /// Which of the values that can be missing are defined, as `DEFINED_*` bits: what the
+    /// C and WebAssembly doors hand on beside the values, which they give as NaN where
+    /// `None`.
+    pub fn defined(&self) -> u8 {
+        let bit = |defined: bool, bit: u8| if defined { bit } else { 0 };
+        bit(self.mach.is_some() && self.speed_of_sound_m_s.is_some(), Self::DEFINED_MACH)
+            | bit(self.reynolds_per_m.is_some(), Self::DEFINED_REYNOLDS_PER_M)
+            | bit(self.reynolds_number.is_some(), Self::DEFINED_REYNOLDS_NUMBER)
+            | bit(self.drag_coefficient.is_some() && self.drag_n.is_some(), Self::DEFINED_DRAG)
+    }
+
     /// The value of `quantity`, in its SI unit ([`Quantity::info`]).
     ///
     /// # Errors
@@ -215,4 +237,35 @@ pub(super) fn compute<A: Atmosphere>(
         drag_coefficient,
         drag_n,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::flight::FlightScan;
+    use crate::model::US1976;
+
+    /// Each bit stands for its values: every one in the continuum with a vehicle and a
+    /// reference length, the drag and Reynolds number not without them, and with a
+    /// Mach-independent Cd only the drag above 86 km.
+    #[test]
+    fn defined_bits_follow_the_values() {
+        let sample = |altitude_m| Sample { time_s: 0.0, altitude_m, velocity_m_s: 300.0 };
+        let vehicle = Vehicle::new(DragCurve::constant(0.5).unwrap(), 0.02).unwrap();
+        let with_length = vehicle.with_reference_length(1.5).unwrap();
+        let all = FlightPoint::DEFINED_MACH
+            | FlightPoint::DEFINED_REYNOLDS_PER_M
+            | FlightPoint::DEFINED_REYNOLDS_NUMBER
+            | FlightPoint::DEFINED_DRAG;
+        let point =
+            |vehicle, altitude_m| FlightScan::new(US1976, vehicle).evaluate(sample(altitude_m)).unwrap();
+        assert_eq!(point(Some(with_length), 1_000.0).defined(), all);
+        assert_eq!(point(Some(vehicle), 1_000.0).defined(), all & !FlightPoint::DEFINED_REYNOLDS_NUMBER);
+        assert_eq!(
+            point(None, 1_000.0).defined(),
+            FlightPoint::DEFINED_MACH | FlightPoint::DEFINED_REYNOLDS_PER_M
+        );
+        #[cfg(feature = "upper")]
+        assert_eq!(point(Some(with_length), 120_000.0).defined(), FlightPoint::DEFINED_DRAG);
+    }
 }

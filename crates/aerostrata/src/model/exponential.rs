@@ -26,8 +26,7 @@ use super::atmosphere::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(feature = "serde", serde(try_from = "ExponentialParameters"))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Exponential {
     sea_level_density_kg_m3: f64,
     scale_height_m: f64,
@@ -74,19 +73,9 @@ impl Atmosphere for Exponential {
     }
 }
 
-/// What deserialisation reads before [`Exponential::new`] validates it.
-#[cfg(feature = "serde")]
-#[derive(serde::Deserialize)]
-struct ExponentialParameters {
-    sea_level_density_kg_m3: f64,
-    scale_height_m: f64,
-    temperature_k: f64,
-}
-
-#[cfg(feature = "serde")]
-impl TryFrom<ExponentialParameters> for Exponential {
-    type Error = crate::Error;
-    fn try_from(p: ExponentialParameters) -> Result<Self> {
-        Self::new(p.sea_level_density_kg_m3, p.scale_height_m, p.temperature_k)
-    }
+deserialize_through! {
+    /// What deserialisation reads before [`Exponential::new`] validates it.
+    ExponentialParameters { sea_level_density_kg_m3: f64, scale_height_m: f64, temperature_k: f64 }
+        => Exponential,
+    Exponential::new(sea_level_density_kg_m3, scale_height_m, temperature_k)
 }

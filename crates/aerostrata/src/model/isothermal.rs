@@ -24,8 +24,7 @@ use super::atmosphere::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(feature = "serde", serde(try_from = "IsothermalParameters"))]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Isothermal {
     temperature_k: f64,
     sea_level_pressure_pa: f64,
@@ -68,18 +67,8 @@ impl Atmosphere for Isothermal {
     }
 }
 
-/// What deserialisation reads before [`Isothermal::new`] validates it.
-#[cfg(feature = "serde")]
-#[derive(serde::Deserialize)]
-struct IsothermalParameters {
-    temperature_k: f64,
-    sea_level_pressure_pa: f64,
-}
-
-#[cfg(feature = "serde")]
-impl TryFrom<IsothermalParameters> for Isothermal {
-    type Error = crate::Error;
-    fn try_from(p: IsothermalParameters) -> Result<Self> {
-        Self::new(p.temperature_k, p.sea_level_pressure_pa)
-    }
+deserialize_through! {
+    /// What deserialisation reads before [`Isothermal::new`] validates it.
+    IsothermalParameters { temperature_k: f64, sea_level_pressure_pa: f64 } => Isothermal,
+    Isothermal::new(temperature_k, sea_level_pressure_pa)
 }

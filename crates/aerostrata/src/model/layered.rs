@@ -93,11 +93,7 @@ impl Layer {
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(
-    feature = "serde",
-    serde(try_from = "LayeredParts<S>", bound(deserialize = "S: AsRef<[Layer]> + serde::Deserialize<'de>"))
-)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Layered<S> {
     layers: S,
     range: AltitudeRange,
@@ -350,21 +346,13 @@ fn invalid(index: usize, problem: &'static str, value: f64) -> Error {
     Error::InvalidLayer { index, problem, value }
 }
 
-/// What deserialisation reads before [`Layered::from_layers`] (and, for a range that
-/// reaches below the first base, [`Layered::extend_below`]) validates it.
-#[cfg(feature = "serde")]
-#[derive(serde::Deserialize)]
-struct LayeredParts<S> {
-    layers: S,
-    range: AltitudeRange,
-}
-
-#[cfg(feature = "serde")]
-impl<S: AsRef<[Layer]>> TryFrom<LayeredParts<S>> for Layered<S> {
-    type Error = Error;
-    fn try_from(parts: LayeredParts<S>) -> Result<Self> {
-        let bottom = parts.range.geopotential_min_m;
-        let model = Self::from_layers(parts.layers, parts.range.geopotential_max_m)?;
+deserialize_through! {
+    /// What deserialisation reads before [`Layered::from_layers`] (and, for a range that
+    /// reaches below the first base, [`Layered::extend_below`]) validates it.
+    LayeredParts<S: AsRef<[Layer]>> { layers: S, range: AltitudeRange } => Layered<S>,
+    {
+        let bottom = range.geopotential_min_m;
+        let model = Layered::from_layers(layers, range.geopotential_max_m)?;
         match model.layers().first() {
             Some(first) if bottom < first.base_geopotential_m => model.extend_below(bottom),
             _ => Ok(model),

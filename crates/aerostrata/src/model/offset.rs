@@ -23,11 +23,7 @@ use super::atmosphere::Atmosphere;
 /// # Ok::<(), aerostrata::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
-#[cfg_attr(
-    feature = "serde",
-    serde(try_from = "OffsetParameters<A>", bound(deserialize = "A: Atmosphere + serde::Deserialize<'de>"))
-)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct TemperatureOffset<A> {
     base: A,
     offset_k: f64,
@@ -67,18 +63,8 @@ impl<A: Atmosphere> Atmosphere for TemperatureOffset<A> {
     }
 }
 
-/// What deserialisation reads before [`TemperatureOffset::new`] validates it.
-#[cfg(feature = "serde")]
-#[derive(serde::Deserialize)]
-struct OffsetParameters<A> {
-    base: A,
-    offset_k: f64,
-}
-
-#[cfg(feature = "serde")]
-impl<A: Atmosphere> TryFrom<OffsetParameters<A>> for TemperatureOffset<A> {
-    type Error = crate::Error;
-    fn try_from(p: OffsetParameters<A>) -> Result<Self> {
-        Self::new(p.base, p.offset_k)
-    }
+deserialize_through! {
+    /// What deserialisation reads before [`TemperatureOffset::new`] validates it.
+    OffsetParameters<A: Atmosphere> { base: A, offset_k: f64 } => TemperatureOffset<A>,
+    TemperatureOffset::new(base, offset_k)
 }

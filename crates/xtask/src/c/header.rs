@@ -1,7 +1,13 @@
-//! `cargo xtask header [--check]`: bindings/c/src/catalogue.rs regenerated from the core's
-//! quantity catalogue, then bindings/c/include/aerostrata.h with the
+//! `cargo xtask header [--check]`: bindings/c/include/aerostrata.h regenerated with the
 //! pinned cbindgen (installed under target/tools when missing), or compared with a fresh
 //! generation.
+//!
+//! The crate's `src/catalogue.rs` includes what its build script writes into OUT_DIR, and
+//! cbindgen does not follow `include!`: it reads a copy of the crate's source under
+//! target/c-header in which the generated text is `src/catalogue.rs` itself. cbindgen is
+//! given the copy's `lib.rs` (it follows the `mod` lines from there) rather than a crate
+//! directory, because `cargo metadata` refuses a workspace member's manifest outside the
+//! workspace.
 
 use std::path::{Path, PathBuf};
 
@@ -20,24 +26,39 @@ fn cbindgen(root: &Path) -> Result<PathBuf, String> {
     crate::setup::cargo_tool(root, "cbindgen", "cbindgen", CBINDGEN_VERSION)
 }
 
+/// A copy of bindings/c/src under target/c-header with the generated catalogue in place
+/// of `src/catalogue.rs`; returns the copy's `lib.rs`.
+fn source_copy(root: &Path) -> Result<PathBuf, String> {
+    let from = root.join("bindings/c/src");
+    let to = target_dir(root).join("c-header").join("src");
+    if to.exists() {
+        std::fs::remove_dir_all(&to).map_err(|e| io_error("remove", &to, e))?;
+    }
+    copy_dir(&from, &to)?;
+    let catalogue = to.join("catalogue.rs");
+    std::fs::write(&catalogue, super::catalogue::generate()).map_err(|e| io_error("write", &catalogue, e))?;
+    Ok(to.join("lib.rs"))
+}
+
+fn copy_dir(from: &Path, to: &Path) -> Result<(), String> {
+    std::fs::create_dir_all(to).map_err(|e| io_error("create", to, e))?;
+    for entry in std::fs::read_dir(from).map_err(|e| io_error("read", from, e))? {
+        let path = entry.map_err(|e| io_error("read", from, e))?.path();
+        let target = to.join(path.file_name().unwrap_or_default());
+        if path.is_dir() {
+            copy_dir(&path, &target)?;
+        } else {
+            std::fs::copy(&path, &target).map_err(|e| io_error("copy", &path, e))?;
+        }
+    }
+    Ok(())
+}
+
 /// Regenerates bindings/c/include/aerostrata.h; with `check_only`, writes it to a
 /// temporary file instead and fails if it differs from the committed one.
 pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
     let cbindgen = cbindgen(root)?;
-    // The C door's catalogue source first: cbindgen reads it with the rest of the crate.
-    let generated = root.join(super::catalogue::GENERATED);
-    let fresh = super::catalogue::generate();
-    if check_only {
-        let committed = std::fs::read_to_string(&generated).unwrap_or_default();
-        if committed != fresh {
-            return Err(format!(
-                "{} is stale: run `cargo xtask header` and commit it",
-                super::catalogue::GENERATED
-            ));
-        }
-    } else {
-        std::fs::write(&generated, fresh).map_err(|e| io_error("write", &generated, e))?;
-    }
+    let lib = source_copy(root)?;
     let committed = root.join(HEADER);
     let output = if check_only { target_dir(root).join("aerostrata.h.check") } else { committed.clone() };
     if let Some(dir) = output.parent() {
@@ -45,8 +66,8 @@ pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
     }
     let output_arg = output.to_string_lossy().into_owned();
     Cmd::new(cbindgen)
-        .args(["--quiet", "--config", "bindings/c/cbindgen.toml", "--crate", "aerostrata-c", "--output"])
-        .args([&output_arg, "bindings/c"])
+        .args(["--quiet", "--config", "bindings/c/cbindgen.toml", "--output", &output_arg])
+        .arg(&lib)
         .dir(root)
         .run()?;
     if check_only {

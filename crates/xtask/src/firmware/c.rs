@@ -35,9 +35,9 @@ pub struct Report {
 }
 
 /// The C accessor of a vector column, found through the quantity catalogue: (kind,
-/// struct, field). A state quantity is a field of `AerostrataState` (generated from the
-/// catalogue: its name and SI unit); a species a field of `AerostrataSpecies` (`n_N2_m3`
-/// is `n2_m3`).
+/// struct, field). A state quantity is a field of `AerostrataState` (its name and SI
+/// unit), a species one of `AerostrataSpecies` (its symbol and unit: `n_N2_m3` is
+/// `n2_m3`), both generated from the catalogue by the same code.
 fn accessor(column: &str) -> Result<(&'static str, &'static str, String), String> {
     let unknown = || format!("column {column} has no field in the C interface");
     let read = Quantity::from_column(column).map_err(|_| unknown())?;
@@ -46,13 +46,12 @@ fn accessor(column: &str) -> Result<(&'static str, &'static str, String), String
         return Err(unknown());
     }
     let info = q.info();
-    let field = crate::c::field_name(&info);
     match info.group {
-        Group::State if info.may_be_undefined => Ok(("CASE_CONTINUUM", "AerostrataState", field)),
-        Group::State => Ok(("CASE_STATE", "AerostrataState", field)),
-        Group::Species => {
-            Ok(("CASE_SPECIES", "AerostrataSpecies", field.trim_start_matches("n_").to_ascii_lowercase()))
+        Group::State if info.may_be_undefined => {
+            Ok(("CASE_CONTINUUM", "AerostrataState", crate::c::field_name(&info)))
         }
+        Group::State => Ok(("CASE_STATE", "AerostrataState", crate::c::field_name(&info))),
+        Group::Species => Ok(("CASE_SPECIES", "AerostrataSpecies", crate::c::species_field(&info))),
         _ => Err(unknown()),
     }
 }

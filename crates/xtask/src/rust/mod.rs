@@ -2,8 +2,9 @@
 //! `vector_file`) and the validation report written from them (`validate`), the generated
 //! upper-atmosphere table (`upper`) and that table's flash cost on Cortex-M (`flash`).
 //!
-//! `upper.rs` and `vector_file.rs` stay at the top of src/: the first is edited on
-//! another branch, the second is included by path from tests/firmware/build.rs.
+//! `upper.rs`, `vector_file.rs` and `vector_values.rs` stay at the top of src/: the first
+//! is edited on another branch, the second is included by path from
+//! tests/firmware/build.rs and the third from tests/firmware/src/vectors.rs.
 
 pub mod flash;
 #[path = "../upper.rs"]
@@ -11,4 +12,6 @@ pub mod upper;
 pub mod validate;
 #[path = "../vector_file.rs"]
 pub mod vector_file;
+#[path = "../vector_values.rs"]
+pub mod vector_values;
 pub mod vectors;

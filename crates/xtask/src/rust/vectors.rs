@@ -1,18 +1,17 @@
 //! Checking the core against the reference vectors of `tests/vectors` (read by
 //! `vector_file`). The atmosphere files have the input column `geometric_altitude_m` or
 //! `geopotential_altitude_m` and state quantities named as in `aerostrata eval` as their
-//! other columns. The compressible-flow models take the input column `mach`: `isentropic gamma=G` the
-//! columns `p_p0`, `rho_rho0`, `t_t0`, `a_astar` (A/A*) and `qc_p` (impact over static
-//! pressure), `normal_shock gamma=G` the columns `m2`, `p2_p1`, `rho2_rho1`, `t2_t1`,
-//! `p02_p01`, `p02_p1` (Rayleigh pitot) and `p1_p02`.
+//! other columns. The compressible-flow models take the input column `mach`:
+//! `isentropic gamma=G` and `normal_shock gamma=G`. What each column names is computed
+//! by `vector_values`, which the firmware harness shares.
 
 use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use aerostrata::quantity::Group;
-use aerostrata::{Altitude, Atmosphere, PerfectGas, Quantity, State, TemperatureOffset, US1976};
+use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
 
+use super::vector_values;
 use crate::io_error;
 
 pub use super::vector_file::{half_unit_of_last_digit, read, read_all, Rule, VectorFile};
@@ -75,7 +74,7 @@ impl Evaluator {
     /// Every value one row's input gives, by column name (`None` where a quantity is not
     /// defined there).
     fn row(&self, input_column: &str, input: f64) -> Result<Row, String> {
-        let flow = |values: Vec<(&'static str, f64)>| Ok(Row::Flow(values));
+        let message = |e: aerostrata::Error| e.to_string();
         match self {
             Evaluator::Atmosphere(atmosphere) => {
                 let altitude = match input_column {
@@ -83,34 +82,18 @@ impl Evaluator {
                     "geopotential_altitude_m" => Altitude::geopotential_m(input),
                     other => return Err(format!("unknown input column {other}")),
                 }
-                .map_err(|e| e.to_string())?;
-                let state = atmosphere.state(altitude).map_err(|e| e.to_string())?;
+                .map_err(message)?;
+                let state = atmosphere.state(altitude).map_err(message)?;
                 Ok(Row::State(Box::new(state), altitude))
             }
             _ if input_column != "mach" => {
                 Err(format!("unknown input column {input_column} (expected mach)"))
             }
             Evaluator::Isentropic(gas) => {
-                let e = |r: aerostrata::Result<f64>| r.map_err(|e| e.to_string());
-                flow(vec![
-                    ("p_p0", e(gas.pressure_ratio(input))?),
-                    ("rho_rho0", e(gas.density_ratio(input))?),
-                    ("t_t0", e(gas.temperature_ratio(input))?),
-                    ("a_astar", e(gas.area_ratio(input))?),
-                    ("qc_p", e(gas.impact_pressure_ratio(input))?),
-                ])
+                Ok(Row::Flow(vector_values::isentropic(gas, input).map_err(message)?.to_vec()))
             }
             Evaluator::NormalShock(gas) => {
-                let shock = gas.normal_shock(input).map_err(|e| e.to_string())?;
-                flow(vec![
-                    ("m2", shock.downstream_mach),
-                    ("p2_p1", shock.pressure_ratio),
-                    ("rho2_rho1", shock.density_ratio),
-                    ("t2_t1", shock.temperature_ratio),
-                    ("p02_p01", shock.total_pressure_ratio),
-                    ("p02_p1", shock.pitot_pressure_ratio),
-                    ("p1_p02", 1.0 / shock.pitot_pressure_ratio),
-                ])
+                Ok(Row::Flow(vector_values::normal_shock(gas, input).map_err(message)?.to_vec()))
             }
         }
     }
@@ -127,32 +110,12 @@ impl Row {
     /// file's model has no such quantity.
     fn value_in(&self, file: &VectorFile, column: &str) -> Result<Option<f64>, String> {
         let value = match self {
-            Row::State(state, altitude) => field(state, *altitude, column),
-            Row::Flow(values) => values.iter().find(|(name, _)| *name == column).map(|(_, v)| Some(*v)),
+            Row::State(state, altitude) => vector_values::atmosphere(state, *altitude, column),
+            Row::Flow(values) => vector_values::flow(values, column),
         };
         value.ok_or_else(|| {
             format!("{}: no quantity named {column} for model {}", file.path.display(), file.model)
         })
-    }
-}
-
-/// The value a column names, found through the quantity catalogue: a state quantity or
-/// a species number density of the standard, written in its SI unit (`temperature_K`).
-/// `None` when the column names no such quantity; `Some(None)` where it is undefined.
-fn field(state: &State, altitude: Altitude, column: &str) -> Option<Option<f64>> {
-    let read = Quantity::from_column(column).ok()?;
-    let q = read.quantity;
-    if read.unit.is_some_and(|unit| unit != q.si()) {
-        return None;
-    }
-    match q.info().group {
-        Group::State => Some(state.get(q).ok()),
-        Group::Species => {
-            // The catalogue's species are in the order of `Species::as_array`.
-            let index = Quantity::of_group(Group::Species).position(|s| s == q)?;
-            Some(US1976.species(altitude).ok().map(|n| n.as_array()[index]))
-        }
-        _ => None,
     }
 }
 

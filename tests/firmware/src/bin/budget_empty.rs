@@ -5,25 +5,12 @@
 #![no_std]
 #![no_main]
 
-use aerostrata_firmware::{stack, BUDGET_ALTITUDES_M};
-use core::hint::black_box;
+use aerostrata_firmware::{deepest_stack, BUDGET_ALTITUDES_M};
 use cortex_m_rt::entry;
-use cortex_m_semihosting::hprintln;
 use panic_semihosting as _;
 
 #[entry]
 fn main() -> ! {
-    let mut deepest = 0usize;
-    let mut ok = true;
-    for z in BUDGET_ALTITUDES_M {
-        match stack::measure(|| black_box(black_box(z) + 1.0)) {
-            Some((value, used)) => {
-                black_box(value);
-                deepest = deepest.max(used);
-            }
-            None => ok = false,
-        }
-    }
-    hprintln!("# stack state {} B", deepest);
+    let ok = deepest_stack("state", BUDGET_ALTITUDES_M, |z| Ok::<f64, ()>(z + 1.0));
     aerostrata_firmware::exit(ok)
 }

@@ -8,36 +8,31 @@
 #![no_main]
 
 use aerostrata::{Altitude, Atmosphere, US1976};
-use aerostrata_firmware::{stack, BUDGET_ALTITUDES_M};
-use core::hint::black_box;
+use aerostrata_firmware::{deepest_stack, BUDGET_ALTITUDES_M};
 use cortex_m_rt::entry;
 use cortex_m_semihosting::hprintln;
 use panic_semihosting as _;
 
 #[entry]
 fn main() -> ! {
-    let mut deepest = 0usize;
-    let mut ok = true;
-    for z in BUDGET_ALTITUDES_M {
-        match stack::measure(|| Altitude::geometric_m(black_box(z)).and_then(|a| US1976.state(a))) {
-            Some((Ok(state), used)) => {
-                black_box(state);
-                deepest = deepest.max(used);
-            }
-            _ => ok = false,
-        }
-        #[cfg(feature = "upper")]
-        if z > 86_000.0 {
-            match stack::measure(|| Altitude::geometric_m(black_box(z)).and_then(|a| US1976.species(a))) {
-                Some((Ok(species), used)) => {
-                    black_box(species);
-                    hprintln!("# stack species {} B", used);
-                }
-                _ => ok = false,
-            }
-        }
-    }
-    hprintln!("# stack state {} B", deepest);
+    let state = deepest_stack("state", BUDGET_ALTITUDES_M, |z| {
+        Altitude::geometric_m(z).and_then(|a| US1976.state(a))
+    });
+    let species = species();
     hprintln!("# result {} B", core::mem::size_of::<aerostrata::Result<aerostrata::State>>());
-    aerostrata_firmware::exit(ok)
+    aerostrata_firmware::exit(state && species)
+}
+
+/// The species at the altitudes above 86 km, their deepest stack printed as
+/// `# stack species N B`.
+#[cfg(feature = "upper")]
+fn species() -> bool {
+    let above = BUDGET_ALTITUDES_M.into_iter().filter(|z| *z > 86_000.0);
+    deepest_stack("species", above, |z| Altitude::geometric_m(z).and_then(|a| US1976.species(a)))
+}
+
+/// Without `upper` there are no species.
+#[cfg(not(feature = "upper"))]
+fn species() -> bool {
+    true
 }

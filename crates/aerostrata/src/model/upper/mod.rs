@@ -18,6 +18,7 @@ use crate::constants::{AVOGADRO_PER_KMOL, EARTH_RADIUS_M};
 use crate::error::{Error, Result};
 use crate::gas::Air;
 use crate::math::{exp, sqrt};
+use crate::quantity::Quantity;
 
 use upper_table::{LN_DENSITY, SEGMENTS, SLOPE};
 
@@ -82,6 +83,34 @@ impl Species {
     pub fn density_kg_m3(&self) -> f64 {
         let mass: f64 = self.as_array().iter().zip(MOLAR_MASS_KG_KMOL).map(|(n, m)| n * m).sum();
         mass / AVOGADRO_PER_KMOL
+    }
+
+    /// The number density `quantity` names, 1/m^3 ([`Quantity::info`]; the catalogue's
+    /// species are in the standard's order, that of [`Species::as_array`]).
+    ///
+    /// # Errors
+    /// [`Error::NotCarried`] for a quantity that is not a species' number density.
+    ///
+    /// ```
+    /// use aerostrata::{Altitude, Quantity, US1976};
+    /// let n = US1976.species(Altitude::geometric_m(200_000.0)?)?;
+    /// assert_eq!(n.get(Quantity::AtomicOxygenNumberDensity)?, n.o_m3);
+    /// assert!(n.get(Quantity::Temperature).is_err());
+    /// # Ok::<(), aerostrata::Error>(())
+    /// ```
+    pub fn get(&self, quantity: Quantity) -> Result<f64> {
+        use Quantity as Q;
+        match quantity {
+            Q::NitrogenNumberDensity => Ok(self.n2_m3),
+            Q::AtomicOxygenNumberDensity => Ok(self.o_m3),
+            Q::OxygenNumberDensity => Ok(self.o2_m3),
+            Q::ArgonNumberDensity => Ok(self.ar_m3),
+            Q::HeliumNumberDensity => Ok(self.he_m3),
+            Q::AtomicHydrogenNumberDensity => Ok(self.h_m3),
+            other => {
+                Err(Error::NotCarried { quantity: other.name(), result: "the species' number densities" })
+            }
+        }
     }
 }
 
@@ -172,5 +201,26 @@ pub(crate) fn species_checked(z_m: f64) -> Result<Species> {
             min: BASE_M,
             max: TOP_M,
         })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::quantity::Group;
+
+    /// The catalogue's species are those of `as_array`, in its order, and `get` gives
+    /// each one's value (the doors read them by quantity).
+    #[test]
+    fn get_walks_the_catalogue_in_the_standards_order() {
+        let n = species(500_000.0);
+        let quantities: Vec<Quantity> = Quantity::of_group(Group::Species).collect();
+        assert_eq!(quantities.len(), n.as_array().len());
+        for (quantity, value) in quantities.iter().zip(n.as_array()) {
+            assert_eq!(n.get(*quantity).unwrap().to_bits(), value.to_bits(), "{quantity:?}");
+        }
+        for quantity in Quantity::ALL.iter().filter(|q| q.info().group != Group::Species) {
+            assert!(matches!(n.get(*quantity), Err(Error::NotCarried { .. })), "{quantity:?}");
+        }
     }
 }
