@@ -18,11 +18,11 @@ use super::standard::{molar_mass_ratio, LAYERS, LAYERS_TOP_GEOPOTENTIAL_M, LOWER
 
 /// Largest offset either way, K: keeps the coldest layer (186.87 K at 86 km in the
 /// standard) well above 0 K and every temperature within [`Air`]'s band.
-pub const MAX_OFFSET_K: f64 = 100.0;
+const MAX_OFFSET_K: f64 = 100.0;
 
 /// The band of sea-level pressures the model accepts, Pa: far beyond any sea-level
 /// pressure on Earth (about 870 to 1084 hPa) either way, so that test atmospheres fit.
-pub const SEA_LEVEL_PRESSURE_RANGE_PA: (f64, f64) = (10_000.0, 200_000.0);
+const SEA_LEVEL_PRESSURE_RANGE_PA: (f64, f64) = (10_000.0, 200_000.0);
 
 /// The 1976 standard from -5 km to 86 km geometric with every molecular-scale
 /// temperature shifted by `offset_k` and the pressure in hydrostatic balance from
@@ -63,8 +63,9 @@ impl HydrostaticOffset {
     ///
     /// # Errors
     /// [`Error::NotFinite`](crate::Error::NotFinite) or
-    /// [`Error::OutOfRange`](crate::Error::OutOfRange) for an offset outside
-    /// +-[`MAX_OFFSET_K`] or a pressure outside [`SEA_LEVEL_PRESSURE_RANGE_PA`].
+    /// [`Error::OutOfRange`](crate::Error::OutOfRange) for an offset outside -100 to
+    /// 100 K (the coldest layer stays well above 0 K) or a pressure outside 10 000 to
+    /// 200 000 Pa (far beyond any sea-level pressure on Earth, about 870 to 1084 hPa).
     pub fn new(offset_k: f64, sea_level_pressure_pa: f64) -> Result<Self> {
         let offset_k = within("temperature offset", "K", offset_k, -MAX_OFFSET_K, MAX_OFFSET_K)?;
         let (min, max) = SEA_LEVEL_PRESSURE_RANGE_PA;
