@@ -76,11 +76,8 @@ pub fn run(root: &Path) -> Result<(), String> {
     if let Some(dir) = path.parent() {
         fs::create_dir_all(dir).map_err(|e| io_error("create", dir, e))?;
     }
-    // Keep the WebAssembly section that `cargo xtask wasm-bench` writes into the same file.
-    let kept = fs::read_to_string(&path)
-        .ok()
-        .and_then(|old| crate::wasm::bench::section_of(&old).map(str::to_owned));
-    let report = kept.map_or(report.clone(), |section| crate::wasm::bench::splice(&report, &section));
+    // Keep the sections `cargo xtask wasm-bench` and `cargo xtask icount` write there.
+    let report = crate::report::keep_others(&report, &fs::read_to_string(&path).unwrap_or_default());
     fs::write(&path, report).map_err(|e| io_error("write", &path, e))?;
     eprintln!("wrote {REPORT}");
     for goal in goals(&results) {

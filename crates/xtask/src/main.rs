@@ -18,6 +18,8 @@
 //! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
+//! cargo xtask icount [--against REV]  instructions per evaluation under callgrind (and
+//!                               against another revision's core); writes docs/performance.md
 //! cargo xtask catalogue         every door lists every quantity as the core's catalogue does
 //!                               (after `wasm` and with the C package)
 //! ```
@@ -35,8 +37,10 @@ mod bench;
 mod c;
 mod catalogue;
 mod firmware;
+mod icount;
 mod machine;
 mod process;
+mod report;
 mod rust;
 mod setup;
 mod spreadsheet;
@@ -49,7 +53,7 @@ use std::process::ExitCode;
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
                      | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
-                     | catalogue";
+                     | icount [--against REV] | catalogue";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -84,6 +88,10 @@ fn main() -> ExitCode {
         }),
         Some("browser-test") => wasm::browser(&root),
         Some("wasm-bench") => wasm::bench::run(&root),
+        Some("icount") => {
+            let against = args.iter().position(|a| a == "--against").and_then(|i| args.get(i + 1));
+            icount::run(&root, against.map(String::as_str))
+        }
         Some("catalogue") => catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg"))
             .map(|line| eprintln!("{line}")),
         _ => Err(USAGE.to_owned()),

@@ -188,6 +188,7 @@ pub(super) fn bad_sample(index: usize, problem: &'static str, value: f64) -> Err
 
 /// The values at `sample` (the `index`-th), reading the vehicle's drag curve through
 /// `cd_segment`, which is refreshed when the Mach number has left it.
+#[inline]
 pub(super) fn compute<A: Atmosphere>(
     atmosphere: &A,
     vehicle: Option<&Vehicle<'_>>,

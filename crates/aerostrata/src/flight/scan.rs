@@ -93,6 +93,7 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
     /// beyond +-[`MAX_TIME_S`] or not after the previous sample's; [`Error::NotFinite`] or
     /// [`Error::OutOfRange`] for a velocity outside +-[`crate::aero::MAX_SPEED_M_S`] or an
     /// altitude outside the model's range; the model's own errors.
+    #[inline]
     pub fn push(&mut self, sample: Sample) -> Result<FlightPoint> {
         let index = self.samples;
         if let Some(last) = &self.last {

@@ -27,8 +27,6 @@ const RUNS: usize = 5;
 const GOAL_RATIO: f64 = 2.5;
 
 const REPORT: &str = "docs/performance.md";
-pub const BEGIN: &str = "<!-- wasm-bench: begin (written by `cargo xtask wasm-bench`) -->";
-pub const END: &str = "<!-- wasm-bench: end -->";
 
 /// The milliseconds of the timed runs, of the first (cold) batch, and the checksum one
 /// side printed.
@@ -62,23 +60,6 @@ fn median(values: &[f64]) -> f64 {
 
 fn min(values: &[f64]) -> f64 {
     values.iter().copied().fold(f64::INFINITY, f64::min)
-}
-
-/// Replaces the marked section of `report` with `section`, or appends it.
-pub fn splice(report: &str, section: &str) -> String {
-    match (report.find(BEGIN), report.find(END)) {
-        (Some(begin), Some(end)) if end > begin => {
-            format!("{}{section}{}", &report[..begin], &report[end + END.len()..])
-        }
-        _ => format!("{}\n\n{section}\n", report.trim_end()),
-    }
-}
-
-/// The marked section of `report`, markers included, if it has one.
-pub fn section_of(report: &str) -> Option<&str> {
-    let begin = report.find(BEGIN)?;
-    let end = report[begin..].find(END)? + begin;
-    Some(&report[begin..end + END.len()])
 }
 
 pub fn run(root: &Path) -> Result<(), String> {
@@ -127,8 +108,9 @@ pub fn run(root: &Path) -> Result<(), String> {
     let per_second = |ms: f64| COUNT as f64 / (ms / 1e3);
     let verdict = if ratio <= GOAL_RATIO { "met" } else { "not met" };
     let list = |v: &[f64]| v.iter().map(|x| format!("{x:.1}")).collect::<Vec<_>>().join(", ");
+    let (begin, end) = (crate::report::WASM.begin, crate::report::WASM.end);
     let section = format!(
-        "{BEGIN}
+        "{begin}
 ## WebAssembly: batch evaluation in Node against the native core
 
 Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm/bench.rs): one batch of {COUNT} pseudo-random geometric altitudes, uniform in [0, 86 000) m (fixed seed), through `AtmosphereModel.standard().batch(altitudes, [temperatureK, pressurePa, densityKgM3, speedOfSoundMS, dynamicViscosityPaS])` of the Node build of the npm package (bindings/wasm/tests/bench.mjs), and the same altitudes, read from the file Node wrote, through `US1976.state` of the native core built `--release`, keeping the same five quantities column after column (bindings/wasm/examples/native_batch.rs). Each side warms up for 3 s (criterion's default; V8 first runs the module in its baseline tier and moves the hot functions to its optimising tier over the first batches), then times {RUNS} runs, and the two alternate for {ROUNDS} rounds in one run of the command, so both see the same machine; the wasm figure includes copying the altitudes into the module and the five result arrays out of it.
@@ -148,7 +130,7 @@ Measured by `cargo xtask wasm-bench` (crates/xtask/src/wasm/bench.rs): one batch
 Every run's milliseconds, wasm: {wl}; native: {nl}. The first batch of each round, before the warm-up, took {wfl} ms in wasm (the baseline tier) and {nfl} ms natively. The outputs of both sides have the same FNV-1a checksum, `{first}`: the {values} values are bit-identical.
 
 Within one run the module's batches vary by about a third (each batch allocates its 48 MB of arrays in the JS heap, and V8's collector runs between batches), so the median ratio lands on either side of the 2.5x goal from one run of the command to the next (2.47x to 2.66x in the runs made for this report). Why the module is slower: it is optimised for size (its budget), and V8's code for wasm is not LLVM's for x86-64; the core's square root uses wasm's `f64x2.sqrt` instruction rather than libm's software square root, which on its own took a quarter of the module's time (crates/aerostrata/src/math.rs). Rerun `cargo xtask wasm-bench` to refresh this section; the rest of this file is `cargo xtask bench`'s.
-{END}",
+{end}",
         cpu = machine.cpu_model,
         cpus = machine.cpus,
         node = version(root, "node"),
@@ -169,7 +151,8 @@ Within one run the module's batches vary by about a third (each batch allocates 
     );
     let path = root.join(REPORT);
     let report = fs::read_to_string(&path).unwrap_or_default();
-    fs::write(&path, splice(&report, &section)).map_err(|e| format!("cannot write {REPORT}: {e}"))?;
+    fs::write(&path, crate::report::WASM.splice(&report, &section))
+        .map_err(|e| format!("cannot write {REPORT}: {e}"))?;
     eprintln!(
         "wasm {wasm_median:.1} ms, native {native_median:.1} ms per batch of {COUNT}: {ratio:.2}x (goal at most {GOAL_RATIO}x, {verdict}); wrote {REPORT}"
     );
@@ -179,17 +162,6 @@ Within one run the module's batches vary by about a third (each batch allocates 
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn the_section_is_replaced_in_place_or_appended() {
-        let section = format!("{BEGIN}\nnew\n{END}");
-        let appended = splice("# Performance\n\nold text\n", &section);
-        assert!(appended.starts_with("# Performance\n\nold text\n\n<!-- wasm-bench: begin"));
-        let replaced = splice(&format!("head\n{BEGIN}\nold\n{END}\ntail\n"), &section);
-        assert_eq!(replaced, format!("head\n{section}\ntail\n"));
-        assert_eq!(section_of(&replaced), Some(section.as_str()));
-        assert_eq!(section_of("no markers"), None);
-    }
 
     #[test]
     fn medians() {
