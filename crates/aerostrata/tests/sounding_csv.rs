@@ -2,7 +2,7 @@
 //! the loader's own, from a malformed CSV, each naming the line, the column and the cell
 //! as written; and the units it converts.
 
-use aerostrata::model::sounding_io::parse_csv;
+use aerostrata::model::sounding_io::{parse_csv, read_csv, Options};
 
 mod common;
 use common::relative;
@@ -132,7 +132,7 @@ fn nan_and_infinity_anywhere() {
         assert_csv_error(
             value,
             &format!("{HEADER}0,30,1010,24\n{cells}\n"),
-            &["line 4", column, &format!("value '{value}'"), "must be a finite number"],
+            &["line 4", column, &format!("value '{value}'"), "is not a number"],
         );
     }
 }
@@ -172,7 +172,7 @@ fn malformed_text() {
     let short_row = format!("{HEADER}0,30,1010\n");
     let word_for_number = format!("{HEADER}0,thirty,1010,\n");
     let empty_temperature = format!("{HEADER}0,,1010,\n");
-    let cases: [(&str, &str, &[&str]); 10] = [
+    let cases: [(&str, &str, &[&str]); 11] = [
         ("no header", "# only a comment\n", &["line 1", "no header line"]),
         (
             "an altitude of no kind",
@@ -181,18 +181,27 @@ fn malformed_text() {
         ),
         (
             "an unknown unit",
-            "geometric_altitude_m,temperature_C,pressure_Pa\n",
-            &["line 1", "column 2 (temperature_C)", "unit 'C' is not one of K, degC, degF"],
+            "geometric_altitude_m,temperature_Q,pressure_Pa\n",
+            &[
+                "line 1",
+                "column 2 (temperature_Q)",
+                "unit 'Q' is not one of the temperature's: K, degC, degF or degR",
+            ],
         ),
         (
-            "an unknown column",
-            "geometric_altitude_m,temperature_K,wind_kt\n",
-            &["column 3 (wind_kt)", "unknown column"],
+            "a unit of another quantity",
+            "geometric_altitude_m,temperature_K,pressure_ft\n",
+            &["line 1", "column 3 (pressure_ft)", "unit 'ft' is not one of the pressure's: Pa, hPa"],
+        ),
+        (
+            "both kinds of altitude",
+            "geometric_altitude_m,geopotential_altitude_m,temperature_K,pressure_Pa\n",
+            &["line 1", "one altitude column, geometric or geopotential, not both"],
         ),
         (
             "a quantity twice",
             "geometric_altitude_m,temperature_K,pressure_Pa,pressure_hPa\n",
-            &["column 4 (pressure_hPa)", "a second column of this quantity (the first is column 3)"],
+            &["column 4 (pressure_hPa)", "a second column of the pressure (the first is column 3)"],
         ),
         ("no temperature", "geometric_altitude_m,pressure_Pa\n", &["line 1", "needs a temperature column"]),
         ("no pressure or density", "geometric_altitude_m,temperature_K\n", &["needs a pressure"]),
@@ -210,6 +219,72 @@ fn malformed_text() {
     ];
     for (case, text, words) in cases {
         assert_csv_error(case, text, words);
+    }
+}
+
+/// Columns the reader does not take (wind, remarks) are kept out and listed; headings
+/// in every spelling; a cell's own unit wins over its column's.
+#[test]
+fn unknown_columns_are_kept_out_and_headings_read_in_every_spelling() {
+    let text = "Geometric Altitude [ft];temperature (degC);pressure_hPa;wind_speed_kt;remark\n\
+                0;30;1010;12;calm\n3280.84;23.5;900hPa;20;\n";
+    let sounding = read_csv(text, &Options::default()).unwrap();
+    assert_eq!(sounding.ignored, [(4, "wind_speed_kt".to_owned()), (5, "remark".to_owned())]);
+    let row = *sounding.table.rows().nth(1).unwrap();
+    assert_eq!(row.altitude_m, 3280.84 * 0.3048);
+    assert_eq!(row.pressure_pa, Some(90_000.0));
+    // A heading without a unit reads in the reader's default: SI, or what a door passes.
+    let bare = "geometric_altitude,temperature,pressure\n0,288.15,101325\n1000,281.65,89875\n";
+    assert_eq!(parse_csv(bare).unwrap().levels()[1].pressure_pa(), 89_875.0);
+    let us = Options { default_unit: aerostrata::Quantity::us, ..Options::default() };
+    let feet = "geometric_altitude,temperature_K,pressure_Pa\n0,288.15,101325\n3280.84,281.65,89875\n";
+    assert_eq!(read_csv(feet, &us).unwrap().table.rows().nth(1).unwrap().altitude_m, 3280.84 * 0.3048);
+}
+
+/// Gross unit errors, the mistakes a person makes with a column's unit, are refused with
+/// the mix-up named (the numbers from the examples in the robustness issue: pascals in a
+/// hectopascal column, hectopascals in a pascal column, kelvins in a Celsius column).
+#[test]
+fn gross_unit_errors_are_refused_naming_the_mix_up() {
+    let cases: [(&str, &str, &[&str]); 4] = [
+        (
+            "pascals in pressure_hPa",
+            "geometric_altitude_m,temperature_degC,pressure_hPa\n0,15,101325\n1000,8.5,89875\n",
+            &[
+                "line 2",
+                "column 3 (pressure_hPa)",
+                "value '101325'",
+                "outside 0.5 to 1.5 times the standard's pressure",
+                "if it holds Pa, head it pressure_Pa",
+            ],
+        ),
+        (
+            "hectopascals in pressure_Pa",
+            "geometric_altitude_m,temperature_degC,pressure_Pa\n0,15,1013.25\n1000,8.5,898.75\n",
+            &["line 2", "column 3 (pressure_Pa)", "value '1013.25'", "if it holds hPa, head it pressure_hPa"],
+        ),
+        (
+            "kelvins in temperature_degC",
+            "geometric_altitude_m,temperature_degC,pressure_hPa\n0,288.15,1013.25\n1000,281.65,898.75\n",
+            &[
+                "line 2",
+                "column 2 (temperature_degC)",
+                "value '288.15'",
+                "outside any air temperature",
+                "if it holds K, head it temperature_K",
+            ],
+        ),
+        (
+            "a density a hundred times too high",
+            "geometric_altitude_m,temperature_K,density_kg_m3\n0,288.15,122.5\n1000,281.65,111.2\n",
+            &["line 2", "column 3 (density_kg_m3)", "outside 0.5 to 2 times the standard's density"],
+        ),
+    ];
+    for (case, text, words) in cases {
+        assert_csv_error(case, text, words);
+        // The check can be turned off for unusual use (a test atmosphere).
+        let off = Options { plausibility: false, ..Options::default() };
+        assert!(read_csv(text, &off).is_ok(), "{case}");
     }
 }
 

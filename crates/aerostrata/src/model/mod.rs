@@ -34,6 +34,6 @@ pub use sounding::{
     MoistState, OutsideTable, SoundingLevel, SoundingRow, Tabulated, MAX_HYDROSTATIC_RATIO,
     MIN_HYDROSTATIC_RATIO, MIN_ROW_SPACING_M,
 };
-// The CSV loader and writer of soundings (`std`); its home is model/sounding/csv.rs.
-#[cfg(feature = "std")]
+// The CSV loader and writer of soundings (`alloc`); its home is model/sounding/csv.rs.
+#[cfg(feature = "alloc")]
 pub use sounding::csv as sounding_io;

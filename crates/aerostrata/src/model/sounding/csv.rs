@@ -1,12 +1,18 @@
-//! Soundings as CSV text (the `std` feature): reading, with errors that name the line,
-//! the column and the value as written, and writing, with every value's shortest
-//! decimal that reads back to the same f64.
+//! Soundings as CSV text (the `alloc` feature): reading through the one table reader
+//! ([`crate::table`]), with errors that name the line, the column and the value as
+//! written, and writing, with every value's shortest decimal that reads back to the same
+//! f64.
 //!
 //! The format (docs/soundings.md): `#` comment lines and blank lines anywhere; one
-//! header line naming each column as `<quantity>_<unit>`; then one row per line, cells
-//! separated by commas, an empty cell meaning "not given". JSON goes through serde
-//! instead: [`Tabulated`] serialises as its kind of altitude, its rows and its
-//! behaviour beyond them, and deserialises through the same checks.
+//! header line naming each column (a quantity of the catalogue, with or without a unit:
+//! `geometric_altitude_ft`, `temperature (degC)`, `Pressure [hPa]`); then one row per
+//! line, an empty cell meaning "not given", a cell's own unit (`850hPa`) winning over its
+//! column's. A heading without a unit reads in the reader's default unit (SI unless the
+//! caller says otherwise). Columns the reader does not take (wind, say) are kept out and
+//! listed in [`Sounding::ignored`]. Every value is checked against what the atmosphere
+//! can have at its row (see [`Options::plausibility`]), so that pascals in a hectopascal
+//! column, or kelvins in a Celsius one, are refused with the likely mix-up named. JSON
+//! goes through serde instead.
 //!
 //! ```
 //! use aerostrata::model::sounding_io::parse_csv;
@@ -21,14 +27,18 @@
 //! # Ok::<(), Box<dyn std::error::Error>>(())
 //! ```
 
-use std::boxed::Box;
-use std::fmt::{self, Write as _};
-use std::string::{String, ToString};
-use std::vec::Vec;
+use alloc::boxed::Box;
+use alloc::format;
+use alloc::string::{String, ToString};
+use alloc::vec::Vec;
+use core::fmt::{self, Write as _};
 
 use crate::altitude::AltitudeKind;
 use crate::error::Error;
-use crate::units::{fahrenheit_to_kelvin, CELSIUS_ZERO_K, FOOT_M, HPA_PA};
+use crate::model::{Atmosphere, US1976};
+use crate::quantity::{ColumnError, Quantity};
+use crate::table::{self, CellError, Header, HeaderError};
+use crate::units::{self, Tidy, Unit};
 
 use super::rows::{
     SoundingLevel, SoundingRow, Q_DENSITY, Q_DEW_POINT, Q_HUMID_TEMPERATURE, Q_PRESSURE, Q_RELATIVE_HUMIDITY,
@@ -62,12 +72,14 @@ impl LoadError {
     }
 
     fn in_column(mut self, index: usize, name: &str) -> Self {
-        self.0.column = Some((index + 1, name.to_string()));
+        let (name, cut) = units::shorten(name, 40);
+        self.0.column = Some((index + 1, format!("{name}{}", if cut { "..." } else { "" })));
         self
     }
 
     fn with_value(mut self, text: &str) -> Self {
-        self.0.value = Some(text.to_string());
+        let (text, cut) = units::shorten(text, 40);
+        self.0.value = Some(format!("{text}{}", if cut { "..." } else { "" }));
         self
     }
 
@@ -81,7 +93,7 @@ impl LoadError {
         self.0.column.as_ref().map(|(index, name)| (*index, name.as_str()))
     }
 
-    /// The cell as written, where the problem has one.
+    /// The cell as written (cut to 40 characters), where the problem has one.
     pub fn value(&self) -> Option<&str> {
         self.0.value.as_deref()
     }
@@ -106,130 +118,56 @@ impl fmt::Display for LoadError {
     }
 }
 
-impl std::error::Error for LoadError {
-    fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
-        self.0.error.as_ref().map(|e| e as &(dyn std::error::Error + 'static))
+impl core::error::Error for LoadError {
+    fn source(&self) -> Option<&(dyn core::error::Error + 'static)> {
+        self.0.error.as_ref().map(|e| e as &(dyn core::error::Error + 'static))
     }
 }
 
-/// What a column holds.
-#[derive(Debug, Clone, Copy, PartialEq)]
-enum Quantity {
-    Altitude(AltitudeKind),
-    Temperature,
-    Pressure,
-    Density,
-    DewPoint,
-    RelativeHumidity,
+/// How a sounding is read.
+#[derive(Debug, Clone, Copy)]
+pub struct Options {
+    /// The unit of a column whose heading names none (the quantity's SI unit by default;
+    /// a door that reads in US units passes `Quantity::us`).
+    pub default_unit: fn(Quantity) -> &'static Unit,
+    /// Check every value against what the atmosphere can have at its row: temperatures
+    /// and dew points within 120 to 350 K, pressures within 0.5 to 1.5 times and densities
+    /// within 0.5 to 2 times the 1976 standard's at the row's altitude (where the standard
+    /// is defined, -5 to 86 km). These bands hold every day the Earth has (common practice,
+    /// no source); turn the check off only for another planet or a test atmosphere.
+    pub plausibility: bool,
 }
 
-/// The units a column may be written in, with their conversion to SI.
-#[derive(Debug, Clone, Copy, PartialEq)]
-enum Unit {
-    Metre,
-    Kilometre,
-    Foot,
-    Kelvin,
-    Celsius,
-    Fahrenheit,
-    Pascal,
-    Hectopascal,
-    Kilopascal,
-    KilogramPerCubicMetre,
-    Percent,
-}
-
-impl Unit {
-    fn to_si(self, value: f64) -> f64 {
-        match self {
-            Self::Metre | Self::Kelvin | Self::Pascal | Self::KilogramPerCubicMetre | Self::Percent => value,
-            Self::Kilometre | Self::Kilopascal => value * 1_000.0,
-            Self::Foot => value * FOOT_M,
-            Self::Celsius => value + CELSIUS_ZERO_K,
-            Self::Fahrenheit => fahrenheit_to_kelvin(value),
-            Self::Hectopascal => value * HPA_PA,
-        }
+impl Default for Options {
+    fn default() -> Self {
+        Self { default_unit: Quantity::si, plausibility: true }
     }
 }
 
-/// Quantities by header prefix, with their units (header spelling, lower case) and the
-/// list an error shows.
-/// A quantity's header prefix, what it is, its units by spelling, and how errors list them.
-type QuantitySpec = (&'static str, Quantity, &'static [(&'static str, Unit)], &'static str);
+/// A sounding as read: the model, and the headings of the columns kept out of it.
+#[derive(Debug, Clone)]
+pub struct Sounding {
+    /// The table.
+    pub table: Tabulated<Vec<SoundingLevel>>,
+    /// The columns the reader does not take, as (column number from 1, heading), for a
+    /// warning: wind columns, remarks, anything else.
+    pub ignored: Vec<(usize, String)>,
+}
 
-const QUANTITIES: [QuantitySpec; 7] = [
-    (
-        "geometric_altitude",
-        Quantity::Altitude(AltitudeKind::Geometric),
-        &[("m", Unit::Metre), ("km", Unit::Kilometre), ("ft", Unit::Foot)],
-        "m, km, ft",
-    ),
-    (
-        "geopotential_altitude",
-        Quantity::Altitude(AltitudeKind::Geopotential),
-        &[("m", Unit::Metre), ("km", Unit::Kilometre), ("ft", Unit::Foot)],
-        "m, km, ft",
-    ),
-    (
-        "temperature",
-        Quantity::Temperature,
-        &[("k", Unit::Kelvin), ("degc", Unit::Celsius), ("degf", Unit::Fahrenheit)],
-        "K, degC, degF",
-    ),
-    (
-        "pressure",
-        Quantity::Pressure,
-        &[
-            ("pa", Unit::Pascal),
-            ("hpa", Unit::Hectopascal),
-            ("mbar", Unit::Hectopascal),
-            ("kpa", Unit::Kilopascal),
-        ],
-        "Pa, hPa, mbar, kPa",
-    ),
-    ("density", Quantity::Density, &[("kg_m3", Unit::KilogramPerCubicMetre)], "kg_m3"),
-    (
-        "dew_point",
-        Quantity::DewPoint,
-        &[("k", Unit::Kelvin), ("degc", Unit::Celsius), ("degf", Unit::Fahrenheit)],
-        "K, degC, degF",
-    ),
-    ("relative_humidity", Quantity::RelativeHumidity, &[("percent", Unit::Percent)], "percent"),
+/// The quantities a sounding's columns may hold.
+const TAKEN: [Quantity; 7] = [
+    Quantity::GeometricAltitude,
+    Quantity::GeopotentialAltitude,
+    Quantity::Temperature,
+    Quantity::Pressure,
+    Quantity::Density,
+    Quantity::DewPoint,
+    Quantity::RelativeHumidity,
 ];
 
-const KNOWN_COLUMNS: &str = "geometric_altitude_<m|km|ft> or geopotential_altitude_<m|km|ft>, \
-     temperature_<K|degC|degF>, pressure_<Pa|hPa|mbar|kPa>, density_kg_m3, \
-     dew_point_<K|degC|degF>, relative_humidity_percent";
-
-#[derive(Debug, Clone)]
-struct Column {
-    name: String,
-    quantity: Quantity,
-    unit: Unit,
-}
-
-fn parse_column(line: usize, index: usize, name: &str) -> Result<Column, LoadError> {
-    let lower = name.to_ascii_lowercase();
-    let at = |message: String| LoadError::at(line, message).in_column(index, name);
-    if lower == "altitude_m" || lower == "altitude_ft" || lower == "altitude_km" || lower == "height_m" {
-        return Err(at("say which altitude: geometric_altitude_<unit> or geopotential_altitude_<unit> \
-             (they differ by 1.2 km at 86 km)"
-            .to_string()));
-    }
-    for (prefix, quantity, units, listed) in QUANTITIES {
-        let Some(rest) = lower.strip_prefix(prefix).and_then(|rest| rest.strip_prefix('_')) else {
-            continue;
-        };
-        return match units.iter().find(|(spelling, _)| *spelling == rest) {
-            Some(&(_, unit)) => Ok(Column { name: name.to_string(), quantity, unit }),
-            None => {
-                let written = name.get(name.len() - rest.len()..).unwrap_or(rest);
-                Err(at(format!("unit '{written}' is not one of {listed} for {prefix}")))
-            }
-        };
-    }
-    Err(at(format!("unknown column; the columns are {KNOWN_COLUMNS}")))
-}
+const KNOWN_COLUMNS: &str = "geometric_altitude or geopotential_altitude, temperature, pressure or density, \
+     and optionally dew_point or relative_humidity, each with its unit (geometric_altitude_ft, temperature_degC, \
+     pressure_hPa)";
 
 /// Where each quantity sits in the header.
 #[derive(Debug, Default)]
@@ -242,140 +180,256 @@ struct Layout {
     relative_humidity: Option<usize>,
 }
 
-impl Layout {
-    fn slot(&mut self, quantity: Quantity) -> &mut Option<usize> {
-        match quantity {
-            Quantity::Altitude(_) => &mut self.altitude,
-            Quantity::Temperature => &mut self.temperature,
-            Quantity::Pressure => &mut self.pressure,
-            Quantity::Density => &mut self.density,
-            Quantity::DewPoint => &mut self.dew_point,
-            Quantity::RelativeHumidity => &mut self.relative_humidity,
-        }
-    }
-}
-
-/// Cells of a line: split at commas, trimmed, surrounding double quotes removed.
-fn cells(text: &str) -> impl Iterator<Item = &str> {
-    text.split(',').map(|cell| {
-        let cell = cell.trim();
-        cell.strip_prefix('"').and_then(|c| c.strip_suffix('"')).unwrap_or(cell).trim()
-    })
-}
-
 /// A data row as read, kept for error messages.
 struct ReadRow {
     line: usize,
     cells: Vec<String>,
 }
 
+/// Reads a sounding from CSV text with the default [`Options`]; see [`read_csv`].
+///
+/// # Errors
+/// As [`read_csv`].
+pub fn parse_csv(text: &str) -> Result<Tabulated<Vec<SoundingLevel>>, LoadError> {
+    read_csv(text, &Options::default()).map(|sounding| sounding.table)
+}
+
 /// Reads a sounding from CSV text.
 ///
 /// # Errors
 /// A [`LoadError`] naming the line (from 1), and where there is one the column (number
-/// and header name) and the cell as written: no header; an unknown, duplicated or
-/// missing column or unit (an altitude and a temperature column are required, and a
-/// pressure or a density column); a line with a different number of cells than the
-/// header; a cell that is not a number; a missing altitude or temperature; and every
-/// error of [`Tabulated::from_rows_vec`], whose message it carries.
-pub fn parse_csv(text: &str) -> Result<Tabulated<Vec<SoundingLevel>>, LoadError> {
-    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+/// and header name) and the cell as written: no header; a column of a quantity the
+/// reader takes with a wrong unit, or named twice; no altitude, temperature or pressure
+/// (or density) column, or an altitude that does not say which kind; a line with another
+/// number of cells than the header; a cell that is not a number of its quantity; a
+/// missing altitude or temperature; every error of [`Tabulated::from_rows_vec`], whose
+/// message it carries; and a value the atmosphere cannot have at its row, naming the
+/// likely unit mix-up (unless [`Options::plausibility`] is off).
+pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
     let mut content = text
         .lines()
         .enumerate()
-        .map(|(index, line)| (index + 1, line.trim()))
+        .map(|(index, line)| (index + 1, table::clean(line).trim()))
         .filter(|(_, line)| !line.is_empty() && !line.starts_with('#'));
-    let Some((header_line, header)) = content.next() else {
+    let Some((header_line, header_text)) = content.next() else {
         let last = text.lines().count().max(1);
         return Err(LoadError::at(
             last,
             "no header line: the first line that is not a comment must name the columns",
         ));
     };
-    let mut columns = Vec::new();
-    let mut layout = Layout::default();
-    for (index, name) in cells(header).enumerate() {
-        let column = parse_column(header_line, index, name)?;
-        let slot = layout.slot(column.quantity);
-        if let Some(first) = *slot {
+    let names: Vec<String> =
+        table::cells(header_text, table::delimiter_of(header_text)).map(str::to_string).collect();
+    for (index, name) in names.iter().enumerate() {
+        if Quantity::from_column(name).is_ok_and(|c| c.quantity == Quantity::Altitude) {
             return Err(LoadError::at(
                 header_line,
-                format!("a second column of this quantity (the first is column {})", first + 1),
+                "say which altitude: geometric_altitude or geopotential_altitude (they differ by 1.2 km at 86 km)",
             )
             .in_column(index, name));
         }
-        *slot = Some(index);
-        columns.push(column);
+    }
+    let header = Header::read(header_text, |q| TAKEN.contains(&q), options.default_unit)
+        .map_err(|error| header_error(header_line, &names, error))?;
+    let layout = Layout {
+        altitude: header
+            .position(Quantity::GeometricAltitude)
+            .or(header.position(Quantity::GeopotentialAltitude)),
+        temperature: header.position(Quantity::Temperature),
+        pressure: header.position(Quantity::Pressure),
+        density: header.position(Quantity::Density),
+        dew_point: header.position(Quantity::DewPoint),
+        relative_humidity: header.position(Quantity::RelativeHumidity),
+    };
+    if header.position(Quantity::GeometricAltitude).is_some()
+        && header.position(Quantity::GeopotentialAltitude).is_some()
+    {
+        return Err(LoadError::at(
+            header_line,
+            "give one altitude column, geometric or geopotential, not both",
+        ));
     }
     let Some(altitude_index) = layout.altitude else {
-        return Err(LoadError::at(header_line, "the header needs an altitude column: geometric_altitude_<m|km|ft> or geopotential_altitude_<m|km|ft>"));
+        return Err(LoadError::at(
+            header_line,
+            format!("the header needs an altitude column; the columns are {KNOWN_COLUMNS}"),
+        ));
     };
-    let kind = match columns[altitude_index].quantity {
-        Quantity::Altitude(kind) => kind,
-        _ => AltitudeKind::Geometric,
+    let kind = if header.position(Quantity::GeometricAltitude).is_some() {
+        AltitudeKind::Geometric
+    } else {
+        AltitudeKind::Geopotential
     };
     let Some(temperature_index) = layout.temperature else {
         return Err(LoadError::at(
             header_line,
-            "the header needs a temperature column: temperature_<K|degC|degF>",
+            format!("the header needs a temperature column; the columns are {KNOWN_COLUMNS}"),
         ));
     };
     if layout.pressure.is_none() && layout.density.is_none() {
         return Err(LoadError::at(
             header_line,
-            "the header needs a pressure_<Pa|hPa|mbar|kPa> or a density_kg_m3 column",
+            format!("the header needs a pressure or a density column; the columns are {KNOWN_COLUMNS}"),
         ));
     }
 
     let mut rows = Vec::new();
     let mut read = Vec::new();
+    let mut values = [None; table::MAX_COLUMNS];
     for (line, text) in content {
-        let texts: Vec<String> = cells(text).map(str::to_string).collect();
-        if texts.len() != columns.len() {
-            return Err(LoadError::at(
+        header.read_row(text, &mut values).map_err(|error| match error {
+            CellError::Count { expected, found } => LoadError::at(
                 line,
-                format!(
-                    "{} cells, but the header on line {header_line} has {} columns",
-                    texts.len(),
-                    columns.len()
-                ),
-            ));
-        }
-        let mut values = [None; 6];
-        for (index, (cell, column)) in texts.iter().zip(&columns).enumerate() {
-            if cell.is_empty() {
-                continue;
+                format!("{found} cells, but the header on line {header_line} has {expected} columns"),
+            ),
+            CellError::Value { index, text, error } => {
+                LoadError::at(line, error.to_string()).in_column(index, &names[index]).with_value(text)
             }
-            let number: f64 = cell.parse().map_err(|_| {
-                LoadError::at(line, "not a number").in_column(index, &column.name).with_value(cell)
-            })?;
-            let slot = match column.quantity {
-                Quantity::Altitude(_) => 0,
-                Quantity::Temperature => 1,
-                Quantity::Pressure => 2,
-                Quantity::Density => 3,
-                Quantity::DewPoint => 4,
-                Quantity::RelativeHumidity => 5,
-            };
-            values[slot] = Some(column.unit.to_si(number));
-        }
-        let required = |slot: usize, index: usize| {
-            values[slot].ok_or_else(|| {
-                LoadError::at(line, "a value is required on every row").in_column(index, &columns[index].name)
+        })?;
+        let required = |index: usize| {
+            values[index].ok_or_else(|| {
+                LoadError::at(line, "a value is required on every row").in_column(index, &names[index])
             })
         };
+        let optional = |index: Option<usize>| index.and_then(|i| values[i]);
         rows.push(SoundingRow {
-            altitude_m: required(0, altitude_index)?,
-            temperature_k: required(1, temperature_index)?,
-            pressure_pa: values[2],
-            density_kg_m3: values[3],
-            dew_point_k: values[4],
-            relative_humidity_percent: values[5],
+            altitude_m: required(altitude_index)?,
+            temperature_k: required(temperature_index)?,
+            pressure_pa: optional(layout.pressure),
+            density_kg_m3: optional(layout.density),
+            dew_point_k: optional(layout.dew_point),
+            relative_humidity_percent: optional(layout.relative_humidity),
         });
-        read.push(ReadRow { line, cells: texts });
+        read.push(ReadRow {
+            line,
+            cells: table::cells(text, header.delimiter()).map(str::to_string).collect(),
+        });
     }
-    Tabulated::from_rows_vec(kind, &rows)
-        .map_err(|error| located(error, header_line, &layout, &columns, &read))
+    let table = Tabulated::from_rows_vec(kind, &rows)
+        .map_err(|error| located(error, header_line, &layout, &names, &read))?;
+    if options.plausibility {
+        check_plausible(kind, &rows, &read, &layout, &names, &header)?;
+    }
+    let ignored = header.ignored().map(|i| (i + 1, names.get(i).cloned().unwrap_or_default())).collect();
+    Ok(Sounding { table, ignored })
+}
+
+fn header_error(line: usize, names: &[String], error: HeaderError<'_>) -> LoadError {
+    match error {
+        HeaderError::TooManyColumns { .. } => LoadError::at(line, error.to_string()),
+        HeaderError::Duplicate { quantity, first, second } => LoadError::at(
+            line,
+            format!("a second column of the {} (the first is column {})", quantity.info().label, first + 1),
+        )
+        .in_column(second, names.get(second).map_or("", String::as_str)),
+        HeaderError::Unit { index, error: ColumnError::Unit { quantity, unit }, .. } => LoadError::at(
+            line,
+            format!(
+                "unit '{}' is not one of the {}'s: {}",
+                units::shorten(unit, 40).0,
+                quantity.info().label,
+                units::UnitList(quantity.si().dimension())
+            ),
+        )
+        .in_column(index, names.get(index).map_or("", String::as_str)),
+        HeaderError::Unit { index, .. } => LoadError::at(line, error.to_string())
+            .in_column(index, names.get(index).map_or("", String::as_str)),
+    }
+}
+
+/// The band a value of `quantity` can have at geometric or geopotential `altitude_m`, in
+/// SI, and what it is called: `None` where there is no band (outside the standard).
+fn band(quantity: Quantity, kind: AltitudeKind, altitude_m: f64) -> Option<(f64, f64, &'static str)> {
+    match quantity {
+        Quantity::Temperature | Quantity::DewPoint => {
+            let p = units::Plausible::AIR_TEMPERATURE;
+            Some((p.min_si, p.max_si, "any air temperature"))
+        }
+        Quantity::Pressure | Quantity::Density => {
+            let state = kind.altitude(altitude_m).and_then(|h| US1976.state(h)).ok()?;
+            if state.geometric_altitude_m > 86_000.0 {
+                return None;
+            }
+            Some(if quantity == Quantity::Pressure {
+                (
+                    0.5 * state.pressure_pa,
+                    1.5 * state.pressure_pa,
+                    "0.5 to 1.5 times the standard's pressure there",
+                )
+            } else {
+                (
+                    0.5 * state.density_kg_m3,
+                    2.0 * state.density_kg_m3,
+                    "0.5 to 2 times the standard's density there",
+                )
+            })
+        }
+        _ => None,
+    }
+}
+
+/// Every value of every row within what the atmosphere can have there, else an error at
+/// the first that is not, naming the unit its column would need to make it plausible.
+fn check_plausible(
+    kind: AltitudeKind,
+    rows: &[SoundingRow],
+    read: &[ReadRow],
+    layout: &Layout,
+    names: &[String],
+    header: &Header,
+) -> Result<(), LoadError> {
+    let columns = [
+        (layout.temperature, Quantity::Temperature),
+        (layout.pressure, Quantity::Pressure),
+        (layout.density, Quantity::Density),
+        (layout.dew_point, Quantity::DewPoint),
+    ];
+    for (row, read_row) in rows.iter().zip(read) {
+        let given = [Some(row.temperature_k), row.pressure_pa, row.density_kg_m3, row.dew_point_k];
+        for ((index, quantity), value) in columns.iter().zip(given) {
+            let (Some(index), Some(si)) = (*index, value) else { continue };
+            let Some((min, max, what)) = band(*quantity, kind, row.altitude_m) else { continue };
+            if (min..=max).contains(&si) {
+                continue;
+            }
+            let cell = read_row.cells.get(index).map_or("", String::as_str);
+            let Some(column) = header.column(index) else { continue };
+            let si_unit = quantity.si();
+            let mut message = format!(
+                "{} {} is outside {} ({} to {} {})",
+                Tidy(si_unit.from_si(si)),
+                si_unit.symbol(),
+                what,
+                Tidy(si_unit.from_si(min)),
+                Tidy(si_unit.from_si(max)),
+                si_unit.symbol()
+            );
+            // A cell written as a bare number takes its column's unit: the likely mix-up
+            // is a column whose heading names the wrong unit.
+            if let Ok(reading) = units::parse(cell, column.unit.dimension(), column.unit) {
+                let fits = column
+                    .unit
+                    .dimension()
+                    .units()
+                    .find(|u| *u != reading.unit && (min..=max).contains(&u.to_si(reading.value)));
+                if let (false, Some(unit)) = (reading.explicit, fits) {
+                    let _ = write!(
+                        message,
+                        "; the column reads {}: if it holds {}, head it {}_{}",
+                        column.unit.symbol(),
+                        unit.symbol(),
+                        quantity.name(),
+                        unit.suffix()
+                    );
+                }
+            }
+            message.push_str(" (check the data, or read it without the plausibility check)");
+            return Err(LoadError::at(read_row.line, message)
+                .in_column(index, &names[index])
+                .with_value(cell));
+        }
+    }
+    Ok(())
 }
 
 /// Which value of a row an error is about, for the loaders that show the user's cell.
@@ -432,7 +486,7 @@ fn located(
     error: Error,
     header_line: usize,
     layout: &Layout,
-    columns: &[Column],
+    names: &[String],
     read: &[ReadRow],
 ) -> LoadError {
     let plain = |line| LoadError::model(line, error);
@@ -458,7 +512,7 @@ fn located(
     };
     let mut out = plain(read_row.line);
     if let Some(index) = index {
-        out = out.in_column(index, &columns[index].name);
+        out = out.in_column(index, names.get(index).map_or("", String::as_str));
         if let Some(cell) = read_row.cells.get(index).filter(|c| !c.is_empty()) {
             out = out.with_value(cell);
         }

@@ -13,9 +13,9 @@
 //! The files follow the data: rows.rs (the rows as given and as kept, and their checks),
 //! moist.rs (what humidity changes), hydrostatics.rs (levels from rows), interpolate.rs
 //! (between and beyond the rows), table.rs (the model), and the doors for text: csv.rs
-//! (`std`) and serde_support.rs (`serde`).
+//! (`alloc`) and serde_support.rs (`serde`).
 
-#[cfg(feature = "std")]
+#[cfg(feature = "alloc")]
 pub mod csv;
 mod hydrostatics;
 mod interpolate;
