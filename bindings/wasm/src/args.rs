@@ -41,6 +41,10 @@ pub fn zeroed(len: usize) -> Result<Vec<f64>, Failure> {
     Ok(out)
 }
 
+/// Most elements any array argument or result may have (16 777 216), as glue.js's
+/// MAX_ELEMENTS.
+pub const MAX_ELEMENTS: usize = 1 << 24;
+
 /// Most rows a table (a sounding) and most layers a layered model may have (262 144):
 /// each row costs a few hundred bytes of the module's memory, and no sounding comes near.
 pub const MAX_TABLE_ROWS: usize = 1 << 18;

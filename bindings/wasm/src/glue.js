@@ -231,6 +231,27 @@ export function text(name, value) {
   return value;
 }
 
+// The text of a file: a string of at most 64 MiB.
+export function longText(name, value) {
+  if (typeof value !== "string") throw typeError(name, "a string", value);
+  if (value.length > 67108864) throw new RangeError(name + " has " + value.length + " characters; the allowed range is 0 to 67108864");
+  return value;
+}
+
+// Six significant digits, as a person reads a number in a message.
+export function tidy(value) {
+  return String(Number(value.toPrecision(6)));
+}
+
+export function parsedValue(si, value, unit, explicit) {
+  return { si, value, unit, explicit };
+}
+
+export function flightSamples(keys, a, b, c, ignored) {
+  const [ka, kb, kc] = keys.split(",");
+  return { [ka]: a.slice(), [kb]: b.slice(), [kc]: c.slice(), ignored: ignored === "" ? [] : ignored.split("\u001f") };
+}
+
 export function parseJson(text) {
   return JSON.parse(text);
 }

@@ -87,6 +87,29 @@ extern "C" {
     #[wasm_bindgen(catch)]
     pub fn text(name: &str, value: &JsValue) -> Result<String, JsValue>;
 
+    /// A JS string of at most 64 MiB of text (a file's content), else a `TypeError` or
+    /// `RangeError` naming `name`.
+    #[wasm_bindgen(catch, js_name = longText)]
+    pub fn long_text(name: &str, value: &JsValue) -> Result<String, JsValue>;
+
+    /// `value` with six significant digits as JS writes it (`263.706`).
+    pub fn tidy(value: f64) -> String;
+
+    /// `{si, value, unit, explicit}`: what `parseValue` returns.
+    #[wasm_bindgen(catch, js_name = parsedValue)]
+    pub fn parsed_value(si: f64, value: f64, unit: &str, explicit: bool) -> Result<JsValue, JsValue>;
+
+    /// `{<keys>: Float64Array, ..., ignored: [headings]}` of a flight file's samples; the
+    /// ignored headings separated by U+001F.
+    #[wasm_bindgen(catch, js_name = flightSamples)]
+    pub fn flight_samples(
+        keys: &str,
+        a: &[f64],
+        b: &[f64],
+        c: &[f64],
+        ignored: &str,
+    ) -> Result<JsValue, JsValue>;
+
     /// `JSON.parse(text)` of text this module wrote.
     #[wasm_bindgen(catch, js_name = parseJson)]
     pub fn parse_json(text: &str) -> Result<JsValue, JsValue>;

@@ -43,6 +43,7 @@ mod aero;
 mod args;
 mod error;
 mod flight;
+mod input;
 mod js;
 mod model;
 mod naming;
@@ -51,6 +52,7 @@ mod text;
 
 pub use aero::*;
 pub use error::{Class, Failure};
+pub use input::{model_grammar, parse_value, read_flight_csv};
 pub use model::{standard_species, standard_state, AtmosphereModel};
 pub use quantity::{from_us, quantities, to_us};
 
@@ -105,7 +107,27 @@ export interface QuantityInfo {
 export type AltitudeKind = "geometric" | "geopotential";
 
 /** The kinds of model `AtmosphereModel` holds. */
-export type ModelKind = "standard" | "exponential" | "isothermal" | "layered" | "tabulated";
+export type ModelKind = "standard" | "hydrostaticOffset" | "exponential" | "isothermal" | "layered" | "tabulated";
+
+/** What `parseValue` returns. */
+export interface ParsedValue {
+  /** The value in the quantity's SI unit. */
+  si: number;
+  /** The number as written. */
+  value: number;
+  /** The symbol of the unit it was read in. */
+  unit: string;
+  /** Whether the text named the unit. */
+  explicit: boolean;
+}
+
+/** What `readFlightCsv` returns: the samples in SI, and the headings kept out. */
+export interface FlightSamples {
+  timeS: Float64Array;
+  altitudeM: Float64Array;
+  velocityMS: Float64Array;
+  ignored: string[];
+}
 
 /** The altitudes a model accepts. */
 export interface AltitudeRange {

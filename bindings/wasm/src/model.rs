@@ -65,6 +65,19 @@ impl AtmosphereModel {
     fn new(model: Model, kind: &'static str) -> Self {
         Self { model, kind }
     }
+
+    /// A handle for `model`, its kind read from the model itself.
+    pub(crate) fn from_model(model: Model) -> Self {
+        let kind = match &model {
+            Model::Exponential(_) => "exponential",
+            Model::Isothermal(_) => "isothermal",
+            Model::Layers(_) => "layered",
+            Model::Sounding(_) => "tabulated",
+            Model::HydrostaticOffset(_) => "hydrostaticOffset",
+            _ => "standard",
+        };
+        Self::new(model, kind)
+    }
 }
 
 /// What a table does beyond its edge: an error, or a blend into the standard over
@@ -105,6 +118,28 @@ impl AtmosphereModel {
     ) -> Result<AtmosphereModel, JsValue> {
         let offset_k = js::number_or("offsetK", &offset_k, 0.0)?;
         Ok(Self::new(standard(offset_k)?, "standard"))
+    }
+
+    /// The 1976 standard with every temperature shifted by `offsetK` kelvin at every
+    /// geopotential altitude and the pressure in hydrostatic balance from
+    /// `seaLevelPressurePa` (Pa, default 101 325) at altitude 0: the balanced hot or cold
+    /// day a trajectory against geometric altitude needs (`standard(offsetK)` keeps the
+    /// standard's pressure instead). Defined from -5 km to 86 km geometric.
+    ///
+    /// Throws a `RangeError` for an offset outside -100 to 100 K or a pressure outside
+    /// 10 000 to 200 000 Pa.
+    #[wasm_bindgen(js_name = hydrostaticOffset)]
+    pub fn hydrostatic_offset(
+        #[wasm_bindgen(js_name = offsetK, unchecked_param_type = "number")] offset_k: JsValue,
+        #[wasm_bindgen(js_name = seaLevelPressurePa, unchecked_optional_param_type = "number")]
+        pressure: JsValue,
+    ) -> Result<AtmosphereModel, JsValue> {
+        let model = aerostrata::HydrostaticOffset::new(
+            js::number("offsetK", &offset_k)?,
+            js::number_or("seaLevelPressurePa", &pressure, aerostrata::constants::SEA_LEVEL_PRESSURE_PA)?,
+        )
+        .js()?;
+        Ok(Self::new(Model::HydrostaticOffset(model), "hydrostaticOffset"))
     }
 
     /// An exponential atmosphere: density `seaLevelDensityKgM3` (kg/m^3) at 0 m falling by

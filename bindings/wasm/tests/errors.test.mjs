@@ -231,6 +231,9 @@ const VALID = {
   toUs: ["temperature", 288.15],
   fromUs: ["density", 0.002],
   version: [],
+  parseValue: ["15C", "temperature"],
+  modelGrammar: [],
+  readFlightCsv: ["time,altitude_ft,velocity_ft_s\n0,0,0\n1,50,100\n"],
 };
 const STATIC = {
   standard: [5],
@@ -238,6 +241,9 @@ const STATIC = {
   isothermal: [250, 1e5],
   layered: [0, 288, 1e5, [11000, 20000], [-0.0065, 0]],
   tabulated: ["geometric", [0, 1000], [288, 281], { pressurePa: [1e5, null], blendAboveM: 1000 }],
+  fromSpec: ["hydrostatic-offset=+15K"],
+  hydrostaticOffset: [15, 101325],
+  fromSoundingCsv: ["geometric_altitude_m,temperature_degC,pressure_hPa\n0,15,1013\n1000,8.5,\n"],
   fromSoundingJson: [{ altitude: "geometric", rows: [{ altitude_m: 0, temperature_k: 288, pressure_pa: 1e5 }, { altitude_m: 1000, temperature_k: 281 }] }],
 };
 const METHODS = {

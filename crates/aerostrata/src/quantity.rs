@@ -280,6 +280,21 @@ impl Quantity {
         US[self as usize]
     }
 
+    /// The band a value of this quantity typed by a person can plausibly have, where the
+    /// trade knows one (temperatures, temperature offsets, sea-level pressures): what
+    /// [`units::read`] checks a typed value against. `None` where any value the model
+    /// accepts may be meant (an altitude, a speed, a size).
+    pub fn plausible(self) -> Option<units::Plausible> {
+        use units::Plausible as P;
+        match self {
+            Quantity::Temperature | Quantity::MolecularTemperature => Some(P::AIR_TEMPERATURE),
+            Quantity::DewPoint => Some(P::DEW_POINT),
+            Quantity::TemperatureOffset => Some(P::TEMPERATURE_OFFSET),
+            Quantity::AltimeterSetting => Some(P::SEA_LEVEL_PRESSURE),
+            _ => None,
+        }
+    }
+
     /// The quantities a result carries, in id order.
     pub fn of_group(group: Group) -> impl Iterator<Item = Quantity> {
         Quantity::ALL.iter().copied().filter(move |q| TRAITS[*q as usize].1 == group)

@@ -373,6 +373,12 @@ mod tests {
         assert!(message("1013,25", Dimension::Pressure).contains("write decimals with a point"));
         let long = "9".repeat(5) + &"z".repeat(100);
         assert!(message(&long, Dimension::Length).len() < 200, "echoed input is cut");
+        // Control characters are echoed as escapes; other characters as typed.
+        assert_eq!(
+            message("1\u{7}\t", Dimension::Length),
+            "unknown unit '\\u{7}' for a length; write m, km, ft, mi or nmi"
+        );
+        assert_eq!(message("x\tÅ", Dimension::Length), "'x\\tÅ' is not a number");
     }
 
     #[test]

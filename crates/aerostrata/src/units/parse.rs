@@ -1,6 +1,6 @@
 //! The one parser of "value + unit" text (`15C`, `1020hPa`, `35000 ft`), and its errors.
 
-use core::fmt;
+use core::fmt::{self, Write as _};
 
 use super::{Dimension, Unit};
 
@@ -75,8 +75,20 @@ struct Quoted<'a>(&'a str);
 
 impl fmt::Display for Quoted<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        // Control characters written as escapes, the rest as typed (no `escape_debug`: its
+        // Unicode tables would cost the size-budgeted WebAssembly module 4 KiB).
         let (text, cut) = shorten(self.0, 40);
-        write!(f, "'{}{}'", text.escape_debug(), if cut { "..." } else { "" })
+        f.write_str("'")?;
+        for c in text.chars() {
+            match c {
+                '\t' => f.write_str("\\t")?,
+                '\n' => f.write_str("\\n")?,
+                '\r' => f.write_str("\\r")?,
+                c if c.is_control() => write!(f, "\\u{{{:x}}}", u32::from(c))?,
+                c => f.write_char(c)?,
+            }
+        }
+        f.write_str(if cut { "...'" } else { "'" })
     }
 }
 

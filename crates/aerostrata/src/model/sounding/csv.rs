@@ -34,7 +34,7 @@ use alloc::vec::Vec;
 use core::fmt::{self, Write as _};
 
 use crate::altitude::AltitudeKind;
-use crate::error::Error;
+use crate::error::{Error, MessagePart};
 use crate::model::{Atmosphere, US1976};
 use crate::quantity::{ColumnError, Quantity};
 use crate::table::{self, CellError, Header, HeaderError};
@@ -56,19 +56,36 @@ struct Located {
     line: usize,
     column: Option<(usize, String)>,
     value: Option<String>,
-    message: String,
-    error: Option<Error>,
+    why: Why,
+}
+
+/// Why, kept as parts so that a door can write the numbers its own way (the size-budgeted
+/// WebAssembly module writes them without Rust's float formatting).
+#[derive(Debug, Clone, PartialEq)]
+enum Why {
+    /// Words (and integers) only.
+    Text(String),
+    /// The model's own error.
+    Model(Error),
+    /// A value outside what the atmosphere can have at its row, in SI.
+    Implausible {
+        value: f64,
+        min: f64,
+        max: f64,
+        unit: &'static str,
+        what: &'static str,
+        /// The column's unit, and the unit and heading that would make the value plausible.
+        hint: Option<(&'static str, &'static str, String)>,
+    },
 }
 
 impl LoadError {
     fn at(line: usize, message: impl Into<String>) -> Self {
-        Self(Box::new(Located { line, column: None, value: None, message: message.into(), error: None }))
+        Self(Box::new(Located { line, column: None, value: None, why: Why::Text(message.into()) }))
     }
 
     fn model(line: usize, error: Error) -> Self {
-        let mut out = Self::at(line, error.to_string());
-        out.0.error = Some(error);
-        out
+        Self(Box::new(Located { line, column: None, value: None, why: Why::Model(error) }))
     }
 
     fn in_column(mut self, index: usize, name: &str) -> Self {
@@ -100,7 +117,45 @@ impl LoadError {
 
     /// The model's own error, when the text was well formed but the table was not.
     pub fn model_error(&self) -> Option<&Error> {
-        self.0.error.as_ref()
+        match &self.0.why {
+            Why::Model(error) => Some(error),
+            _ => None,
+        }
+    }
+
+    /// The message after its place (`line 3, column 2 (temperature_degC), value 'x': `),
+    /// piece by piece: a door writes the numbers its own way, [`fmt::Display`] with
+    /// Rust's. The model's errors come as their own parts ([`Error::message_parts`]).
+    pub fn message_parts(&self, mut part: impl FnMut(units::Part<'_>)) {
+        use units::Part::{Number, Text};
+        match &self.0.why {
+            Why::Text(text) => part(Text(text)),
+            Why::Model(error) => error.message_parts(|p| match p {
+                MessagePart::Text(text) => part(Text(text)),
+                MessagePart::Number(value) => part(Number(value)),
+                MessagePart::Count(count) => part(Number(count as f64)),
+            }),
+            Why::Implausible { value, min, max, unit, what, hint } => {
+                for piece in
+                    [Number(*value), Text(" "), Text(unit), Text(" is outside "), Text(what), Text(" (")]
+                {
+                    part(piece);
+                }
+                for piece in [Number(*min), Text(" to "), Number(*max), Text(" "), Text(unit), Text(")")] {
+                    part(piece);
+                }
+                if let Some((column_unit, fit, heading)) = hint {
+                    for piece in
+                        [Text("; the column reads "), Text(column_unit), Text(": if it holds "), Text(fit)]
+                    {
+                        part(piece);
+                    }
+                    part(Text(", head it "));
+                    part(Text(heading));
+                }
+                part(Text(" (check the data, or read it without the plausibility check)"));
+            }
+        }
     }
 }
 
@@ -114,13 +169,27 @@ impl fmt::Display for LoadError {
         if let Some(value) = &located.value {
             write!(f, ", value '{value}'")?;
         }
-        write!(f, ": {}", located.message)
+        f.write_str(": ")?;
+        if let Why::Model(error) = &located.why {
+            // The model's wording and number format, exactly as its own Display.
+            return write!(f, "{error}");
+        }
+        let mut result = Ok(());
+        self.message_parts(|p| {
+            if result.is_ok() {
+                result = match p {
+                    units::Part::Text(text) => f.write_str(text),
+                    units::Part::Number(value) => write!(f, "{}", Tidy(value)),
+                };
+            }
+        });
+        result
     }
 }
 
 impl core::error::Error for LoadError {
     fn source(&self) -> Option<&(dyn core::error::Error + 'static)> {
-        self.0.error.as_ref().map(|e| e as &(dyn core::error::Error + 'static))
+        self.model_error().map(|e| e as &(dyn core::error::Error + 'static))
     }
 }
 
@@ -395,17 +464,9 @@ fn check_plausible(
             let cell = read_row.cells.get(index).map_or("", String::as_str);
             let Some(column) = header.column(index) else { continue };
             let si_unit = quantity.si();
-            let mut message = format!(
-                "{} {} is outside {} ({} to {} {})",
-                Tidy(si_unit.from_si(si)),
-                si_unit.symbol(),
-                what,
-                Tidy(si_unit.from_si(min)),
-                Tidy(si_unit.from_si(max)),
-                si_unit.symbol()
-            );
             // A cell written as a bare number takes its column's unit: the likely mix-up
             // is a column whose heading names the wrong unit.
+            let mut hint = None;
             if let Ok(reading) = units::parse(cell, column.unit.dimension(), column.unit) {
                 let fits = column
                     .unit
@@ -413,20 +474,23 @@ fn check_plausible(
                     .units()
                     .find(|u| *u != reading.unit && (min..=max).contains(&u.to_si(reading.value)));
                 if let (false, Some(unit)) = (reading.explicit, fits) {
-                    let _ = write!(
-                        message,
-                        "; the column reads {}: if it holds {}, head it {}_{}",
+                    hint = Some((
                         column.unit.symbol(),
                         unit.symbol(),
-                        quantity.name(),
-                        unit.suffix()
-                    );
+                        format!("{}_{}", quantity.name(), unit.suffix()),
+                    ));
                 }
             }
-            message.push_str(" (check the data, or read it without the plausibility check)");
-            return Err(LoadError::at(read_row.line, message)
-                .in_column(index, &names[index])
-                .with_value(cell));
+            let why = Why::Implausible {
+                value: si_unit.from_si(si),
+                min: si_unit.from_si(min),
+                max: si_unit.from_si(max),
+                unit: si_unit.symbol(),
+                what,
+                hint,
+            };
+            let error = LoadError(Box::new(Located { line: read_row.line, column: None, value: None, why }));
+            return Err(error.in_column(index, &names[index]).with_value(cell));
         }
     }
     Ok(())
