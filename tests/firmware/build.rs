@@ -130,17 +130,13 @@ fn bits(x: f64) -> String {
     format!("f64::from_bits(0x{:016x})", x.to_bits())
 }
 
-/// The `# model:` line as a `Model` literal: `us1976 [offset=K]`, `isentropic [gamma=G]`
-/// or `normal_shock [gamma=G]`.
+/// The `# model:` line as a `Model` literal: `us1976 [offset=K]`, `hydrostatic_offset
+/// offset=K [p0=PA]`, `isentropic [gamma=G]` or `normal_shock [gamma=G]`.
 fn model_literal(model: &str) -> Result<String, String> {
     let mut words = model.split_whitespace();
     let kind = words.next().unwrap_or_default();
-    let parameter = words.next();
-    if let Some(extra) = words.next() {
-        return Err(format!("unexpected '{extra}' in model '{model}'"));
-    }
-    let value = |prefix: &str| -> Result<Option<f64>, String> {
-        match parameter {
+    let mut value = |prefix: &str| -> Result<Option<f64>, String> {
+        match words.next() {
             None => Ok(None),
             Some(word) => word
                 .strip_prefix(prefix)
@@ -151,10 +147,19 @@ fn model_literal(model: &str) -> Result<String, String> {
         }
     };
     let optional = |x: Option<f64>| x.map_or_else(|| "None".to_owned(), |x| format!("Some({})", bits(x)));
-    match kind {
-        "us1976" => Ok(format!("Model::Us1976 {{ offset_k: {} }}", optional(value("offset=")?))),
-        "isentropic" => Ok(format!("Model::Isentropic {{ gamma: {} }}", optional(value("gamma=")?))),
-        "normal_shock" => Ok(format!("Model::NormalShock {{ gamma: {} }}", optional(value("gamma=")?))),
-        _ => Err(format!("unknown model '{model}'")),
+    let literal = match kind {
+        "us1976" => format!("Model::Us1976 {{ offset_k: {} }}", optional(value("offset=")?)),
+        "hydrostatic_offset" => {
+            let offset = value("offset=")?.ok_or_else(|| format!("model '{model}' needs offset=K"))?;
+            let p0 = value("p0=")?.unwrap_or(101_325.0);
+            format!("Model::HydrostaticOffset {{ offset_k: {}, p0_pa: {} }}", bits(offset), bits(p0))
+        }
+        "isentropic" => format!("Model::Isentropic {{ gamma: {} }}", optional(value("gamma=")?)),
+        "normal_shock" => format!("Model::NormalShock {{ gamma: {} }}", optional(value("gamma=")?)),
+        _ => return Err(format!("unknown model '{model}'")),
+    };
+    match words.next() {
+        Some(extra) => Err(format!("unexpected '{extra}' in model '{model}'")),
+        None => Ok(literal),
     }
 }

@@ -1466,6 +1466,21 @@ enum AerostrataStatus aerostrata_model_new_us1976(double offset_k,
                                                   struct AerostrataModel **out);
 
 /**
+ * Makes a hot or cold day in hydrostatic balance: the 1976 standard's temperature
+ * profile shifted by `offset_k` kelvin at every geopotential altitude, and the pressure
+ * integrated through it from `sea_level_pressure_pa` at geopotential altitude 0
+ * (101325 for the standard's), -5 km to 86 km geometric. The other convention,
+ * `aerostrata_model_new_us1976` with an offset, keeps the standard's pressure at each
+ * altitude; docs/models.md says when to use which.
+ *
+ * Ownership as `aerostrata_model_new_us1976`. Errors: NOT_FINITE or OUT_OF_RANGE for an
+ * offset outside -100 to 100 K or a pressure outside 10 000 to 200 000 Pa; NULL_POINTER.
+ */
+enum AerostrataStatus aerostrata_model_new_hydrostatic_offset(double offset_k,
+                                                              double sea_level_pressure_pa,
+                                                              struct AerostrataModel **out);
+
+/**
  * Makes an exponential atmosphere: density `sea_level_density_kg_m3` at 0 m falling by
  * e every `scale_height_m`, at the constant temperature `temperature_k`.
  *

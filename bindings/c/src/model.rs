@@ -1,8 +1,8 @@
 //! Atmosphere models behind one opaque handle, and the full state as a C struct.
 
 use aerostrata_core::{
-    Air, Altitude, AltitudeKind, Atmosphere, Exponential, Isothermal, LayerSpec, Layered, SoundingRow, State,
-    Tabulated, US1976,
+    Air, Altitude, AltitudeKind, Atmosphere, Exponential, HydrostaticOffset, Isothermal, LayerSpec, Layered,
+    SoundingRow, State, Tabulated, US1976,
 };
 use alloc::vec::Vec;
 
@@ -100,6 +100,24 @@ pub unsafe extern "C" fn aerostrata_model_new_us1976(
     out: *mut *mut AerostrataModel,
 ) -> AerostrataStatus {
     new_model(out, || standard(offset_k))
+}
+
+/// Makes a hot or cold day in hydrostatic balance: the 1976 standard's temperature
+/// profile shifted by `offset_k` kelvin at every geopotential altitude, and the pressure
+/// integrated through it from `sea_level_pressure_pa` at geopotential altitude 0
+/// (101325 for the standard's), -5 km to 86 km geometric. The other convention,
+/// `aerostrata_model_new_us1976` with an offset, keeps the standard's pressure at each
+/// altitude; docs/models.md says when to use which.
+///
+/// Ownership as `aerostrata_model_new_us1976`. Errors: NOT_FINITE or OUT_OF_RANGE for an
+/// offset outside -100 to 100 K or a pressure outside 10 000 to 200 000 Pa; NULL_POINTER.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_model_new_hydrostatic_offset(
+    offset_k: f64,
+    sea_level_pressure_pa: f64,
+    out: *mut *mut AerostrataModel,
+) -> AerostrataStatus {
+    new_model(out, || Ok(Model::HydrostaticOffset(HydrostaticOffset::new(offset_k, sea_level_pressure_pa)?)))
 }
 
 /// Makes an exponential atmosphere: density `sea_level_density_kg_m3` at 0 m falling by

@@ -25,7 +25,7 @@ int status_is(AerostrataStatus got, AerostrataStatus want, int line);
 
 /* The reference vectors (test_vectors.c): checks every cell of one file of `dir`
  * against the model it names and returns the number of cells checked. */
-enum vector_model { MODEL_US1976, MODEL_SHOCK };
+enum vector_model { MODEL_US1976, MODEL_HYDROSTATIC_OFFSET, MODEL_SHOCK };
 int check_vector_file(const char *dir, const char *file, enum vector_model model);
 
 /* Statuses and the error detail (test_status.c). */

@@ -55,6 +55,8 @@ int main(int argc, char **argv) {
     cells += check_vector_file(dir, "usa76_lower.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper_high.csv", MODEL_US1976);
+    cells += check_vector_file(dir, "hydrostatic_offset_hot.csv", MODEL_HYDROSTATIC_OFFSET);
+    cells += check_vector_file(dir, "hydrostatic_offset_cold.csv", MODEL_HYDROSTATIC_OFFSET);
     cells += check_vector_file(dir, "naca1135_normal_shock.csv", MODEL_SHOCK);
     check(cells > 300, "the vector files hold the cells they should", __LINE__);
     printf("%d passed, %d failed\n", passed, failed);

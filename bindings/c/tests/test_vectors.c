@@ -75,7 +75,7 @@ static int parse_tolerance(const char *text, struct column *columns, int count) 
 
 /* The computed value for a vector column, found through the quantity catalogue (the
  * column is the quantity's SI column name); 0 when the state does not carry it. */
-static int us1976_value(const AerostrataState *s, const char *name, double *value) {
+static int state_value(const AerostrataState *s, const char *name, double *value) {
     uint32_t id;
     AerostrataQuantityInfo info;
     for (id = 0; id < aerostrata_quantity_count(); id++) {
@@ -114,6 +114,7 @@ int check_vector_file(const char *dir, const char *file, enum vector_model model
     char header[MAX_COLUMNS][64];
     int header_count = 0;
     int have_model = 0;
+    AerostrataModel *day = NULL;
     int cells = 0;
     int skipped = 0;
     FILE *f;
@@ -131,8 +132,17 @@ int check_vector_file(const char *dir, const char *file, enum vector_model model
         line[strcspn(line, "\r\n")] = '\0';
         if (line[0] == '#') {
             if (strncmp(line, "# model: ", 9) == 0) {
-                const char *want = model == MODEL_US1976 ? "us1976" : "normal_shock gamma=1.4";
-                check(strcmp(line + 9, want) == 0, "the file's model is the one tested", __LINE__);
+                if (model == MODEL_HYDROSTATIC_OFFSET) {
+                    /* "hydrostatic_offset offset=K p0=PA": the day the file holds. */
+                    double offset_k;
+                    double p0_pa;
+                    check(sscanf(line + 9, "hydrostatic_offset offset=%lf p0=%lf", &offset_k, &p0_pa) == 2,
+                          "the file names a hydrostatic-offset day", __LINE__);
+                    STATUS(aerostrata_model_new_hydrostatic_offset(offset_k, p0_pa, &day), AEROSTRATA_STATUS_OK);
+                } else {
+                    const char *want = model == MODEL_US1976 ? "us1976" : "normal_shock gamma=1.4";
+                    check(strcmp(line + 9, want) == 0, "the file's model is the one tested", __LINE__);
+                }
                 have_model = 1;
             } else if (strncmp(line, "# tolerance: ", 13) == 0) {
                 check(parse_tolerance(line + 13, tolerances, tolerance_count), line, __LINE__);
@@ -182,6 +192,9 @@ int check_vector_file(const char *dir, const char *file, enum vector_model model
             input = strtod(cells_text[0], NULL);
             if (model == MODEL_US1976) {
                 status = aerostrata_us1976_state(input, AEROSTRATA_GEOMETRIC, 0.0, &state);
+            } else if (model == MODEL_HYDROSTATIC_OFFSET) {
+                status = day == NULL ? AEROSTRATA_STATUS_NULL_POINTER
+                                     : aerostrata_model_state(day, input, AEROSTRATA_GEOMETRIC, &state);
             } else {
                 status = aerostrata_normal_shock(AEROSTRATA_GAMMA_AIR, input, &shock);
             }
@@ -199,8 +212,8 @@ int check_vector_file(const char *dir, const char *file, enum vector_model model
                 if (cells_text[col][0] == '\0') {
                     continue;
                 }
-                known = model == MODEL_US1976 ? us1976_value(&state, header[col], &computed)
-                                              : shock_value(&shock, header[col], &computed);
+                known = model == MODEL_SHOCK ? shock_value(&shock, header[col], &computed)
+                                             : state_value(&state, header[col], &computed);
                 if (!known) {
                     skipped++;
                     continue;
@@ -235,6 +248,7 @@ int check_vector_file(const char *dir, const char *file, enum vector_model model
         }
     }
     fclose(f);
+    aerostrata_model_free(day);
     check(have_model, "the file names its model", __LINE__);
     printf("%s: %d cells checked, %d cells of quantities without a C function (species) skipped\n", file, cells,
            skipped);

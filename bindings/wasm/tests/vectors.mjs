@@ -69,9 +69,13 @@ function parameter(words, prefix, fallback) {
 export function evaluator(aerostrata, file) {
   const words = file.model.split(/\s+/);
   const kind = words[0];
-  if (kind === "us1976") {
+  if (kind === "us1976" || kind === "hydrostatic_offset") {
     const columns = columnsOf(aerostrata);
-    const model = aerostrata.AtmosphereModel.standard(parameter(words, "offset=", 0));
+    const offset = parameter(words, "offset=", 0);
+    const model =
+      kind === "us1976"
+        ? aerostrata.AtmosphereModel.standard(offset)
+        : aerostrata.AtmosphereModel.hydrostaticOffset(offset, parameter(words, "p0=", 101325));
     const altitudeKind = { geometric_altitude_m: "geometric", geopotential_altitude_m: "geopotential" }[file.input];
     if (!altitudeKind) throw new Error(`${file.path}: unknown input column ${file.input}`);
     return (input) => {

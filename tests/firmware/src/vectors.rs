@@ -3,7 +3,9 @@
 //! the state at the row's altitude for `us1976` files, and the value of each column from
 //! `crates/xtask/src/vector_values.rs`, included here.
 
-use aerostrata::{Altitude, Atmosphere, Error, PerfectGas, State, TemperatureOffset, US1976};
+use aerostrata::{
+    Altitude, Atmosphere, Error, HydrostaticOffset, PerfectGas, State, TemperatureOffset, US1976,
+};
 
 #[path = "../../../crates/xtask/src/vector_values.rs"]
 mod values;
@@ -13,6 +15,8 @@ mod values;
 pub enum Model {
     /// The 1976 standard, optionally with a temperature offset, K.
     Us1976 { offset_k: Option<f64> },
+    /// The standard shifted by `offset_k` in hydrostatic balance from `p0_pa`.
+    HydrostaticOffset { offset_k: f64, p0_pa: f64 },
     /// Isentropic flow relations of a perfect gas (gamma 1.4 when absent).
     Isentropic { gamma: Option<f64> },
     /// Normal-shock relations of a perfect gas (gamma 1.4 when absent).
@@ -80,9 +84,13 @@ impl From<Error> for Failure {
 }
 
 /// The model a file names, built once per file.
+// One evaluator lives at a time, on the stack (there is no heap to box into): its size is
+// the hydrostatic day's seven shifted layers, 280 bytes.
+#[allow(clippy::large_enum_variant)]
 pub enum Evaluator {
     Standard,
     Offset(TemperatureOffset<aerostrata::Us1976>),
+    Hydrostatic(HydrostaticOffset),
     Isentropic(PerfectGas),
     NormalShock(PerfectGas),
 }
@@ -97,6 +105,9 @@ impl Evaluator {
             Model::Us1976 { offset_k: Some(offset) } => {
                 Evaluator::Offset(TemperatureOffset::new(US1976, offset)?)
             }
+            Model::HydrostaticOffset { offset_k, p0_pa } => {
+                Evaluator::Hydrostatic(HydrostaticOffset::new(offset_k, p0_pa)?)
+            }
             Model::Isentropic { gamma } => Evaluator::Isentropic(gas(gamma)?),
             Model::NormalShock { gamma } => Evaluator::NormalShock(gas(gamma)?),
         })
@@ -110,6 +121,7 @@ impl Evaluator {
         let atmosphere: &dyn Atmosphere = match self {
             Evaluator::Standard => &US1976,
             Evaluator::Offset(offset) => offset,
+            Evaluator::Hydrostatic(model) => model,
             Evaluator::Isentropic(gas) => {
                 if input != Input::Mach {
                     return Err(Failure::Input("(expected mach)"));

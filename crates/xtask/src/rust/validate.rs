@@ -148,6 +148,19 @@ fn build(root: &Path) -> Result<(String, Vec<String>), String> {
             "tests/vectors/naca1135_normal_shock.csv",
         ],
     );
+    out.push_str(
+        "```\n\n## Independent check of the hydrostatic-offset days (mpmath, 30 digits)\n\n\
+         `tests/reference/hydrostatic_offset_mpmath.py` integrates the hydrostatic equation\n\
+         through the shifted temperature profile by quadrature (not the layers' closed forms\n\
+         the code uses), checks that with no offset it gives the standard's base pressures,\n\
+         and checks every cell of `tests/vectors/hydrostatic_offset_*.csv` against the\n\
+         integral. Its summaries:\n\n```text\n",
+    );
+    script(&mut out, &["tests/reference/hydrostatic_offset_mpmath.py", "--self-test"]);
+    for day in ["hot", "cold"] {
+        let file = format!("tests/vectors/hydrostatic_offset_{day}.csv");
+        script(&mut out, &["tests/reference/hydrostatic_offset_mpmath.py", "--check-vectors", &file]);
+    }
     out.push_str("```\n");
     out.push_str(NOTES);
     Ok((out, failures))

@@ -9,7 +9,7 @@ use std::fmt::Write as _;
 use std::fs;
 use std::path::Path;
 
-use aerostrata::{Altitude, Atmosphere, PerfectGas, State, TemperatureOffset, US1976};
+use aerostrata::{Altitude, Atmosphere, HydrostaticOffset, PerfectGas, State, TemperatureOffset, US1976};
 
 use super::vector_values;
 use crate::io_error;
@@ -30,19 +30,33 @@ pub struct ColumnResult {
     pub failures: Vec<String>,
 }
 
-/// The model a vector file names.
+/// The model a vector file names: `us1976 [offset=K]` or `hydrostatic_offset offset=K
+/// [p0=PA]`.
 fn model(name: &str) -> Result<Box<dyn Atmosphere>, String> {
     let mut words = name.split_whitespace();
     let base = words.next().unwrap_or_default();
-    if base != "us1976" {
-        return Err(format!("unknown model '{name}'"));
-    }
-    match words.next().and_then(|w| w.strip_prefix("offset=")) {
-        None => Ok(Box::new(US1976)),
-        Some(offset) => {
-            let offset: f64 = offset.parse().map_err(|_| format!("bad offset in model '{name}'"))?;
-            Ok(Box::new(TemperatureOffset::new(US1976, offset).map_err(|e| e.to_string())?))
+    let mut parameter = |key: &str| -> Result<Option<f64>, String> {
+        match words.next() {
+            None => Ok(None),
+            Some(word) => word
+                .strip_prefix(key)
+                .and_then(|value| value.parse().ok())
+                .map(Some)
+                .ok_or_else(|| format!("bad parameter '{word}' in model '{name}' (expected {key}NUMBER)")),
         }
+    };
+    let message = |e: aerostrata::Error| e.to_string();
+    match base {
+        "us1976" => match parameter("offset=")? {
+            None => Ok(Box::new(US1976)),
+            Some(offset) => Ok(Box::new(TemperatureOffset::new(US1976, offset).map_err(message)?)),
+        },
+        "hydrostatic_offset" => {
+            let offset = parameter("offset=")?.ok_or_else(|| format!("model '{name}' needs offset=K"))?;
+            let p0 = parameter("p0=")?.unwrap_or(aerostrata::constants::SEA_LEVEL_PRESSURE_PA);
+            Ok(Box::new(HydrostaticOffset::new(offset, p0).map_err(message)?))
+        }
+        _ => Err(format!("unknown model '{name}'")),
     }
 }
 

@@ -130,6 +130,7 @@ fn state_stack(evaluator: &Evaluator, altitude: Altitude) -> usize {
     let measured = match evaluator {
         Evaluator::Standard => stack::measure(|| US1976.state(altitude)),
         Evaluator::Offset(offset) => stack::measure(|| offset.state(altitude)),
+        Evaluator::Hydrostatic(day) => stack::measure(|| day.state(altitude)),
         Evaluator::Isentropic(_) | Evaluator::NormalShock(_) => return 0,
     };
     measured.map_or(usize::MAX, |(state, used)| {
