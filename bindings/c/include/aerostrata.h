@@ -124,7 +124,7 @@ double AEROSTRATA_XL_CALL aerostrata_xl_calibrated_airspeed(double true_m_s, dou
 /**
  * How many quantities the catalogue has: the ids run from 0 to this minus 1.
  */
-#define AEROSTRATA_QUANTITY_COUNT 51
+#define AEROSTRATA_QUANTITY_COUNT 67
 
 /**
  * Length of [`AerostrataErrorDetail::message`], bytes, the terminating NUL included.
@@ -226,6 +226,12 @@ double AEROSTRATA_XL_CALL aerostrata_xl_calibrated_airspeed(double true_m_s, dou
  * `AerostrataQuantityInfo::group`: a parameter a person gives (an offset, a size).
  */
 #define AEROSTRATA_GROUP_PARAMETER 5
+
+/**
+ * `AerostrataQuantityInfo::group`: winds aloft (a sounding's, a wind profile's, a flight
+ * sample's).
+ */
+#define AEROSTRATA_GROUP_WIND 6
 
 /**
  * The result of every status-returning function. The numbers are stable: a number is
@@ -569,6 +575,70 @@ enum AerostrataQuantity
    * Reference length, m (L): the length a Reynolds number is referred to.
    */
   AEROSTRATA_QUANTITY_REFERENCE_LENGTH = 50,
+  /**
+   * Wind speed, m/s (W): horizontal speed of the wind.
+   */
+  AEROSTRATA_QUANTITY_WIND_SPEED = 51,
+  /**
+   * Wind direction, deg (W dir): direction the wind blows from, clockwise from true north (the meteorological convention).
+   */
+  AEROSTRATA_QUANTITY_WIND_DIRECTION = 52,
+  /**
+   * Eastward wind, m/s (W east): east component of the wind's velocity (positive when it blows toward the east).
+   */
+  AEROSTRATA_QUANTITY_WIND_EAST = 53,
+  /**
+   * Northward wind, m/s (W north): north component of the wind's velocity (positive when it blows toward the north).
+   */
+  AEROSTRATA_QUANTITY_WIND_NORTH = 54,
+  /**
+   * Eastward velocity, m/s (V east): east component of the ground-relative velocity.
+   */
+  AEROSTRATA_QUANTITY_VELOCITY_EAST = 55,
+  /**
+   * Northward velocity, m/s (V north): north component of the ground-relative velocity.
+   */
+  AEROSTRATA_QUANTITY_VELOCITY_NORTH = 56,
+  /**
+   * Upward velocity, m/s (V up): vertical component of the ground-relative velocity.
+   */
+  AEROSTRATA_QUANTITY_VELOCITY_UP = 57,
+  /**
+   * Airspeed, m/s (V air): speed relative to the air: the ground-relative velocity less the wind; q and Mach are computed from it.
+   */
+  AEROSTRATA_QUANTITY_AIRSPEED = 58,
+  /**
+   * Total angle of attack, deg (alpha): angle between the vehicle's axis and the air-relative velocity; needs the velocity's direction.
+   */
+  AEROSTRATA_QUANTITY_ALPHA = 59,
+  /**
+   * Q-alpha, Pa deg (q alpha): dynamic pressure times the total angle of attack; needs the velocity's direction.
+   */
+  AEROSTRATA_QUANTITY_Q_ALPHA = 60,
+  /**
+   * Total temperature, K (T0): temperature of the air brought to rest adiabatically, T (1 + (gamma - 1) M^2 / 2); undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_TOTAL_TEMPERATURE = 61,
+  /**
+   * Recovery temperature, K (Tr): adiabatic-wall temperature, T (1 + r (gamma - 1) M^2 / 2) with r = Pr^(1/2) laminar or Pr^(1/3) turbulent; undefined above 86 km.
+   */
+  AEROSTRATA_QUANTITY_RECOVERY_TEMPERATURE = 62,
+  /**
+   * Flight-path angle, deg (gamma): angle of the ground-relative velocity above the horizontal.
+   */
+  AEROSTRATA_QUANTITY_FLIGHT_PATH_ANGLE = 63,
+  /**
+   * Heading, deg (psi): direction of the ground-relative velocity's horizontal part, clockwise from true north.
+   */
+  AEROSTRATA_QUANTITY_HEADING = 64,
+  /**
+   * Axis elevation, deg (theta): angle of the vehicle's axis above the horizontal.
+   */
+  AEROSTRATA_QUANTITY_AXIS_ELEVATION = 65,
+  /**
+   * Axis azimuth, deg (axis az): direction of the vehicle's axis's horizontal part, clockwise from true north.
+   */
+  AEROSTRATA_QUANTITY_AXIS_AZIMUTH = 66,
 };
 #ifndef __cplusplus
 typedef uint32_t AerostrataQuantity;
@@ -774,6 +844,46 @@ typedef struct AerostrataFlightPoint {
    * Drag, N: q Cd A; needs a vehicle. NaN where undefined.
    */
   double drag_n;
+  /**
+   * Eastward velocity, m/s: east component of the ground-relative velocity. NaN where undefined.
+   */
+  double velocity_east_m_s;
+  /**
+   * Northward velocity, m/s: north component of the ground-relative velocity. NaN where undefined.
+   */
+  double velocity_north_m_s;
+  /**
+   * Upward velocity, m/s: vertical component of the ground-relative velocity. NaN where undefined.
+   */
+  double velocity_up_m_s;
+  /**
+   * Eastward wind, m/s: east component of the wind's velocity (positive when it blows toward the east).
+   */
+  double wind_east_m_s;
+  /**
+   * Northward wind, m/s: north component of the wind's velocity (positive when it blows toward the north).
+   */
+  double wind_north_m_s;
+  /**
+   * Airspeed, m/s: speed relative to the air: the ground-relative velocity less the wind; q and Mach are computed from it.
+   */
+  double airspeed_m_s;
+  /**
+   * Total angle of attack, deg: angle between the vehicle's axis and the air-relative velocity; needs the velocity's direction. NaN where undefined.
+   */
+  double alpha_deg;
+  /**
+   * Q-alpha, Pa deg: dynamic pressure times the total angle of attack; needs the velocity's direction. NaN where undefined.
+   */
+  double q_alpha_pa_deg;
+  /**
+   * Total temperature, K: temperature of the air brought to rest adiabatically, T (1 + (gamma - 1) M^2 / 2); undefined above 86 km. NaN where undefined.
+   */
+  double total_temperature_k;
+  /**
+   * Recovery temperature, K: adiabatic-wall temperature, T (1 + r (gamma - 1) M^2 / 2) with r = Pr^(1/2) laminar or Pr^(1/3) turbulent; undefined above 86 km. NaN where undefined.
+   */
+  double recovery_temperature_k;
   /**
    * `AEROSTRATA_POINT_*` bits of the fields that are set.
    */

@@ -25,6 +25,9 @@ pub const AEROSTRATA_GROUP_AIRSPEED: u32 = 3;
 pub const AEROSTRATA_GROUP_ALTIMETRY: u32 = 4;
 /// `AerostrataQuantityInfo::group`: a parameter a person gives (an offset, a size).
 pub const AEROSTRATA_GROUP_PARAMETER: u32 = 5;
+/// `AerostrataQuantityInfo::group`: winds aloft (a sounding's, a wind profile's, a flight
+/// sample's).
+pub const AEROSTRATA_GROUP_WIND: u32 = 6;
 
 fn group_id(group: Group) -> u32 {
     match group {
@@ -33,6 +36,7 @@ fn group_id(group: Group) -> u32 {
         Group::Flight => AEROSTRATA_GROUP_FLIGHT,
         Group::Airspeed => AEROSTRATA_GROUP_AIRSPEED,
         Group::Altimetry => AEROSTRATA_GROUP_ALTIMETRY,
+        Group::Wind => AEROSTRATA_GROUP_WIND,
         _ => AEROSTRATA_GROUP_PARAMETER,
     }
 }

@@ -45,18 +45,25 @@ pub(crate) fn summary_layout(s: &FlightSummary) -> [f64; SUMMARY_LAYOUT] {
     let crossings =
         |c: &Crossings| [f64::from(c.count), c.first_time_s.unwrap_or(nan), c.last_time_s.unwrap_or(nan)];
     let peak: [f64; 8] = match s.max_dynamic_pressure {
-        Some(Peak { time_s, altitude_m, velocity_m_s, mach, dynamic_pressure_pa, sample_index, refined }) => {
-            [
-                1.0,
-                time_s,
-                altitude_m,
-                velocity_m_s,
-                mach.unwrap_or(nan),
-                dynamic_pressure_pa,
-                sample_index as f64,
-                flag(refined),
-            ]
-        }
+        Some(Peak {
+            time_s,
+            altitude_m,
+            velocity_m_s,
+            mach,
+            dynamic_pressure_pa,
+            sample_index,
+            refined,
+            ..
+        }) => [
+            1.0,
+            time_s,
+            altitude_m,
+            velocity_m_s,
+            mach.unwrap_or(nan),
+            dynamic_pressure_pa,
+            sample_index as f64,
+            flag(refined),
+        ],
         None => [0.0, nan, nan, nan, nan, nan, nan, 0.0],
     };
     let mut out = [nan; SUMMARY_LAYOUT];
@@ -201,7 +208,7 @@ mod tests {
         // Without a vehicle no drag and no Reynolds number.
         let bare = scan(US1976, None, &t, &z, &v).unwrap();
         assert_eq!(bare.defined, vec![FlightPoint::DEFINED_MACH | FlightPoint::DEFINED_REYNOLDS_PER_M; 5]);
-        assert!(bare.columns[12 * 5..].iter().all(|d| d.is_nan()));
+        assert!(bare.columns[12 * 5..13 * 5].iter().all(|d| d.is_nan()), "no drag without a vehicle");
         assert_eq!(bare.columns.len(), COLUMNS * 5);
         let summary = summary_layout(&scanned.summary);
         assert_eq!(summary[0], 5.0);

@@ -94,7 +94,7 @@ export interface QuantityInfo {
   /** The CSV column in US units. */
   usColumn: string;
   /** Which result carries it. */
-  group: "state" | "species" | "flight" | "airspeed" | "altimetry" | "parameter";
+  group: "state" | "species" | "flight" | "airspeed" | "altimetry" | "parameter" | "wind";
   /** Whether it can be undefined (the continuum properties above 86 km, a drag without a vehicle). */
   mayBeUndefined: boolean;
   /** Decimals for people, or `null` for six significant digits. */

@@ -56,6 +56,7 @@ fn group_name(group: Group) -> &'static str {
         Group::Flight => "flight",
         Group::Airspeed => "airspeed",
         Group::Altimetry => "altimetry",
+        Group::Wind => "wind",
         _ => "parameter",
     }
 }
@@ -182,6 +183,8 @@ densityKgM3,speedOfSoundMS,dynamicViscosityPaS,kinematicViscosityM2S,thermalCond
 pressureScaleHeightM,numberDensityM3,meanParticleSpeedMS,meanFreePathM,collisionFrequencyHz,\
 meanMolarMassKgKmol,temperatureRatio,pressureRatio,densityRatio"
         );
-        assert_eq!(keys(aerostrata::FlightPoint::QUANTITIES), "timeS,altitudeM,velocityMS,densityKgM3,pressurePa,temperatureK,speedOfSoundMS,mach,dynamicPressurePa,reynoldsPerM,reynoldsNumber,dragCoefficient,dragN");
+        assert_eq!(keys(aerostrata::FlightPoint::QUANTITIES), "timeS,altitudeM,velocityMS,densityKgM3,pressurePa,temperatureK,speedOfSoundMS,mach,dynamicPressurePa,reynoldsPerM,reynoldsNumber,dragCoefficient,dragN,\
+velocityEastMS,velocityNorthMS,velocityUpMS,windEastMS,windNorthMS,airspeedMS,alphaDeg,qAlphaPaDeg,\
+totalTemperatureK,recoveryTemperatureK");
     }
 }

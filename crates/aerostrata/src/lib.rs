@@ -55,6 +55,7 @@ pub mod solve;
 mod state;
 pub mod table;
 pub mod units;
+pub mod wind;
 
 pub use altitude::{Altitude, AltitudeRange, GeometricAltitude, GeopotentialAltitude};
 pub use error::{Error, MessagePart, Result};

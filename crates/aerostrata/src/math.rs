@@ -42,3 +42,34 @@ pub(crate) fn ln_1p(x: f64) -> f64 {
 pub(crate) fn exp_m1(x: f64) -> f64 {
     libm::expm1(x)
 }
+
+/// Sine and cosine of an angle in degrees. The whole turns and the quadrant are taken out
+/// exactly first (so that 90 deg gives exactly 1 and 0, and a heading of 1e6 deg loses no
+/// digits), then libm's sine and cosine of the remaining at most 45 degrees.
+#[inline]
+pub(crate) fn sin_cos_deg(degrees: f64) -> (f64, f64) {
+    // fmod is exact in IEEE arithmetic; the remainder is in (-360, 360).
+    let turn = libm::fmod(degrees, 360.0);
+    let quadrants = libm::round(turn / 90.0);
+    let rest = (turn - 90.0 * quadrants) * (core::f64::consts::PI / 180.0);
+    let (s, c) = (libm::sin(rest), libm::cos(rest));
+    // quadrants is an integer from -4 to 4.
+    match (quadrants as i64).rem_euclid(4) {
+        0 => (s, c),
+        1 => (c, -s),
+        2 => (-s, -c),
+        _ => (-c, s),
+    }
+}
+
+/// The angle of the point (x, y) from the x axis, degrees in (-180, 180].
+#[inline]
+pub(crate) fn atan2_deg(y: f64, x: f64) -> f64 {
+    libm::atan2(y, x) * (180.0 / core::f64::consts::PI)
+}
+
+/// The cube root.
+#[inline]
+pub(crate) fn cbrt(x: f64) -> f64 {
+    libm::cbrt(x)
+}

@@ -28,8 +28,10 @@ pub enum Group {
     /// Altimetry: the altitudes a barometer gives, and the pressures it reads.
     Altimetry,
     /// A parameter a person gives rather than a result (a temperature offset, a humidity,
-    /// a vehicle's size).
+    /// a vehicle's size, the direction of a flight's velocity).
     Parameter,
+    /// Winds aloft: a sounding's or a wind profile's, and a flight sample's.
+    Wind,
 }
 
 /// How a value is rounded for people (tables, labels); machine formats (CSV, JSON) always
@@ -222,6 +224,43 @@ catalogue! {
         "the area a drag coefficient is referred to", SQUARE_METRE, SQUARE_FOOT, false, Significant, true;
     ReferenceLength = 50, Parameter, "reference_length", "L", "reference length",
         "the length a Reynolds number is referred to", METRE, FOOT, false, Significant, true;
+    // Winds aloft (ids 51 to 54): a sounding's or a wind file's columns, and a flight
+    // sample's wind.
+    WindSpeed = 51, Wind, "wind_speed", "W", "wind speed",
+        "horizontal speed of the wind", METRE_PER_SECOND, KNOT, false, Decimals(2), true;
+    WindDirection = 52, Wind, "wind_direction", "W dir", "wind direction",
+        "direction the wind blows from, clockwise from true north (the meteorological convention)", DEGREE, DEGREE, false, Decimals(1), true;
+    WindEast = 53, Wind, "wind_east", "W east", "eastward wind",
+        "east component of the wind's velocity (positive when it blows toward the east)", METRE_PER_SECOND, KNOT, false, Decimals(2), true;
+    WindNorth = 54, Wind, "wind_north", "W north", "northward wind",
+        "north component of the wind's velocity (positive when it blows toward the north)", METRE_PER_SECOND, KNOT, false, Decimals(2), true;
+    // A flight sample with its velocity's direction (ids 55 to 62).
+    VelocityEast = 55, Flight, "velocity_east", "V east", "eastward velocity",
+        "east component of the ground-relative velocity", METRE_PER_SECOND, FOOT_PER_SECOND, true, Decimals(2), false;
+    VelocityNorth = 56, Flight, "velocity_north", "V north", "northward velocity",
+        "north component of the ground-relative velocity", METRE_PER_SECOND, FOOT_PER_SECOND, true, Decimals(2), false;
+    VelocityUp = 57, Flight, "velocity_up", "V up", "upward velocity",
+        "vertical component of the ground-relative velocity", METRE_PER_SECOND, FOOT_PER_SECOND, true, Decimals(2), false;
+    Airspeed = 58, Flight, "airspeed", "V air", "airspeed",
+        "speed relative to the air: the ground-relative velocity less the wind; q and Mach are computed from it", METRE_PER_SECOND, FOOT_PER_SECOND, false, Decimals(2), true;
+    AngleOfAttack = 59, Flight, "alpha", "alpha", "total angle of attack",
+        "angle between the vehicle's axis and the air-relative velocity; needs the velocity's direction", DEGREE, DEGREE, true, Decimals(3), true;
+    QAlpha = 60, Flight, "q_alpha", "q alpha", "q-alpha",
+        "dynamic pressure times the total angle of attack; needs the velocity's direction", PASCAL_DEGREE, PSF_DEGREE, true, Significant, true;
+    TotalTemperature = 61, Flight, "total_temperature", "T0", "total temperature",
+        "temperature of the air brought to rest adiabatically, T (1 + (gamma - 1) M^2 / 2); undefined above 86 km", KELVIN, DEGREE_FAHRENHEIT, true, Decimals(2), false;
+    RecoveryTemperature = 62, Flight, "recovery_temperature", "Tr", "recovery temperature",
+        "adiabatic-wall temperature, T (1 + r (gamma - 1) M^2 / 2) with r = Pr^(1/2) laminar or Pr^(1/3) turbulent; undefined above 86 km", KELVIN, DEGREE_FAHRENHEIT, true, Decimals(2), false;
+    // The direction of a flight sample's velocity and of the vehicle's axis, as a flight
+    // file may give them (ids 63 to 66).
+    FlightPathAngle = 63, Parameter, "flight_path_angle", "gamma", "flight-path angle",
+        "angle of the ground-relative velocity above the horizontal", DEGREE, DEGREE, false, Decimals(3), true;
+    Heading = 64, Parameter, "heading", "psi", "heading",
+        "direction of the ground-relative velocity's horizontal part, clockwise from true north", DEGREE, DEGREE, false, Decimals(3), true;
+    AxisElevation = 65, Parameter, "axis_elevation", "theta", "axis elevation",
+        "angle of the vehicle's axis above the horizontal", DEGREE, DEGREE, false, Decimals(3), true;
+    AxisAzimuth = 66, Parameter, "axis_azimuth", "axis az", "axis azimuth",
+        "direction of the vehicle's axis's horizontal part, clockwise from true north", DEGREE, DEGREE, false, Decimals(3), true;
 }
 
 impl Quantity {

@@ -59,15 +59,22 @@ pub enum SummaryFormat {
     None,
 }
 
-/// The per-sample columns: every quantity a flight point carries.
+/// The quantities of a flight of speeds without direction: the flight point's first
+/// thirteen (the velocity's components, the wind, alpha and the temperatures follow).
+const SPEED_ONLY: usize = 13;
+
+/// The per-sample columns.
 fn columns(units: UnitSystem) -> Vec<Column> {
-    FlightPoint::QUANTITIES.iter().map(|q| Column::of(units, *q)).collect()
+    FlightPoint::QUANTITIES[..SPEED_ONLY].iter().map(|q| Column::of(units, *q)).collect()
 }
 
 /// A sample's values in `units`; an empty cell where the point has none (the drag of a
 /// scan without a vehicle, the Mach number above 86 km).
 fn values(p: &FlightPoint, units: UnitSystem) -> Vec<Option<f64>> {
-    FlightPoint::QUANTITIES.iter().map(|q| p.get(*q).ok().map(|v| units.from_si(*q, v))).collect()
+    FlightPoint::QUANTITIES[..SPEED_ONLY]
+        .iter()
+        .map(|q| p.get(*q).ok().map(|v| units.from_si(*q, v)))
+        .collect()
 }
 
 /// Runs `aerostrata flight`.

@@ -1,15 +1,26 @@
-//! Scanning a flight: from samples of time, altitude and velocity, each sample's dynamic
-//! pressure, Mach number, Reynolds number and drag, and a summary of the flight (maximum
-//! dynamic pressure refined between samples, maximum Mach number, the Mach 1 crossings,
-//! maximum drag). Streaming, one sample at a time: no allocation, any number of samples.
+//! Scanning a flight: from samples of time, altitude and velocity (a speed, or a
+//! ground-relative velocity with its direction, through winds aloft), each sample's
+//! airspeed, dynamic pressure, Mach and Reynolds numbers, drag, total angle of attack and
+//! q-alpha, total and recovery temperatures, and a summary of the flight (maximum dynamic
+//! pressure refined between samples with its uncertainty, maximum Mach number, q-alpha
+//! and drag, the Mach 1 crossings). Streaming, one sample at a time: no allocation, any
+//! number of samples. Limits and plateaus of q(t) or any other series: [`LimitWatch`],
+//! [`exceedances`], [`plateau`].
 //!
 //! The refinement of the maximum is the classical three-point parabolic (quadratic
-//! Lagrange) interpolation of the sampled q(t) around its largest sample.
+//! Lagrange) interpolation of the sampled q(t) around its largest sample; its
+//! uncertainty, the spread of other local fits, corners included (docs/aerodynamics.md).
 
+mod limits;
+mod motion;
+mod peak;
 mod point;
 mod scan;
 mod summary;
 
+pub use limits::{exceedances, plateau, Exceedance, LimitWatch, Plateau, PLATEAU_FRACTION};
+pub use motion::{Axis, BoundaryLayer, VectorSample};
+pub use peak::{RESOLVED_FRACTION, SAFETY_FACTOR};
 pub use point::{FlightPoint, Sample, Vehicle};
 pub use scan::{samples_from_slices, scan, FlightScan};
 pub use summary::{Crossings, Extreme, FlightSummary, Peak};

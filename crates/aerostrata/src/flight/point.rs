@@ -1,13 +1,17 @@
 //! One sample of a flight, the vehicle that gives it a drag, and what the scan computes
 //! for the sample: the air there, q, Mach and Reynolds numbers and the drag.
 
+use super::motion::{angle_deg, norm, Axis, BoundaryLayer};
 use super::MAX_TIME_S;
 use crate::aero::{speed, CdSegment, DragCurve, MAX_AREA_M2, MAX_LENGTH_M};
 use crate::altitude::Altitude;
-use crate::error::{positive, within, Error, Result};
+use crate::constants::GAS_CONSTANT_J_KMOL_K;
+use crate::error::{finite, positive, within, Error, Result};
 use crate::flow::MAX_MACH;
+use crate::math;
 use crate::model::Atmosphere;
 use crate::quantity::Quantity;
+use crate::wind::{WindLevel, WindProfile, WindSegment};
 
 /// One sample of a flight.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -101,12 +105,30 @@ pub struct FlightPoint {
     pub drag_coefficient: Option<f64>,
     /// Drag q Cd A, N.
     pub drag_n: Option<f64>,
+    /// The ground-relative velocity's east, north and up components, m/s (a sample that
+    /// gives its velocity's direction).
+    pub velocity_enu_m_s: Option<[f64; 3]>,
+    /// The wind's east and north components at the sample, m/s (a scan with winds).
+    pub wind_en_m_s: Option<[f64; 2]>,
+    /// Speed relative to the air, m/s: the ground-relative velocity less the wind; q,
+    /// Mach and Reynolds numbers and drag are computed from it. Without winds, |velocity|.
+    pub airspeed_m_s: f64,
+    /// Total angle of attack, deg: between the vehicle's axis and the air-relative
+    /// velocity (a sample that gives its velocity's direction, moving or with an axis).
+    pub alpha_deg: Option<f64>,
+    /// q-alpha, Pa deg: the dynamic pressure times the total angle of attack.
+    pub q_alpha_pa_deg: Option<f64>,
+    /// Total temperature T (1 + (gamma - 1) M^2 / 2), K.
+    pub total_temperature_k: Option<f64>,
+    /// Recovery (adiabatic-wall) temperature T (1 + r (gamma - 1) M^2 / 2), K, r the
+    /// recovery factor of the scan's boundary layer (a scan that asks for it).
+    pub recovery_temperature_k: Option<f64>,
 }
 
 impl FlightPoint {
     /// The quantities a flight point carries, in the order of its fields: what a door
     /// shows as one column per quantity.
-    pub const QUANTITIES: [Quantity; 13] = [
+    pub const QUANTITIES: [Quantity; 23] = [
         Quantity::Time,
         Quantity::Altitude,
         Quantity::Velocity,
@@ -120,6 +142,16 @@ impl FlightPoint {
         Quantity::ReynoldsNumber,
         Quantity::DragCoefficient,
         Quantity::Drag,
+        Quantity::VelocityEast,
+        Quantity::VelocityNorth,
+        Quantity::VelocityUp,
+        Quantity::WindEast,
+        Quantity::WindNorth,
+        Quantity::Airspeed,
+        Quantity::AngleOfAttack,
+        Quantity::QAlpha,
+        Quantity::TotalTemperature,
+        Quantity::RecoveryTemperature,
     ];
 
     /// Bit of [`FlightPoint::defined`]: the speed of sound and the Mach number are defined.
@@ -132,6 +164,17 @@ impl FlightPoint {
     /// Bit of [`FlightPoint::defined`]: the drag coefficient and the drag are defined (a
     /// vehicle was given).
     pub const DEFINED_DRAG: u8 = 8;
+    /// Bit of [`FlightPoint::defined`]: the velocity's east, north and up components are
+    /// defined (the sample gave its velocity's direction).
+    pub const DEFINED_VELOCITY_COMPONENTS: u8 = 16;
+    /// Bit of [`FlightPoint::defined`]: the wind's components are defined (a scan with
+    /// winds).
+    pub const DEFINED_WIND: u8 = 32;
+    /// Bit of [`FlightPoint::defined`]: the angle of attack and q-alpha are defined.
+    pub const DEFINED_ALPHA: u8 = 64;
+    /// Bit of [`FlightPoint::defined`]: the recovery temperature is defined (the scan
+    /// asked for it, in the continuum). The total temperature goes with the Mach number.
+    pub const DEFINED_RECOVERY_TEMPERATURE: u8 = 128;
 
     /// Which of the values that can be missing are defined, as `DEFINED_*` bits: what the
     /// C and WebAssembly doors hand on beside the values, which they give as NaN where
@@ -142,6 +185,10 @@ impl FlightPoint {
             | bit(self.reynolds_per_m.is_some(), Self::DEFINED_REYNOLDS_PER_M)
             | bit(self.reynolds_number.is_some(), Self::DEFINED_REYNOLDS_NUMBER)
             | bit(self.drag_coefficient.is_some() && self.drag_n.is_some(), Self::DEFINED_DRAG)
+            | bit(self.velocity_enu_m_s.is_some(), Self::DEFINED_VELOCITY_COMPONENTS)
+            | bit(self.wind_en_m_s.is_some(), Self::DEFINED_WIND)
+            | bit(self.alpha_deg.is_some() && self.q_alpha_pa_deg.is_some(), Self::DEFINED_ALPHA)
+            | bit(self.recovery_temperature_k.is_some(), Self::DEFINED_RECOVERY_TEMPERATURE)
     }
 
     /// The value of `quantity`, in its SI unit ([`Quantity::info`]).
@@ -150,18 +197,25 @@ impl FlightPoint {
     /// [`Error::Undefined`] for a continuum quantity where the model does not define a
     /// speed of sound or a viscosity (above 86 km); [`Error::NotCarried`] for the drag,
     /// drag coefficient or Reynolds number of a scan without a vehicle (or reference
-    /// length), and for a quantity that is not one of [`FlightPoint::QUANTITIES`].
+    /// length), the velocity's components, the angle of attack and q-alpha of a sample
+    /// without the velocity's direction, the wind of a scan without winds, the recovery
+    /// temperature of a scan that did not ask for it, and for a quantity that is not one
+    /// of [`FlightPoint::QUANTITIES`].
     pub fn get(&self, quantity: Quantity) -> Result<f64> {
+        let not_carried = |result| Error::NotCarried { quantity: quantity.name(), result };
         let optional = |value: Option<f64>, continuum: bool| {
             value.ok_or(if continuum || self.speed_of_sound_m_s.is_none() {
                 Error::Undefined { quantity: quantity.info().label, altitude_m: self.altitude_m }
             } else {
-                Error::NotCarried {
-                    quantity: quantity.name(),
-                    result: "a flight point scanned without a vehicle",
-                }
+                not_carried("a flight point scanned without a vehicle")
             })
         };
+        let component = |values: Option<&[f64]>, i: usize, result| {
+            values.and_then(|v| v.get(i).copied()).ok_or(not_carried(result))
+        };
+        let direction = "a flight sample without its velocity's direction";
+        let velocity = self.velocity_enu_m_s.as_ref().map(|v| &v[..]);
+        let wind = self.wind_en_m_s.as_ref().map(|w| &w[..]);
         use Quantity as Q;
         match quantity {
             Q::Time => Ok(self.time_s),
@@ -177,6 +231,22 @@ impl FlightPoint {
             Q::ReynoldsNumber => optional(self.reynolds_number, false),
             Q::DragCoefficient => optional(self.drag_coefficient, false),
             Q::Drag => optional(self.drag_n, false),
+            Q::VelocityEast => component(velocity, 0, direction),
+            Q::VelocityNorth => component(velocity, 1, direction),
+            Q::VelocityUp => component(velocity, 2, direction),
+            Q::WindEast => component(wind, 0, "a flight point scanned without winds"),
+            Q::WindNorth => component(wind, 1, "a flight point scanned without winds"),
+            Q::Airspeed => Ok(self.airspeed_m_s),
+            Q::AngleOfAttack => self.alpha_deg.ok_or(not_carried(direction)),
+            Q::QAlpha => self.q_alpha_pa_deg.ok_or(not_carried(direction)),
+            Q::TotalTemperature => optional(self.total_temperature_k, true),
+            Q::RecoveryTemperature => match self.recovery_temperature_k {
+                Some(t) => Ok(t),
+                None if self.total_temperature_k.is_some() => Err(not_carried(
+                    "a flight point scanned without a boundary layer for the recovery factor",
+                )),
+                None => optional(None, true),
+            },
             other => Err(Error::NotCarried { quantity: other.name(), result: "a flight point" }),
         }
     }
@@ -186,50 +256,145 @@ pub(super) fn bad_sample(index: usize, problem: &'static str, value: f64) -> Err
     Error::InvalidPoint { table: "flight sample", index, problem, value }
 }
 
-/// The values at `sample` (the `index`-th), reading the vehicle's drag curve through
-/// `cd_segment`, which is refreshed when the Mach number has left it.
+/// What a sample says of the vehicle's motion.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(super) enum Motion {
+    /// A speed relative to the air (its sign ignored), no direction.
+    Speed(f64),
+    /// The ground-relative velocity (east, north, up), and the axis if given.
+    Vector([f64; 3], Option<Axis>),
+}
+
+/// What a scan adds to each sample beyond the atmosphere: the vehicle, the winds and the
+/// boundary layer of the recovery temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(super) struct Setting<'v> {
+    pub(super) vehicle: Option<Vehicle<'v>>,
+    pub(super) winds: Option<WindProfile<&'v [WindLevel]>>,
+    pub(super) recovery: Option<BoundaryLayer>,
+}
+
+/// The pieces of the drag curve and the wind profile the last sample fell in:
+/// consecutive samples nearly always share them, so the tables are searched only when a
+/// sample leaves them.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub(super) struct Cursor {
+    cd: Option<CdSegment>,
+    wind: Option<WindSegment>,
+}
+
+impl Cursor {
+    /// Whether the wind at `altitude_m` of the last sample was held beyond the profile.
+    pub(super) fn wind_held(&self, altitude_m: f64) -> bool {
+        self.wind.is_some_and(|segment| segment.wind(altitude_m).held)
+    }
+}
+
+/// The ratio of specific heats of the continuum air the models give (the 1976
+/// standard's, and every model's speed of sound).
+const GAMMA: f64 = 1.4;
+
+/// The values at a sample (the `index`-th) of time `time_s`, geometric altitude
+/// `altitude_m` and motion `motion`, reading the tables through `cursor`.
 #[inline]
 pub(super) fn compute<A: Atmosphere>(
     atmosphere: &A,
-    vehicle: Option<&Vehicle<'_>>,
+    setting: &Setting<'_>,
     index: usize,
-    sample: Sample,
-    cd_segment: &mut Option<CdSegment>,
+    (time_s, altitude_m, motion): (f64, f64, Motion),
+    cursor: &mut Cursor,
 ) -> Result<FlightPoint> {
-    let time_s = sample.time_s;
     if !(time_s.is_finite() && (-MAX_TIME_S..=MAX_TIME_S).contains(&time_s)) {
         return Err(bad_sample(index, "time (s) must be finite and within -1e12 to 1e12 s", time_s));
     }
-    let v = speed("velocity", sample.velocity_m_s)?;
-    let air = atmosphere.air(Altitude::geometric_m(sample.altitude_m)?)?;
+    let (velocity_m_s, velocity_enu_m_s, wind_en_m_s, air_velocity, axis) = match motion {
+        Motion::Speed(v) => {
+            if setting.winds.is_some() {
+                return Err(bad_sample(
+                    index,
+                    "winds need the velocity's direction (east, north and up components, or speed, \
+                     flight-path angle and heading), not a speed alone; speed",
+                    v,
+                ));
+            }
+            (v, None, None, None, None)
+        }
+        Motion::Vector(v, axis) => {
+            for (name, c) in ["velocity east", "velocity north", "velocity up"].into_iter().zip(v) {
+                speed(name, c)?;
+            }
+            let wind = match &setting.winds {
+                Some(winds) => {
+                    let segment = match cursor.wind {
+                        Some(segment) if segment.holds(altitude_m) => segment,
+                        _ => *cursor.wind.insert(winds.segment(finite("geometric altitude", altitude_m)?)),
+                    };
+                    Some(segment.wind(altitude_m))
+                }
+                None => None,
+            };
+            let (east, north) = wind.map_or((0.0, 0.0), |w| (w.east_m_s, w.north_m_s));
+            let ground_speed = norm(v);
+            // The axis: as given, else along the ground-relative velocity (none at rest).
+            let axis = axis.map(|a| a.unit()).or((ground_speed > 0.0).then(|| v.map(|c| c / ground_speed)));
+            let air = [v[0] - east, v[1] - north, v[2]];
+            (ground_speed, Some(v), wind.map(|w| [w.east_m_s, w.north_m_s]), Some(air), axis)
+        }
+    };
+    let v = match air_velocity {
+        Some(air) => speed("airspeed", norm(air))?,
+        None => speed("velocity", velocity_m_s)?,
+    };
+    let air = atmosphere.air(Altitude::geometric_m(altitude_m)?)?;
     let rho = air.density_kg_m3();
     let speed_of_sound_m_s = air.speed_of_sound_m_s();
     let mach = speed_of_sound_m_s.map(|a| v / a);
     let dynamic_pressure_pa = 0.5 * rho * v * v;
-    let reynolds_per_m = air.dynamic_viscosity_pa_s().map(|mu| rho * v / mu);
+    let mu = air.dynamic_viscosity_pa_s();
+    let reynolds_per_m = mu.map(|mu| rho * v / mu);
     let (mut reynolds_number, mut drag_coefficient, mut drag_n) = (None, None, None);
-    if let Some(vehicle) = vehicle {
+    if let Some(vehicle) = &setting.vehicle {
         reynolds_number = reynolds_per_m.zip(vehicle.reference_length_m).map(|(re, l)| re * l);
         drag_coefficient = if vehicle.drag.is_constant() {
             Some(vehicle.drag.min_cd())
         } else {
             mach.map(|m| {
                 let m = m.min(MAX_MACH);
-                match cd_segment {
+                match &mut cursor.cd {
                     Some(segment) if segment.holds(m) => segment.cd(m),
-                    _ => cd_segment.insert(vehicle.drag.segment(m)).cd(m),
+                    slot => slot.insert(vehicle.drag.segment(m)).cd(m),
                 }
             })
         };
         drag_n = drag_coefficient.map(|cd| dynamic_pressure_pa * cd * vehicle.reference_area_m2);
     }
+    // The angle between the axis and the air-relative velocity; none in still air.
+    let alpha_deg = match (axis, air_velocity) {
+        (Some(axis), Some(air)) if v > 0.0 => Some(angle_deg(axis, air)),
+        _ => None,
+    };
+    let t = air.temperature_k();
+    let heating = mach.map(|m| 0.5 * (GAMMA - 1.0) * m * m);
+    let recovery_temperature_k = match (setting.recovery, heating, mu, air.thermal_conductivity_w_m_k()) {
+        (Some(layer), Some(heating), Some(mu), Some(k)) => {
+            // Pr = mu cp / k with cp = gamma R / ((gamma - 1) M) of the air at the sample.
+            let cp = GAMMA / (GAMMA - 1.0) * GAS_CONSTANT_J_KMOL_K / air.molar_mass_kg_kmol();
+            let prandtl = mu * cp / k;
+            let r = match layer {
+                BoundaryLayer::Laminar => math::sqrt(prandtl),
+                BoundaryLayer::Turbulent => math::cbrt(prandtl),
+            };
+            Some(t * (1.0 + r * heating))
+        }
+        _ => None,
+    };
     Ok(FlightPoint {
         time_s,
-        altitude_m: sample.altitude_m,
-        velocity_m_s: sample.velocity_m_s,
+        altitude_m,
+        velocity_m_s,
         density_kg_m3: rho,
         pressure_pa: air.pressure_pa(),
-        temperature_k: air.temperature_k(),
+        temperature_k: t,
         speed_of_sound_m_s,
         mach,
         dynamic_pressure_pa,
@@ -237,6 +402,13 @@ pub(super) fn compute<A: Atmosphere>(
         reynolds_number,
         drag_coefficient,
         drag_n,
+        velocity_enu_m_s,
+        wind_en_m_s,
+        airspeed_m_s: v,
+        alpha_deg,
+        q_alpha_pa_deg: alpha_deg.map(|a| dynamic_pressure_pa * a),
+        total_temperature_k: heating.map(|h| t * (1.0 + h)),
+        recovery_temperature_k,
     })
 }
 

@@ -1,15 +1,17 @@
 //! The scan itself: samples pushed one at a time, their values returned, the summary kept
 //! up to date without holding the samples.
 
-use super::point::{bad_sample, compute, FlightPoint, Sample, Vehicle};
-use super::summary::{extreme, refine, Crossings, Extreme, FlightSummary, Kept, Peak};
+use super::motion::{BoundaryLayer, VectorSample};
+use super::peak::{estimate, refine, RESOLVED_FRACTION, SAFETY_FACTOR};
+use super::point::{bad_sample, compute, Cursor, FlightPoint, Motion, Sample, Setting, Vehicle};
+use super::summary::{extreme, Crossings, Extreme, FlightSummary, Kept, Peak};
 #[cfg(doc)]
 use super::MAX_TIME_S;
-use crate::aero::CdSegment;
 #[cfg(doc)]
 use crate::error::Error;
 use crate::error::Result;
 use crate::model::Atmosphere;
+use crate::wind::{WindLevel, WindProfile};
 
 /// A flight being scanned, one [`Sample`] at a time.
 ///
@@ -36,20 +38,23 @@ use crate::model::Atmosphere;
 #[derive(Debug, Clone)]
 pub struct FlightScan<'v, A> {
     atmosphere: A,
-    vehicle: Option<Vehicle<'v>>,
+    setting: Setting<'v>,
     samples: usize,
-    last: Option<Kept>,
+    /// The last three samples, the latest first.
+    recent: [Option<Kept>; 3],
     peak_index: usize,
+    /// The largest sample, and the three before and the three after it (nearest first).
     peak: Option<Kept>,
-    before_peak: Option<Kept>,
-    after_peak: Option<Kept>,
+    before_peak: [Option<Kept>; 3],
+    after_peak: [Option<Kept>; 3],
     max_mach: Option<Extreme>,
     max_drag: Option<Extreme>,
+    max_q_alpha: Option<Extreme>,
     up: Crossings,
     down: Crossings,
-    /// The piece of the drag curve the last sample fell in: consecutive samples nearly
-    /// always share it, so the table is searched only when the Mach number leaves it.
-    cd_segment: Option<CdSegment>,
+    mach_undefined: usize,
+    wind_held: usize,
+    cursor: Cursor,
 }
 
 impl<'v, A: Atmosphere> FlightScan<'v, A> {
@@ -57,19 +62,36 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
     pub fn new(atmosphere: A, vehicle: Option<Vehicle<'v>>) -> Self {
         Self {
             atmosphere,
-            vehicle,
+            setting: Setting { vehicle, winds: None, recovery: None },
             samples: 0,
-            last: None,
+            recent: [None; 3],
             peak_index: 0,
             peak: None,
-            before_peak: None,
-            after_peak: None,
+            before_peak: [None; 3],
+            after_peak: [None; 3],
             max_mach: None,
             max_drag: None,
+            max_q_alpha: None,
             up: Crossings::default(),
             down: Crossings::default(),
-            cd_segment: None,
+            mach_undefined: 0,
+            wind_held: 0,
+            cursor: Cursor::default(),
         }
+    }
+
+    /// The same scan through `winds`: each sample's airspeed, q, Mach number, angle of
+    /// attack and q-alpha are those of its ground-relative velocity less the wind at its
+    /// altitude. Samples must then give their velocity's direction
+    /// ([`FlightScan::push_vector`]).
+    pub fn with_winds<S: AsRef<[WindLevel]>>(self, winds: &'v WindProfile<S>) -> Self {
+        let winds = WindProfile::borrowed(winds);
+        Self { setting: Setting { winds: Some(winds), ..self.setting }, ..self }
+    }
+
+    /// The same scan with recovery temperatures for a `layer` boundary layer.
+    pub fn with_recovery(self, layer: BoundaryLayer) -> Self {
+        Self { setting: Setting { recovery: Some(layer), ..self.setting }, ..self }
     }
 
     /// Samples accepted so far (the index the next sample will have).
@@ -82,60 +104,98 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
     /// # Errors
     /// As [`FlightScan::push`], except for the order of times.
     pub fn evaluate(&self, sample: Sample) -> Result<FlightPoint> {
-        compute(&self.atmosphere, self.vehicle.as_ref(), self.samples, sample, &mut None)
+        let motion = (sample.time_s, sample.altitude_m, Motion::Speed(sample.velocity_m_s));
+        compute(&self.atmosphere, &self.setting, self.samples, motion, &mut Cursor::default())
     }
 
-    /// Records `sample` and returns its values. A rejected sample leaves the scan as it
-    /// was; its index is [`FlightScan::samples`].
+    /// The values at `sample`, without recording it.
+    ///
+    /// # Errors
+    /// As [`FlightScan::push_vector`], except for the order of times.
+    pub fn evaluate_vector(&self, sample: VectorSample) -> Result<FlightPoint> {
+        let motion = (sample.time_s, sample.altitude_m, Motion::Vector(sample.velocity(), sample.axis));
+        compute(&self.atmosphere, &self.setting, self.samples, motion, &mut Cursor::default())
+    }
+
+    /// Records `sample` (a speed without direction) and returns its values. A rejected
+    /// sample leaves the scan as it was; its index is [`FlightScan::samples`].
     ///
     /// # Errors
     /// [`Error::InvalidPoint`] (naming the sample's index) for a time that is not finite,
-    /// beyond +-[`MAX_TIME_S`] or not after the previous sample's; [`Error::NotFinite`] or
+    /// beyond +-[`MAX_TIME_S`] or not after the previous sample's, and in a scan with
+    /// winds (which need the velocity's direction); [`Error::NotFinite`] or
     /// [`Error::OutOfRange`] for a velocity outside +-[`crate::aero::MAX_SPEED_M_S`] or an
     /// altitude outside the model's range; the model's own errors.
     #[inline]
     pub fn push(&mut self, sample: Sample) -> Result<FlightPoint> {
+        self.record((sample.time_s, sample.altitude_m, Motion::Speed(sample.velocity_m_s)))
+    }
+
+    /// Records `sample` (a ground-relative velocity with its direction) and returns its
+    /// values, with the wind's angle of attack and q-alpha.
+    ///
+    /// # Errors
+    /// As [`FlightScan::push`], for each component of the velocity and for the airspeed.
+    #[inline]
+    pub fn push_vector(&mut self, sample: VectorSample) -> Result<FlightPoint> {
+        self.record((sample.time_s, sample.altitude_m, Motion::Vector(sample.velocity(), sample.axis)))
+    }
+
+    #[inline]
+    fn record(&mut self, sample: (f64, f64, Motion)) -> Result<FlightPoint> {
         let index = self.samples;
-        if let Some(last) = &self.last {
-            if sample.time_s.partial_cmp(&last.time_s) != Some(core::cmp::Ordering::Greater) {
-                return Err(bad_sample(index, "time (s) must be after the previous sample's", sample.time_s));
+        if let Some(last) = &self.recent[0] {
+            if sample.0.partial_cmp(&last.time_s) != Some(core::cmp::Ordering::Greater) {
+                return Err(bad_sample(index, "time (s) must be after the previous sample's", sample.0));
             }
         }
-        let point = compute(&self.atmosphere, self.vehicle.as_ref(), index, sample, &mut self.cd_segment)?;
+        let point = compute(&self.atmosphere, &self.setting, index, sample, &mut self.cursor)?;
         let kept = Kept::from(&point);
         let q = point.dynamic_pressure_pa;
         match &self.peak {
             Some(peak) if q <= peak.dynamic_pressure_pa => {
-                if self.after_peak.is_none() && self.peak_index + 1 == index {
-                    self.after_peak = Some(kept);
+                if let Some(slot) = self.after_peak.get_mut(index - self.peak_index - 1) {
+                    *slot = Some(kept);
                 }
             }
             _ => {
-                self.before_peak = self.last;
+                self.before_peak = self.recent;
                 self.peak = Some(kept);
-                self.after_peak = None;
+                self.after_peak = [None; 3];
                 self.peak_index = index;
             }
         }
-        if let Some(m) = point.mach {
-            if self.max_mach.is_none_or(|e| m > e.value) {
-                self.max_mach = Some(extreme(m, &point, index));
-            }
-            if let Some((m0, t0)) = self.last.and_then(|l| l.mach.map(|m0| (m0, l.time_s))) {
-                let dt = point.time_s - t0;
-                if m0 < 1.0 && m >= 1.0 {
-                    self.up.record(t0 + (1.0 - m0) / (m - m0) * dt);
-                } else if m0 >= 1.0 && m < 1.0 {
-                    self.down.record(t0 + (m0 - 1.0) / (m0 - m) * dt);
+        match point.mach {
+            Some(m) => {
+                if self.max_mach.is_none_or(|e| m > e.value) {
+                    self.max_mach = Some(extreme(m, &point, index));
+                }
+                if let Some((m0, t0)) = self.recent[0].and_then(|l| l.mach.map(|m0| (m0, l.time_s))) {
+                    let dt = point.time_s - t0;
+                    if m0 < 1.0 && m >= 1.0 {
+                        self.up.record(t0 + (1.0 - m0) / (m - m0) * dt);
+                    } else if m0 >= 1.0 && m < 1.0 {
+                        self.down.record(t0 + (m0 - 1.0) / (m0 - m) * dt);
+                    }
                 }
             }
+            None => self.mach_undefined += 1,
         }
         if let Some(d) = point.drag_n {
             if self.max_drag.is_none_or(|e| d > e.value) {
                 self.max_drag = Some(extreme(d, &point, index));
             }
         }
-        self.last = Some(kept);
+        if let Some(qa) = point.q_alpha_pa_deg {
+            if self.max_q_alpha.is_none_or(|e| qa > e.value) {
+                self.max_q_alpha = Some(extreme(qa, &point, index));
+            }
+        }
+        // The cursor holds the piece of the wind profile the sample fell in.
+        if self.setting.winds.is_some() && self.cursor.wind_held(point.altitude_m) {
+            self.wind_held += 1;
+        }
+        self.recent = [Some(kept), self.recent[0], self.recent[1]];
         self.samples += 1;
         Ok(point)
     }
@@ -149,34 +209,58 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
             mach_one_up: self.up,
             mach_one_down: self.down,
             max_drag: self.max_drag,
+            max_q_alpha: self.max_q_alpha,
+            mach_undefined_samples: self.mach_undefined,
+            wind_held_samples: self.wind_held,
         }
     }
 
     fn refined_peak(&self, peak: &Kept) -> Peak {
-        let unrefined = Peak {
+        let sampled = peak.dynamic_pressure_pa;
+        let mut out = Peak {
             time_s: peak.time_s,
             altitude_m: peak.altitude_m,
             velocity_m_s: peak.velocity_m_s,
             mach: peak.mach,
-            dynamic_pressure_pa: peak.dynamic_pressure_pa,
+            dynamic_pressure_pa: sampled,
             sample_index: self.peak_index,
             refined: false,
+            sample_max_pa: sampled,
+            uncertainty_pa: None,
+            resolved: false,
+            suggested_spacing_s: None,
         };
-        match (&self.before_peak, &self.after_peak) {
-            (Some(before), Some(after)) => refine(before, peak, after).map_or(unrefined, |r| Peak {
-                time_s: r.time_s,
-                altitude_m: r.interpolate([before.altitude_m, peak.altitude_m, after.altitude_m]),
-                velocity_m_s: r.interpolate([before.velocity_m_s, peak.velocity_m_s, after.velocity_m_s]),
-                mach: match (before.mach, peak.mach, after.mach) {
-                    (Some(a), Some(b), Some(c)) => Some(r.interpolate([a, b, c])),
-                    _ => None,
-                },
-                dynamic_pressure_pa: r.dynamic_pressure_pa,
-                sample_index: self.peak_index,
-                refined: true,
-            }),
-            _ => unrefined,
+        let (Some(before), Some(after)) = (&self.before_peak[0], &self.after_peak[0]) else { return out };
+        if let Some(r) = refine(before, peak, after) {
+            out.time_s = r.time_s;
+            out.altitude_m = r.interpolate([before.altitude_m, peak.altitude_m, after.altitude_m]);
+            out.velocity_m_s = r.interpolate([before.velocity_m_s, peak.velocity_m_s, after.velocity_m_s]);
+            out.mach = match (before.mach, peak.mach, after.mach) {
+                (Some(a), Some(b), Some(c)) => Some(r.interpolate([a, b, c])),
+                _ => None,
+            };
+            out.dynamic_pressure_pa = r.dynamic_pressure_pa;
+            out.refined = true;
         }
+        let q = out.dynamic_pressure_pa;
+        let (low, high) = estimate(
+            self.before_peak.each_ref().map(Option::as_ref),
+            peak,
+            self.after_peak.each_ref().map(Option::as_ref),
+        )
+        .unwrap_or((q, q));
+        // The maximum is never below the largest sample: a low estimate under it only
+        // says the fits disagree.
+        let spread = (high - q).max(q - low.max(sampled)).max(0.0);
+        let uncertainty = SAFETY_FACTOR * spread;
+        out.uncertainty_pa = Some(uncertainty);
+        out.resolved = out.refined && uncertainty <= RESOLVED_FRACTION * q;
+        if !out.resolved {
+            let spacing = 0.5 * (after.time_s - before.time_s);
+            let scale = if uncertainty > 0.0 { (RESOLVED_FRACTION * q / uncertainty).min(0.5) } else { 0.5 };
+            out.suggested_spacing_s = Some(spacing * scale);
+        }
+        out
     }
 }
 

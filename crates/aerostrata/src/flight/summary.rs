@@ -1,6 +1,6 @@
-//! The summary of a flight: the maximum dynamic pressure refined between samples by the
-//! parabola through the largest sample and its two neighbours (quadratic Lagrange
-//! interpolation), the largest Mach number and drag, the Mach 1 crossings.
+//! The summary of a flight: the maximum dynamic pressure refined between samples, with
+//! its uncertainty (see [`super::peak`]), the largest Mach number, drag and q-alpha, the
+//! Mach 1 crossings, and the samples where the Mach number or the wind is not known.
 
 use super::point::FlightPoint;
 
@@ -12,7 +12,7 @@ pub struct Peak {
     pub time_s: f64,
     /// Geometric altitude at that time, m.
     pub altitude_m: f64,
-    /// Velocity at that time, m/s.
+    /// Airspeed (speed relative to the air; |velocity| without winds) at that time, m/s.
     pub velocity_m_s: f64,
     /// Mach number at that time (where all three samples have one).
     pub mach: Option<f64>,
@@ -24,6 +24,21 @@ pub struct Peak {
     /// last so far, or the three samples are too close in time to form a parabola in
     /// f64, and the sample itself is reported.
     pub refined: bool,
+    /// The largest sampled q, Pa.
+    pub sample_max_pa: f64,
+    /// How far the maximum of the sampled flight can be from `dynamic_pressure_pa`, Pa:
+    /// where q(t) is concave over the five samples around the largest (a smooth peak or a
+    /// corner), the maximum lies in `dynamic_pressure_pa` +- this. `None` where the
+    /// largest sample is the first or the last (the maximum may lie outside the record).
+    pub uncertainty_pa: Option<f64>,
+    /// Whether the sampling resolves the peak: the uncertainty is known and at most
+    /// [`RESOLVED_FRACTION`](super::RESOLVED_FRACTION) of the maximum.
+    pub resolved: bool,
+    /// Where the peak is not resolved but bounded, a sample spacing that would resolve
+    /// it, s: the spacing around the peak scaled by how far the uncertainty is over its
+    /// limit (the bound shrinks at least in proportion to the spacing: linearly at a
+    /// corner, quadratically on a smooth peak).
+    pub suggested_spacing_s: Option<f64>,
 }
 
 /// The largest value of a quantity over the samples (not refined).
@@ -36,10 +51,12 @@ pub struct Extreme {
     pub time_s: f64,
     /// Geometric altitude of the sample, m.
     pub altitude_m: f64,
-    /// Velocity of the sample, m/s.
+    /// Airspeed of the sample (|velocity| without winds), m/s.
     pub velocity_m_s: f64,
     /// Index (from 0) of the sample.
     pub sample_index: usize,
+    /// Mach number of the sample, where defined.
+    pub mach: Option<f64>,
 }
 
 /// The crossings of Mach 1 in one direction.
@@ -78,6 +95,15 @@ pub struct FlightSummary {
     pub mach_one_down: Crossings,
     /// Largest drag of any sample (with a vehicle), N.
     pub max_drag: Option<Extreme>,
+    /// Largest q-alpha of any sample (samples that give their velocity's direction),
+    /// Pa deg.
+    pub max_q_alpha: Option<Extreme>,
+    /// Samples where the Mach number is undefined (above 86 km, where the continuum
+    /// quantities are not): a Mach 1 crossing among them cannot be seen.
+    pub mach_undefined_samples: usize,
+    /// Samples beyond the wind profile's lowest or highest level, where its nearest
+    /// level's wind was held.
+    pub wind_held_samples: usize,
 }
 
 /// What the scan keeps of a sample: enough for the crossings and the parabola.
@@ -95,7 +121,7 @@ impl From<&FlightPoint> for Kept {
         Self {
             time_s: point.time_s,
             altitude_m: point.altitude_m,
-            velocity_m_s: point.velocity_m_s,
+            velocity_m_s: point.airspeed_m_s,
             mach: point.mach,
             dynamic_pressure_pa: point.dynamic_pressure_pa,
         }
@@ -107,65 +133,8 @@ pub(super) fn extreme(value: f64, point: &FlightPoint, sample_index: usize) -> E
         value,
         time_s: point.time_s,
         altitude_m: point.altitude_m,
-        velocity_m_s: point.velocity_m_s,
+        velocity_m_s: point.airspeed_m_s,
         sample_index,
+        mach: point.mach,
     }
-}
-
-/// The vertex of the parabola through three samples, and the quadratic Lagrange weights
-/// of the three samples there (to carry altitude, velocity and Mach to the same time).
-pub(super) struct Vertex {
-    pub(super) time_s: f64,
-    pub(super) dynamic_pressure_pa: f64,
-    pub(super) weights: [f64; 3],
-}
-
-impl Vertex {
-    /// The quadratic through the three samples' `values` at the vertex's time, held
-    /// within the smallest and largest of them: maximum q often falls on a kink of the
-    /// velocity (burnout), where the quadratic would overshoot and report, say, a Mach
-    /// number at maximum q above the largest Mach number sampled.
-    pub(super) fn interpolate(&self, values: [f64; 3]) -> f64 {
-        let [a, b, c] = values;
-        let value = self.weights[0] * a + self.weights[1] * b + self.weights[2] * c;
-        value.max(a.min(b).min(c)).min(a.max(b).max(c))
-    }
-}
-
-/// The parabola through (t0, q0), (t1, q1), (t2, q2) with q0 < q1 >= q2, in the scaled
-/// time s = (t - t1) / (t2 - t0):
-///
-/// ```text
-/// q(s) = q1 + B s + C s^2,   C = (d2 - d0) / (s2 - s0),  B = d0 - C s0,
-/// d0 = (q0 - q1) / s0,  d2 = (q2 - q1) / s2,   vertex s* = -B / (2 C)
-/// ```
-///
-/// C < 0 whenever q0 < q1 >= q2, and the vertex lies between the midpoints of the two
-/// sample intervals, where q(s*) >= q1. Both facts are enforced against rounding (the
-/// vertex clamped to that interval, the peak to at least q1); `None` when the times are
-/// so close that the parabola is not finite in f64.
-pub(super) fn refine(before: &Kept, peak: &Kept, after: &Kept) -> Option<Vertex> {
-    let h = after.time_s - before.time_s;
-    let s0 = (before.time_s - peak.time_s) / h;
-    let s2 = (after.time_s - peak.time_s) / h;
-    let q1 = peak.dynamic_pressure_pa;
-    let d0 = (before.dynamic_pressure_pa - q1) / s0;
-    let d2 = (after.dynamic_pressure_pa - q1) / s2;
-    let c = (d2 - d0) / (s2 - s0);
-    let b = d0 - c * s0;
-    if !(c < 0.0 && b.is_finite() && s0 < 0.0 && s2 > 0.0) {
-        return None;
-    }
-    // max/min, not f64::clamp: the same for these ordered, finite bounds, without clamp's
-    // panic branch and the float formatting its message would link in.
-    let s = (-b / (2.0 * c)).max(0.5 * s0).min(0.5 * s2);
-    let q = (q1 + b * s + c * s * s).max(q1);
-    let weights =
-        [s * (s - s2) / (s0 * (s0 - s2)), (s - s0) * (s - s2) / (s0 * s2), s * (s - s0) / (s2 * (s2 - s0))];
-    let time_s = (peak.time_s + s * h).max(before.time_s).min(after.time_s);
-    (q.is_finite() && weights.iter().all(|w| w.is_finite())).then_some(Vertex {
-        time_s,
-        dynamic_pressure_pa: q,
-        weights,
-    })
 }

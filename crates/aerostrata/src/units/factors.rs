@@ -66,8 +66,10 @@ pub const RANKINE_K: f64 = 5.0 / 9.0;
 pub const POUND_FORCE_PER_SECOND_RANKINE_W_M_K: f64 = POUND_FORCE_N / RANKINE_K;
 /// Kelvin at 0 degC (exact, by the definition of the Celsius scale).
 pub const CELSIUS_ZERO_K: f64 = 273.15;
-/// One degree of angle, rad (exact: pi/180).
-pub const DEGREE_RAD: f64 = core::f64::consts::PI / 180.0;
+/// One radian, degrees (exact: 180/pi). Angles are computed and stated in degrees, as the
+/// trade states them (an angle of attack, a wind direction, q-alpha in Pa deg): the
+/// degree is the angle's base unit here, and the radian converts to it.
+pub const RADIAN_DEG: f64 = 180.0 / core::f64::consts::PI;
 
 /// Fahrenheit temperature to kelvin (exact formula), through degrees Celsius so that
 /// round Fahrenheit values of the trade (59 degF) give their round kelvin (288.15 K).

@@ -1,7 +1,8 @@
 //! Units of measure: every conversion a door of aerostrata uses, and the one parser of
 //! "value + unit" text (`15C`, `1020hPa`, `35000 ft`) that every door reads input with.
 //!
-//! The core computes in SI; conversions happen only at the edges, through the [`Unit`]s
+//! The core computes in SI (angles in degrees, as the trade states them); conversions
+//! happen only at the edges, through the [`Unit`]s
 //! here. Each factor is exact by definition (the international foot, yard and pound of
 //! 1959, the standard acceleration of gravity) or carries its source (NIST Special
 //! Publication 811, 2008 edition, appendix B.8). A temperature and a temperature

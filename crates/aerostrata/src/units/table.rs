@@ -127,10 +127,10 @@ units! {
     HERTZ = unit("Hz", "Hz", Dimension::Frequency, 1.0), &["Hz", "1/s", "per_s"];
     /// Kilogram per kilomole (numerically gram per mole, or pound per pound-mole).
     KILOGRAM_PER_KILOMOLE = unit("kg/kmol", "kg_kmol", Dimension::MolarMass, 1.0), &["kg/kmol", "kg_kmol", "g/mol"];
+    /// Degree of angle: the angle's base unit (angles are computed in degrees).
+    DEGREE = unit("deg", "deg", Dimension::Angle, 1.0), &["deg", "°", "degree", "degrees"];
     /// Radian.
-    RADIAN = unit("rad", "rad", Dimension::Angle, 1.0), &["rad", "radian", "radians"];
-    /// Degree of angle.
-    DEGREE = unit("deg", "deg", Dimension::Angle, DEGREE_RAD), &["deg", "°", "degree", "degrees"];
+    RADIAN = unit("rad", "rad", Dimension::Angle, RADIAN_DEG), &["rad", "radian", "radians"];
     /// Pascal degree (q-alpha).
     PASCAL_DEGREE = unit("Pa deg", "Pa_deg", Dimension::PressureAngle, 1.0), &["Pa deg", "Pa_deg", "Pa*deg", "Pa.deg"];
     /// Pound-force per square foot degree (q-alpha).
