@@ -222,7 +222,7 @@ fn malformed_text() {
     }
 }
 
-/// Columns the reader does not take (wind, remarks) are kept out and listed; headings
+/// Columns the reader does not take (half a wind, remarks) are kept out and listed; headings
 /// in every spelling; a cell's own unit wins over its column's.
 #[test]
 fn unknown_columns_are_kept_out_and_headings_read_in_every_spelling() {

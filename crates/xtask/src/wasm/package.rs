@@ -12,7 +12,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (224 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (232 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -21,12 +21,15 @@ use crate::{io_error, target_dir};
 /// and flight files read as the command line reads them): 66 KiB, 37 KiB compressed, of
 /// which Rust's correctly rounded decimal parser and its tables are about 17 KiB. Raised
 /// from 216 and 106 KiB when the flight scan took in winds, vector velocities, the
-/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed.
+/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed; and from 224 and
+/// 110 KiB when soundings took in winds: 9 KiB, 2 KiB compressed, after sine and cosine
+/// kernels of our own (math.rs) spared the module libm's argument reduction (6 KiB) and
+/// an insertion spared it the slice sort (5 KiB).
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 224 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (110 KiB).
-pub const MAX_GZIP_BYTES: u64 = 110 * 1024;
+pub const MAX_WASM_BYTES: u64 = 232 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (112 KiB).
+pub const MAX_GZIP_BYTES: u64 = 112 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";

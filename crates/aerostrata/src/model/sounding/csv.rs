@@ -8,8 +8,9 @@
 //! `geometric_altitude_ft`, `temperature (degC)`, `Pressure [hPa]`); then one row per
 //! line, an empty cell meaning "not given", a cell's own unit (`850hPa`) winning over its
 //! column's. A heading without a unit reads in the reader's default unit (SI unless the
-//! caller says otherwise). Columns the reader does not take (wind, say) are kept out and
-//! listed in [`Sounding::ignored`]. Every value is checked against what the atmosphere
+//! caller says otherwise). Wind columns give [`Sounding::winds`] (winds.rs, which also
+//! reads a wind file of its own); columns the reader does not take (remarks, say) are
+//! kept out and listed in [`Sounding::ignored`]. Every value is checked against what the atmosphere
 //! can have at its row (see [`Options::plausibility`]), so that pascals in a hectopascal
 //! column, or kelvins in a Celsius one, are refused with the likely mix-up named. JSON
 //! goes through serde instead.
@@ -37,7 +38,7 @@ use crate::altitude::AltitudeKind;
 use crate::error::{Error, MessagePart};
 use crate::model::{Atmosphere, US1976};
 use crate::quantity::{ColumnError, Quantity};
-use crate::table::{self, CellError, Header, HeaderError};
+use crate::table::{self, Header, HeaderError};
 use crate::units::{self, Tidy, Unit};
 
 use super::rows::{
@@ -45,6 +46,10 @@ use super::rows::{
     Q_TEMPERATURE,
 };
 use super::table::Tabulated;
+use super::winds::{self, Found, WindColumns, WIND_QUANTITIES};
+use crate::wind::{WindLevel, WindProfile};
+
+pub use super::winds::{read_winds_csv, WindFile};
 
 /// A sounding that could not be read: where (line, and column and cell where there is
 /// one) and why.
@@ -80,21 +85,21 @@ enum Why {
 }
 
 impl LoadError {
-    fn at(line: usize, message: impl Into<String>) -> Self {
+    pub(super) fn at(line: usize, message: impl Into<String>) -> Self {
         Self(Box::new(Located { line, column: None, value: None, why: Why::Text(message.into()) }))
     }
 
-    fn model(line: usize, error: Error) -> Self {
+    pub(super) fn model(line: usize, error: Error) -> Self {
         Self(Box::new(Located { line, column: None, value: None, why: Why::Model(error) }))
     }
 
-    fn in_column(mut self, index: usize, name: &str) -> Self {
+    pub(super) fn in_column(mut self, index: usize, name: &str) -> Self {
         let (name, cut) = units::shorten(name, 40);
         self.0.column = Some((index + 1, format!("{name}{}", if cut { "..." } else { "" })));
         self
     }
 
-    fn with_value(mut self, text: &str) -> Self {
+    pub(super) fn with_value(mut self, text: &str) -> Self {
         let (text, cut) = units::shorten(text, 40);
         self.0.value = Some(format!("{text}{}", if cut { "..." } else { "" }));
         self
@@ -218,8 +223,12 @@ impl Default for Options {
 pub struct Sounding {
     /// The table.
     pub table: Tabulated<Vec<SoundingLevel>>,
+    /// The winds, where the sounding has wind columns (`wind_speed` and `wind_direction`,
+    /// or `wind_east` and `wind_north`), at the rows that give them, against geometric
+    /// altitude (see [`read_winds_csv`] for the columns).
+    pub winds: Option<WindProfile<Vec<WindLevel>>>,
     /// The columns the reader does not take, as (column number from 1, heading), for a
-    /// warning: wind columns, remarks, anything else.
+    /// warning: remarks, anything else.
     pub ignored: Vec<(usize, String)>,
 }
 
@@ -235,8 +244,8 @@ const TAKEN: [Quantity; 7] = [
 ];
 
 const KNOWN_COLUMNS: &str = "geometric_altitude or geopotential_altitude, temperature, pressure or density, \
-     and optionally dew_point or relative_humidity, each with its unit (geometric_altitude_ft, temperature_degC, \
-     pressure_hPa)";
+     and optionally dew_point or relative_humidity and a wind (wind_speed with wind_direction, or wind_east \
+     with wind_north), each with its unit (geometric_altitude_ft, temperature_degC, pressure_hPa, wind_speed_kt)";
 
 /// Where each quantity sits in the header.
 #[derive(Debug, Default)]
@@ -275,11 +284,7 @@ pub fn parse_csv(text: &str) -> Result<Tabulated<Vec<SoundingLevel>>, LoadError>
 /// message it carries; and a value the atmosphere cannot have at its row, naming the
 /// likely unit mix-up (unless [`Options::plausibility`] is off).
 pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
-    let mut content = text
-        .lines()
-        .enumerate()
-        .map(|(index, line)| (index + 1, table::clean(line).trim()))
-        .filter(|(_, line)| !line.is_empty() && !line.starts_with('#'));
+    let mut content = content(text);
     let Some((header_line, header_text)) = content.next() else {
         let last = text.lines().count().max(1);
         return Err(LoadError::at(
@@ -298,8 +303,15 @@ pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
             .in_column(index, name));
         }
     }
-    let header = Header::read(header_text, |q| TAKEN.contains(&q), options.default_unit)
+    let taken = |q| TAKEN.contains(&q) || WIND_QUANTITIES.contains(&q);
+    let header = Header::read(header_text, taken, options.default_unit)
         .map_err(|error| header_error(header_line, &names, error))?;
+    let (wind_columns, wind_half) = match WindColumns::of(&header) {
+        Found::Nothing => (None, None),
+        Found::Pair(columns) => (Some(columns), None),
+        Found::Half(index, _) => (None, Some(index)),
+        Found::Both => return Err(LoadError::at(header_line, Found::BOTH)),
+    };
     let layout = Layout {
         altitude: header
             .position(Quantity::GeometricAltitude)
@@ -344,17 +356,12 @@ pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
 
     let mut rows = Vec::new();
     let mut read = Vec::new();
+    let (mut wind_levels, mut wind_lines) = (Vec::new(), Vec::new());
     let mut values = [None; table::MAX_COLUMNS];
     for (line, text) in content {
-        header.read_row(text, &mut values).map_err(|error| match error {
-            CellError::Count { expected, found } => LoadError::at(
-                line,
-                format!("{found} cells, but the header on line {header_line} has {expected} columns"),
-            ),
-            CellError::Value { index, text, error } => {
-                LoadError::at(line, error.to_string()).in_column(index, &names[index]).with_value(text)
-            }
-        })?;
+        header
+            .read_row(text, &mut values)
+            .map_err(|error| winds::row_error(error, line, header_line, &names))?;
         let required = |index: usize| {
             values[index].ok_or_else(|| {
                 LoadError::at(line, "a value is required on every row").in_column(index, &names[index])
@@ -369,21 +376,49 @@ pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
             dew_point_k: optional(layout.dew_point),
             relative_humidity_percent: optional(layout.relative_humidity),
         });
-        read.push(ReadRow {
-            line,
-            cells: table::cells(text, header.delimiter()).map(str::to_string).collect(),
-        });
+        let cells: Vec<&str> = table::cells(text, header.delimiter()).collect();
+        if let (Some(columns), Some(row)) = (wind_columns, rows.last()) {
+            let geometric_m =
+                kind.altitude(row.altitude_m).map(|h| h.geometric().meters()).map_err(|error| {
+                    LoadError::model(line, error).in_column(altitude_index, &names[altitude_index])
+                })?;
+            if let Some(level) = columns.level(geometric_m, &values, line, &names, &cells)? {
+                wind_levels.push(level);
+                wind_lines.push(line);
+            }
+        }
+        read.push(ReadRow { line, cells: cells.into_iter().map(str::to_string).collect() });
     }
     let table = Tabulated::from_rows_vec(kind, &rows)
         .map_err(|error| located(error, header_line, &layout, &names, &read))?;
     if options.plausibility {
         check_plausible(kind, &rows, &read, &layout, &names, &header)?;
     }
-    let ignored = header.ignored().map(|i| (i + 1, names.get(i).cloned().unwrap_or_default())).collect();
-    Ok(Sounding { table, ignored })
+    let winds = match wind_columns {
+        None => None,
+        Some(_) if wind_levels.is_empty() => {
+            return Err(LoadError::at(header_line, "the wind columns hold no wind on any row"));
+        }
+        Some(_) => Some(winds::profile(wind_levels, &wind_lines, altitude_index, &names)?),
+    };
+    let mut kept_out: Vec<usize> = header.ignored().collect();
+    if let Some(half) = wind_half {
+        // In column order (no sort: it would cost the WebAssembly module 2 KiB).
+        kept_out.insert(kept_out.partition_point(|&i| i < half), half);
+    }
+    let ignored = kept_out.into_iter().map(|i| (i + 1, names.get(i).cloned().unwrap_or_default())).collect();
+    Ok(Sounding { table, winds, ignored })
 }
 
-fn header_error(line: usize, names: &[String], error: HeaderError<'_>) -> LoadError {
+/// The lines of `text` that are neither blank nor comments, as (line number from 1, text).
+pub(super) fn content(text: &str) -> impl Iterator<Item = (usize, &str)> {
+    text.lines()
+        .enumerate()
+        .map(|(index, line)| (index + 1, table::clean(line).trim()))
+        .filter(|(_, line)| !line.is_empty() && !line.starts_with('#'))
+}
+
+pub(super) fn header_error(line: usize, names: &[String], error: HeaderError<'_>) -> LoadError {
     match error {
         HeaderError::TooManyColumns { .. } => LoadError::at(line, error.to_string()),
         HeaderError::Duplicate { quantity, first, second } => LoadError::at(

@@ -24,6 +24,8 @@ mod rows;
 #[cfg(feature = "serde")]
 mod serde_support;
 mod table;
+#[cfg(feature = "alloc")]
+mod winds;
 
 pub use hydrostatics::{MAX_HYDROSTATIC_RATIO, MIN_HYDROSTATIC_RATIO};
 pub use interpolate::OutsideTable;
