@@ -1,6 +1,7 @@
 //! What the flight scan costs, measured in one run next to its yardstick: evaluating the
 //! standard atmosphere's states at the same altitudes, so that the ratio is comparable on
-//! any machine (the goal: the scan costs at most 1.3 times the states).
+//! any machine (the goals: the scan costs at most 1.3 times the states, and the scan with
+//! winds, the wind's angle of attack and q-alpha at most 1.5 times the scan without).
 //!
 //! The flight is one million samples of an invented boost, coast and descent through the
 //! standard atmosphere (0 to 40 km, up to Mach 2.5), built before timing. One criterion
@@ -12,6 +13,8 @@
 //! | `states`       | `Altitude::geometric_m(z)` then `US1976.state(altitude)`              |
 //! | `scan`         | `FlightScan::push` without a vehicle (q, Mach, Re per metre, summary) |
 //! | `scan_vehicle` | `FlightScan::push` with a 7-point monotone-cubic Cd table and lengths |
+//! | `scan_vectors` | `FlightScan::push_vector`: the same flight as velocity components     |
+//! | `scan_winds`   | `push_vector` through a 41-level wind profile: airspeed, alpha, q-alpha |
 //!
 //! Before anything is timed, the scan's q and Mach are checked against the states'
 //! (1e-14 relative), so that both do the same work. `std::hint::black_box` as in
@@ -21,7 +24,8 @@ use std::hint::black_box;
 use std::time::Duration;
 
 use aerostrata::aero::{DragCurve, Interpolation};
-use aerostrata::flight::{FlightScan, Sample, Vehicle};
+use aerostrata::flight::{FlightScan, Sample, VectorSample, Vehicle};
+use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::{Altitude, Atmosphere, US1976};
 use criterion::{Criterion, SamplingMode};
 
@@ -64,6 +68,35 @@ fn vehicle() -> Vehicle<'static> {
     Vehicle::new(curve, 0.0182).and_then(|v| v.with_reference_length(3.2)).expect("a valid vehicle")
 }
 
+/// The same flight as ground-velocity components: mostly up, with a steady eastward drift
+/// of a tenth of the speed, so that a wind changes the angle of attack.
+fn vectors(samples: &[Sample]) -> Vec<VectorSample> {
+    samples
+        .iter()
+        .map(|s| VectorSample {
+            time_s: s.time_s,
+            altitude_m: s.altitude_m,
+            velocity_east_m_s: 0.1 * s.velocity_m_s.abs(),
+            velocity_north_m_s: 0.0,
+            velocity_up_m_s: s.velocity_m_s,
+            axis: None,
+        })
+        .collect()
+}
+
+/// An invented westerly strengthening into a jet near 12 km: 41 levels, every kilometre.
+fn winds() -> WindProfile<Vec<WindLevel>> {
+    let levels = (0..=40)
+        .map(|km| {
+            let z = f64::from(km) * 1000.0;
+            let speed = 5.0 + 45.0 * (-((z - 12_000.0) / 6000.0).powi(2)).exp();
+            WindLevel::from_speed_direction(z, speed, 260.0 + f64::from(km))
+        })
+        .collect::<Result<Vec<_>, _>>()
+        .expect("valid levels");
+    WindProfile::new(levels).expect("a valid profile")
+}
+
 /// The scan's per-sample q and Mach equal what the states give, to rounding.
 fn check_agreement(samples: &[Sample]) {
     let mut scan = FlightScan::new(US1976, None);
@@ -97,6 +130,21 @@ fn benchmarks(c: &mut Criterion) {
                 let mut scan = FlightScan::new(US1976, vehicle);
                 for sample in &samples {
                     let _ = black_box(scan.push(black_box(*sample)));
+                }
+                black_box(scan.summary())
+            });
+        });
+    }
+
+    let vectors = vectors(&samples);
+    let winds = winds();
+    for (id, with_winds) in [("scan_vectors", false), ("scan_winds", true)] {
+        group.bench_function(id, |b| {
+            b.iter(|| {
+                let scan = FlightScan::new(US1976, None);
+                let mut scan = if with_winds { scan.with_winds(&winds) } else { scan };
+                for sample in &vectors {
+                    let _ = black_box(scan.push_vector(black_box(*sample)));
                 }
                 black_box(scan.summary())
             });

@@ -2,12 +2,14 @@
 //! benchmarks (the standard below and above 86 km, density alone, a humid 200-row
 //! sounding, a flight scan with and without a vehicle), each run once so that
 //! `valgrind --tool=callgrind` counts its instructions; instructions, unlike wall-clock
-//! time on a shared machine, repeat to the last digit. It uses only interfaces the core
-//! has had since its first release, so that `--against REV` builds it on an older core.
+//! time on a shared machine, repeat to the last digit. `--against REV` builds this file
+//! on REV's core, so it uses only interfaces the core has had since the winds came in
+//! (commit 256c43d): compare against that revision or a later one.
 //! Usage: `icount CASE`, CASE one of state, density, upper, sounding, flight,
-//! flight_vehicle.
+//! flight_vehicle, flight_winds.
 
-use aerostrata::flight::{FlightScan, Sample, Vehicle};
+use aerostrata::flight::{FlightScan, Sample, VectorSample, Vehicle};
+use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::{
     Altitude, AltitudeKind, Atmosphere, DragCurve, Interpolation, SoundingRow, Tabulated, US1976,
 };
@@ -92,6 +94,33 @@ fn main() {
             }
             black_box(scan.summary());
         }
-        _ => eprintln!("usage: icount state|density|upper|sounding|flight|flight_vehicle"),
+        "flight_winds" => {
+            // The flight above as ground-velocity components with an eastward drift, through
+            // a 41-level westerly (as benches/flight.rs).
+            let levels: Vec<WindLevel> = (0..=40)
+                .map(|km| {
+                    WindLevel::from_speed_direction(f64::from(km) * 1000.0, 5.0 + f64::from(km), 270.0)
+                        .unwrap()
+                })
+                .collect();
+            let winds = WindProfile::new(levels).unwrap();
+            let mut scan = FlightScan::new(US1976, None).with_winds(&winds);
+            for i in 0..200_000 {
+                let t = i as f64 * 1e-3;
+                let (z, v) =
+                    if t < 60.0 { (5.0 * t * t, 10.0 * t) } else { (18_000.0 + 600.0 * (t - 60.0), 600.0) };
+                let sample = VectorSample {
+                    time_s: t,
+                    altitude_m: z,
+                    velocity_east_m_s: 0.1 * v,
+                    velocity_north_m_s: 0.0,
+                    velocity_up_m_s: v,
+                    axis: None,
+                };
+                black_box(scan.push_vector(sample).unwrap());
+            }
+            black_box(scan.summary());
+        }
+        _ => eprintln!("usage: icount state|density|upper|sounding|flight|flight_vehicle|flight_winds"),
     }
 }

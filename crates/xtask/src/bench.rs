@@ -37,7 +37,7 @@ const BENCHMARKS: [(&str, &str); 6] = [
 ];
 
 /// Benchmarks of the other bench targets, as `group/id` (criterion's directory layout).
-const OTHER_BENCHMARKS: [(&str, &str); 7] = [
+const OTHER_BENCHMARKS: [(&str, &str); 9] = [
     ("sounding/standard_full_state", "`US1976.state(alt)`, the yardstick of the sounding benchmark"),
     ("sounding/sounding_full_state", "full state from a humid 200-row sounding, evenly spaced"),
     ("sounding/sounding_uneven_full_state", "full state from a 200-row sounding spaced 0.5 m to 200 m"),
@@ -45,6 +45,8 @@ const OTHER_BENCHMARKS: [(&str, &str); 7] = [
     ("flight/states", "one flight sample's state alone (the scan's yardstick), per sample of 1 000 000"),
     ("flight/scan", "one sample of the flight scan: q, Mach, Reynolds number, the running summary"),
     ("flight/scan_vehicle", "one sample of the scan with a 7-point monotone-cubic Cd curve and drag"),
+    ("flight/scan_vectors", "one sample of the scan given as ground-velocity components, still air"),
+    ("flight/scan_winds", "one sample of the vector scan through a 41-level wind profile: alpha, q-alpha"),
 ];
 
 /// Where the report goes, relative to the workspace root.
@@ -234,7 +236,7 @@ impl Goal {
     }
 }
 
-fn goals(results: &[Measured]) -> [Goal; 5] {
+fn goals(results: &[Measured]) -> [Goal; 6] {
     let mean = |id| find(results, id).mean;
     let fastest =
         |numerator, denominator| find(results, numerator).fastest / find(results, denominator).fastest;
@@ -283,6 +285,15 @@ fn goals(results: &[Measured]) -> [Goal; 5] {
             fastest_ratio: fastest("flight/scan", "flight/states"),
             at_most: true,
             limit: 1.3,
+        },
+        Goal {
+            name: "(f) flight scan with winds / without",
+            numerator: "flight/scan_winds",
+            denominator: "flight/scan",
+            ratio: mean("flight/scan_winds").ratio(mean("flight/scan")),
+            fastest_ratio: fastest("flight/scan_winds", "flight/scan"),
+            at_most: true,
+            limit: 1.5,
         },
     ]
 }

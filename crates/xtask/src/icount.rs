@@ -15,14 +15,18 @@ use crate::process::Cmd;
 use crate::target_dir;
 
 /// The workload's cases and how many evaluations each makes (examples/icount.rs).
-const CASES: [(&str, f64, &str); 6] = [
+const CASES: [(&str, f64, &str); 7] = [
     ("state", 204_800.0, "`US1976.state(alt)`, 0 to 86 km"),
     ("density", 204_800.0, "`US1976.density_kg_m3(alt)`, 0 to 86 km"),
     ("upper", 204_800.0, "`US1976.state(alt)`, 86 to 1000 km"),
     ("sounding", 204_800.0, "`state(alt)` of a humid 200-row sounding"),
     ("flight", 200_000.0, "one sample of the flight scan"),
     ("flight_vehicle", 200_000.0, "one sample of the scan with a Cd table and drag"),
+    ("flight_winds", 200_000.0, "one sample of the vector scan through winds: alpha, q-alpha"),
 ];
+
+/// The most the scan with winds may cost, as a multiple of the scan without.
+const WINDS_GOAL: f64 = 1.5;
 
 const EXAMPLE: &str = "crates/aerostrata/examples/icount.rs";
 
@@ -109,6 +113,17 @@ pub fn run(root: &Path, against: Option<&str>) -> Result<(), String> {
         table.push('\n');
         eprintln!("{case}: {per:.1} instructions per evaluation");
     }
+    let per = |case: &str| {
+        CASES.iter().position(|(c, _, _)| *c == case).map_or(f64::NAN, |i| now[i] as f64 / CASES[i].1)
+    };
+    let winds = per("flight_winds") / per("flight");
+    let verdict = if winds <= WINDS_GOAL { "met" } else { "NOT met" };
+    let _ = write!(
+        table,
+        "\nThe scan with winds, the wind's angle of attack and q-alpha costs {winds:.2} times the \
+         scan without (`flight_winds` / `flight`; goal: at most {WINDS_GOAL}x, {verdict}).\n"
+    );
+    eprintln!("flight_winds / flight: {winds:.2}x (goal at most {WINDS_GOAL}x, {verdict})");
     let (begin, end) = (crate::report::ICOUNT.begin, crate::report::ICOUNT.end);
     let section = format!(
         "{begin}

@@ -296,7 +296,7 @@ const GAMMA: f64 = 1.4;
 
 /// The values at a sample (the `index`-th) of time `time_s`, geometric altitude
 /// `altitude_m` and motion `motion`, reading the tables through `cursor`.
-#[inline]
+#[inline(always)]
 pub(super) fn compute<A: Atmosphere>(
     atmosphere: &A,
     setting: &Setting<'_>,
@@ -375,7 +375,9 @@ pub(super) fn compute<A: Atmosphere>(
     };
     let t = air.temperature_k();
     let heating = mach.map(|m| 0.5 * (GAMMA - 1.0) * m * m);
-    let recovery_temperature_k = match (setting.recovery, heating, mu, air.thermal_conductivity_w_m_k()) {
+    // The conductivity (a power and an exponential) only when a recovery factor is asked.
+    let conductivity = || setting.recovery.and_then(|_| air.thermal_conductivity_w_m_k());
+    let recovery_temperature_k = match (setting.recovery, heating, mu, conductivity()) {
         (Some(layer), Some(heating), Some(mu), Some(k)) => {
             // Pr = mu cp / k with cp = gamma R / ((gamma - 1) M) of the air at the sample.
             let cp = GAMMA / (GAMMA - 1.0) * GAS_CONSTANT_J_KMOL_K / air.molar_mass_kg_kmol();

@@ -13,6 +13,17 @@ use crate::error::Result;
 use crate::model::Atmosphere;
 use crate::wind::{WindLevel, WindProfile};
 
+/// Samples the scan keeps: the peak, its three neighbours either side, and one more so
+/// that the window is complete when it is copied out.
+const RING: usize = 8;
+
+/// The three samples either side of the peak, nearest first.
+#[derive(Debug, Clone, Copy)]
+struct Window {
+    before: [Option<Kept>; 3],
+    after: [Option<Kept>; 3],
+}
+
 /// A flight being scanned, one [`Sample`] at a time.
 ///
 /// ```
@@ -40,13 +51,14 @@ pub struct FlightScan<'v, A> {
     atmosphere: A,
     setting: Setting<'v>,
     samples: usize,
-    /// The last three samples, the latest first.
-    recent: [Option<Kept>; 3],
+    /// The last [`RING`] samples, sample i at `i % RING`: written once each, never shifted.
+    ring: [Kept; RING],
     peak_index: usize,
-    /// The largest sample, and the three before and the three after it (nearest first).
+    /// The largest sample.
     peak: Option<Kept>,
-    before_peak: [Option<Kept>; 3],
-    after_peak: [Option<Kept>; 3],
+    /// The three samples before and the three after the peak, copied out of the ring
+    /// just before the first of them would be overwritten (once per peak that lasts).
+    frozen: Option<Window>,
     max_mach: Option<Extreme>,
     max_drag: Option<Extreme>,
     max_q_alpha: Option<Extreme>,
@@ -64,11 +76,10 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
             atmosphere,
             setting: Setting { vehicle, winds: None, recovery: None },
             samples: 0,
-            recent: [None; 3],
+            ring: [Kept::EMPTY; RING],
             peak_index: 0,
             peak: None,
-            before_peak: [None; 3],
-            after_peak: [None; 3],
+            frozen: None,
             max_mach: None,
             max_drag: None,
             max_q_alpha: None,
@@ -141,36 +152,40 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
         self.record((sample.time_s, sample.altitude_m, Motion::Vector(sample.velocity(), sample.axis)))
     }
 
-    #[inline]
+    #[inline(always)]
     fn record(&mut self, sample: (f64, f64, Motion)) -> Result<FlightPoint> {
         let index = self.samples;
-        if let Some(last) = &self.recent[0] {
+        let previous = self.kept_at(index.wrapping_sub(1)).copied();
+        if let Some(last) = &previous {
             if sample.0.partial_cmp(&last.time_s) != Some(core::cmp::Ordering::Greater) {
                 return Err(bad_sample(index, "time (s) must be after the previous sample's", sample.0));
             }
         }
-        let point = compute(&self.atmosphere, &self.setting, index, sample, &mut self.cursor)?;
-        let kept = Kept::from(&point);
+        // Returned as computed, so that the large point is written once, in the caller's
+        // slot (binding it and returning `Ok(point)` cost a copy of it per sample).
+        let result = compute(&self.atmosphere, &self.setting, index, sample, &mut self.cursor);
+        if let Ok(point) = &result {
+            self.keep(index, previous, point);
+        }
+        result
+    }
+
+    /// The summary's bookkeeping of sample `index`, after `previous`.
+    #[inline]
+    fn keep(&mut self, index: usize, previous: Option<Kept>, point: &FlightPoint) {
+        let kept = Kept::from(point);
         let q = point.dynamic_pressure_pa;
-        match &self.peak {
-            Some(peak) if q <= peak.dynamic_pressure_pa => {
-                if let Some(slot) = self.after_peak.get_mut(index - self.peak_index - 1) {
-                    *slot = Some(kept);
-                }
-            }
-            _ => {
-                self.before_peak = self.recent;
-                self.peak = Some(kept);
-                self.after_peak = [None; 3];
-                self.peak_index = index;
-            }
+        if self.peak.is_none_or(|peak| q > peak.dynamic_pressure_pa) {
+            self.peak = Some(kept);
+            self.peak_index = index;
+            self.frozen = None;
         }
         match point.mach {
             Some(m) => {
                 if self.max_mach.is_none_or(|e| m > e.value) {
-                    self.max_mach = Some(extreme(m, &point, index));
+                    self.max_mach = Some(extreme(m, point, index));
                 }
-                if let Some((m0, t0)) = self.recent[0].and_then(|l| l.mach.map(|m0| (m0, l.time_s))) {
+                if let Some((m0, t0)) = previous.and_then(|l| l.mach.map(|m0| (m0, l.time_s))) {
                     let dt = point.time_s - t0;
                     if m0 < 1.0 && m >= 1.0 {
                         self.up.record(t0 + (1.0 - m0) / (m - m0) * dt);
@@ -183,21 +198,38 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
         }
         if let Some(d) = point.drag_n {
             if self.max_drag.is_none_or(|e| d > e.value) {
-                self.max_drag = Some(extreme(d, &point, index));
+                self.max_drag = Some(extreme(d, point, index));
             }
         }
         if let Some(qa) = point.q_alpha_pa_deg {
             if self.max_q_alpha.is_none_or(|e| qa > e.value) {
-                self.max_q_alpha = Some(extreme(qa, &point, index));
+                self.max_q_alpha = Some(extreme(qa, point, index));
             }
         }
         // The cursor holds the piece of the wind profile the sample fell in.
         if self.setting.winds.is_some() && self.cursor.wind_held(point.altitude_m) {
             self.wind_held += 1;
         }
-        self.recent = [Some(kept), self.recent[0], self.recent[1]];
+        self.ring[index % RING] = kept;
         self.samples += 1;
-        Ok(point)
+        // The next sample overwrites the peak's third neighbour before it: keep them.
+        if self.frozen.is_none() && self.peak.is_some() && index == self.peak_index + 4 {
+            self.frozen = Some(self.window());
+        }
+    }
+
+    /// Sample `index` if the ring still holds it.
+    fn kept_at(&self, index: usize) -> Option<&Kept> {
+        (index < self.samples && self.samples - index <= RING).then(|| &self.ring[index % RING])
+    }
+
+    /// The peak's neighbours, from the ring (which holds them until four samples after it).
+    fn window(&self) -> Window {
+        let p = self.peak_index;
+        Window {
+            before: [1, 2, 3].map(|k| p.checked_sub(k).and_then(|i| self.kept_at(i)).copied()),
+            after: [1, 2, 3].map(|k| self.kept_at(p + k).copied()),
+        }
     }
 
     /// The summary of the samples so far.
@@ -230,7 +262,8 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
             resolved: false,
             suggested_spacing_s: None,
         };
-        let (Some(before), Some(after)) = (&self.before_peak[0], &self.after_peak[0]) else { return out };
+        let window = self.frozen.unwrap_or_else(|| self.window());
+        let (Some(before), Some(after)) = (&window.before[0], &window.after[0]) else { return out };
         if let Some(r) = refine(before, peak, after) {
             out.time_s = r.time_s;
             out.altitude_m = r.interpolate([before.altitude_m, peak.altitude_m, after.altitude_m]);
@@ -244,9 +277,9 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
         }
         let q = out.dynamic_pressure_pa;
         let (low, high) = estimate(
-            self.before_peak.each_ref().map(Option::as_ref),
+            window.before.each_ref().map(Option::as_ref),
             peak,
-            self.after_peak.each_ref().map(Option::as_ref),
+            window.after.each_ref().map(Option::as_ref),
         )
         .unwrap_or((q, q));
         // The maximum is never below the largest sample: a low estimate under it only

@@ -116,6 +116,12 @@ pub(super) struct Kept {
     pub(super) dynamic_pressure_pa: f64,
 }
 
+impl Kept {
+    /// A placeholder for slots not yet written.
+    pub(super) const EMPTY: Kept =
+        Kept { time_s: 0.0, altitude_m: 0.0, velocity_m_s: 0.0, mach: None, dynamic_pressure_pa: 0.0 };
+}
+
 impl From<&FlightPoint> for Kept {
     fn from(point: &FlightPoint) -> Self {
         Self {
