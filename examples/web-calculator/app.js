@@ -98,15 +98,17 @@ function describeModel() {
   setMessage("model-kind", "");
   if (kind() === "sounding") {
     $("model-spec").textContent = sounding ? `sounding=${sounding.source.name}` : "sounding=(no file yet)";
+    $("model-spec").classList.remove("none");
     if (sounding) return { sounding: { version: sounding.version, source: sounding.source, units: sounding.units } };
     const reading = document.body.dataset.sounding === "busy";
     if (!reading && !$("sounding-file-msg").textContent) setMessage("sounding-file", "Upload a sounding to use it.");
     return { error: reading ? "reading the sounding" : "no sounding" };
   }
   const written = modelSpec();
-  if (written.error) return written;
-  $("model-spec").textContent = written.spec;
-  const built = specModel(written.spec);
+  const built = written.error ? written : specModel(written.spec);
+  // A refused value leaves no model: the last good spec must not stand beside it.
+  $("model-spec").textContent = built.error ? "none until the value marked above is corrected" : written.spec;
+  $("model-spec").classList.toggle("none", Boolean(built.error));
   return built.error ? { error: built.error } : { spec: written.spec };
 }
 

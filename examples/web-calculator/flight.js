@@ -96,8 +96,8 @@ export function renderFlight() {
     ["maxDynamicPressureMach", "mach", peak?.mach ?? null, "not defined", "… at Mach"],
     ["maxMach", "mach", summary.maxMach?.value ?? null, "not defined", `Maximum ${label("mach")}`],
     ["maxDragN", "drag", summary.maxDrag?.value ?? null, "no drag", `Maximum ${label("drag")}`],
-    ["machOneUp", "mach", summary.machOneUp.count, null, "Mach 1 crossings, up"],
-    ["samples", "mach", summary.samples, null, "Samples"],
+    ["machOneUp", null, summary.machOneUp.count, null, "Mach 1 crossings, up"],
+    ["samples", null, summary.samples, null, "Samples"],
   ]);
   drawFlight($("flight-chart"), shown);
 }

@@ -157,7 +157,8 @@ export function convertFields(from, to) {
 /**
  * Fills a <dl> with rows [key, quantity name, SI value or null, note, label]: the label
  * (the catalogue's unless given), the value shown in the current units, the full SI value
- * in `data-value` (for tests and copying).
+ * in `data-value` (for tests and copying). A row whose quantity name is null is a count
+ * (samples, crossings), written whole with its thousands grouped.
  */
 export function fill(dl, rows) {
   dl.replaceChildren();
@@ -172,6 +173,9 @@ export function fill(dl, rows) {
       dd.textContent = "—";
       dd.dataset.value = "";
       u.textContent = note ?? "";
+    } else if (name === null) {
+      dd.textContent = value.toLocaleString("en-US");
+      dd.dataset.value = String(value);
     } else {
       dd.textContent = show(shownValue(name, value));
       dd.dataset.value = String(value);

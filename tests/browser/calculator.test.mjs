@@ -289,8 +289,10 @@ try {
   const offsetMessage = await message("offset");
   check(/400 K is above any day's offset from the standard temperature \(-100 to 100 K\)/.test(offsetMessage), `message beside the offset: "${offsetMessage}"`);
   check((await page.getAttribute("#offset", "aria-invalid")) === "true", "the offset is marked invalid");
+  check(/^none until/.test(await page.textContent("#model-spec")), `no model spec shown for a refused offset: "${await page.textContent("#model-spec")}"`);
   check((await page.$$eval(".msg", (ms) => ms.filter((m) => m.textContent !== "").map((m) => m.id))).join() === "offset-msg", "the offset's message is the only one shown");
   check(await page.$eval("#view-point .results", (e) => e.classList.contains("stale")), "results marked stale for a bad offset");
+  await page.screenshot({ path: join(shots, "web-calculator-error.png"), fullPage: true });
   await page.selectOption("#model-kind", "isothermal");
   await page.fill("#iso-t", "15");
   check(/15 K is below any air temperature \(120 to 350 K\); write 15degC or 288\.15K/.test(await message("iso-t")), `message beside the isothermal temperature: "${await message("iso-t")}"`);
