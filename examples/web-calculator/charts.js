@@ -170,19 +170,21 @@ export function drawFlight(svg, flight) {
   const [x0, right, y0, height, below] = flightBox(width);
   const plotWidth = width - x0 - right;
   reset(svg, width, y0 + height + below);
-  if (!flight) {
-    const hint = "Paste samples, upload a file or load the demo flight to see its loads here.";
-    svg.append(el("text", { x: width / 2, y: y0 + height / 2, "text-anchor": "middle" }, width < 640 ? "No flight yet." : hint));
+  if (!flight || flight.summary.samples === 0) {
+    const hint = flight ? "The file names its columns but holds no samples." : "Paste samples, upload a file or load the demo flight to see its loads here.";
+    const short = flight ? "No samples." : "No flight yet.";
+    svg.append(el("text", { x: width / 2, y: y0 + height / 2, "text-anchor": "middle" }, width < 640 ? short : hint));
     return;
   }
   const { chart, summary } = flight;
-  const { t0, t1 } = chart;
+  // A single sample spans no time: a second either side of it gives the axis a width.
+  const [t0, t1] = chart.t1 > chart.t0 ? [chart.t0, chart.t1] : [chart.t0 - 1, chart.t0 + 1];
   const xOf = (t) => x0 + ((t - t0) / (t1 - t0)) * plotWidth;
   const peak = summary.maxDynamicPressure;
-  const qMax = Math.max(peak?.dynamicPressurePa ?? 0, chart.highestQ, 1e-9);
+  const qMax = Math.max(peak?.dynamicPressurePa ?? 0, chart.highestQ);
   const machMax = chart.highestMach > 0 ? chart.highestMach : 1;
-  // Scales to a round top in the units shown.
-  const { top: qTop, ticks: qTicks } = axis(shownValue("dynamic_pressure", qMax), 5);
+  // Scales to a round top in the units shown (a flight at rest gets a top of 1).
+  const { top: qTop, ticks: qTicks } = axis(qMax > 0 ? shownValue("dynamic_pressure", qMax) : 1, 5);
   const { top: machTop, ticks: machTicks } = axis(machMax, 5);
   const yQ = (q) => y0 + height - (shownValue("dynamic_pressure", q) / qTop) * height;
   const yM = (m) => y0 + height - (m / machTop) * height;

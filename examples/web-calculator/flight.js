@@ -73,8 +73,9 @@ export async function requestFlight() {
   shown = answer;
   renderFlight();
   const ignored = answer.ignored.length > 0 ? `; columns kept out: ${answer.ignored.join(", ")}` : "";
-  const samples = answer.summary.samples.toLocaleString("en-US");
-  status("done", `${source.file ? source.file.name : "Pasted samples"}: ${samples} samples${ignored}.`);
+  const count = answer.summary.samples;
+  const samples = `${count.toLocaleString("en-US")} sample${count === 1 ? "" : "s"}`;
+  status("done", `${source.file ? source.file.name : "Pasted samples"}: ${samples}${ignored}.`);
 }
 
 /** Draws the last flight (or nothing) in the current units. */

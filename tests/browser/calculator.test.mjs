@@ -201,6 +201,16 @@ try {
   await page.fill("#flight-csv", "time,altitude,velocity\n0,0,0\n1,100ft,abc\n");
   await flightDone();
   check(/^line 3: column 3: 'abc' is not a number/.test(await flightMessage()), `message for a bad cell: "${await flightMessage()}"`);
+  // Flights too short for a curve still draw without an error in the page (checked at
+  // the end): one sample (an axis of no time span), a header and no samples.
+  await page.fill("#flight-csv", "0,100,50\n");
+  await flightDone();
+  check((await page.textContent("#flight-status")) === "Pasted samples: 1 sample.", `one sample: "${await page.textContent("#flight-status")}"`);
+  check(await page.isVisible('[data-marker="max-q"]'), "the maximum q of a single sample is marked");
+  await page.fill("#flight-csv", "time,altitude,velocity\n");
+  await flightDone();
+  check((await flightValue("samples")) === 0, "a header without samples: no samples");
+  check(/no samples/.test(await page.textContent("#flight-chart")), "a header without samples: the chart says so");
 
   // 10. A header in feet gives the same maximum q as the same flight in metres (within
   // the rounding of writing x / 0.3048 in decimal; the foot is 0.3048 m exactly).
