@@ -25,7 +25,7 @@ export function pretty(symbol) {
   return symbol
     .replace(/([a-zA-Z])([23])\b/g, (_, letter, digit) => letter + superscript[digit])
     .replace(/ /g, "·")
-    .replace(/^deg([CFR])$/, "°$1");
+    .replace(/\bdeg([CFR])\b/g, "°$1");
 }
 
 /** The catalogue's unit of quantity `name` in the unit system shown, and an SI value in it. */
