@@ -12,7 +12,13 @@ import { Runner, sizeText, tooLarge } from "./jobs.js";
 import { $, allQuantities, convertFields, fill, quantity, setFieldUnits, setMessage, show, shownValue, takeField, unitOf, units, pretty } from "./page.js";
 import { computePoint } from "./point.js";
 
-await init();
+try {
+  await init();
+} catch (e) {
+  // Without the module the page has no numbers to give: say so rather than sit blank.
+  $("page-msg").textContent = `The aerostrata module could not be loaded (${e.message}). Serve this folder over HTTP with aerostrata/ beside index.html (cargo xtask wasm builds it).`;
+  throw e;
+}
 
 // --- the model -------------------------------------------------------------------------
 
