@@ -2,20 +2,27 @@
 // playwright-core: type values as a user does and read the results against the
 // reference vectors (tests/vectors/usa76_lower.csv: U.S. Standard Atmosphere 1976, from
 // memory of the printed table, each cell within half a unit of its last digit), enter bad
-// values and read the messages, load a flight CSV and read the maximum dynamic pressure
-// against the Node build of the same module. Saves screenshots.
+// values and read the messages beside their fields, choose each model and read the
+// module's numbers, load flight files (in metres, in feet, a million samples, random
+// bytes, one above the upload limit) and read the maximum dynamic pressure against the
+// Node build of the same module. Saves screenshots at a desktop's and a phone's width.
+// The times the page takes to answer are measured and printed, never asserted (a slow
+// machine must not fail the test); what is asserted is that the answer comes, and what
+// it says.
 //
 // Usage (cargo xtask browser-test does this): node calculator.test.mjs URL SHOTS_DIR VECTORS_DIR
 // with URL the page served on 127.0.0.1. Prints "N passed, M failed"; exit status 1 on
 // any failure.
 
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 
 import { chromium } from "playwright-core";
+
+import { inFeet, longFlight, noise, oversized, rowsOf } from "./files.mjs";
 
 const [url, shots, vectors] = process.argv.slice(2);
 if (!url || !shots || !vectors) {
@@ -30,13 +37,23 @@ const aerostrata = require(process.env.AEROSTRATA_PKG ?? join(root, "target/wasm
 
 let passed = 0;
 const failures = [];
+const timings = [];
 function check(ok, what) {
   if (ok) passed++;
   else failures.push(what);
 }
 
 mkdirSync(shots, { recursive: true });
-const profile = mkdtempSync(join(tmpdir(), "stratacalc-chromium-"));
+// Uploads are files on disk, so that handing them to the page costs the page nothing
+// (a buffer given to setInputFiles is rebuilt inside the page, on its main thread, which
+// would stall it for the test's sake and spoil the timings).
+const uploads = mkdtempSync(join(tmpdir(), "calculator-uploads-"));
+const upload = (name, content) => {
+  const path = join(uploads, name);
+  writeFileSync(path, content);
+  return path;
+};
+const profile = mkdtempSync(join(tmpdir(), "calculator-chromium-"));
 const context = await chromium.launchPersistentContext(profile, {
   executablePath: "/usr/bin/chromium",
   headless: true,
@@ -149,13 +166,15 @@ try {
   check(await page.isVisible("#view-flight"), "ArrowRight opens the flight view");
 
   // 8. A flight CSV, uploaded: the maximum q the page reports is the module's.
+  const flightDone = () => page.waitForFunction(() => ["done", "failed", "empty"].includes(document.body.dataset.flight), null, { timeout: 120000 });
+  const flightValue = async (key) => Number(await page.getAttribute(`#flight-summary [data-quantity="${key}"]`, "data-value"));
+  const flightMessage = () => page.textContent("#flight-msg");
   await page.setInputFiles("#flight-file", join(root, "examples/web-calculator/demo-flight.csv"));
+  await flightDone();
   await page.waitForSelector('#flight-summary [data-quantity="maxDynamicPressurePa"]');
-  const reported = Number(await page.getAttribute('#flight-summary [data-quantity="maxDynamicPressurePa"]', "data-value"));
-  const csv = readFileSync(join(root, "examples/web-calculator/demo-flight.csv"), "utf8")
-    .split("\n")
-    .filter((l) => /^[\d.]/.test(l))
-    .map((l) => l.split(",").map(Number));
+  const reported = await flightValue("maxDynamicPressurePa");
+  const demo = readFileSync(join(root, "examples/web-calculator/demo-flight.csv"), "utf8");
+  const csv = rowsOf(demo);
   const scan = aerostrata.AtmosphereModel.standard().scanFlight(
     csv.map((r) => r[0]),
     csv.map((r) => r[1]),
@@ -166,20 +185,209 @@ try {
   // It is at least every sample's rho V^2 / 2 (the refinement never lowers the peak).
   check(reported >= Math.max(...scan.points.dynamicPressurePa), "max q at least every sample's q");
   check(await page.isVisible('[data-marker="max-q"]'), "the maximum q is marked on the chart");
+  check((await page.textContent("#view-flight .results .caution")).includes("Not certified flight software"), "the caution stands beside the flight summary");
+  check((await page.textContent("#view-point .results .caution")).includes("range-safety rules"), "the caution stands beside the loads");
   await page.screenshot({ path: join(shots, "web-calculator-flight.png"), fullPage: true });
 
-  // 9. A bad flight: a time that does not increase, and a malformed line.
+  // 9. A bad flight: a time that does not increase, and a malformed line (without a
+  // header, as the command line reads it: time, altitude, velocity).
   await page.fill("#flight-csv", "0,0,0\n1,100,150\n1,200,160\n");
-  check(/flight sample point 2: time \(s\) must be after the previous sample's/.test(await page.textContent("#flight-msg")), "message for a repeated time");
+  await flightDone();
+  check(/flight sample point 2: time \(s\) must be after the previous sample's/.test(await flightMessage()), "message for a repeated time");
   await page.fill("#flight-csv", "0,0,0\n1,100\n");
-  check(/Line 2: expected three numbers/.test(await page.textContent("#flight-msg")), "message for a short line");
+  await flightDone();
+  check(/^line 2: 2 cells, but the header has 3 columns/.test(await flightMessage()), `message for a short line: "${await flightMessage()}"`);
+  check((await page.getAttribute("#flight-csv", "aria-invalid")) === "true", "the pasted samples are marked invalid");
+  await page.fill("#flight-csv", "time,altitude,velocity\n0,0,0\n1,100ft,abc\n");
+  await flightDone();
+  check(/^line 3: column 3: 'abc' is not a number/.test(await flightMessage()), `message for a bad cell: "${await flightMessage()}"`);
+  // Flights too short for a curve still draw without an error in the page (checked at
+  // the end): one sample (an axis of no time span), a header and no samples.
+  await page.fill("#flight-csv", "0,100,50\n");
+  await flightDone();
+  check((await page.textContent("#flight-status")) === "Pasted samples: 1 sample.", `one sample: "${await page.textContent("#flight-status")}"`);
+  check(await page.isVisible('[data-marker="max-q"]'), "the maximum q of a single sample is marked");
+  await page.fill("#flight-csv", "time,altitude,velocity\n");
+  await flightDone();
+  check((await flightValue("samples")) === 0, "a header without samples: no samples");
+  check(/no samples/.test(await page.textContent("#flight-chart")), "a header without samples: the chart says so");
+
+  // 10. A header in feet gives the same maximum q as the same flight in metres (within
+  // the rounding of writing x / 0.3048 in decimal; the foot is 0.3048 m exactly).
+  await page.setInputFiles("#flight-file", upload("demo-in-feet.csv", Buffer.from(inFeet(csv))));
+  await flightDone();
+  const inFeetQ = await flightValue("maxDynamicPressurePa");
+  check(Math.abs(inFeetQ - reported) <= 1e-9 * reported, `max q of the flight in feet ${inFeetQ}, in metres ${reported}`);
+  check(Math.abs((await flightValue("maxDynamicPressureAltitudeM")) - scan.summary.maxDynamicPressure.altitudeM) < 1e-6, "altitude of max q read from feet");
+
+  // 11. The upload limit: a 21 MB file is refused at once, with its size and the limit.
+  const bigPath = upload("too-big.csv", oversized(21_000_000));
+  let started = performance.now();
+  await page.setInputFiles("#flight-file", bigPath);
+  await page.waitForFunction(() => document.getElementById("flight-msg").textContent !== "");
+  timings.push(["refusal of a 21 MB flight file, from setInputFiles to the message", performance.now() - started]);
+  check(/too-big\.csv is 21\.0 MB; the page reads files of at most 20\.0 MB/.test(await flightMessage()), `message for 21 MB: "${await flightMessage()}"`);
+  check((await page.getAttribute("#flight-file", "aria-invalid")) === "true", "the refused file's input is marked invalid");
+  check((await page.$$eval("#flight-summary dd", (dds) => dds.length)) === 0, "no summary after a refused file");
+
+  // 12. Random bytes: the page answers with a message naming a line, and stays free.
+  // A monitor in the page records the longest gap between 10 ms timer ticks (a stall of
+  // the main thread); a click on a control is timed while the worker is busy.
+  const startMonitor = () =>
+    page.evaluate(() => {
+      let last = performance.now();
+      window.longestStall = 0;
+      window.monitor = setInterval(() => {
+        const now = performance.now();
+        window.longestStall = Math.max(window.longestStall, now - last);
+        last = now;
+      }, 10);
+    });
+  const stopMonitor = () => page.evaluate(() => (clearInterval(window.monitor), window.longestStall));
+  const timedClick = async () => {
+    const before = await page.evaluate(() => document.querySelector(".grammar").open);
+    const t = performance.now();
+    await page.click(".grammar summary");
+    await page.waitForFunction((was) => document.querySelector(".grammar").open !== was, before);
+    return performance.now() - t;
+  };
+  await startMonitor();
+  const noisePath = upload("noise.bin", noise(8_000_000));
+  started = performance.now();
+  await page.setInputFiles("#flight-file", noisePath);
+  const clickDuringNoise = await timedClick();
+  await page.waitForFunction(() => document.getElementById("flight-msg").textContent !== "", null, { timeout: 60000 });
+  timings.push(["answer to 8 MB of random bytes, from setInputFiles to the message", performance.now() - started]);
+  timings.push(["a click handled while the random bytes are read", clickDuringNoise]);
+  timings.push(["longest main-thread stall while the random bytes are read", await stopMonitor()]);
+  check(/^line \d+: /.test(await flightMessage()), `message for random bytes names a line: "${(await flightMessage()).slice(0, 120)}"`);
+  check((await page.$$eval("#flight-summary dd", (dds) => dds.length)) === 0, "no summary for random bytes");
+
+  // 13. A million samples: the chart draws, thinned to each pixel column's lowest and
+  // highest sample, with the peak kept and marked; the numbers are the module's.
+  const long = longFlight(1_000_000);
+  check(Buffer.byteLength(long) < 20_000_000, `the long flight fits the upload limit (${Buffer.byteLength(long)} bytes)`);
+  const longSamples = aerostrata.readFlightCsv(long);
+  const longScan = aerostrata.AtmosphereModel.standard().scanFlight(longSamples.timeS, longSamples.altitudeM, longSamples.velocityMS, { drag: 0.45, referenceAreaM2: 0.0064 });
+  let highestSampleQ = -Infinity;
+  for (const q of longScan.points.dynamicPressurePa) if (q > highestSampleQ) highestSampleQ = q;
+  await startMonitor();
+  const longPath = upload("million.csv", Buffer.from(long));
+  started = performance.now();
+  await page.setInputFiles("#flight-file", longPath);
+  const clickDuringScan = await timedClick();
+  await flightDone();
+  timings.push(["chart of 1 000 000 samples, from setInputFiles to the chart drawn", performance.now() - started]);
+  timings.push(["a click handled while the million samples are read and scanned", clickDuringScan]);
+  timings.push(["longest main-thread stall while the million samples are read and scanned", await stopMonitor()]);
+  check((await page.evaluate(() => document.body.dataset.flight)) === "done", `the million samples scanned: "${await flightMessage()}"`);
+  const longQ = await flightValue("maxDynamicPressurePa");
+  check(Object.is(longQ, longScan.summary.maxDynamicPressure.dynamicPressurePa), `max q of a million samples: page ${longQ}, module ${longScan.summary.maxDynamicPressure.dynamicPressurePa}`);
+  check(Object.is(await flightValue("samples"), 1_000_000), "a million samples counted");
+  check(await page.isVisible('[data-marker="max-q"]'), "the maximum q of a million samples is marked");
+  const qPath = await page.$eval('#flight-chart [data-series="dynamicPressurePa"]', (p) => ({ points: Number(p.dataset.points), highest: Number(p.dataset.highest), d: p.getAttribute("d") }));
+  check(qPath.points > 0 && qPath.points <= 2 * 1000, `the q line is thinned to at most two points per column: ${qPath.points}`);
+  check(Object.is(qPath.highest, highestSampleQ), `the thinned q line keeps the highest sample: ${qPath.highest}, module ${highestSampleQ}`);
+  check(/^M[\d.]+,[\d.]+(L[\d.]+,[\d.]+)+$/.test(qPath.d), "the q line is one unbroken path");
+  check((await page.$eval('#flight-chart [data-series="mach"]', (p) => p.getAttribute("d").split("M").length - 1)) >= 2, "the Mach line breaks where Mach is not defined (above 86 km)");
+  await page.screenshot({ path: join(shots, "web-calculator-million.png"), fullPage: true });
+
+  // 14. An error beside its field: a bare offset of 400 (K) is no day's offset.
+  await page.click("#tab-point");
+  await page.selectOption("#model-kind", "offset");
+  await page.fill("#offset", "400");
+  const offsetMessage = await message("offset");
+  check(/400 K is above any day's offset from the standard temperature \(-100 to 100 K\)/.test(offsetMessage), `message beside the offset: "${offsetMessage}"`);
+  check((await page.getAttribute("#offset", "aria-invalid")) === "true", "the offset is marked invalid");
+  check(/^none until/.test(await page.textContent("#model-spec")), `no model spec shown for a refused offset: "${await page.textContent("#model-spec")}"`);
+  check((await page.$$eval(".msg", (ms) => ms.filter((m) => m.textContent !== "").map((m) => m.id))).join() === "offset-msg", "the offset's message is the only one shown");
+  check(await page.$eval("#view-point .results", (e) => e.classList.contains("stale")), "results marked stale for a bad offset");
+  await page.screenshot({ path: join(shots, "web-calculator-error.png"), fullPage: true });
+  await page.selectOption("#model-kind", "isothermal");
+  await page.fill("#iso-t", "15");
+  check(/15 K is below any air temperature \(120 to 350 K\); write 15degC or 288\.15K/.test(await message("iso-t")), `message beside the isothermal temperature: "${await message("iso-t")}"`);
+
+  // 15. The model selector gives the module's numbers (AtmosphereModel.fromSpec of the
+  // spec the page shows, bit for bit), at 11 000 m.
+  const z = 11000;
+  await page.fill("#altitude", String(z));
+  const sameAsModule = async (what, model) => {
+    const expected = model.state(z);
+    for (const key of ["temperatureK", "pressurePa", "densityKgM3", "speedOfSoundMS"]) {
+      const ours = await value(key);
+      check(Object.is(ours, expected[key]), `${what}: ${key} page ${ours}, module ${expected[key]}`);
+    }
+  };
+  const models = [
+    ["offset", { offset: "15" }, "offset=15K"],
+    ["hydrostatic-offset", { offset: "-10C", p0: "1020" }, "hydrostatic-offset=-10degC,p0=1020hPa"],
+    ["isothermal", { "iso-t": "250", "iso-p0": "29.5inHg" }, "isothermal=250K,p0=29.5inHg"],
+    ["exponential", { "exp-rho0": "1.225", "exp-h": "8.5km", "exp-t": "" }, "exponential=1.225kg/m3,8.5km"],
+    ["standard", {}, "standard"],
+  ];
+  for (const [kind, fields, spec] of models) {
+    await page.selectOption("#model-kind", kind);
+    for (const [id, text] of Object.entries(fields)) await page.fill(`#${id}`, text);
+    check((await page.textContent("#model-spec")) === spec, `the page writes ${spec}: ${await page.textContent("#model-spec")}`);
+    await sameAsModule(spec, aerostrata.AtmosphereModel.fromSpec(spec));
+  }
+  // In US units a bare offset is in degF: 27 degF is the 15 K day.
+  await page.check('input[name="units"][value="us"]');
+  await page.selectOption("#model-kind", "offset");
+  await page.fill("#offset", "27");
+  check((await page.textContent("#model-spec")) === "offset=27degF", "a bare US offset is read in degF");
+  await sameAsModule("offset=27degF", aerostrata.AtmosphereModel.fromSpec("offset=27degF"));
+  await page.check('input[name="units"][value="si"]');
+  check((await page.inputValue("#offset")) === "15", `the offset converted back to K: ${await page.inputValue("#offset")}`);
+  await page.screenshot({ path: join(shots, "web-calculator-offset.png"), fullPage: true });
+
+  // An uploaded sounding (the invented demo sounding of examples/data), read in the
+  // worker; its point and a flight through it against the module's fromSoundingCsv.
+  const soundingPath = join(root, "examples/data/vessaro_key_hot_humid.csv");
+  const soundingModel = aerostrata.AtmosphereModel.fromSoundingCsv(readFileSync(soundingPath, "utf8"));
+  await page.selectOption("#model-kind", "sounding");
+  await page.setInputFiles("#sounding-file", soundingPath);
+  await page.waitForFunction(() => document.body.dataset.sounding !== "busy" && document.body.dataset.point !== "busy", null, { timeout: 60000 });
+  check((await page.textContent("#model-spec")) === "sounding=vessaro_key_hot_humid.csv", "the sounding named in the spec");
+  await sameAsModule("the uploaded sounding", soundingModel);
+  await page.setInputFiles("#sounding-file", upload("too-big-sounding.csv", oversized(21_000_000)));
+  check(/too-big-sounding\.csv is 21\.0 MB/.test(await message("sounding-file")), "a 21 MB sounding is refused beside its field");
+  await page.setInputFiles("#sounding-file", soundingPath);
+  await page.waitForFunction(() => document.body.dataset.sounding !== "busy" && document.body.dataset.point !== "busy", null, { timeout: 60000 });
+  await page.click("#tab-flight");
+  const raised = csv.map(([t, zz, v]) => [t, zz + 10, v]);
+  await page.fill("#flight-csv", ["time_s,altitude_m,velocity_m_s", ...raised.map((r) => r.join(",")), ""].join("\n"));
+  await flightDone();
+  const throughSounding = soundingModel.scanFlight(
+    raised.map((r) => r[0]),
+    raised.map((r) => r[1]),
+    raised.map((r) => r[2]),
+    { drag: 0.45, referenceAreaM2: 0.0064 },
+  );
+  const soundingQ = await flightValue("maxDynamicPressurePa");
+  check(Object.is(soundingQ, throughSounding.summary.maxDynamicPressure.dynamicPressurePa), `max q through the sounding: page ${soundingQ}, module ${throughSounding.summary.maxDynamicPressure.dynamicPressurePa}`);
+  await page.screenshot({ path: join(shots, "web-calculator-sounding-flight.png"), fullPage: true });
+
+  // 16. A phone's width: nothing wider than the screen; screenshots of both views.
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+  check((await page.evaluate(() => document.documentElement.scrollWidth)) <= 390, "the flight view fits 390 px");
+  await page.screenshot({ path: join(shots, "web-calculator-phone-flight.png"), fullPage: true });
+  await page.click("#tab-point");
+  await page.selectOption("#model-kind", "hydrostatic-offset");
+  await page.fill("#offset", "15");
+  await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+  check((await page.evaluate(() => document.documentElement.scrollWidth)) <= 390, "the point view fits 390 px");
+  await page.screenshot({ path: join(shots, "web-calculator-phone.png"), fullPage: true });
 
   check(errors.length === 0, `errors in the page: ${errors.join("; ")}`);
 } finally {
   await context.close();
   rmSync(profile, { recursive: true, force: true });
+  rmSync(uploads, { recursive: true, force: true });
 }
 
+for (const [what, ms] of timings) console.log(`timing: ${what}: ${ms.toFixed(0)} ms`);
 for (const f of failures) console.error(`FAIL: ${f}`);
 console.log(`${passed} passed, ${failures.length} failed`);
 process.exit(failures.length === 0 ? 0 : 1);

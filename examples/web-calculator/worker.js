@@ -1,0 +1,138 @@
+// The page's worker: reads uploaded and pasted files through the module's own readers
+// (readFlightCsv, AtmosphereModel.fromSoundingCsv) and does the long work off the page's
+// thread (a sounding's model and its points, a flight's scan, the chart's thinning), so
+// that no file, however long or malformed, freezes the page. The page restarts a worker
+// whose work has been overtaken by new input.
+//
+// Messages in: {id, job: "sounding" | "point" | "flight", ...}; out: {id, ok: true, ...}
+// or {id, ok: false, field, message}, `field` naming the page's field at fault.
+
+import init, * as api from "./aerostrata/aerostrata.js";
+import { computePoint } from "./point.js";
+import { largest, thin } from "./thin.js";
+
+const ready = init();
+
+/** The sounding last read, kept for the points and flights that follow: {version, model}. */
+let sounding = null;
+
+const textOf = async (source) => (typeof source === "string" ? source : await source.text());
+const failure = (field, e) => ({ ok: false, field, message: e instanceof Error ? e.message : String(e) });
+
+/** The model of sounding `described` ({version, source, units}), read once per version. */
+async function soundingModel(described) {
+  if (sounding?.version !== described.version) {
+    sounding?.model.free();
+    sounding = null;
+    const model = api.AtmosphereModel.fromSoundingCsv(await textOf(described.source), described.units);
+    sounding = { version: described.version, model };
+  }
+  return sounding.model;
+}
+
+/** The first line of `text` that is neither blank nor a comment, or null. */
+function firstDataLine(text) {
+  let start = 0;
+  while (start < text.length) {
+    let end = text.indexOf("\n", start);
+    if (end < 0) end = text.length;
+    const line = text.slice(start, end).trim();
+    if (line !== "" && !line.startsWith("#")) return line;
+    start = end + 1;
+  }
+  return null;
+}
+
+/**
+ * The samples of a flight file. readFlightCsv needs a header; the command line also
+ * reads a file without one (time, altitude and velocity in that order, in the chosen
+ * units), and so does the page: such a file is read with the header
+ * "time,altitude,velocity" put before it, and its messages' line numbers put back.
+ */
+function readFlight(text, units) {
+  const first = firstDataLine(text);
+  if (first === null || !/^"?\s*[+-]?(\d|\.\d)/.test(first)) return api.readFlightCsv(text, units);
+  try {
+    return api.readFlightCsv(`time,altitude,velocity\n${text}`, units);
+  } catch (e) {
+    throw new Error(e.message.replace(/^line (\d+)/, (_, n) => `line ${Number(n) - 1}`));
+  }
+}
+
+async function sound({ described }) {
+  try {
+    const model = await soundingModel(described);
+    return { ok: true, range: model.range() };
+  } catch (e) {
+    return failure("sounding-file", e);
+  }
+}
+
+async function point({ described, inputs }) {
+  let model;
+  try {
+    model = await soundingModel(described);
+  } catch (e) {
+    return failure("sounding-file", e);
+  }
+  return computePoint(api, model, inputs);
+}
+
+async function flight({ source, units, model: described, cd, areaM2, columns }) {
+  let samples;
+  try {
+    samples = readFlight(await textOf(source), units);
+  } catch (e) {
+    return failure("flight", e);
+  }
+  let model;
+  let owned = false;
+  try {
+    if (described.spec !== undefined) {
+      model = api.AtmosphereModel.fromSpec(described.spec);
+      owned = true;
+    } else {
+      model = await soundingModel(described.sounding);
+    }
+  } catch (e) {
+    return failure(described.spec !== undefined ? "model-kind" : "sounding-file", e);
+  }
+  let scan;
+  try {
+    scan = model.scanFlight(samples.timeS, samples.altitudeM, samples.velocityMS, { drag: cd, referenceAreaM2: areaM2 });
+  } catch (e) {
+    const field = /drag coefficient/.test(e.message) ? "flight-cd" : /reference area/.test(e.message) ? "flight-area" : "flight";
+    return failure(field, e);
+  } finally {
+    if (owned) model.free();
+  }
+  const { points, summary } = scan;
+  const times = points.timeS;
+  return {
+    ok: true,
+    summary,
+    ignored: samples.ignored,
+    chart: {
+      t0: times[0],
+      t1: times[times.length - 1],
+      q: thin(times, points.dynamicPressurePa, columns),
+      mach: thin(times, points.mach, columns),
+      highestQ: largest(points.dynamicPressurePa),
+      highestMach: largest(points.mach),
+    },
+  };
+}
+
+const JOBS = { sounding: sound, point, flight };
+
+// One job at a time, in the order sent (a point waits for the sounding before it).
+let queue = ready;
+self.onmessage = ({ data }) => {
+  queue = queue
+    .then(() => JOBS[data.job](data))
+    .catch((e) => failure(data.job === "flight" ? "flight" : "sounding-file", e))
+    .then((answer) => {
+      const transfer = answer.chart ? [answer.chart.q.times.buffer, answer.chart.q.values.buffer, answer.chart.mach.times.buffer, answer.chart.mach.values.buffer] : [];
+      self.postMessage({ id: data.id, ...answer }, transfer);
+    });
+};
