@@ -218,6 +218,19 @@ pub enum Error {
         /// The result asked ("an atmosphere state").
         result: &'static str,
     },
+    /// A blend from a table into the standard would make pressure rise with altitude
+    /// somewhere in it: the table's pressure at its edge is too far from the standard's
+    /// for the blend's depth.
+    BlendRaisesPressure {
+        /// Which side of the table: "below" or "above".
+        side: &'static str,
+        /// The depth asked for, geopotential m.
+        depth_m: f64,
+        /// The table's pressure at its edge over the standard's there.
+        ratio: f64,
+        /// A depth over which the blend would keep pressure falling, geopotential m.
+        min_depth_m: f64,
+    },
     /// Caller-provided storage is shorter than the data to be put in it.
     StorageTooSmall {
         /// How many entries are needed.
@@ -378,6 +391,17 @@ impl Error {
             Error::StorageTooSmall { needed, len } => {
                 parts(&[T("storage holds "), C(len), T(" levels, the table has "), C(needed), T(" rows")])
             }
+            Error::BlendRaisesPressure { side, depth_m, ratio, min_depth_m } => parts(&[
+                T("a blend of "),
+                N(depth_m),
+                T(" m into the standard "),
+                T(side),
+                T(" the table would make pressure rise with altitude (the table's edge pressure is "),
+                N(ratio),
+                T(" times the standard's there): blend over at least "),
+                N(min_depth_m),
+                T(" m, or check the table's pressure"),
+            ]),
         }
     }
 }

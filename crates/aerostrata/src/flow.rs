@@ -8,9 +8,7 @@
 //! isentropic flow, for the normal shock, and Rayleigh's pitot formula. gamma is a
 //! parameter ([`PerfectGas`]); [`PerfectGas::AIR`] (gamma = 1.4) is the default.
 
-#[cfg(doc)]
-use crate::error::Error;
-use crate::error::Result;
+use crate::error::{Error, Result};
 use crate::math::{exp, exp_m1, ln, ln_1p, sqrt};
 use crate::ratio::ratio_within;
 use crate::solve::{solve_bracketed, SolverSettings};
@@ -23,6 +21,9 @@ pub const MAX_MACH: f64 = 1.0e3;
 /// Lowest Mach number [`PerfectGas::area_ratio`] accepts (A/A* is 5.8e8 there for
 /// gamma = 1.4; at Mach 0 it is infinite).
 pub const MIN_AREA_RATIO_MACH: f64 = 1.0e-9;
+
+/// ln of the largest finite f64.
+const LN_F64_MAX: f64 = 709.782_712_893_384;
 
 #[inline]
 fn mach_within(quantity: &'static str, mach: f64, min: f64) -> Result<f64> {
@@ -209,10 +210,35 @@ impl PerfectGas {
     ///
     /// # Errors
     /// [`Error::NotFinite`] or [`Error::RatioOutOfRange`] for a Mach number outside
-    /// [`MIN_AREA_RATIO_MACH`]..=[`MAX_MACH`].
+    /// [`MIN_AREA_RATIO_MACH`]..=[`MAX_MACH`], or (gamma near 1) above the Mach number
+    /// where A/A* passes the largest f64, which the error names as its maximum.
     pub fn area_ratio(&self, mach: f64) -> Result<f64> {
         let mach = mach_within("Mach number", mach, MIN_AREA_RATIO_MACH)?;
-        Ok(self.area_ratio_unchecked(mach))
+        let ratio = self.area_ratio_unchecked(mach);
+        if ratio.is_finite() {
+            return Ok(ratio);
+        }
+        // Near gamma = 1 the exponent (gamma + 1) / (2 (gamma - 1)) is large enough for A/A*
+        // to pass the largest f64 below MAX_MACH: name the Mach number where it does.
+        let overflow = |m: f64| self.ln_area_ratio(m) >= LN_F64_MAX;
+        let (mut lo, mut hi) = (1.0, mach);
+        for _ in 0..200 {
+            let mid = 0.5 * (lo + hi);
+            if mid <= lo || mid >= hi {
+                break;
+            }
+            if overflow(mid) {
+                hi = mid;
+            } else {
+                lo = mid;
+            }
+        }
+        Err(Error::RatioOutOfRange {
+            quantity: "Mach number",
+            value: mach,
+            min: MIN_AREA_RATIO_MACH,
+            max: lo,
+        })
     }
 
     fn area_ratio_unchecked(&self, mach: f64) -> f64 {

@@ -291,13 +291,14 @@ impl Air {
         mean_free_path(self.number_density_m3())
     }
 
-    /// Pressure scale height for gravity `gravity_m_s2`, m.
+    /// Pressure scale height for gravity `gravity_m_s2` (positive: the model's own, which
+    /// is why this is not public; [`crate::State`] carries the result), m.
     ///
     /// ```text
     /// H_p = R* T / (M g)
     /// ```
     #[inline]
-    pub fn pressure_scale_height_m(&self, gravity_m_s2: f64) -> f64 {
+    pub(crate) fn pressure_scale_height_m(&self, gravity_m_s2: f64) -> f64 {
         GAS_CONSTANT_J_KMOL_K * self.temperature_k * self.per_molar_mass() / gravity_m_s2
     }
 }

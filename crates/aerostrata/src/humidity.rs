@@ -75,6 +75,17 @@ fn check_temperature(quantity: &'static str, temperature_k: f64) -> Result<f64> 
     within(quantity, "K", temperature_k, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K)
 }
 
+/// A temperature within the gas's band (so that every result derived from it is finite).
+fn gas_temperature(temperature_k: f64) -> Result<f64> {
+    within(
+        "temperature",
+        "K",
+        positive("temperature", "K", temperature_k)?,
+        crate::gas::MIN_TEMPERATURE_K,
+        crate::gas::MAX_TEMPERATURE_K,
+    )
+}
+
 fn check_pressure(pressure_pa: f64) -> Result<f64> {
     within(
         "pressure",
@@ -200,8 +211,8 @@ pub(crate) fn dew_point_unchecked(vapour_pressure_pa: f64, pressure_pa: f64) -> 
 /// [`Error::NotFinite`] or [`Error::NotPositive`] for a temperature or pressure that is
 /// not finite and positive; [`Error::OutOfRange`] for a vapour pressure outside 0 to p.
 pub fn virtual_temperature_k(temperature_k: f64, vapour_pressure_pa: f64, pressure_pa: f64) -> Result<f64> {
-    let t = positive("temperature", "K", temperature_k)?;
-    let p = positive("pressure", "Pa", pressure_pa)?;
+    let t = gas_temperature(temperature_k)?;
+    let p = check_pressure(pressure_pa)?;
     let e = vapour_pressure(vapour_pressure_pa, p)?;
     Ok(t / (1.0 - e / p * (1.0 - MOLAR_MASS_RATIO)))
 }
@@ -288,7 +299,7 @@ impl Humidity {
     /// As [`virtual_temperature_k`], and pressure outside the band of
     /// [`saturation_vapour_pressure_pa`].
     pub fn new(temperature_k: f64, pressure_pa: f64, vapour_pressure_pa: f64) -> Result<Self> {
-        let t = positive("temperature", "K", temperature_k)?;
+        let t = gas_temperature(temperature_k)?;
         let p = check_pressure(pressure_pa)?;
         let e = vapour_pressure(vapour_pressure_pa, p)?;
         Ok(Self::from_checked(t, p, e, t / (1.0 - e / p * (1.0 - MOLAR_MASS_RATIO))))

@@ -14,6 +14,17 @@ use crate::math::{exp, ln_1p};
 
 use super::atmosphere::Atmosphere;
 
+/// The steepest lapse rate a layer may have, K per geopotential metre, either sign: 100 K
+/// per km, ten times the steepest layers of the free atmosphere (a strong surface
+/// inversion, the dry-adiabatic 9.8 K/km, the thermosphere's 12 K/km; common practice, no
+/// source), so that a lapse rate in K/km read as K/m is refused, and the inverse solvers
+/// stay within their tolerances.
+pub const MAX_LAPSE_RATE_K_M: f64 = 0.1;
+
+/// The thinnest layer accepted, geopotential m (a sounding's closest rows,
+/// [`crate::model::MIN_ROW_SPACING_M`]): a thinner one carries nothing a flight could use.
+pub const MIN_LAYER_THICKNESS_M: f64 = 1.0e-3;
+
 /// One complete layer: its base and its constant lapse rate.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
@@ -312,17 +323,23 @@ fn check_layer_values(index: usize, layer: &Layer) -> Result<()> {
             layer.base_pressure_pa,
         ));
     }
-    if !layer.lapse_rate_k_m.is_finite() {
-        return Err(invalid(index, "lapse rate (K/m) must be finite", layer.lapse_rate_k_m));
+    if !(layer.lapse_rate_k_m.is_finite() && layer.lapse_rate_k_m.abs() <= MAX_LAPSE_RATE_K_M) {
+        return Err(invalid(
+            index,
+            "lapse rate (K/m) must be finite and within -0.1 to 0.1 K/m (100 K per km)",
+            layer.lapse_rate_k_m,
+        ));
     }
     Ok(())
 }
 
 fn check_top(index: usize, layer: &Layer, top_geopotential_m: f64) -> Result<()> {
-    if !(top_geopotential_m > layer.base_geopotential_m && top_geopotential_m <= MAX_GEOPOTENTIAL_M) {
+    let thick_enough = top_geopotential_m - layer.base_geopotential_m >= MIN_LAYER_THICKNESS_M;
+    if !(thick_enough && top_geopotential_m <= MAX_GEOPOTENTIAL_M) {
         return Err(invalid(
             index,
-            "top geopotential altitude (m) must be finite, above the layer's base and at most 3.89e6 m",
+            "top geopotential altitude (m) must be finite, at least 1 mm above the layer's base and at most \
+             3.89e6 m",
             top_geopotential_m,
         ));
     }

@@ -23,7 +23,7 @@ pub use atmosphere::Atmosphere;
 pub use exponential::Exponential;
 pub use hydrostatic_offset::HydrostaticOffset;
 pub use isothermal::Isothermal;
-pub use layered::{Layer, LayerSpec, Layered};
+pub use layered::{Layer, LayerSpec, Layered, MAX_LAPSE_RATE_K_M, MIN_LAYER_THICKNESS_M};
 pub use offset::TemperatureOffset;
 pub use spec::{ModelSpec, SpecError};
 pub use standard::{Us1976, US1976};

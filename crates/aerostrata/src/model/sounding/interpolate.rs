@@ -59,14 +59,56 @@ pub(super) fn blend(
     };
     let standard = US1976.air(kind.altitude(level.row.altitude_m)?)?;
     let edge = level_air(level)?;
-    Ok(Some(Blend {
+    let blend = Blend {
         depth_m,
         edge_geopotential_m: level.geopotential_m,
         temperature_offset_k: edge.temperature_k() - standard.temperature_k(),
         molar_mass_offset_kg_kmol: edge.molar_mass_kg_kmol() - standard.molar_mass_kg_kmol(),
         ln_pressure_ratio: ln(edge.pressure_pa() / standard.pressure_pa()),
         vapour_mole_fraction: level.vapour_pressure_pa / level.pressure_pa,
-    }))
+    };
+    check_falls(&blend, index == 0)?;
+    Ok(Some(blend))
+}
+
+/// Steps of the blend's pressure check.
+const BLEND_CHECK_STEPS: u32 = 512;
+
+/// Pressure must fall with altitude across the blend. In it ln p = ln p_std + w L (L the
+/// log of the edge's pressure ratio, w running from 1 at the edge to 0 at the blend's far
+/// end), so d ln p / dH = -1 / H_s -+ L / depth: a large ratio over a short depth reverses
+/// it. Checked at [`BLEND_CHECK_STEPS`] even steps of the blend (within the standard's
+/// range), where the standard's own fall sets how much each step may take back; the
+/// least depth that keeps every step falling is suggested in the error.
+fn check_falls(blend: &Blend, below: bool) -> Result<()> {
+    let sign = if below { -1.0 } else { 1.0 };
+    let at = |h: f64| US1976.air(Altitude::geopotential_m(h)?).map(|air| ln(air.pressure_pa()));
+    let step = blend.depth_m / f64::from(BLEND_CHECK_STEPS);
+    let mut worst = 0.0_f64;
+    let mut previous = at(blend.edge_geopotential_m)?;
+    for i in 1..=BLEND_CHECK_STEPS {
+        let Ok(next) = at(blend.edge_geopotential_m + sign * step * f64::from(i)) else { break };
+        // Stepping away from the table; the standard's fall of ln p over the step, upwards.
+        let standard_fall = sign * (previous - next);
+        if standard_fall.is_nan() || standard_fall <= 0.0 {
+            break;
+        }
+        // Going up a step, w grows by step / depth below the table and falls by it above.
+        let change = blend.ln_pressure_ratio * step / blend.depth_m;
+        let rise = if below { change } else { -change };
+        worst = worst.max(rise / standard_fall);
+        previous = next;
+    }
+    if worst < 1.0 {
+        return Ok(());
+    }
+    Err(Error::BlendRaisesPressure {
+        side: if below { "below" } else { "above" },
+        depth_m: blend.depth_m,
+        ratio: exp(blend.ln_pressure_ratio),
+        // The blend's term scales as 1 / depth: this depth brings the worst step to half.
+        min_depth_m: (2.0 * worst * blend.depth_m).ceil(),
+    })
 }
 
 /// Interpolation at geopotential altitude `h_m` within `levels` (or a rounding beyond
