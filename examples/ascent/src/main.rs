@@ -6,9 +6,7 @@
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
-use aerostrata_cli::plot::{
-    flight_figure, Figure, FlightTrace, Layout, LegendPosition, Marker, Panel, Series,
-};
+use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, Marker, Panel, Series};
 use aerostrata_cli::units::UnitSystem;
 use ascent::{fly, Flight, Results, Throttle, PAD_ALTITUDE_M, Q_LIMIT_PA, STEP_S};
 
@@ -149,10 +147,8 @@ fn trajectory_figure(flown: &[(&str, Flight)]) -> Figure {
         ..Panel::default()
     };
     let mut altitude = panel("geometric altitude (km)");
-    altitude.legend = LegendPosition::LowerRight;
     let mut velocity = panel("vertical velocity (m/s)");
     let mut throttle = panel("throttle (of full thrust)");
-    throttle.legend = LegendPosition::LowerRight;
     for (index, (label, flight)) in flown.iter().enumerate() {
         let r: Results = flight.results();
         let series = |f: &dyn Fn(&ascent::Point) -> f64| Series {

@@ -66,6 +66,8 @@ pub struct ProfileArgs {
     #[arg(long, value_name = "TEXT")]
     title: Option<String>,
     #[command(flatten)]
+    size: SizeArgs,
+    #[command(flatten)]
     out: OutputArgs,
 }
 
@@ -87,7 +89,29 @@ pub struct FlightPlotArgs {
     #[arg(long, value_name = "TEXT")]
     title: Option<String>,
     #[command(flatten)]
+    size: SizeArgs,
+    #[command(flatten)]
     out: OutputArgs,
+}
+
+/// `--width` and `--height`: the figure's size.
+#[derive(Args)]
+pub struct SizeArgs {
+    /// Width of the figure, px [default: 900 for a flight, 380 a panel for a profile].
+    /// Text keeps its size: a narrow figure (360 for a phone) wraps its panels, legends
+    /// and notes instead of shrinking them.
+    #[arg(long, value_name = "PX", value_parser = clap::value_parser!(u32).range(240..=20_000))]
+    width: Option<u32>,
+    /// Height of the figure, px [default: 720 for a flight, 640 for a profile]; it grows
+    /// where the panels would otherwise be too short to read.
+    #[arg(long, value_name = "PX", value_parser = clap::value_parser!(u32).range(100..=20_000))]
+    height: Option<u32>,
+}
+
+impl SizeArgs {
+    fn apply(&self, figure: &mut Figure) {
+        figure.size = (self.width.unwrap_or(figure.size.0), self.height.unwrap_or(figure.size.1));
+    }
 }
 
 /// Runs `aerostrata plot profile` or `aerostrata plot flight`.
@@ -96,10 +120,11 @@ pub struct FlightPlotArgs {
 /// [`Failure::Input`] naming the option or file at fault; [`Failure::Io`] when writing
 /// fails.
 pub fn run(command: &PlotCommand) -> Result<(), Failure> {
-    let (figure, out) = match command {
-        PlotCommand::Profile(args) => (profile(args)?, &args.out),
-        PlotCommand::Flight(args) => (flights(args)?, &args.out),
+    let (mut figure, out, size) = match command {
+        PlotCommand::Profile(args) => (profile(args)?, &args.out, &args.size),
+        PlotCommand::Flight(args) => (flights(args)?, &args.out, &args.size),
     };
+    size.apply(&mut figure);
     let svg = figure.to_svg().map_err(Failure::Input)?;
     let mut destination = out.destination()?;
     destination.write_all(svg.as_bytes())?;
