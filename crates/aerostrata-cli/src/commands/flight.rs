@@ -1,8 +1,9 @@
 //! `aerostrata flight FILE`: the flight scan of a CSV of samples (time, geometric
-//! altitude, velocity) through the standard atmosphere, one sample at a time (any
-//! number of samples in bounded memory); per-sample rows on stdout or `--output`, the
-//! summary (maximum q refined between samples, maximum Mach, Mach 1 crossings, maximum
-//! drag) on stderr, as text or JSON.
+//! altitude, velocity) through the standard atmosphere or any `--model`, one sample at a
+//! time (any number of samples in bounded memory); per-sample rows on stdout or
+//! `--output`, the summary (maximum q refined between samples, maximum Mach, Mach 1
+//! crossings, maximum drag) on stderr, as text or JSON, ending with the caution that
+//! stands wherever loads are shown.
 
 use std::io::{self, BufRead, Write};
 use std::path::PathBuf;
@@ -12,30 +13,46 @@ use aerostrata::{AltitudeRange, Atmosphere, Quantity};
 use clap::{Args, ValueEnum};
 use serde_json::{json, Map, Value};
 
-use crate::args::model::{altitude_in, offset_model};
+use crate::args::model::{altitude_in, ModelArgs};
 use crate::args::output::OutputArgs;
 use crate::args::vehicle::VehicleArgs;
 use crate::failure::Failure;
 use crate::format::fixed;
-use crate::input::lines::open_input;
+use crate::input::lines::{open_input, source_name};
 use crate::input::progress::{Progress, When};
 use crate::input::samples::SampleReader;
 use crate::output::rows::{Column, Format, RowWriter};
 use crate::units::{column, UnitSystem};
 
+/// The caution's text, as a literal for `concat!`.
+macro_rules! caution {
+    () => {
+        "Not certified flight software; verify independently; local codes, range-safety rules and licensed \
+         engineering practice govern."
+    };
+}
+
+/// The caution that ends `flight --help`, its manual page and every flight summary.
+pub const CAUTION: &str = caution!();
+
 #[derive(Args)]
-#[command(after_help = "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
-                       --area 0.0182 --summary json")]
+#[command(after_help = concat!(
+    "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
+     --area 0.0182m2 --summary json\n\n",
+    caution!()
+))]
 pub struct FlightArgs {
-    /// CSV of samples, one per line: time_s,altitude_m,velocity_m_s (time in s,
-    /// geometric altitude, velocity relative to the air, its sign ignored; ft and ft/s
-    /// with --units us). A first line naming its columns (time_s and altitude_m or
-    /// altitude_ft and velocity_m_s or velocity_ft_s, in any order, among others) picks
-    /// them and their units; blank lines and lines starting with `#` are skipped; `-`
-    /// reads stdin.
+    /// CSV of samples, one per line: time, geometric altitude and velocity relative to
+    /// the air (its sign ignored), in s, m and m/s (ft and ft/s with --units us). A first
+    /// line naming the columns in any spelling (time_s, `altitude (ft)`, `Velocity [m/s]`;
+    /// geometric_altitude too) picks them and their units, which win over --units; other
+    /// columns are left out with a warning; a cell may carry its unit (35000ft). Blank
+    /// lines and lines starting with `#` are skipped; `-` reads stdin.
     pub file: PathBuf,
     #[command(flatten)]
     pub vehicle: VehicleArgs,
+    #[command(flatten)]
+    pub model: ModelArgs,
     /// How the summary is written to stderr.
     #[arg(long, value_enum, default_value_t = SummaryFormat::Text)]
     summary: SummaryFormat,
@@ -84,13 +101,13 @@ fn values(p: &FlightPoint, units: UnitSystem) -> Vec<Option<f64>> {
 /// writing fails.
 pub fn run(args: &FlightArgs) -> Result<(), Failure> {
     let units = args.out.units;
-    let atmosphere = offset_model(args.vehicle.offset(), units)?;
-    let range = atmosphere.range();
+    let model = args.model.load(units)?;
+    let range = model.atmosphere.range();
     let table = args.vehicle.table()?;
     let vehicle = args.vehicle.vehicle(&table, units)?;
     let input = open_input(Some(&args.file), args.progress)?;
-    let mut reader = SampleReader::new(input, units);
-    let mut scan = FlightScan::new(atmosphere, vehicle);
+    let mut reader = SampleReader::new(input, source_name(Some(&args.file)), units);
+    let mut scan = FlightScan::new(&model.atmosphere, vehicle);
     let mut writer = RowWriter::new(args.out.destination()?, args.format, columns(units))?;
     let result = stream(&mut reader, &mut scan, &mut writer, range, units);
     reader.input_mut().clear();
@@ -117,34 +134,34 @@ fn stream<R: BufRead, A: Atmosphere, W: Write>(
     units: UnitSystem,
 ) -> Result<(), Failure> {
     while let Some(sample) = reader.next_sample()? {
-        let line = reader.line_number();
-        if units == UnitSystem::Us {
-            // Name an altitude out of range in the user's feet.
-            altitude_in(units, units.from_si(Quantity::Altitude, sample.altitude_m), false, range)
-                .map_err(|m| Failure::Input(format!("line {line}: {m}")))?;
-        }
-        let point = scan.push(sample).map_err(|e| Failure::Input(format!("line {line}: {e}")))?;
+        // An altitude out of the model's range, named in its column's unit.
+        let altitude = reader.altitude_quantity();
+        let table = reader.table();
+        altitude_in(table.unit_of(altitude), sample.altitude_m, false, range)
+            .map_err(|m| table.at_cell(altitude, m))?;
+        let point = scan.push(sample).map_err(|e| table.at_line(e))?;
         writer.row(&values(&point, units))?;
     }
     Ok(())
 }
 
-/// The summary as JSON: the core's own fields in SI. In US units the same structure,
-/// each value of a catalogue quantity converted and its key renamed to the quantity's US
-/// column; the `value` of an extreme (`max_drag`) is the quantity its key names.
+/// The summary as JSON: the core's own fields in SI, and the caution. In US units the same
+/// structure, each value of a catalogue quantity converted and its key renamed to the
+/// quantity's US column; the `value` of an extreme (`max_drag`) is the quantity its key
+/// names.
 fn json_summary(summary: &FlightSummary, units: UnitSystem) -> Value {
     let mut value = serde_json::to_value(summary).unwrap_or(Value::Null);
-    if units == UnitSystem::Si {
-        return value;
-    }
     if let Value::Object(map) = &mut value {
-        for (key, item) in map.iter_mut() {
-            if let Value::Object(fields) = item {
-                let extreme = key.strip_prefix("max_").and_then(Quantity::from_name);
-                *fields = convert(std::mem::take(fields), extreme, units);
+        if units == UnitSystem::Us {
+            for (key, item) in map.iter_mut() {
+                if let Value::Object(fields) = item {
+                    let extreme = key.strip_prefix("max_").and_then(Quantity::from_name);
+                    *fields = convert(std::mem::take(fields), extreme, units);
+                }
             }
+            map.insert("units".to_owned(), json!("us"));
         }
-        map.insert("units".to_owned(), json!("us"));
+        map.insert("caution".to_owned(), json!(CAUTION));
     }
     value
 }
@@ -232,5 +249,5 @@ fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
         }
         None => format!("max {}: none (give --cd or --cd-table and --area)\n", drag.label),
     };
-    text
+    text + CAUTION + "\n"
 }
