@@ -31,7 +31,7 @@ pub fn model_help() -> String {
 #[derive(Args)]
 pub struct ModelArgs {
     #[arg(long, value_name = "SPEC", help = model_help(), conflicts_with_all = ["offset", "sounding"])]
-    pub model: Option<String>,
+    pub model: Vec<String>,
     #[arg(long, value_name = "DT", allow_hyphen_values = true, conflicts_with = "sounding",
           help = OFFSET.help("Shorthand for --model offset=DT: the standard, T + DT at its pressure \
                               (a hot day is positive)"))]
@@ -55,6 +55,8 @@ pub struct Model {
     pub label: String,
     /// The 1976 standard itself (no offset, no file).
     pub standard: bool,
+    /// The CSV file of a sounding, whose wind columns a flight may take.
+    pub sounding_csv: Option<PathBuf>,
 }
 
 impl ModelArgs {
@@ -64,8 +66,15 @@ impl ModelArgs {
     /// [`Failure::Input`] naming the option: a bad spec or value, a file that cannot be
     /// read, parameters the model refuses.
     pub fn load(&self, units: UnitSystem) -> Result<Model, Failure> {
-        if let Some(text) = &self.model {
-            return load_spec(text, "--model", units);
+        match self.model.as_slice() {
+            [] => {}
+            [text] => return load_spec(text, "--model", units),
+            several => {
+                return Err(Failure::Input(format!(
+                    "--model is given {} times; only flight and plot profile take several models",
+                    several.len()
+                )))
+            }
         }
         if let Some(path) = &self.sounding {
             let blend_m = self.blend.as_deref().map(|t| BLEND_DEPTH.si(t, units)).transpose()?;
@@ -78,9 +87,20 @@ impl ModelArgs {
         build(&ModelSpec::Standard, "--model", units)
     }
 
+    /// Every model `--model` names (repeated), or the one of the shorthands or the standard.
+    ///
+    /// # Errors
+    /// As [`ModelArgs::load`].
+    pub fn load_all(&self, units: UnitSystem) -> Result<Vec<Model>, Failure> {
+        if self.model.len() > 1 {
+            return self.model.iter().map(|text| load_spec(text, "--model", units)).collect();
+        }
+        self.load(units).map(|model| vec![model])
+    }
+
     /// Whether any of the options was given.
     pub fn given(&self) -> bool {
-        self.model.is_some() || self.offset.is_some() || self.sounding.is_some()
+        !self.model.is_empty() || self.offset.is_some() || self.sounding.is_some()
     }
 
     /// The option that was given, for messages (`--model` when none was).
@@ -141,7 +161,16 @@ fn build(spec: &ModelSpec, option: &str, units: UnitSystem) -> Result<Model, Fai
             None => return Err(Failure::Input(format!("{option}: this model is not available here"))),
         },
     };
-    Ok(Model { atmosphere, label: label(spec, units), standard: matches!(spec, ModelSpec::Standard) })
+    let sounding_csv = match *spec {
+        ModelSpec::Sounding { path, .. } if !sounding::is_json(Path::new(path)) => Some(PathBuf::from(path)),
+        _ => None,
+    };
+    Ok(Model {
+        atmosphere,
+        label: label(spec, units),
+        standard: matches!(spec, ModelSpec::Standard),
+        sounding_csv,
+    })
 }
 
 /// A short name of a model for a legend, its values in `units`.
@@ -253,7 +282,7 @@ mod tests {
     #[test]
     fn a_shorthand_is_the_very_spec_it_stands_for() {
         let args = |offset: Option<&str>, model: Option<&str>| ModelArgs {
-            model: model.map(str::to_owned),
+            model: model.map(str::to_owned).into_iter().collect(),
             offset: offset.map(str::to_owned),
             sounding: None,
             blend: None,

@@ -215,7 +215,7 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         let mut reader = SampleReader::new(input, name.clone(), units);
         let mut trace = FlightTrace::new(label);
         while let Some(sample) = reader.next_sample()? {
-            let point = scan.push(sample).map_err(|e| reader.table().at_line(e))?;
+            let point = sample.push(&mut scan).map_err(|e| reader.table().at_line(e))?;
             trace.offer_point(&point);
         }
         if trace.is_empty() {

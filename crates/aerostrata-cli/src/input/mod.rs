@@ -8,3 +8,4 @@ pub mod progress;
 pub mod samples;
 pub mod sounding;
 pub mod table;
+pub mod winds;

@@ -46,6 +46,7 @@ pub struct TableReader<R> {
     implicit: bool,
     values: Vec<Option<f64>>,
     line: usize,
+    quiet: bool,
 }
 
 impl<R: BufRead> TableReader<R> {
@@ -62,7 +63,20 @@ impl<R: BufRead> TableReader<R> {
             implicit: false,
             values: Vec::new(),
             line: 0,
+            quiet: false,
         }
+    }
+
+    /// The same reader without the warning about columns it does not read (a sounding's
+    /// wind columns are read by a second reader of the same file, which leaves the
+    /// atmosphere's columns aside).
+    pub fn quiet(self) -> Self {
+        TableReader { quiet: true, ..self }
+    }
+
+    /// The number (from 1) of the last line read.
+    pub fn line(&self) -> usize {
+        self.line
     }
 
     /// The underlying input.
@@ -134,7 +148,8 @@ impl<R: BufRead> TableReader<R> {
     fn read_header(&mut self, text: &str) -> Result<(), Failure> {
         let units = self.units;
         let accepts = self.columns.accepts;
-        let header = Header::read(text, |q| accepts.contains(&q), |q| default_unit(units, q))
+        let renamed = speed_as_velocity(text);
+        let header = Header::read(&renamed, |q| accepts.contains(&q), |q| default_unit(units, q))
             .map_err(|e| self.at_line(e))?;
         if header.ignored().count() == header.count() {
             let names: Vec<&str> = accepts.iter().map(|q| q.name()).collect();
@@ -150,7 +165,7 @@ impl<R: BufRead> TableReader<R> {
             .ignored()
             .map(|i| format!("{} '{}'", i + 1, self.headings.get(i).map_or("", String::as_str)))
             .collect();
-        if !ignored.is_empty() {
+        if !ignored.is_empty() && !self.quiet {
             let taken: Vec<&str> = self.columns.accepts.iter().map(|q| q.name()).collect();
             eprintln!(
                 "aerostrata: {}: line {}: column{} {} not read (the columns read here: {})",
@@ -196,6 +211,27 @@ impl<R: BufRead> TableReader<R> {
             ref other => self.at_line(other),
         }
     }
+}
+
+/// `text` (a header) with a heading `speed` (`speed_m_s`, `Speed (kt)`) read as
+/// `velocity`: the catalogue's name for a flight's speed, which a file giving the speed
+/// with its flight-path angle and heading may well call speed. A heading the catalogue
+/// knows (`speed_of_sound`) is left as it is.
+fn speed_as_velocity(text: &str) -> String {
+    let delimiter = table::delimiter_of(table::clean(text));
+    let cells: Vec<String> = table::cells(text, delimiter)
+        .map(|cell| {
+            let lower = cell.to_ascii_lowercase();
+            let rest = lower
+                .strip_prefix("speed")
+                .filter(|rest| rest.is_empty() || rest.starts_with(['_', ' ', '(', '[']));
+            match (rest, Quantity::from_column(cell)) {
+                (Some(_), Err(_)) => format!("velocity{}", &cell["speed".len()..]),
+                _ => cell.to_owned(),
+            }
+        })
+        .collect();
+    cells.join(&delimiter.to_string())
 }
 
 /// One row of a table.
