@@ -348,10 +348,11 @@ impl Flight<'_, '_> {
                     track.push(point.time_s, point.dynamic_pressure_pa);
                 }
                 values.clear();
+                // `+ 0.0` writes a zero component of a velocity at rest as 0, not -0.
                 values.extend(
                     self.quantities
                         .iter()
-                        .map(|q| Cell::Number(point.get(*q).ok().map(|v| self.units.from_si(*q, v)))),
+                        .map(|q| Cell::Number(point.get(*q).ok().map(|v| self.units.from_si(*q, v) + 0.0))),
                 );
                 if several {
                     values.insert(0, Cell::Text(&model.label));
