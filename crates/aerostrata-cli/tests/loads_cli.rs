@@ -73,7 +73,8 @@ fn q_alpha_through_a_crosswind_matches_a_hand_computation() {
     let winds = dir.join("winds.csv");
     // A steady 20 kt wind from the west (270 deg) at every altitude: it blows toward the
     // east at 20 x 1852/3600 m/s (the knot is 1852 m per hour, by definition).
-    std::fs::write(&winds, "altitude_m,wind_speed_kt,wind_direction_deg\n0,20,270\n5000,20,270\n").unwrap();
+    std::fs::write(&winds, "geometric_altitude_m,wind_speed_kt,wind_direction_deg\n0,20,270\n5000,20,270\n")
+        .unwrap();
     let w: f64 = 20.0 * 1852.0 / 3600.0;
     // Straight up at 150 m/s with the axis vertical.
     let flight = "time_s,altitude_m,velocity_east_m_s,velocity_north_m_s,velocity_up_m_s\n\
@@ -100,9 +101,13 @@ fn q_alpha_through_a_crosswind_matches_a_hand_computation() {
 fn winds_need_the_velocitys_direction() {
     let dir = scratch("winds-refused");
     let winds = dir.join("w.csv");
-    std::fs::write(&winds, "altitude_m,wind_east_m_s,wind_north_m_s\n0,5,0\n").unwrap();
+    std::fs::write(&winds, "geometric_altitude_m,wind_east_m_s,wind_north_m_s\n0,5,0\n").unwrap();
     let w = winds.to_str().unwrap();
+    let bad = dir.join("bad.csv");
+    std::fs::write(&bad, "geometric_altitude_m,wind_speed_kt,wind_direction_deg\n0,fast,270\n").unwrap();
+    let vector = "time_s,altitude_m,velocity_east_m_s,velocity_north_m_s,velocity_up_m_s\n0,0,0,0,1\n";
     each_fails_with(&[
+        (&["flight", "-", "--winds", bad.to_str().unwrap()], vector, "line 2"),
         (
             &["flight", "-", "--winds", w],
             "0,0,10\n1,10,20\n",
@@ -263,7 +268,7 @@ fn a_soundings_wind_columns_blow_on_a_flight_with_direction() {
     assert!(text.contains("wind held beyond the profile's ends at 0 sample(s)"), "{text}");
     // --winds replaces them.
     let winds = dir.join("calm_above.csv");
-    std::fs::write(&winds, "altitude_m,wind_east_m_s,wind_north_m_s\n1000,1,0\n").unwrap();
+    std::fs::write(&winds, "geometric_altitude_m,wind_east_m_s,wind_north_m_s\n1000,1,0\n").unwrap();
     let (csv, text) = run(&["flight", "-", "--model", &model, "--winds", winds.to_str().unwrap()], flight);
     assert_eq!(values(&csv, "wind_east_m_s"), [1.0, 1.0]);
     assert!(text.contains("wind held beyond the profile's ends at 2 sample(s)"), "{text}");

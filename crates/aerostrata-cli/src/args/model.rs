@@ -15,6 +15,7 @@ use clap::Args;
 
 use crate::args::value::{BLEND_DEPTH, OFFSET};
 use crate::failure::Failure;
+use crate::input::winds::Winds;
 use crate::input::{layers, sounding};
 use crate::units::UnitSystem;
 
@@ -55,8 +56,8 @@ pub struct Model {
     pub label: String,
     /// The 1976 standard itself (no offset, no file).
     pub standard: bool,
-    /// The CSV file of a sounding, whose wind columns a flight may take.
-    pub sounding_csv: Option<PathBuf>,
+    /// The winds of a CSV sounding's wind columns, which a flight may take.
+    pub winds: Option<Winds>,
 }
 
 impl ModelArgs {
@@ -151,9 +152,12 @@ fn bare_number(text: &str) -> Option<&str> {
 /// The model of a parsed spec, its files read.
 fn build(spec: &ModelSpec, option: &str, units: UnitSystem) -> Result<Model, Failure> {
     let refused = |e: aerostrata::Error| Failure::Input(format!("{option}: {e}"));
+    let mut winds = None;
     let atmosphere = match *spec {
         ModelSpec::Sounding { path, blend_m } => {
-            AnyModel::Sounding(sounding::load(Path::new(path), blend_m).map_err(Failure::Input)?)
+            let (table, found) = sounding::load(Path::new(path), blend_m).map_err(Failure::Input)?;
+            winds = found;
+            AnyModel::Sounding(table)
         }
         ModelSpec::Layers { path } => AnyModel::Layers(layers::load(Path::new(path))?),
         ref other => match AnyModel::from_spec(other) {
@@ -161,16 +165,7 @@ fn build(spec: &ModelSpec, option: &str, units: UnitSystem) -> Result<Model, Fai
             None => return Err(Failure::Input(format!("{option}: this model is not available here"))),
         },
     };
-    let sounding_csv = match *spec {
-        ModelSpec::Sounding { path, .. } if !sounding::is_json(Path::new(path)) => Some(PathBuf::from(path)),
-        _ => None,
-    };
-    Ok(Model {
-        atmosphere,
-        label: label(spec, units),
-        standard: matches!(spec, ModelSpec::Standard),
-        sounding_csv,
-    })
+    Ok(Model { atmosphere, label: label(spec, units), standard: matches!(spec, ModelSpec::Standard), winds })
 }
 
 /// A short name of a model for a legend, its values in `units`.

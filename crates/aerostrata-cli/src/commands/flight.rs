@@ -68,7 +68,8 @@ pub struct FlightArgs {
     pub vehicle: VehicleArgs,
     #[command(flatten)]
     pub model: ModelArgs,
-    /// Winds aloft over any model: a CSV of altitude and wind_speed with wind_direction
+    /// Winds aloft over any model: a CSV of geometric_altitude (or geopotential_altitude)
+    /// and wind_speed with wind_direction
     /// (the direction it blows from, deg clockwise from true north), or wind_east with
     /// wind_north, each heading with its unit (wind_speed_kt). Linear in altitude between
     /// levels, the end levels held beyond them. Replaces a sounding's own wind columns.
@@ -172,13 +173,6 @@ pub fn run(args: &FlightArgs) -> Result<(), Failure> {
     let table = args.vehicle.table()?;
     let vehicle = args.vehicle.vehicle(&table, units)?;
     let given_winds = args.winds.as_deref().map(|p| winds::load_file(p, units)).transpose()?;
-    let mut sounding_winds = Vec::with_capacity(models.len());
-    for model in &models {
-        sounding_winds.push(match (&given_winds, &model.sounding_csv) {
-            (None, Some(path)) => winds::load_sounding(path)?,
-            _ => None,
-        });
-    }
     let q_limit = args.q_limit.as_deref().map(|t| Q_LIMIT.si(t, units)).transpose()?;
     let q_alpha_limit = args.q_alpha_limit.as_deref().map(|t| Q_ALPHA_LIMIT.si(t, units)).transpose()?;
     let fraction = plateau_fraction(&args.plateau_fraction)?;
@@ -208,19 +202,18 @@ pub fn run(args: &FlightArgs) -> Result<(), Failure> {
                 "--q-alpha-limit: {source} gives speeds without direction, so q-alpha is not known; {fix}"
             )));
         }
-        for (model, found) in models.iter().zip(&sounding_winds) {
-            if let (Some(_), Some(path)) = (found, &model.sounding_csv) {
-                eprintln!(
-                    "aerostrata: sounding {}: its wind columns are not used: {source} gives speeds relative to the \
-                     air; to fly through the winds, {fix}",
-                    path.display()
-                );
-            }
+        for model in models.iter().filter(|m| m.winds.is_some()) {
+            eprintln!(
+                "aerostrata: {}: its wind columns are not used: {source} gives speeds relative to the air; to fly \
+                 through the winds, {fix}",
+                model.label
+            );
         }
     }
-    let winds_of: Vec<Option<&Winds>> = sounding_winds
+    // --winds replaces a sounding's own.
+    let winds_of: Vec<Option<&Winds>> = models
         .iter()
-        .map(|found| if directed { given_winds.as_ref().or(found.as_ref()) } else { None })
+        .map(|m| if directed { given_winds.as_ref().or(m.winds.as_ref()) } else { None })
         .collect();
     let several = models.len() > 1;
     let quantities = quantities(kind, winds_of.iter().any(Option::is_some));

@@ -46,7 +46,6 @@ pub struct TableReader<R> {
     implicit: bool,
     values: Vec<Option<f64>>,
     line: usize,
-    quiet: bool,
 }
 
 impl<R: BufRead> TableReader<R> {
@@ -63,20 +62,7 @@ impl<R: BufRead> TableReader<R> {
             implicit: false,
             values: Vec::new(),
             line: 0,
-            quiet: false,
         }
-    }
-
-    /// The same reader without the warning about columns it does not read (a sounding's
-    /// wind columns are read by a second reader of the same file, which leaves the
-    /// atmosphere's columns aside).
-    pub fn quiet(self) -> Self {
-        TableReader { quiet: true, ..self }
-    }
-
-    /// The number (from 1) of the last line read.
-    pub fn line(&self) -> usize {
-        self.line
     }
 
     /// The underlying input.
@@ -165,7 +151,7 @@ impl<R: BufRead> TableReader<R> {
             .ignored()
             .map(|i| format!("{} '{}'", i + 1, self.headings.get(i).map_or("", String::as_str)))
             .collect();
-        if !ignored.is_empty() && !self.quiet {
+        if !ignored.is_empty() {
             let taken: Vec<&str> = self.columns.accepts.iter().map(|q| q.name()).collect();
             eprintln!(
                 "aerostrata: {}: line {}: column{} {} not read (the columns read here: {})",
