@@ -69,11 +69,11 @@ pub struct FlightArgs {
     #[command(flatten)]
     pub model: ModelArgs,
     /// Winds aloft over any model: a CSV of geometric_altitude (or geopotential_altitude)
-    /// and wind_speed with wind_direction
-    /// (the direction it blows from, deg clockwise from true north), or wind_east with
-    /// wind_north, each heading with its unit (wind_speed_kt). Linear in altitude between
-    /// levels, the end levels held beyond them. Replaces a sounding's own wind columns.
-    /// Needs a file giving the velocity's direction.
+    /// and wind_speed with wind_direction (the direction it blows from, deg clockwise from
+    /// true north), or wind_east with wind_north, each heading with its unit
+    /// (wind_speed_kt). Linear in altitude between levels, the end levels held beyond
+    /// them. Replaces a sounding's own wind columns. Needs a file giving the velocity's
+    /// direction.
     #[arg(long, value_name = "FILE")]
     winds: Option<PathBuf>,
     #[arg(long, value_name = "Q", allow_hyphen_values = true,
@@ -84,7 +84,7 @@ pub struct FlightArgs {
                                       velocity's direction)"))]
     q_alpha_limit: Option<String>,
     /// The q plateau: the span around the maximum where q stays within this fraction of it
-    /// (0.02 or 2%).
+    /// (0.02 or 2%; above 0, below 0.5).
     #[arg(long, value_name = "FRACTION", default_value = "2%")]
     plateau_fraction: String,
     /// The boundary layer of the recovery temperature (a file giving the velocity's
