@@ -2,7 +2,7 @@
 """Writes flight_log.csv: an invented barometer log for the c-altimeter example.
 
 The vehicle, the site and the flight are invented for this demonstration: the
-"Lark 38" test rocket (1.60 kg at lift-off, 0.42 kg of propellant burnt at a
+"Moravin 38" test rocket (1.60 kg at lift-off, 0.42 kg of propellant burnt at a
 constant 150 N for 2.1 s, Cd 0.55 on a 38 mm body) flown from an invented pad at
 412 m above sea level on a standard day, a drogue opening 1.5 s after apogee.
 The trajectory is a plain vertical point-mass integration (Euler, 1 ms steps),
@@ -67,7 +67,7 @@ def main():
         z += v * DT
         t += DT
         step += 1
-    print("# Invented barometer log of the invented Lark 38 test rocket (see make_log.py).")
+    print("# Invented barometer log of the invented Moravin 38 test rocket (see make_log.py).")
     print(f"# pad: {PAD_M:.1f} m above sea level, standard day; noise {NOISE_PA} Pa (seed 1976)")
     print(f"# true apogee: {apogee[1]:.2f} m above the pad at t = {apogee[0]:.3f} s")
     print(f"# true maximum dynamic pressure: {max_q[1]:.1f} Pa at t = {max_q[0]:.3f} s")

@@ -16,7 +16,8 @@ use aerostrata_cli::Failure;
 use clap::{CommandFactory, Parser, Subcommand};
 
 /// Air properties of the U.S. Standard Atmosphere 1976 (-5 km to 1000 km) on a
-/// standard, hot or cold day or a sounding, and the aerodynamics of a flight through it.
+/// standard, hot or cold day, a sounding or any --model, and the aerodynamics of a flight
+/// through it. Values take units (15C, 1020hPa, 35000ft); a bare number is SI.
 ///
 /// Not certified flight software: verify results independently before relying on them.
 #[derive(Parser)]
@@ -46,10 +47,10 @@ enum Command {
     /// Convert between calibrated, equivalent and true airspeed and Mach number.
     Airspeed(airspeed::AirspeedArgs),
     /// Pressure altitude from static pressure; density altitude, QNH or pad-relative
-    /// altitude on request.
+    /// altitude, or where a model's air has the pressure, on request.
     Altitude(altitude::AltitudeArgs),
     /// Draw an SVG plot: state quantities against altitude for several models, or a
-    /// flight's q and Mach number against time with the maximum q marked.
+    /// flight's q, Mach number and drag against time with the maxima marked.
     #[command(subcommand)]
     Plot(plot::PlotCommand),
     /// List the quantities of the core's catalogue: names, symbols, labels, SI and US

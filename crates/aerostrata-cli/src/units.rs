@@ -1,12 +1,14 @@
 //! `--units si|us`: which of its two units from the core's catalogue each quantity is
-//! read and written in. Nothing here knows a unit or a factor: the unit of a quantity is
+//! written in (and read in, from a file whose heading and value name none; an option's
+//! value is always in its own unit or SI). Nothing here knows a unit or a factor: the
+//! unit of a quantity is
 //! [`Quantity::si`] or [`Quantity::us`], and every conversion is the core's
 //! ([`aerostrata::units`]), at the edge, so that the core only ever sees SI.
 
 use aerostrata::units::Unit;
 use aerostrata::Quantity;
 
-/// Which of each quantity's units a command reads and writes.
+/// Which of each quantity's units a command writes (and reads from files).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum UnitSystem {
     /// SI, what the core computes in: m, m/s, K, Pa, kg/m3.

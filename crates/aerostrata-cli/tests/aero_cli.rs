@@ -83,16 +83,16 @@ fn flight_with_a_vehicle_and_files() {
 #[test]
 fn flight_bad_input_exits_2_with_one_line() {
     each_fails_with(&[
-        (&["flight", "-"], "0,0,0\n1,abc,3\n", "line 2: 'abc' is not a number (altitude in m)"),
-        (&["flight", "-"], "0,0,0\n\n0,10,3\n", "line 3: flight sample point 1: time (s) must be after"),
+        (&["flight", "-"], "0,0,0\n1,abc,3\n", "stdin: line 2, column 2 (altitude_m): 'abc' is not a number"),
+        (&["flight", "-"], "0,0,0\n\n0,10,3\n", "stdin: line 3: flight sample point 1: time (s) must be after"),
         (
             &["flight", "-"],
             "# comment\n0,0,0\n1,-6000,3\n",
-            "line 3: geometric altitude -6000 m is outside the allowed range -5000 to",
+            "stdin: line 3, column 2 (altitude_m): geometric altitude -6000 m is outside the allowed range -5000 to",
         ),
-        (&["flight", "-"], "0,0,NaN\n", "line 1: velocity must be a finite number, got NaN"),
-        (&["flight", "-"], "0,0\n", "line 1: expected 3 values"),
-        (&["flight", "-"], "time,altitude,velocity\n", "line 1: 'time' is not a number (time in s)"),
+        (&["flight", "-"], "0,0,NaN\n", "line 1, column 3 (velocity_m_s): 'NaN' is not a number"),
+        (&["flight", "-"], "0,0\n", "line 1: expected 3 values (time_s,altitude_m,velocity_m_s), got 2"),
+        (&["flight", "-"], "time,altitude,velocity\n0,,1\n", "line 2, column 2 (altitude): an empty cell"),
         (&["flight", "-", "--cd", "0.5"], "", "--cd and --cd-table need --area"),
         (&["flight", "-", "--area", "0.5"], "", "--area needs --cd or --cd-table"),
         (&["flight", "-", "--length", "2"], "", "--length needs"),
@@ -103,31 +103,44 @@ fn flight_bad_input_exits_2_with_one_line() {
             "--cd-table: drag table point 2: Mach number must be above the previous point's, got 1",
         ),
         (&["flight", "-", "--cd-table", "0:0.4,x", "--area", "1"], "", "--cd-table: 'x' is not MACH:CD"),
-        (&["flight", "-", "--cd", "0.5", "--area", "0"], "", "--area: reference area must be greater than 0"),
+        (&["flight", "-", "--cd", "0.5", "--area", "0"], "", "--area 0: 0 m2 is below any reference area"),
         (&["flight", "/no/such/file"], "", "cannot open /no/such/file"),
-        (&["flight", "-", "--offset", "-400"], "0,0,0\n", "line 1: temperature must be greater than 0 K"),
+        (
+            &["flight", "-", "--offset", "-400"],
+            "0,0,0\n",
+            "--offset -400: -400 K is below any day's offset from the standard temperature (-100 to 100 K)",
+        ),
+        (&["flight", "-", "--model", "offset=-400"], "0,0,0\n", "--model offset=-400: offset: an offset DT"),
     ]);
 }
 
 #[test]
 fn airspeed_conversions() {
+    let csv = |args: &[&str]| run(&[&["airspeed", "--format", "csv"], args].concat(), "").0;
     // CAS = EAS = TAS at standard sea level (by definition; common practice, no source).
-    let (csv, _) = run(&["airspeed", "--tas", "120", "--pressure-altitude", "0", "--oat", "288.15"], "");
+    let at_sea_level = csv(&["--tas", "120", "--pressure-altitude", "0", "--temperature", "288.15"]);
     for name in ["calibrated_airspeed_m_s", "equivalent_airspeed_m_s", "true_airspeed_m_s"] {
-        assert!((column(&csv, name)[0].unwrap() - 120.0).abs() < 1e-9, "{name}: {csv}");
+        assert!((column(&at_sea_level, name)[0].unwrap() - 120.0).abs() < 1e-9, "{name}: {at_sea_level}");
     }
     // ISA at 10 000 m', Mach 0.8: CAS 146.985088 m/s (tests/reference/airspeed_mpmath.py).
-    let (csv, _) = run(&["airspeed", "--mach", "0.8", "--pressure-altitude", "10000", "--oat", "223.15"], "");
-    assert!((column(&csv, "calibrated_airspeed_m_s")[0].unwrap() - 146.985088396063).abs() < 1e-9);
-    // Knots in and out, and the same condition given as a static pressure.
-    let (kt, _) = run(
-        &["airspeed", "--cas", "250", "--unit", "kt", "--pressure-altitude", "3048", "--oat", "268.15"],
-        "",
-    );
+    let high = csv(&["--mach", "0.8", "--pressure-altitude", "10000", "--temperature", "223.15"]);
+    assert!((column(&high, "calibrated_airspeed_m_s")[0].unwrap() - 146.985088396063).abs() < 1e-9);
+    // The temperature in degC or degF, the altitude in km: the same air (-50 degC is
+    // 223.15 K exactly; -58 degF is -50 degC).
+    assert_eq!(csv(&["--mach", "0.8", "--pressure-altitude", "10km", "--temperature", "-50C"]), high);
+    let fahrenheit = csv(&["--mach", "0.8", "--pressure-altitude", "10km", "--temperature", "-58F"]);
+    let cas = column(&fahrenheit, "calibrated_airspeed_m_s")[0].unwrap();
+    assert!((cas - 146.985088396063).abs() < 1e-9, "{cas}");
+    // Knots in and out (the old --unit and the unit written after the number), and the
+    // same condition given as a static pressure.
+    let kt = csv(&["--cas", "250", "--unit", "kt", "--pressure-altitude", "3048", "--oat", "268.15"]);
     assert_eq!(column(&kt, "calibrated_airspeed_kt")[0], Some(250.0));
+    let written =
+        csv(&["--cas", "250kt", "--pressure-altitude", "3048m", "--temperature", "268.15K", "--units", "us"]);
+    let knots_from_si = column(&written, "calibrated_airspeed_kt")[0].unwrap();
+    assert!((knots_from_si - 250.0).abs() < 1e-12, "{knots_from_si}");
     let p = column(&kt, "static_pressure_Pa")[0].unwrap().to_string();
-    let (same, _) =
-        run(&["airspeed", "--cas", "250", "--unit", "kt", "--pressure", &p, "--oat", "268.15"], "");
+    let same = csv(&["--cas", "250", "--unit", "kt", "--pressure", &p, "--temperature", "268.15"]);
     assert_eq!(same, kt);
     // The standard day at an altitude, as JSON.
     let (json, _) =
@@ -137,21 +150,49 @@ fn airspeed_conversions() {
     let value = &value[0];
     assert_eq!(value["mach"], 2.0);
     assert!(value["calibrated_airspeed_m_s"].as_f64().unwrap() > 340.0, "a supersonic CAS");
+    // The same air through --model, the shorthand and the model language alike.
+    let (by_model, _) = run(
+        &["airspeed", "--mach", "2", "--altitude", "11km", "--model", "offset=+5K", "--format", "json"],
+        "",
+    );
+    assert_eq!(by_model, json);
+}
+
+#[test]
+fn one_answer_reads_well_and_exact_gives_every_digit() {
+    let (table, _) =
+        run(&["airspeed", "--cas", "250kt", "--pressure-altitude", "10000ft", "--temperature", "-5C"], "");
+    let lines: Vec<&str> = table.lines().collect();
+    assert_eq!(lines.len(), 3, "{table}");
+    assert!(
+        lines[0].split_whitespace().eq(["CAS", "EAS", "TAS", "M", "qc", "q", "p", "rho", "a"]),
+        "{table}"
+    );
+    assert!(lines[2].contains("0.4523") && !lines[2].contains("0.45227"), "rounded: {table}");
+    let (exact, _) = run(
+        &["airspeed", "--cas", "250kt", "--pressure-altitude", "10000ft", "--temperature", "-5C", "--exact"],
+        "",
+    );
+    assert!(exact.contains("0.45227490371064966"), "{exact}");
+    let (altitude, _) = run(&["altitude", "--pressure", "843hPa"], "");
+    assert!(altitude.lines().nth(2).unwrap().trim_start().starts_with("84300.0"), "{altitude}");
+    let (exact, _) = run(&["altitude", "--pressure", "843hPa", "--exact"], "");
+    assert!(exact.lines().nth(2).unwrap().split_whitespace().nth(1).unwrap().len() > 10, "{exact}");
 }
 
 #[test]
 fn airspeed_bad_input_exits_2_with_one_line() {
     each_fails_with(&[
         (
-            &["airspeed", "--tas", "-5", "--pressure", "1e5", "--oat", "288"],
+            &["airspeed", "--tas", "-5", "--pressure", "1e5", "--temperature", "288"],
             "",
-            "--tas: true airspeed -5 m/s is outside the allowed range 0 to",
+            "--tas -5: -5 m/s is below any airspeed (0 to 10000 m/s)",
         ),
-        (&["airspeed", "--mach", "0.5"], "", "give --pressure-altitude H or --pressure P with --oat T"),
+        (&["airspeed", "--mach", "0.5"], "", "give --pressure-altitude H or --pressure P with --temperature T"),
         (
-            &["airspeed", "--mach", "0.5", "--oat", "250"],
+            &["airspeed", "--mach", "0.5", "--temperature", "250"],
             "",
-            "--oat needs --pressure-altitude H or --pressure P",
+            "--temperature needs --pressure-altitude H or --pressure P",
         ),
         (
             &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "288", "--offset", "3"],
@@ -159,25 +200,40 @@ fn airspeed_bad_input_exits_2_with_one_line() {
             "--offset applies to --altitude only",
         ),
         (
+            &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "288", "--model", "isothermal=250K"],
+            "",
+            "--model applies to --altitude only",
+        ),
+        (
             &["airspeed", "--mach", "0.5", "--pressure-altitude", "-6000", "--oat", "250"],
             "",
-            "--pressure-altitude/--oat: geopotential altitude -6000 m is outside the allowed range",
+            "--pressure-altitude -6000: -6000 m is below any altitude (-5000 to 1000000 m); write -6000ft or -1828.8m",
         ),
         (
-            &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--oat", "-3"],
+            &["airspeed", "--mach", "0.5", "--pressure", "1e5", "--temperature", "-3"],
             "",
-            "temperature must be greater than 0 K",
+            "--temperature -3: -3 K is below any air temperature (120 to 350 K); write -3degC or 270.15K",
         ),
+        (&["airspeed", "--cas", "NaN", "--altitude", "0"], "", "--cas NaN: 'NaN' is not a number"),
+        (&["airspeed", "--mach", "0.5", "--altitude", "-7000"], "", "--altitude -7000: -7000 m is below any altitude"),
         (
-            &["airspeed", "--cas", "NaN", "--altitude", "0"],
+            &[
+                "airspeed",
+                "--mach",
+                "0.5",
+                "--altitude",
+                "50km",
+                "--sounding",
+                concat!(env!("CARGO_MANIFEST_DIR"), "/../../examples/data/vessaro_key_hot_humid.csv"),
+            ],
             "",
-            "--cas: calibrated airspeed must be a finite number",
+            "--altitude 50km: geometric altitude 50000 m is outside the allowed range 4 to 30000 m",
         ),
-        (
-            &["airspeed", "--mach", "0.5", "--altitude", "-7000"],
-            "",
-            "--altitude: geometric altitude -7000 m is outside",
-        ),
+        // The option at fault is named, not the one beside it.
+        (&["airspeed", "--mach", "0.5", "--altitude", "0", "--offset", "-300"], "", "--offset -300: -300 K is below"),
+        (&["airspeed", "--mach", "0.5", "--altitude", "35000", "--units", "us"], "", "--altitude 35000: with --units us"),
+        (&["airspeed", "--cas", "250", "--altitude", "0ft", "--units", "us"], "", "--cas 250: with --units us a bare number could be m/s or kt; write 250kt or 250m/s"),
+        (&["airspeed", "--mach", "0.5", "--pressure", "29.92", "--temperature", "15C", "--units", "us"], "", "--pressure 29.92: with --units us a bare number could be Pa or inHg"),
     ]);
     // Two speeds, or none: a usage error (exit 2).
     let output =
@@ -189,47 +245,63 @@ fn airspeed_bad_input_exits_2_with_one_line() {
 
 #[test]
 fn altitude_from_pressure() {
-    let (csv, _) = run(&["altitude", "--pressure", "22632.063973462926"], "");
-    assert!((column(&csv, "pressure_altitude_m")[0].unwrap() - 11_000.0).abs() < 1e-9, "{csv}");
-    let geometric = column(&csv, "pressure_altitude_geometric_m")[0].unwrap();
+    let csv = |args: &[&str]| run(&[&["altitude", "--format", "csv"], args].concat(), "").0;
+    let tropopause = csv(&["--pressure", "22632.063973462926"]);
+    assert!((column(&tropopause, "pressure_altitude_m")[0].unwrap() - 11_000.0).abs() < 1e-9, "{tropopause}");
+    let geometric = column(&tropopause, "pressure_altitude_geometric_m")[0].unwrap();
     assert!((geometric - 11_019.0).abs() < 0.5, "{geometric}");
     // A pad reads 0 on itself; QNH 101325 Pa gives the pressure altitude.
-    let (csv, _) = run(&["altitude", "--pressure", "97000", "--pad", "97000"], "");
-    assert_eq!(column(&csv, "height_above_pad_m")[0], Some(0.0));
-    let (csv, _) = run(&["altitude", "--pressure", "90000", "--qnh", "101325", "--temperature", "280"], "");
-    assert_eq!(column(&csv, "qnh_altitude_m")[0], column(&csv, "pressure_altitude_m")[0]);
-    assert!(column(&csv, "density_altitude_m")[0].is_some());
-    // One pressure per line, with line numbers in errors.
-    let (csv, _) = run(&["altitude", "-"], "101325\n\n# a comment\n5474.888669677778\n");
-    let h = column(&csv, "pressure_altitude_m");
+    assert_eq!(column(&csv(&["--pressure", "97000", "--pad", "970hPa"]), "height_above_pad_m")[0], Some(0.0));
+    let with_qnh = csv(&["--pressure", "90000", "--qnh", "1013.25hPa", "--temperature", "280"]);
+    assert_eq!(column(&with_qnh, "qnh_altitude_m")[0], column(&with_qnh, "pressure_altitude_m")[0]);
+    assert!(column(&with_qnh, "density_altitude_m")[0].is_some());
+    // 1020 hPa written in hPa, mbar or Pa: the same setting to the last bit.
+    let qnh = |setting: &str| csv(&["--pressure", "90000", "--qnh", setting]);
+    assert_eq!(qnh("1020hPa"), qnh("102000"));
+    assert_eq!(qnh("1020mbar"), qnh("102000Pa"));
+    // One pressure per line, with line numbers in errors; CSV by default for a file.
+    let (lines, _) = run(&["altitude", "-"], "101325\n\n# a comment\n5474.888669677778\n");
+    let h = column(&lines, "pressure_altitude_m");
     assert_eq!(h[0], Some(0.0));
     assert!((h[1].unwrap() - 20_000.0).abs() < 1e-9);
+    // A headed column, in hPa, whatever --units says.
+    let (headed, _) = run(&["altitude", "-", "--units", "us"], "static_pressure (hPa)\n1013.25\n");
+    assert_eq!(column(&headed, "pressure_altitude_ft")[0], Some(0.0));
+    // With a model: where its air has the pressure, and the density altitude of that air.
+    let standard = csv(&["--pressure", "90000", "--model", "standard"]);
+    let (z, zp) =
+        (column(&standard, "geometric_altitude_m")[0], column(&standard, "pressure_altitude_geometric_m")[0]);
+    assert!((z.unwrap() - zp.unwrap()).abs() < 1e-6, "the standard's own pressure altitude: {standard}");
+    let hot = csv(&["--pressure", "90000", "--offset", "+15K"]);
+    assert_eq!(hot, csv(&["--pressure", "90000", "--model", "offset=+15K"]));
+    let (z_hot, hd) =
+        (column(&hot, "geometric_altitude_m")[0].unwrap(), column(&hot, "density_altitude_m")[0].unwrap());
+    assert!(z_hot > zp.unwrap() && hd > z_hot, "a hot day: higher, and thinner still: {hot}");
 }
 
 #[test]
 fn altitude_bad_input_exits_2_with_one_line() {
     each_fails_with(&[
+        (&["altitude", "--pressure", "2e6"], "", "--pressure 2e6: 2000000 Pa is above any static pressure"),
+        (&["altitude", "--pressure", "0"], "", "--pressure 0: pressure must be greater than 0 Pa, got 0 Pa"),
+        (&["altitude", "--pressure", "inf"], "", "--pressure inf: 'inf' is not a number"),
+        (&["altitude", "--pressure", "9e4", "--qnh", "NaN"], "", "--qnh NaN: 'NaN' is not a number"),
         (
-            &["altitude", "--pressure", "2e6"],
+            &["altitude", "--pressure", "9e4", "--qnh", "1020"],
             "",
-            "--pressure: pressure 2000000 Pa is outside the allowed range",
+            "--qnh 1020: 1020 Pa is below any sea-level pressure (85000 to 110000 Pa); write 1020hPa or 102000Pa",
         ),
-        (&["altitude", "--pressure", "0"], "", "--pressure: pressure must be greater than 0 Pa, got 0 Pa"),
-        (&["altitude", "--pressure", "inf"], "", "pressure must be a finite number, got inf"),
-        (
-            &["altitude", "--pressure", "9e4", "--qnh", "NaN"],
-            "",
-            "--qnh: QNH setting must be a finite number",
-        ),
-        (&["altitude", "--pressure", "9e4", "--pad", "5e5"], "", "--pad: pad pressure 500000 Pa is outside"),
+        (&["altitude", "--pressure", "9e4", "--pad", "5e5"], "", "--pad 5e5: 500000 Pa is above any surface pressure"),
         (
             &["altitude", "--pressure", "9e4", "--temperature", "0"],
             "",
-            "--temperature: temperature must be greater than 0 K",
+            "--temperature 0: 0 K is below any air temperature (120 to 350 K); write 0degC or 273.15K",
         ),
-        (&["altitude", "-"], "101325\nabc\n", "line 2: 'abc' is not a number (static pressure in Pa)"),
-        (&["altitude", "-"], "101325\n\n-4\n", "line 3: pressure must be greater than 0 Pa"),
+        (&["altitude", "-"], "101325\nabc\n", "stdin: line 2, column 1 (static_pressure_Pa): 'abc' is not a number"),
+        (&["altitude", "-"], "101325\n\n-4\n", "stdin: line 3, column 1 (static_pressure_Pa): pressure must be greater"),
+        (&["altitude", "-", "--units", "us"], "29.92\n-4\n", "line 2, column 1 (static_pressure_inHg): -4 inHg: pressure"),
         (&["altitude", "/no/such/file"], "", "cannot open /no/such/file"),
+        (&["altitude", "--pressure", "84300", "--units", "us"], "", "--pressure 84300: with --units us a bare number could be Pa or inHg"),
     ]);
     let output = aerostrata().args(["altitude"]).output().unwrap();
     assert_eq!(output.status.code(), Some(2));
@@ -239,6 +311,25 @@ fn altitude_bad_input_exits_2_with_one_line() {
 fn help_shows_an_example_per_new_subcommand() {
     for sub in ["flight", "airspeed", "altitude"] {
         let (help, _) = run(&[sub, "--help"], "");
-        assert!(help.contains("Example:"), "{sub} help lacks an example");
+        assert!(help.contains("Example"), "{sub} help lacks an example");
     }
+}
+
+#[test]
+fn the_caution_ends_the_flight_help_its_manual_page_and_its_summaries() {
+    const CAUTION: &str =
+        "Not certified flight software; verify independently; local codes, range-safety rules \
+                           and licensed engineering practice govern.";
+    let (help, _) = run(&["flight", "--help"], "");
+    assert!(help.trim_end().ends_with(CAUTION), "{help}");
+    let (page, _) = run(&["man", "flight"], "");
+    let words = |text: &str| text.replace("\\-", "-").split_whitespace().collect::<Vec<_>>().join(" ");
+    assert!(words(&page).contains(CAUTION), "{page}");
+    let (_, text) = run(&["flight", "-"], &ascent());
+    assert!(text.trim_end().ends_with(CAUTION), "{text}");
+    let (_, json) = run(&["flight", "-", "--summary", "json"], &ascent());
+    let summary: serde_json::Value = serde_json::from_str(&json).unwrap();
+    assert_eq!(summary["caution"], CAUTION);
+    let (_, json) = run(&["flight", "-", "--summary", "json", "--units", "us"], &ascent());
+    assert_eq!(serde_json::from_str::<serde_json::Value>(&json).unwrap()["caution"], CAUTION);
 }

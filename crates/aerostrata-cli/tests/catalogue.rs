@@ -140,7 +140,7 @@ fn eval_writes_the_catalogues_state_columns() {
         assert_eq!(header(&plain), columns_of(state(), us), "--units {units}");
         let with_species = stdout_of(&["eval", "--species", "--units", units], "0\n400000\n");
         assert_eq!(header(&with_species), columns_of(state().chain(species()), us), "--units {units}");
-        let table = stdout_of(&["table", "--format", "csv", "--units", units, "--to", "1000"], "");
+        let table = stdout_of(&["table", "--format", "csv", "--units", units, "--to", "1000m"], "");
         assert_eq!(header(&table), columns_of(state(), us), "--units {units}");
     }
 }
@@ -156,12 +156,17 @@ fn every_data_command_writes_catalogue_columns() {
         let scalar = FlightPoint::QUANTITIES.into_iter().take_while(|q| *q != Quantity::VelocityEast);
         assert_eq!(header(&rows), columns_of(scalar, us), "--units {units}");
         let air = [Quantity::StaticPressure, Quantity::Density, Quantity::SpeedOfSound];
-        let airspeed = stdout_of(&["airspeed", "--mach", "0.5", "--altitude", "0", "--units", units], "");
+        let airspeed = stdout_of(
+            &["airspeed", "--mach", "0.5", "--altitude", "0", "--units", units, "--format", "csv"],
+            "",
+        );
         let expected = columns_of(Airspeeds::QUANTITIES.into_iter().chain(air), us);
         assert_eq!(header(&airspeed), expected, "--units {units}");
-        let pressure = if us { "29.92" } else { "101325" };
-        let altitude =
-            stdout_of(&["altitude", "--pressure", pressure, "--qnh", pressure, "--units", units], "");
+        let pressure = if us { "29.92inHg" } else { "101325" };
+        let altitude = stdout_of(
+            &["altitude", "--pressure", pressure, "--qnh", pressure, "--units", units, "--format", "csv"],
+            "",
+        );
         let quantities = [
             Quantity::StaticPressure,
             Quantity::PressureAltitude,
@@ -171,6 +176,7 @@ fn every_data_command_writes_catalogue_columns() {
         assert_eq!(header(&altitude), columns_of(quantities.into_iter(), us), "--units {units}");
     }
     // --unit picks the airspeeds' unit among the core's.
-    let mph = stdout_of(&["airspeed", "--tas", "100", "--unit", "mph", "--altitude", "0"], "");
+    let mph =
+        stdout_of(&["airspeed", "--tas", "100", "--unit", "mph", "--altitude", "0", "--format", "csv"], "");
     assert!(header(&mph)[..3].iter().all(|c| c.ends_with("_mph")), "{mph}");
 }

@@ -61,6 +61,8 @@ fn eval_header_names_quantities_and_units() {
 #[test]
 fn offset_and_geopotential_options() {
     let hot = stdout_of(&["eval", "--offset", "15"], "0\n");
+    assert_eq!(stdout_of(&["eval", "--offset", "+15K"], "0\n"), hot);
+    assert_eq!(stdout_of(&["eval", "--offset", "+27F"], "0\n").lines().count(), 2);
     assert_eq!(values(&hot, "temperature_K"), vec![303.15]);
     assert_eq!(values(&hot, "pressure_Pa"), vec![101_325.0]);
     let cold = stdout_of(&["eval", "--offset", "-15"], "0\n");
@@ -72,26 +74,79 @@ fn offset_and_geopotential_options() {
 
 #[test]
 fn bad_input_exits_2_with_one_line() {
-    fails_with(&["eval"], "0\nabc\n", "line 2: 'abc' is not a number (geometric altitude in m)");
+    fails_with(
+        &["eval"],
+        "0\nabc\n",
+        "stdin: line 2, column 1 (geometric_altitude_m): 'abc' is not a number",
+    );
     fails_with(
         &["eval"],
         "0\n\n1200000\n",
-        "line 3: geometric altitude 1200000 m is outside the allowed range -5000 to 1000000 m",
+        "stdin: line 3, column 1 (geometric_altitude_m): geometric altitude 1200000 m is outside the allowed range \
+         -5000 to 1000000 m",
     );
-    fails_with(&["eval"], "NaN\n", "line 1: geometric altitude must be a finite number, got NaN");
+    fails_with(&["eval"], "NaN\n", "stdin: line 1, column 1 (geometric_altitude_m): 'NaN' is not a number");
     fails_with(
         &["eval", "--geopotential"],
         "-6000\n",
         "geopotential altitude -6000 m is outside the allowed range",
     );
-    fails_with(&["eval", "--offset", "-400"], "0\n", "temperature must be greater than 0 K");
+    fails_with(&["eval", "--offset", "-400"], "0\n", "--offset -400: -400 K is below any day's offset");
     fails_with(&["eval", "/no/such/file"], "", "cannot open /no/such/file");
-    fails_with(&["table", "--step", "0"], "", "--step must be greater than 0 m");
-    fails_with(&["table", "--from", "10", "--to", "0"], "", "must not be below --from");
-    fails_with(&["table", "--to", "1000001"], "", "--to: geometric altitude 1000001 m is outside");
+    fails_with(
+        &["table", "--step", "0"],
+        "",
+        "--step 0: 0 m is below any altitude step (0.001 to 1005000 m)",
+    );
+    fails_with(&["table", "--from", "10", "--to", "0"], "", "--to 0 m must not be below --from 10 m");
+    fails_with(&["table", "--to", "1000001"], "", "--to 1000001: 1000001 m is above any altitude");
+    fails_with(
+        &["table", "--to", "1000km", "--sounding", "/no/such.csv"],
+        "",
+        "cannot read sounding /no/such.csv",
+    );
     fails_with(&["eval", "--species", "--offset", "5"], "0\n", "cannot be combined with --offset");
-    fails_with(&["table", "--step", "1e-9"], "", "rows, more than");
-    fails_with(&["table", "--offset", "inf"], "", "temperature offset must be a finite number");
+    fails_with(&["table", "--step", "0.001"], "", "gives 86000001 rows, more than the 1000000 allowed");
+    fails_with(&["table", "--offset", "inf"], "", "--offset inf: 'inf' is not a number");
+    fails_with(
+        &["eval", "--geopotential"],
+        "altitude_ft\n0\n",
+        "line 1: the heading names a geometric altitude",
+    );
+}
+
+#[test]
+fn negative_numbers_as_separate_arguments() {
+    let csv =
+        stdout_of(&["table", "--from", "-2000", "--to", "-1000", "--step", "500", "--format", "csv"], "");
+    assert_eq!(values(&csv, "geometric_altitude_m"), vec![-2000.0, -1500.0, -1000.0]);
+    let cold = stdout_of(&["eval", "--offset", "-10"], "0\n");
+    assert_eq!(values(&cold, "temperature_K"), vec![278.15]);
+    let cold_c = stdout_of(&["eval", "--offset", "-10C"], "0\n");
+    assert_eq!(cold_c, cold);
+    fails_with(&["table", "--step", "-1"], "", "--step -1: -1 m is below any altitude step");
+    let (_, summary) = run(&["flight", "-", "--offset", "-10K", "--summary", "json"], "0,0,0\n1,10,20\n");
+    assert!(summary.contains("\"samples\": 2"), "{summary}");
+    let air = stdout_of(
+        &["airspeed", "--mach", "0.5", "--altitude", "-1000", "--offset", "-5", "--format", "csv"],
+        "",
+    );
+    assert!(values(&air, "static_pressure_Pa")[0] > 101_325.0);
+    let temperature = stdout_of(
+        &[
+            "airspeed",
+            "--mach",
+            "0.5",
+            "--pressure-altitude",
+            "0",
+            "--temperature",
+            "-20C",
+            "--format",
+            "csv",
+        ],
+        "",
+    );
+    assert!(values(&temperature, "speed_of_sound_m_s")[0] < 320.0);
 }
 
 #[test]

@@ -72,10 +72,12 @@ fn outside_the_sounding_is_an_error_unless_blended() {
         2,
         &["eval", "--sounding", &demo()],
         "0\n",
-        &["line 1: geometric altitude 0 m is outside the allowed range 4 to 30000 m"],
+        &["stdin: line 1, column 1 (geometric_altitude_m): geometric altitude 0 m is outside the allowed range 4 to 30000 m"],
     );
     // Blended over 5 km, the standard itself from 35 km up and below -4996 m.
     let blended = stdout_of(&["eval", "--sounding", &demo(), "--blend", "5000"], "40000\n0\n");
+    let spec = format!("sounding={},blend=5km", demo());
+    assert_eq!(stdout_of(&["eval", "--model", &spec], "40000\n0\n"), blended, "--model gives the same model");
     let standard = stdout_of(&["eval"], "40000\n");
     assert_eq!(blended.lines().nth(1), standard.lines().nth(1));
     let t = values(&blended, "temperature_K");
@@ -121,13 +123,13 @@ fn options_that_do_not_apply_to_a_sounding() {
         2,
         &["eval", "--sounding", &demo(), "--offset", "10"],
         "4\n",
-        &["cannot be combined with --sounding"],
+        &["'--sounding <FILE>' cannot be used with '--offset <DT>'"],
     );
     fails_with_all(
         2,
         &["eval", "--sounding", &demo(), "--species"],
         "4\n",
-        &["cannot be combined with --offset or --sounding"],
+        &["--species gives the standard's own number densities and cannot be combined with --sounding"],
     );
     fails_with_all(
         2,

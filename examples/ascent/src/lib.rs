@@ -1,6 +1,6 @@
-//! A point-mass vertical ascent of an invented single-stage sounding rocket, the AS-1
-//! demonstrator (every number below is made up for this example), through the U.S.
-//! Standard Atmosphere 1976 with gravity falling off with altitude, integrated with the
+//! A point-mass vertical ascent of an invented single-stage sounding rocket, the
+//! Skelvik SK-1 demonstrator (every number below is made up for this example), through
+//! the U.S. Standard Atmosphere 1976 with gravity falling off with altitude, integrated with the
 //! classical fourth-order Runge-Kutta method at a fixed step.
 //!
 //! The vehicle's own physics (thrust curve, mass flow, the equations of motion, the
@@ -276,7 +276,7 @@ pub struct Flight {
     pub apogee: Event,
 }
 
-/// Flies the AS-1 from the pad to apogee with a step of `step_s` under `law`.
+/// Flies the Skelvik SK-1 from the pad to apogee with a step of `step_s` under `law`.
 pub fn fly(law: Throttle, step_s: f64) -> Flight {
     let curve = drag_curve();
     let mut state = State {

@@ -1,14 +1,12 @@
-//! `cargo run -p ascent --release`: flies the invented AS-1 sounding rocket twice (full
-//! thrust, and throttled to hold dynamic pressure under a limit), prints the figures of
+//! `cargo run -p ascent --release`: flies the invented Skelvik SK-1 sounding rocket twice
+//! (full thrust, and throttled to hold dynamic pressure under a limit), prints the figures of
 //! merit and a step-halving convergence check, and writes CSV and SVG under
 //! `target/examples/ascent/`. With `--docs` it also copies the figures to `docs/images/`.
 
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
-use aerostrata_cli::plot::{
-    flight_figure, Figure, FlightTrace, Layout, LegendPosition, Marker, Panel, Series,
-};
+use aerostrata_cli::plot::{flight_figure, Figure, FlightTrace, Layout, Marker, Panel, Series};
 use aerostrata_cli::units::UnitSystem;
 use ascent::{fly, Flight, Results, Throttle, PAD_ALTITUDE_M, Q_LIMIT_PA, STEP_S};
 
@@ -23,7 +21,7 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
     let mut report = String::new();
     writeln!(
         report,
-        "AS-1 (invented) from a pad at {PAD_ALTITUDE_M} m, US 1976 standard atmosphere, RK4 step {STEP_S} s"
+        "Skelvik SK-1 (invented) from a pad at {PAD_ALTITUDE_M} m, US 1976 standard atmosphere, RK4 step {STEP_S} s"
     )?;
     writeln!(report, "q limit for the throttled flight: {:.1} kPa\n", Q_LIMIT_PA / 1e3)?;
     writeln!(report, "| flight | max q (kPa) | at t (s) | at altitude (m) | Mach at max q | burnout t (s) | burnout altitude (m) | burnout velocity (m/s) | apogee t (s) | apogee (m) |")?;
@@ -71,7 +69,8 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
     std::fs::write(out.join("summary.md"), &report)?;
 
     let traces: Vec<FlightTrace> = flown.iter().map(|(label, f)| trace(label, f)).collect();
-    let mut q_mach = flight_figure("AS-1 ascent: dynamic pressure and Mach number", &traces, UnitSystem::Si);
+    let mut q_mach =
+        flight_figure("Skelvik SK-1 ascent: dynamic pressure and Mach number", &traces, UnitSystem::Si);
     q_mach.panels[0].series.push(Series {
         label: format!("q limit {:.0} kPa", Q_LIMIT_PA / 1e3),
         points: vec![(0.0, Q_LIMIT_PA / 1e3), (flown[1].1.results().apogee.time_s, Q_LIMIT_PA / 1e3)],
@@ -87,21 +86,19 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
         }
     }
     if std::env::args().any(|a| a == "--docs") {
-        // Small copies of the two flights (every 0.5 s) for docs/cli.md's examples.
+        // Small copies of the two flights (every 0.5 s) for docs/cli.md's examples: the
+        // columns `aerostrata flight` reads (the throttle is in the full CSV under target/).
         for (label, flight) in &flown {
             let mut text = format!(
-                "# The invented AS-1 demonstrator, {label}, every 0.5 s (examples/ascent; written by\n\
-                 # `cargo run -p ascent --release -- --docs`). Invented data, for demonstrations only.\n\
-                 time_s,altitude_m,velocity_m_s,throttle\n"
+                "# The invented Skelvik SK-1 demonstrator, {label}, every 0.5 s (examples/ascent;\n\
+                 # written by `cargo run -p ascent --release -- --docs`). Invented data, for\n\
+                 # demonstrations only.\n\
+                 time_s,altitude_m,velocity_m_s\n"
             );
             for p in flight.points.iter().step_by((0.5 / STEP_S).round() as usize) {
-                writeln!(
-                    text,
-                    "{},{},{},{}",
-                    p.time_s, p.state.altitude_m, p.state.velocity_m_s, p.conditions.throttle
-                )?;
+                writeln!(text, "{},{},{}", p.time_s, p.state.altitude_m, p.state.velocity_m_s)?;
             }
-            let name = format!("as1_{}.csv", label.replace(' ', "_"));
+            let name = format!("sk1_{}.csv", label.replace(' ', "_"));
             std::fs::write(root.join("examples/data").join(name), text)?;
         }
     }
@@ -149,10 +146,8 @@ fn trajectory_figure(flown: &[(&str, Flight)]) -> Figure {
         ..Panel::default()
     };
     let mut altitude = panel("geometric altitude (km)");
-    altitude.legend = LegendPosition::LowerRight;
     let mut velocity = panel("vertical velocity (m/s)");
     let mut throttle = panel("throttle (of full thrust)");
-    throttle.legend = LegendPosition::LowerRight;
     for (index, (label, flight)) in flown.iter().enumerate() {
         let r: Results = flight.results();
         let series = |f: &dyn Fn(&ascent::Point) -> f64| Series {
@@ -188,7 +183,7 @@ fn trajectory_figure(flown: &[(&str, Flight)]) -> Figure {
         });
     }
     Figure {
-        title: "AS-1 ascent: altitude, velocity and throttle".to_owned(),
+        title: "Skelvik SK-1 ascent: altitude, velocity and throttle".to_owned(),
         layout: Layout::Stacked,
         panels: vec![altitude, velocity, throttle],
         size: (900, 900),

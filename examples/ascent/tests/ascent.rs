@@ -1,5 +1,5 @@
-//! The AS-1 ascent's checks: the throttled flight holds dynamic pressure under its limit
-//! with a stated margin and below the full-thrust flight's, the integration converges
+//! The Skelvik SK-1 ascent's checks: the throttled flight holds dynamic pressure under its
+//! limit with a stated margin and below the full-thrust flight's, the integration converges
 //! when the step is halved, and the trajectory obeys what the physics allows.
 
 use aerostrata::constants::{EARTH_RADIUS_M, G0_M_S2};
@@ -59,8 +59,8 @@ fn mass_and_energy_are_what_the_physics_allows() {
         assert!(flight.points.iter().all(|p| p.state.altitude_m >= PAD_ALTITUDE_M - 1e-9));
         // The coast in a vacuum under inverse-square gravity (energy conservation, common
         // practice, no source) rises to r_a with v^2/2 = g0 r0^2 (1/r_b - 1/r_a); drag
-        // only takes energy away. The AS-1 leaves the motor at Mach 3 to 4 in air still
-        // dense enough to take about a quarter of the rise: a sanity bound of 60 %.
+        // only takes energy away. The Skelvik SK-1 leaves the motor at Mach 3 to 4 in air
+        // still dense enough to take about a quarter of the rise: a sanity bound of 60 %.
         let r = EARTH_RADIUS_M;
         let (z_b, v_b) = (flight.burnout.altitude_m, flight.burnout.velocity_m_s);
         let r_b = r + z_b;

@@ -6,7 +6,7 @@
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
-use aerostrata_cli::plot::{Figure, Layout, LegendPosition, Marker, Panel, Series};
+use aerostrata_cli::plot::{Figure, Layout, Marker, Panel, Series};
 use baro_altimeter::{barometer_log, process, true_flight, Noise, HOT_DESERT_PAD, NOISE_PA, SAMPLE_S};
 
 fn main() -> Result<(), Box<dyn std::error::Error>> {
@@ -90,7 +90,6 @@ fn figure(
     let height = Panel {
         x_label: "time since ignition (s)".to_owned(),
         y_label: "height above the pad (m)".to_owned(),
-        legend: LegendPosition::LowerRight,
         series: vec![
             altimeter_line("barometric, raw", 5, rows.iter().map(|r| (r.time_s, r.height_m))),
             altimeter_line(

@@ -1,5 +1,5 @@
-//! `--units` and `--output`: the unit system of every input and output, and where the
-//! rows go.
+//! `--units` and `--output`: the unit system of the output (and of a file's bare
+//! values), and where the rows go.
 
 use std::path::PathBuf;
 
@@ -12,8 +12,10 @@ use crate::units::UnitSystem;
 /// Units and destination, common to the commands that write data.
 #[derive(Args)]
 pub struct OutputArgs {
-    /// Units of every input and output: each quantity's SI or US customary unit, as
-    /// `aerostrata quantities` lists them.
+    /// Units of the output, and of a file's values where neither a heading nor the value
+    /// names one: each quantity's SI or US customary unit, as `aerostrata quantities`
+    /// lists them. An option's value is in the unit written after it, or SI; with
+    /// --units us a bare number in an option is refused as ambiguous.
     #[arg(long, value_enum, default_value_t = UnitSystem::Si)]
     pub units: UnitSystem,
     /// Write to FILE instead of stdout; a regular file appears only if the command

@@ -1,12 +1,11 @@
-//! `--cd`, `--cd-table`, `--interpolation`, `--area`, `--length` and the offset of the
-//! day: the vehicle whose drag and Reynolds number a flight scan adds, as `flight` and
-//! `plot flight` read it.
+//! `--cd`, `--cd-table`, `--interpolation`, `--area` and `--length`: the vehicle whose
+//! drag and Reynolds number a flight scan adds, as `flight` and `plot flight` read it.
 
 use aerostrata::aero::{DragCurve, Interpolation};
 use aerostrata::flight::Vehicle;
-use aerostrata::Quantity;
 use clap::{Args, ValueEnum};
 
+use crate::args::value::{REFERENCE_AREA, REFERENCE_LENGTH};
 use crate::failure::Failure;
 use crate::units::UnitSystem;
 
@@ -23,16 +22,12 @@ pub struct VehicleArgs {
     /// How the drag table is read between its points.
     #[arg(long, value_enum, default_value_t = TableInterpolation::Cubic)]
     interpolation: TableInterpolation,
-    /// Reference area for the drag coefficient, m^2 (ft^2 with --units us).
-    #[arg(long, value_name = "AREA", allow_negative_numbers = true)]
-    area: Option<f64>,
-    /// Reference length for the Reynolds number, m or ft (with a drag coefficient and area).
-    #[arg(long, value_name = "LENGTH", allow_negative_numbers = true)]
-    length: Option<f64>,
-    /// Temperature offset dT (a hot day is positive) at the standard's pressure; K, or
-    /// degF with --units us.
-    #[arg(long, value_name = "DT", default_value_t = 0.0, allow_negative_numbers = true)]
-    offset: f64,
+    #[arg(long, value_name = "AREA", allow_hyphen_values = true,
+          help = REFERENCE_AREA.help("Reference area for the drag coefficient (with --cd or --cd-table)"))]
+    area: Option<String>,
+    #[arg(long, value_name = "LENGTH", allow_hyphen_values = true,
+          help = REFERENCE_LENGTH.help("Reference length for the Reynolds number (with a drag coefficient and area)"))]
+    length: Option<String>,
 }
 
 #[derive(Clone, Copy, ValueEnum)]
@@ -94,13 +89,13 @@ impl VehicleArgs {
             }
             (None, None) => None,
         };
-        match (drag, self.area) {
+        match (drag, &self.area) {
             (Some(drag), Some(area)) => {
-                let area = units.to_si(Quantity::ReferenceArea, area);
+                let area = REFERENCE_AREA.si(area, units)?;
                 let vehicle = Vehicle::new(drag, area).map_err(|e| Failure::Input(format!("--area: {e}")))?;
-                Ok(Some(match self.length {
+                Ok(Some(match &self.length {
                     Some(length) => vehicle
-                        .with_reference_length(units.to_si(Quantity::ReferenceLength, length))
+                        .with_reference_length(REFERENCE_LENGTH.si(length, units)?)
                         .map_err(|e| Failure::Input(format!("--length: {e}")))?,
                     None => vehicle,
                 }))
@@ -114,8 +109,8 @@ impl VehicleArgs {
         }
     }
 
-    /// The temperature offset, as given (K, or degF with --units us).
-    pub fn offset(&self) -> f64 {
-        self.offset
+    /// Whether a drag model or a reference area or length was given.
+    pub fn given(&self) -> bool {
+        self.cd.is_some() || self.cd_table.is_some() || self.area.is_some() || self.length.is_some()
     }
 }

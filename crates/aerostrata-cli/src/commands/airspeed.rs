@@ -1,6 +1,8 @@
 //! `aerostrata airspeed`: calibrated, equivalent and true airspeed and Mach number, each
 //! from any one of them, at a pressure altitude and outside air temperature, a static
-//! pressure and temperature, or an altitude of the standard (hot or cold) day.
+//! pressure and temperature, or an altitude of the standard (hot or cold) day or of any
+//! `--model`. One answer: a readable table by default, every digit with `--exact` or in
+//! CSV and JSON.
 
 use aerostrata::airspeed::{AirData, Airspeed, Airspeeds};
 use aerostrata::units::{Dimension, Unit};
@@ -8,53 +10,54 @@ use aerostrata::{Atmosphere, Quantity};
 use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
 use clap::{ArgGroup, Args};
 
-use crate::args::model::{altitude_in, offset_model};
+use crate::args::model::{altitude_in, ModelArgs};
 use crate::args::output::OutputArgs;
+use crate::args::value::{Dimensional, ALTITUDE_Z, CAS, EAS, PRESSURE, PRESSURE_ALTITUDE, TAS, TEMPERATURE};
 use crate::failure::Failure;
 use crate::output::rows::{Column, Format, RowWriter};
 
 #[derive(Args)]
 #[command(
-    after_help = "Example:\n  aerostrata airspeed --cas 250 --unit kt --pressure-altitude 3048 --oat 268.15"
+    after_help = "Examples:\n  aerostrata airspeed --cas 250kt --pressure-altitude 10000ft --temperature -5C\n  \
+                       aerostrata airspeed --mach 0.8 --altitude 11km --offset +10K --units us"
 )]
 #[command(group(ArgGroup::new("speed").required(true).args(["cas", "eas", "tas", "mach"])))]
 pub struct AirspeedArgs {
-    /// Calibrated airspeed, in --unit.
-    #[arg(long, value_name = "SPEED", allow_negative_numbers = true)]
-    cas: Option<f64>,
-    /// Equivalent airspeed, in --unit.
-    #[arg(long, value_name = "SPEED", allow_negative_numbers = true)]
-    eas: Option<f64>,
-    /// True airspeed, in --unit.
-    #[arg(long, value_name = "SPEED", allow_negative_numbers = true)]
-    tas: Option<f64>,
+    #[arg(long, value_name = "SPEED", allow_hyphen_values = true, help = CAS.help("Calibrated airspeed"))]
+    cas: Option<String>,
+    #[arg(long, value_name = "SPEED", allow_hyphen_values = true, help = EAS.help("Equivalent airspeed"))]
+    eas: Option<String>,
+    #[arg(long, value_name = "SPEED", allow_hyphen_values = true, help = TAS.help("True airspeed"))]
+    tas: Option<String>,
     /// Mach number.
     #[arg(long, value_name = "M", allow_negative_numbers = true)]
     mach: Option<f64>,
-    /// Unit of the airspeeds, in and out: any unit of speed of the core [default: m/s,
-    /// or kt with --units us].
-    #[arg(long, value_name = "UNIT", value_parser = SpeedUnitParser)]
+    /// The unit of bare airspeeds and of the airspeed columns (kept for old scripts: write
+    /// the unit after the number instead, and --units for the output).
+    #[arg(long, value_name = "UNIT", value_parser = SpeedUnitParser, hide = true)]
     unit: Option<&'static Unit>,
-    /// Pressure altitude, geopotential m or ft (what an altimeter set to 1013.25 hPa
-    /// reads); with --oat.
-    #[arg(long, value_name = "H", allow_negative_numbers = true, conflicts_with_all = ["pressure", "altitude"])]
-    pressure_altitude: Option<f64>,
-    /// Static pressure, Pa or psf; with --oat.
-    #[arg(long, value_name = "P", allow_negative_numbers = true, conflicts_with = "altitude")]
-    pressure: Option<f64>,
-    /// Outside (static) air temperature, K or degF.
-    #[arg(long, value_name = "T", allow_negative_numbers = true, conflicts_with = "altitude")]
-    oat: Option<f64>,
-    /// Geometric altitude of the standard atmosphere, m or ft (instead of a pressure and
-    /// --oat).
-    #[arg(long, value_name = "Z", allow_negative_numbers = true)]
-    altitude: Option<f64>,
-    /// Temperature offset dT for --altitude (a hot day is positive; default 0), K or degF.
-    #[arg(long, value_name = "DT", allow_negative_numbers = true)]
-    offset: Option<f64>,
-    /// Output format.
-    #[arg(long, value_enum, default_value_t = Format::Csv)]
-    format: Format,
+    #[arg(long, value_name = "H", allow_hyphen_values = true, conflicts_with_all = ["pressure", "altitude"],
+          help = PRESSURE_ALTITUDE.help("Pressure altitude, geopotential (what an altimeter set to 1013.25 hPa \
+                                          reads); with --temperature"))]
+    pressure_altitude: Option<String>,
+    #[arg(long, value_name = "P", allow_hyphen_values = true, conflicts_with = "altitude",
+          help = PRESSURE.help("Static pressure; with --temperature"))]
+    pressure: Option<String>,
+    #[arg(long, alias = "oat", value_name = "T", allow_hyphen_values = true, conflicts_with = "altitude",
+          help = TEMPERATURE.help("Outside (static) air temperature"))]
+    temperature: Option<String>,
+    #[arg(long, value_name = "Z", allow_hyphen_values = true,
+          help = ALTITUDE_Z.help("Geometric altitude in the model's air (--model; the standard by default), \
+                                   instead of a pressure and --temperature"))]
+    altitude: Option<String>,
+    #[command(flatten)]
+    model: ModelArgs,
+    /// Every digit in the table too (CSV and JSON always carry them).
+    #[arg(long)]
+    exact: bool,
+    /// Output format [default: table].
+    #[arg(long, value_enum)]
+    format: Option<Format>,
     #[command(flatten)]
     out: OutputArgs,
 }
@@ -92,30 +95,36 @@ impl TypedValueParser for SpeedUnitParser {
 fn conditions(args: &AirspeedArgs) -> Result<AirData, Failure> {
     let units = args.out.units;
     let input = |option: &str, e: aerostrata::Error| Failure::Input(format!("{option}: {e}"));
-    if let Some(z) = args.altitude {
-        let model = offset_model(args.offset.unwrap_or(0.0), units)?;
-        let state = altitude_in(units, z, false, model.range())
-            .and_then(|a| model.state(a).map_err(|e| e.to_string()))
-            .map_err(|m| Failure::Input(format!("--altitude: {m}")))?;
+    if let Some(text) = &args.altitude {
+        let z = ALTITUDE_Z.si(text, units)?;
+        let model = args.model.load(units)?;
+        let unit = units.unit(Quantity::GeometricAltitude);
+        let state = altitude_in(unit, z, false, model.atmosphere.range())
+            .and_then(|a| model.atmosphere.state(a).map_err(|e| e.to_string()))
+            .map_err(|m| Failure::Input(format!("--altitude {}: {m}", text.trim())))?;
         return AirData::from_state(&state).map_err(|e| input("--altitude", e));
     }
-    if args.offset.is_some() {
-        return Err(Failure::Input("--offset applies to --altitude only (give --oat otherwise)".to_owned()));
+    if args.model.given() {
+        return Err(Failure::Input(format!(
+            "{} applies to --altitude only (the air at an altitude of the model); with --pressure or \
+             --pressure-altitude the air is given by them and --temperature",
+            args.model.option()
+        )));
     }
-    let oat = args.oat.ok_or_else(|| {
+    let temperature = args.temperature.as_deref().ok_or_else(|| {
         Failure::Input(
-            "give --pressure-altitude H or --pressure P with --oat T, or --altitude Z of the standard day"
+            "give --pressure-altitude H or --pressure P with --temperature T, or --altitude Z of the standard \
+             day (or of --model)"
                 .to_owned(),
         )
     })?;
-    let oat = units.to_si(Quantity::Temperature, oat);
-    match (args.pressure_altitude, args.pressure) {
-        (Some(h), None) => AirData::from_pressure_altitude(units.to_si(Quantity::PressureAltitude, h), oat)
-            .map_err(|e| input("--pressure-altitude/--oat", e)),
-        (None, Some(p)) => {
-            AirData::new(units.to_si(Quantity::Pressure, p), oat).map_err(|e| input("--pressure/--oat", e))
-        }
-        _ => Err(Failure::Input("--oat needs --pressure-altitude H or --pressure P".to_owned())),
+    let temperature = TEMPERATURE.si(temperature, units)?;
+    match (&args.pressure_altitude, &args.pressure) {
+        (Some(h), None) => AirData::from_pressure_altitude(PRESSURE_ALTITUDE.si(h, units)?, temperature)
+            .map_err(|e| input("--pressure-altitude/--temperature", e)),
+        (None, Some(p)) => AirData::new(PRESSURE.si(p, units)?, temperature)
+            .map_err(|e| input("--pressure/--temperature", e)),
+        _ => Err(Failure::Input("--temperature needs --pressure-altitude H or --pressure P".to_owned())),
     }
 }
 
@@ -131,10 +140,11 @@ pub fn run(args: &AirspeedArgs) -> Result<(), Failure> {
         Some(unit) if unit.dimension() == q.si().dimension() => unit,
         _ => units.unit(q),
     };
-    let (given, option) = match (args.cas, args.eas, args.tas, args.mach) {
-        (Some(v), _, _, _) => (Airspeed::Calibrated(unit(Quantity::CalibratedAirspeed).to_si(v)), "--cas"),
-        (_, Some(v), _, _) => (Airspeed::Equivalent(unit(Quantity::EquivalentAirspeed).to_si(v)), "--eas"),
-        (_, _, Some(v), _) => (Airspeed::True(unit(Quantity::TrueAirspeed).to_si(v)), "--tas"),
+    let speed = |option: &Dimensional, text: &str| option.read_in(text, args.unit, units).map(|r| r.si());
+    let (given, option) = match (&args.cas, &args.eas, &args.tas, args.mach) {
+        (Some(v), _, _, _) => (Airspeed::Calibrated(speed(&CAS, v)?), "--cas"),
+        (_, Some(v), _, _) => (Airspeed::Equivalent(speed(&EAS, v)?), "--eas"),
+        (_, _, Some(v), _) => (Airspeed::True(speed(&TAS, v)?), "--tas"),
         (_, _, _, Some(m)) => (Airspeed::Mach(m), "--mach"),
         _ => return Err(Failure::Input("give one of --cas, --eas, --tas or --mach".to_owned())),
     };
@@ -153,7 +163,8 @@ pub fn run(args: &AirspeedArgs) -> Result<(), Failure> {
         columns.push(Column::of(units, q));
         values.push(Some(units.from_si(q, value)));
     }
-    let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
+    let format = args.format.unwrap_or(Format::Table);
+    let mut writer = RowWriter::new(args.out.destination()?, format, columns)?.exact(args.exact);
     writer.row(&values)?;
     writer.finish()?.commit()
 }

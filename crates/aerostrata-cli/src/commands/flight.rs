@@ -1,41 +1,96 @@
 //! `aerostrata flight FILE`: the flight scan of a CSV of samples (time, geometric
-//! altitude, velocity) through the standard atmosphere, one sample at a time (any
-//! number of samples in bounded memory); per-sample rows on stdout or `--output`, the
-//! summary (maximum q refined between samples, maximum Mach, Mach 1 crossings, maximum
-//! drag) on stderr, as text or JSON.
+//! altitude, and a speed relative to the air or a ground-relative velocity with its
+//! direction) through the standard atmosphere or any `--model` (several for an envelope),
+//! with winds from `--winds` or a sounding's wind columns, one sample at a time (any number
+//! of samples in bounded memory); per-sample rows on stdout or `--output`, the summary
+//! (flight_report.rs) on stderr, ending with the caution that stands wherever loads are
+//! shown.
 
 use std::io::{self, BufRead, Write};
 use std::path::PathBuf;
 
-use aerostrata::flight::{FlightPoint, FlightScan, FlightSummary};
-use aerostrata::{AltitudeRange, Atmosphere, Quantity};
+use aerostrata::flight::{BoundaryLayer, FlightPoint, FlightScan, PLATEAU_FRACTION};
+use aerostrata::units::Plausible;
+use aerostrata::{AltitudeRange, AnyModel, Quantity};
 use clap::{Args, ValueEnum};
-use serde_json::{json, Map, Value};
 
-use crate::args::model::{altitude_in, offset_model};
+use crate::args::model::{altitude_in, Model, ModelArgs};
 use crate::args::output::OutputArgs;
+use crate::args::value::Dimensional;
 use crate::args::vehicle::VehicleArgs;
+use crate::commands::flight_report::{self, caution, Exceeded, Report};
+use crate::commands::flight_watch::{Limit, PlateauTrack};
 use crate::failure::Failure;
-use crate::format::fixed;
-use crate::input::lines::open_input;
+use crate::input::lines::{open_input, source_name};
 use crate::input::progress::{Progress, When};
-use crate::input::samples::SampleReader;
-use crate::output::rows::{Column, Format, RowWriter};
-use crate::units::{column, UnitSystem};
+use crate::input::samples::{FlightSample, Kind, SampleReader};
+use crate::input::winds::{self, Winds};
+use crate::output::rows::{Cell, Column, Format, RowWriter};
+use crate::units::UnitSystem;
+
+pub use crate::commands::flight_report::CAUTION;
+
+/// A limit on the dynamic pressure: from 100 Pa (13 m/s at sea level, no structural
+/// limit) to 5 MPa (Mach 5 at sea level is 1.8 MPa); common practice, no source.
+const Q_LIMIT: Dimensional = Dimensional {
+    option: "--q-limit",
+    quantity: Quantity::DynamicPressure,
+    band: Plausible { min_si: 100.0, max_si: 5.0e6, what: "dynamic-pressure limit" },
+    examples: "35kPa, 700psf, 35000Pa",
+};
+/// A limit on q-alpha: from 1000 Pa deg to 5e7 Pa deg (5 MPa at 10 deg); launch
+/// vehicles' limits are some 1e5 to 3e5 Pa deg (from memory).
+const Q_ALPHA_LIMIT: Dimensional = Dimensional {
+    option: "--q-alpha-limit",
+    quantity: Quantity::QAlpha,
+    band: Plausible { min_si: 1000.0, max_si: 5.0e7, what: "q-alpha limit" },
+    examples: "150000Pa_deg, 3000psf_deg",
+};
 
 #[derive(Args)]
-#[command(after_help = "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
-                       --area 0.0182 --summary json")]
+#[command(after_help = concat!(
+    "Example:\n  aerostrata flight ascent.csv --cd-table 0:0.45,0.9:0.5,1.1:0.75,2:0.55 \
+     --area 0.0182m2 --summary json\n\n",
+    caution!()
+))]
 pub struct FlightArgs {
-    /// CSV of samples, one per line: time_s,altitude_m,velocity_m_s (time in s,
-    /// geometric altitude, velocity relative to the air, its sign ignored; ft and ft/s
-    /// with --units us). A first line naming its columns (time_s and altitude_m or
-    /// altitude_ft and velocity_m_s or velocity_ft_s, in any order, among others) picks
-    /// them and their units; blank lines and lines starting with `#` are skipped; `-`
-    /// reads stdin.
+    /// CSV of samples, one per line: time, geometric altitude and velocity relative to
+    /// the air (its sign ignored), in s, m and m/s (ft and ft/s with --units us). A first
+    /// line naming the columns in any spelling (time_s, `altitude (ft)`, `Velocity [m/s]`;
+    /// geometric_altitude too) picks them and their units, which win over --units; other
+    /// columns are left out with a warning; a cell may carry its unit (35000ft). A
+    /// ground-relative velocity with its direction: velocity_east, velocity_north and
+    /// velocity_up, or velocity (or speed), flight_path_angle and heading; either with
+    /// axis_elevation and axis_azimuth for the vehicle's axis (along the velocity
+    /// otherwise). Blank lines and lines starting with `#` are skipped; `-` reads stdin.
     pub file: PathBuf,
     #[command(flatten)]
     pub vehicle: VehicleArgs,
+    #[command(flatten)]
+    pub model: ModelArgs,
+    /// Winds aloft over any model: a CSV of geometric_altitude (or geopotential_altitude)
+    /// and wind_speed with wind_direction (the direction it blows from, deg clockwise from
+    /// true north), or wind_east with wind_north, each heading with its unit
+    /// (wind_speed_kt). Linear in altitude between levels, the end levels held beyond
+    /// them. Replaces a sounding's own wind columns. Needs a file giving the velocity's
+    /// direction.
+    #[arg(long, value_name = "FILE")]
+    winds: Option<PathBuf>,
+    #[arg(long, value_name = "Q", allow_hyphen_values = true,
+          help = Q_LIMIT.help("List every interval where q exceeds this limit"))]
+    q_limit: Option<String>,
+    #[arg(long, value_name = "QALPHA", allow_hyphen_values = true,
+          help = Q_ALPHA_LIMIT.help("List every interval where q-alpha exceeds this limit (a file giving the \
+                                      velocity's direction)"))]
+    q_alpha_limit: Option<String>,
+    /// The q plateau: the span around the maximum where q stays within this fraction of it
+    /// (0.02 or 2%; above 0, below 0.5).
+    #[arg(long, value_name = "FRACTION", default_value = "2%")]
+    plateau_fraction: String,
+    /// The boundary layer of the recovery temperature (a file giving the velocity's
+    /// direction): recovery factor Pr^(1/2) laminar, Pr^(1/3) turbulent.
+    #[arg(long, value_enum, default_value_t = Layer::Turbulent)]
+    boundary_layer: Layer,
     /// How the summary is written to stderr.
     #[arg(long, value_enum, default_value_t = SummaryFormat::Text)]
     summary: SummaryFormat,
@@ -50,6 +105,14 @@ pub struct FlightArgs {
 }
 
 #[derive(Clone, Copy, ValueEnum)]
+pub enum Layer {
+    /// Recovery factor Pr^(1/2).
+    Laminar,
+    /// Recovery factor Pr^(1/3).
+    Turbulent,
+}
+
+#[derive(Clone, Copy, ValueEnum)]
 pub enum SummaryFormat {
     /// A few lines for a person.
     Text,
@@ -59,22 +122,44 @@ pub enum SummaryFormat {
     None,
 }
 
-/// The quantities of a flight of speeds without direction: the flight point's first
-/// thirteen (the velocity's components, the wind, alpha and the temperatures follow).
-const SPEED_ONLY: usize = 13;
-
-/// The per-sample columns.
-fn columns(units: UnitSystem) -> Vec<Column> {
-    FlightPoint::QUANTITIES[..SPEED_ONLY].iter().map(|q| Column::of(units, *q)).collect()
+/// The per-sample quantities of a file of `kind`: a speed without direction gives the
+/// flight point's first thirteen (up to the drag); a velocity with its direction adds its
+/// components, the wind (where there is one), airspeed, alpha, q-alpha and the total and
+/// recovery temperatures.
+fn quantities(kind: Kind, winds: bool) -> Vec<Quantity> {
+    const SPEED_ONLY: usize = 13;
+    match kind {
+        Kind::Speed => FlightPoint::QUANTITIES[..SPEED_ONLY].to_vec(),
+        Kind::Components | Kind::Path => FlightPoint::QUANTITIES
+            .iter()
+            .copied()
+            .filter(|q| winds || !matches!(q, Quantity::WindEast | Quantity::WindNorth))
+            .collect(),
+    }
 }
 
-/// A sample's values in `units`; an empty cell where the point has none (the drag of a
-/// scan without a vehicle, the Mach number above 86 km).
-fn values(p: &FlightPoint, units: UnitSystem) -> Vec<Option<f64>> {
-    FlightPoint::QUANTITIES[..SPEED_ONLY]
-        .iter()
-        .map(|q| p.get(*q).ok().map(|v| units.from_si(*q, v)))
-        .collect()
+/// `--plateau-fraction`: a fraction (0.02) or a percentage (2%).
+fn plateau_fraction(text: &str) -> Result<f64, Failure> {
+    let trimmed = text.trim();
+    let (number, scale) = match trimmed.strip_suffix('%') {
+        Some(percent) => (percent.trim(), 0.01),
+        None => (trimmed, 1.0),
+    };
+    let fraction = number.parse::<f64>().ok().map(|f| f * scale).filter(|f| *f > 0.0 && *f < 0.5);
+    fraction.ok_or_else(|| {
+        Failure::Input(format!(
+            "--plateau-fraction {trimmed}: a fraction above 0 and below 0.5 (0.02) or a percentage (2%) is \
+             expected; the default is {}%",
+            PLATEAU_FRACTION * 100.0
+        ))
+    })
+}
+
+/// What one model's scan watches beside the core's summary.
+struct Watch {
+    q: Option<Limit>,
+    q_alpha: Option<Limit>,
+    plateau: Option<PlateauTrack>,
 }
 
 /// Runs `aerostrata flight`.
@@ -84,24 +169,129 @@ fn values(p: &FlightPoint, units: UnitSystem) -> Vec<Option<f64>> {
 /// writing fails.
 pub fn run(args: &FlightArgs) -> Result<(), Failure> {
     let units = args.out.units;
-    let atmosphere = offset_model(args.vehicle.offset(), units)?;
-    let range = atmosphere.range();
+    let models = args.model.load_all(units)?;
     let table = args.vehicle.table()?;
     let vehicle = args.vehicle.vehicle(&table, units)?;
+    let given_winds = args.winds.as_deref().map(|p| winds::load_file(p, units)).transpose()?;
+    let q_limit = args.q_limit.as_deref().map(|t| Q_LIMIT.si(t, units)).transpose()?;
+    let q_alpha_limit = args.q_alpha_limit.as_deref().map(|t| Q_ALPHA_LIMIT.si(t, units)).transpose()?;
+    let fraction = plateau_fraction(&args.plateau_fraction)?;
+    let layer = match args.boundary_layer {
+        Layer::Laminar => BoundaryLayer::Laminar,
+        Layer::Turbulent => BoundaryLayer::Turbulent,
+    };
+
+    let source = source_name(Some(&args.file));
     let input = open_input(Some(&args.file), args.progress)?;
-    let mut reader = SampleReader::new(input, units);
-    let mut scan = FlightScan::new(atmosphere, vehicle);
-    let mut writer = RowWriter::new(args.out.destination()?, args.format, columns(units))?;
-    let result = stream(&mut reader, &mut scan, &mut writer, range, units);
+    let mut reader = SampleReader::new(input, source.clone(), units);
+    let first = reader.next_sample()?;
+    let kind = reader.kind().unwrap_or(Kind::Speed);
+    let directed = kind.has_direction();
+    if !directed {
+        let fix =
+            "give velocity_east, velocity_north and velocity_up (or velocity, flight_path_angle and heading)";
+        if let Some(path) = &args.winds {
+            return Err(Failure::Input(format!(
+                "--winds {}: {source} gives speeds relative to the air, without direction, so winds cannot apply; \
+                 {fix}",
+                path.display()
+            )));
+        }
+        if q_alpha_limit.is_some() {
+            return Err(Failure::Input(format!(
+                "--q-alpha-limit: {source} gives speeds without direction, so q-alpha is not known; {fix}"
+            )));
+        }
+        for model in models.iter().filter(|m| m.winds.is_some()) {
+            eprintln!(
+                "aerostrata: {}: its wind columns are not used: {source} gives speeds relative to the air; to fly \
+                 through the winds, {fix}",
+                model.label
+            );
+        }
+    }
+    // --winds replaces a sounding's own.
+    let winds_of: Vec<Option<&Winds>> = models
+        .iter()
+        .map(|m| if directed { given_winds.as_ref().or(m.winds.as_ref()) } else { None })
+        .collect();
+    let several = models.len() > 1;
+    let quantities = quantities(kind, winds_of.iter().any(Option::is_some));
+    let mut columns: Vec<Column> = quantities.iter().map(|q| Column::of(units, *q)).collect();
+    if several {
+        columns.insert(0, Column::text("model"));
+    }
+    let mut scans: Vec<FlightScan<'_, &AnyModel>> = models
+        .iter()
+        .zip(&winds_of)
+        .map(|(model, found)| {
+            let scan = FlightScan::new(&model.atmosphere, vehicle);
+            let scan = match found {
+                Some(w) => scan.with_winds(*w),
+                None => scan,
+            };
+            if directed {
+                scan.with_recovery(layer)
+            } else {
+                scan
+            }
+        })
+        .collect();
+    let summarised = !matches!(args.summary, SummaryFormat::None);
+    let mut watches = Vec::with_capacity(models.len());
+    for _ in &models {
+        watches.push(Watch {
+            q: q_limit.map(|l| Limit::new(l, "--q-limit")).transpose()?,
+            q_alpha: q_alpha_limit.map(|l| Limit::new(l, "--q-alpha-limit")).transpose()?,
+            plateau: summarised.then(|| PlateauTrack::new(fraction)),
+        });
+    }
+    let mut writer = RowWriter::new(args.out.destination()?, args.format, columns)?;
+    let mut flight =
+        Flight { models: &models, scans: &mut scans, watches: &mut watches, quantities: &quantities, units };
+    let result = flight.stream(first, &mut reader, &mut writer);
     reader.input_mut().clear();
     result?;
     writer.finish()?.commit()?;
-    let summary = scan.summary();
+    if !summarised {
+        return Ok(());
+    }
+    let mut reports = Vec::with_capacity(models.len());
+    for ((model, scan), (watch, found)) in models.iter().zip(&scans).zip(watches.iter_mut().zip(&winds_of)) {
+        let summary = scan.summary();
+        let plateau = match (&watch.plateau, summary.max_dynamic_pressure) {
+            (Some(track), Some(peak)) if peak.dynamic_pressure_pa > 0.0 => {
+                track.plateau(peak.dynamic_pressure_pa)?
+            }
+            _ => None,
+        };
+        let mut limits = Vec::new();
+        for (quantity, limit) in
+            [(Quantity::DynamicPressure, &mut watch.q), (Quantity::QAlpha, &mut watch.q_alpha)]
+        {
+            if let Some(limit) = limit {
+                limit.finish();
+                limits.push(Exceeded {
+                    quantity,
+                    limit: limit.limit(),
+                    intervals: std::mem::take(&mut limit.found),
+                });
+            }
+        }
+        reports.push(Report {
+            label: model.label.clone(),
+            summary,
+            winds: found.is_some(),
+            directed,
+            limits,
+            plateau,
+        });
+    }
     match args.summary {
-        SummaryFormat::Text => eprint!("{}", text_summary(&summary, units)),
+        SummaryFormat::Text => eprint!("{}", flight_report::text(&reports, units)),
         SummaryFormat::Json => eprintln!(
             "{}",
-            serde_json::to_string_pretty(&json_summary(&summary, units))
+            serde_json::to_string_pretty(&flight_report::json(&reports, units))
                 .map_err(|e| Failure::Io(io::Error::other(e)))?
         ),
         SummaryFormat::None => {}
@@ -109,128 +299,61 @@ pub fn run(args: &FlightArgs) -> Result<(), Failure> {
     Ok(())
 }
 
-fn stream<R: BufRead, A: Atmosphere, W: Write>(
-    reader: &mut SampleReader<Progress<R>>,
-    scan: &mut FlightScan<'_, A>,
-    writer: &mut RowWriter<W>,
-    range: AltitudeRange,
+/// The scans of one flight through each model, and what they write and watch.
+struct Flight<'a, 's> {
+    models: &'a [Model],
+    scans: &'a mut [FlightScan<'s, &'s AnyModel>],
+    watches: &'a mut [Watch],
+    quantities: &'a [Quantity],
     units: UnitSystem,
-) -> Result<(), Failure> {
-    while let Some(sample) = reader.next_sample()? {
-        let line = reader.line_number();
-        if units == UnitSystem::Us {
-            // Name an altitude out of range in the user's feet.
-            altitude_in(units, units.from_si(Quantity::Altitude, sample.altitude_m), false, range)
-                .map_err(|m| Failure::Input(format!("line {line}: {m}")))?;
-        }
-        let point = scan.push(sample).map_err(|e| Failure::Input(format!("line {line}: {e}")))?;
-        writer.row(&values(&point, units))?;
-    }
-    Ok(())
 }
 
-/// The summary as JSON: the core's own fields in SI. In US units the same structure,
-/// each value of a catalogue quantity converted and its key renamed to the quantity's US
-/// column; the `value` of an extreme (`max_drag`) is the quantity its key names.
-fn json_summary(summary: &FlightSummary, units: UnitSystem) -> Value {
-    let mut value = serde_json::to_value(summary).unwrap_or(Value::Null);
-    if units == UnitSystem::Si {
-        return value;
-    }
-    if let Value::Object(map) = &mut value {
-        for (key, item) in map.iter_mut() {
-            if let Value::Object(fields) = item {
-                let extreme = key.strip_prefix("max_").and_then(Quantity::from_name);
-                *fields = convert(std::mem::take(fields), extreme, units);
-            }
-        }
-        map.insert("units".to_owned(), json!("us"));
-    }
-    value
-}
-
-/// The quantity whose SI column a field of the core's summary is (`altitude_m`,
-/// `dynamic_pressure_pa`): the core spells its fields in lower case.
-fn si_quantity(key: &str) -> Option<Quantity> {
-    Quantity::ALL.iter().copied().find(|q| key.eq_ignore_ascii_case(&column(*q, q.si())))
-}
-
-/// `fields` (in SI) in `units`, in their order: a field of a quantity under its column in
-/// `units`, an extreme's `value` under its quantity's column when it has a unit.
-fn convert(fields: Map<String, Value>, extreme: Option<Quantity>, units: UnitSystem) -> Map<String, Value> {
-    fields
-        .into_iter()
-        .map(|(key, value)| {
-            let quantity = match extreme {
-                Some(q) if key == "value" && !units.unit(q).symbol().is_empty() => Some(q),
-                _ => si_quantity(&key),
-            };
-            match quantity {
-                Some(q) => {
-                    let converted = value.as_f64().map_or(Value::Null, |v| json!(units.from_si(q, v)));
-                    (units.column(q), converted)
+impl Flight<'_, '_> {
+    fn stream<R: BufRead, W: Write>(
+        &mut self,
+        first: Option<FlightSample>,
+        reader: &mut SampleReader<Progress<R>>,
+        writer: &mut RowWriter<W>,
+    ) -> Result<(), Failure> {
+        let several = self.models.len() > 1;
+        let mut next = first;
+        let mut values = Vec::with_capacity(self.quantities.len());
+        while let Some(sample) = next {
+            let altitude = reader.altitude_quantity();
+            let table = reader.table();
+            for ((model, scan), watch) in
+                self.models.iter().zip(self.scans.iter_mut()).zip(self.watches.iter_mut())
+            {
+                let within = |m: String| if several { format!("{m} (model {})", model.label) } else { m };
+                // An altitude out of the model's range, named in its column's unit.
+                let range: AltitudeRange = aerostrata::Atmosphere::range(&model.atmosphere);
+                altitude_in(table.unit_of(altitude), sample.altitude_m(), false, range)
+                    .map_err(|m| table.at_cell(altitude, within(m)))?;
+                let point = sample.push(scan).map_err(|e| table.at_line(within(e.to_string())))?;
+                let at = |e: aerostrata::Error| table.at_line(within(e.to_string()));
+                if let Some(limit) = &mut watch.q {
+                    limit.push(point.time_s, point.dynamic_pressure_pa).map_err(at)?;
                 }
-                None => (key, value),
+                if let (Some(limit), Some(qa)) = (&mut watch.q_alpha, point.q_alpha_pa_deg) {
+                    limit.push(point.time_s, qa).map_err(at)?;
+                }
+                if let Some(track) = &mut watch.plateau {
+                    track.push(point.time_s, point.dynamic_pressure_pa);
+                }
+                values.clear();
+                // `+ 0.0` writes a zero component of a velocity at rest as 0, not -0.
+                values.extend(
+                    self.quantities
+                        .iter()
+                        .map(|q| Cell::Number(point.get(*q).ok().map(|v| self.units.from_si(*q, v) + 0.0))),
+                );
+                if several {
+                    values.insert(0, Cell::Text(&model.label));
+                }
+                writer.cells(&values)?;
             }
-        })
-        .collect()
-}
-
-/// The summary for a person: the catalogue's symbols, labels and units, with a fixed
-/// number of decimals for each (more than the tables show: the summary is read once).
-fn text_summary(s: &FlightSummary, units: UnitSystem) -> String {
-    let value = |q: Quantity, si: f64, decimals: usize| {
-        format!("{} {}", fixed(units.from_si(q, si), decimals), units.unit(q).symbol())
-    };
-    let [t, q, altitude, velocity, drag] =
-        [Quantity::Time, Quantity::DynamicPressure, Quantity::Altitude, Quantity::Velocity, Quantity::Drag]
-            .map(Quantity::info);
-    let time = |time_s: f64| format!("{} = {}", t.symbol, value(Quantity::Time, time_s, 4));
-    let at = |time_s: f64, altitude_m: f64| {
-        format!("at {}, {} {}", time(time_s), altitude.label, value(Quantity::Altitude, altitude_m, 1))
-    };
-    let mut text = format!("samples: {}\n", s.samples);
-    text += &match &s.max_dynamic_pressure {
-        Some(p) => {
-            let mach =
-                p.mach.map_or_else(|| "Mach undefined".to_owned(), |m| format!("Mach {}", fixed(m, 4)));
-            let how = if p.refined {
-                format!("parabola through samples {} to {}", p.sample_index - 1, p.sample_index + 1)
-            } else {
-                format!("sample {}, not refined", p.sample_index)
-            };
-            format!(
-                "max {}: {} {}, {} {}, {mach} ({how})\n",
-                q.symbol,
-                value(Quantity::DynamicPressure, p.dynamic_pressure_pa, 1),
-                at(p.time_s, p.altitude_m),
-                velocity.label,
-                value(Quantity::Velocity, p.velocity_m_s, 2)
-            )
+            next = reader.next_sample()?;
         }
-        None => format!("max {}: no samples\n", q.symbol),
-    };
-    text += &match &s.max_mach {
-        Some(m) => format!("max Mach: {} {}\n", fixed(m.value, 4), at(m.time_s, m.altitude_m)),
-        None => "max Mach: none (no speed of sound at any sample)\n".to_owned(),
-    };
-    for (name, crossings) in [("up", &s.mach_one_up), ("down", &s.mach_one_down)] {
-        text += &match (crossings.first_time_s, crossings.last_time_s) {
-            (Some(first), Some(last)) => format!(
-                "Mach 1 {name}: {} crossing(s), first at {}, last at {}\n",
-                crossings.count,
-                time(first),
-                time(last)
-            ),
-            _ => format!("Mach 1 {name}: none\n"),
-        };
+        Ok(())
     }
-    text += &match &s.max_drag {
-        Some(d) => {
-            let at = at(d.time_s, d.altitude_m);
-            format!("max {}: {} {at}\n", drag.label, value(Quantity::Drag, d.value, 2))
-        }
-        None => format!("max {}: none (give --cd or --cd-table and --area)\n", drag.label),
-    };
-    text
 }

@@ -5,6 +5,8 @@ pub mod altitude;
 pub mod completions;
 pub mod eval;
 pub mod flight;
+pub mod flight_report;
+pub mod flight_watch;
 pub mod man;
 pub mod plot;
 pub mod quantities;

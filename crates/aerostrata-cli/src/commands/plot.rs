@@ -1,62 +1,65 @@
 //! `aerostrata plot profile` (state quantities against altitude, several models on the
-//! same axes) and `aerostrata plot flight` (q and Mach number against time, the maximum
-//! q marked): the options checked and the models and flights read, drawn by the `plot`
-//! module and written as SVG.
+//! same axes) and `aerostrata plot flight` (q, Mach number and drag against time, the
+//! maxima marked): the options checked and the models and flights read, drawn by the
+//! `plot` module and written as SVG.
 
 use std::io::Write;
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 
+use aerostrata::units::Tidy;
 use aerostrata::{Atmosphere, FlightScan, Quantity};
 use clap::{Args, Subcommand};
 
-use crate::args::model::{altitude_quantity, band, offset_model};
+use crate::args::model::{altitude_quantity, band, load_spec, model_help, Model, ModelArgs};
 use crate::args::output::OutputArgs;
+use crate::args::value::{FROM, TO};
 use crate::args::vehicle::VehicleArgs;
 use crate::failure::Failure;
-use crate::format::tidy;
-use crate::input::lines::open_input;
+use crate::input::lines::{open_input, source_name};
 use crate::input::progress::When;
 use crate::input::samples::SampleReader;
-use crate::input::sounding;
 use crate::plot::chart::Figure;
 use crate::plot::flight::{flight_figure, flight_title, FlightTrace};
 use crate::plot::profile::{ProfilePlot, QuantityParser, Scale, MAX_PANELS};
-use crate::units::{in_words, UnitSystem};
 
 #[derive(Subcommand)]
 pub enum PlotCommand {
     /// State quantities against altitude, one panel per quantity, every model on the same
     /// axes (a log scale where a quantity spans decades).
     Profile(ProfileArgs),
-    /// Dynamic pressure and Mach number against time for one or more flights (CSV as for
-    /// `aerostrata flight`), each flight's maximum q marked.
+    /// Dynamic pressure, Mach number and (with --cd or --cd-table and --area) drag against
+    /// time for one or more flights (CSV as for `aerostrata flight`), the maxima marked.
     Flight(FlightPlotArgs),
+}
+
+/// The help of `plot profile --model`: repeatable.
+fn profile_model_help() -> String {
+    format!("A model, repeatable, each a line on every panel. {}", model_help())
 }
 
 #[derive(Args)]
 #[command(
-    after_help = "Example:\n  aerostrata plot profile temperature density --model standard --model offset=15 \\\n    \
-                 --model sounding=examples/data/vessaro_key_hot_humid.csv --to 30000 -o profile.svg"
+    after_help = "Examples:\n  aerostrata plot profile temperature density --model standard --model offset=+15K \\\n    \
+                 --model sounding=examples/data/vessaro_key_hot_humid.csv --to 30km -o profile.svg\n  \
+                 aerostrata plot profile temperature --model isothermal=250K --width 360 -o phone.svg"
 )]
 pub struct ProfileArgs {
     /// Quantities of the state to plot by their catalogue names, each on its own panel
     /// (at most 4) [default: temperature pressure density].
     #[arg(value_parser = QuantityParser)]
     quantities: Vec<Quantity>,
-    /// A model, repeatable: `standard`, `offset=DT` (the standard with T + DT at its
-    /// pressure; K or degF) or `sounding=FILE` [default: standard].
-    #[arg(long = "model", value_name = "MODEL")]
+    #[arg(long = "model", value_name = "SPEC", help = profile_model_help())]
     models: Vec<String>,
     /// Legend names, in the order of the models [default: from the models].
     #[arg(long = "label", value_name = "TEXT")]
     labels: Vec<String>,
-    /// Lowest altitude, m or ft [default: 0, or the lowest model bottom if higher].
-    #[arg(long, value_name = "Z", allow_negative_numbers = true)]
-    from: Option<f64>,
-    /// Highest altitude, m or ft [default: the highest model top, at most 86 km].
-    #[arg(long, value_name = "Z", allow_negative_numbers = true)]
-    to: Option<f64>,
-    /// Altitudes as geopotential instead of geometric.
+    #[arg(long, value_name = "Z", allow_hyphen_values = true,
+          help = FROM.help("Lowest altitude [default: 0, or the lowest model bottom if higher]"))]
+    from: Option<String>,
+    #[arg(long, value_name = "Z", allow_hyphen_values = true,
+          help = TO.help("Highest altitude [default: the highest model top, at most 86 km]"))]
+    to: Option<String>,
+    /// Altitudes (--from, --to and the axis) as geopotential instead of geometric.
     #[arg(long)]
     geopotential: bool,
     /// The quantity axes' scale.
@@ -66,13 +69,15 @@ pub struct ProfileArgs {
     #[arg(long, value_name = "TEXT")]
     title: Option<String>,
     #[command(flatten)]
+    size: SizeArgs,
+    #[command(flatten)]
     out: OutputArgs,
 }
 
 #[derive(Args)]
 #[command(
     after_help = "Example:\n  aerostrata plot flight full.csv throttled.csv --label 'full thrust' --label throttled \\\n    \
-                 --cd-table 0:0.4,1:0.6,2:0.45 --area 0.03 -o q.svg"
+                 --cd-table 0:0.4,1:0.6,2:0.45 --area 0.03m2 -o q.svg"
 )]
 pub struct FlightPlotArgs {
     /// Flight files (CSV as for `aerostrata flight`), each its own line; `-` reads stdin.
@@ -83,11 +88,35 @@ pub struct FlightPlotArgs {
     labels: Vec<String>,
     #[command(flatten)]
     vehicle: VehicleArgs,
+    #[command(flatten)]
+    model: ModelArgs,
     /// The title [default: the quantities plotted].
     #[arg(long, value_name = "TEXT")]
     title: Option<String>,
     #[command(flatten)]
+    size: SizeArgs,
+    #[command(flatten)]
     out: OutputArgs,
+}
+
+/// `--width` and `--height`: the figure's size.
+#[derive(Args)]
+pub struct SizeArgs {
+    /// Width of the figure, px [default: 900 for a flight, 380 a panel for a profile].
+    /// Text keeps its size: a narrow figure (360 for a phone) wraps its panels, legends
+    /// and notes instead of shrinking them.
+    #[arg(long, value_name = "PX", value_parser = clap::value_parser!(u32).range(240..=20_000))]
+    width: Option<u32>,
+    /// Height of the figure, px [default: 300 a panel for a flight, 640 for a profile];
+    /// it grows where the panels would otherwise be too short to read.
+    #[arg(long, value_name = "PX", value_parser = clap::value_parser!(u32).range(100..=20_000))]
+    height: Option<u32>,
+}
+
+impl SizeArgs {
+    fn apply(&self, figure: &mut Figure) {
+        figure.size = (self.width.unwrap_or(figure.size.0), self.height.unwrap_or(figure.size.1));
+    }
 }
 
 /// Runs `aerostrata plot profile` or `aerostrata plot flight`.
@@ -96,41 +125,15 @@ pub struct FlightPlotArgs {
 /// [`Failure::Input`] naming the option or file at fault; [`Failure::Io`] when writing
 /// fails.
 pub fn run(command: &PlotCommand) -> Result<(), Failure> {
-    let (figure, out) = match command {
-        PlotCommand::Profile(args) => (profile(args)?, &args.out),
-        PlotCommand::Flight(args) => (flights(args)?, &args.out),
+    let (mut figure, out, size) = match command {
+        PlotCommand::Profile(args) => (profile(args)?, &args.out, &args.size),
+        PlotCommand::Flight(args) => (flights(args)?, &args.out, &args.size),
     };
+    size.apply(&mut figure);
     let svg = figure.to_svg().map_err(Failure::Input)?;
     let mut destination = out.destination()?;
     destination.write_all(svg.as_bytes())?;
     destination.commit()
-}
-
-struct Model {
-    label: String,
-    atmosphere: Box<dyn Atmosphere>,
-}
-
-fn parse_model(spec: &str, units: UnitSystem) -> Result<Model, Failure> {
-    let bad = |why: &str| Failure::Input(format!("--model '{spec}': {why}"));
-    let (kind, value) = spec.split_once('=').map_or((spec, None), |(k, v)| (k, Some(v)));
-    match (kind, value) {
-        ("standard", None) => {
-            Ok(Model { label: "US 1976 standard".to_owned(), atmosphere: Box::new(aerostrata::US1976) })
-        }
-        ("offset", Some(value)) => {
-            let offset: f64 = value.parse().map_err(|_| bad("the offset is not a number"))?;
-            let model = offset_model(offset, units).map_err(|f| f.within(&format!("--model '{spec}'")))?;
-            let unit = units.unit(Quantity::TemperatureOffset).symbol();
-            Ok(Model { label: format!("standard {offset:+} {unit}"), atmosphere: Box::new(model) })
-        }
-        ("sounding", Some(path)) => {
-            let table = sounding::load(Path::new(path), None).map_err(|m| bad(&m))?;
-            let name = Path::new(path).file_stem().map_or(path.into(), |n| n.to_string_lossy());
-            Ok(Model { label: format!("sounding {name}"), atmosphere: Box::new(table) })
-        }
-        _ => Err(bad("expected standard, offset=DT or sounding=FILE")),
-    }
 }
 
 fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
@@ -147,7 +150,8 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
         )));
     }
     let specs = if args.models.is_empty() { vec!["standard".to_owned()] } else { args.models.clone() };
-    let mut models = specs.iter().map(|s| parse_model(s, units)).collect::<Result<Vec<_>, _>>()?;
+    let mut models =
+        specs.iter().map(|s| load_spec(s, "--model", units)).collect::<Result<Vec<Model>, _>>()?;
     if args.labels.len() > models.len() {
         return Err(Failure::Input(format!("{} labels for {} models", args.labels.len(), models.len())));
     }
@@ -155,19 +159,17 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
         model.label.clone_from(label);
     }
     let band_of = |m: &Model| band(m.atmosphere.range(), args.geopotential);
-    let length = units.unit(altitude_quantity(args.geopotential));
+    let altitude = altitude_quantity(args.geopotential);
+    let length = units.unit(altitude);
     let lowest = models.iter().map(|m| band_of(m).0).fold(f64::INFINITY, f64::min);
     let highest = models.iter().map(|m| band_of(m).1).fold(f64::NEG_INFINITY, f64::max);
-    let from = args.from.map_or(lowest.max(0.0), |z| length.to_si(z));
-    let to = args.to.map_or(highest.min(86_000.0), |z| length.to_si(z));
+    let read = |option: &crate::args::value::Dimensional, text: &Option<String>| {
+        text.as_deref().map(|t| option.of(altitude).si(t, units)).transpose()
+    };
+    let from = read(&FROM, &args.from)?.unwrap_or(lowest.max(0.0));
+    let to = read(&TO, &args.to)?.unwrap_or(highest.min(86_000.0));
     let unit = length.symbol();
-    for (option, value) in [("--from", args.from), ("--to", args.to)] {
-        if let Some(v) = value.filter(|v| !v.is_finite()) {
-            let what = in_words(altitude_quantity(args.geopotential), length);
-            return Err(Failure::Input(format!("{option} must be a finite number ({what}), got {v}")));
-        }
-    }
-    let in_units = |m: f64| tidy(length.from_si(m));
+    let in_units = |m: f64| Tidy(length.from_si(m));
     if to <= from {
         return Err(Failure::Input(format!(
             "--to {} {unit} must be above --from {} {unit}",
@@ -181,15 +183,15 @@ fn profile(args: &ProfileArgs) -> Result<Figure, Failure> {
         let (lo, hi) = (from.max(bottom), to.min(top));
         if hi <= lo {
             return Err(Failure::Input(format!(
-                "--model '{spec}' covers {} to {} {unit}, outside --from {} to --to {} {unit}",
+                "--model {spec} covers {} to {} {unit}, outside --from {} to --to {} {unit}",
                 in_units(bottom),
                 in_units(top),
                 in_units(from),
                 in_units(to)
             )));
         }
-        plot.add(&model.label, model.atmosphere.as_ref(), lo, hi)
-            .map_err(|e| Failure::Input(format!("--model '{spec}': {e}")))?;
+        plot.add(&model.label, &model.atmosphere, lo, hi)
+            .map_err(|e| Failure::Input(format!("--model {spec}: {e}")))?;
     }
     Ok(plot.figure(args.scale, args.title.clone()))
 }
@@ -201,22 +203,20 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
     }
     let table = args.vehicle.table()?;
     let vehicle = args.vehicle.vehicle(&table, units)?;
+    let model = args.model.load(units)?;
     let mut traces = Vec::with_capacity(args.files.len());
     for (index, path) in args.files.iter().enumerate() {
-        let name = path.display().to_string();
+        let name = source_name(Some(path));
         let label = args.labels.get(index).cloned().unwrap_or_else(|| {
             path.file_stem().map_or_else(|| name.clone(), |s| s.to_string_lossy().into_owned())
         });
-        let atmosphere = offset_model(args.vehicle.offset(), units)?;
-        let mut scan = FlightScan::new(atmosphere, vehicle);
+        let mut scan = FlightScan::new(&model.atmosphere, vehicle);
         let input = open_input(Some(path), When::Never)?;
-        let mut reader = SampleReader::new(input, units);
+        let mut reader = SampleReader::new(input, name.clone(), units);
         let mut trace = FlightTrace::new(label);
-        while let Some(sample) = reader.next_sample().map_err(|f| f.within(&name))? {
-            let point = scan
-                .push(sample)
-                .map_err(|e| Failure::Input(format!("{name}: line {}: {e}", reader.line_number())))?;
-            trace.offer(point.time_s, point.dynamic_pressure_pa, point.mach);
+        while let Some(sample) = reader.next_sample()? {
+            let point = sample.push(&mut scan).map_err(|e| reader.table().at_line(e))?;
+            trace.offer_point(&point);
         }
         if trace.is_empty() {
             return Err(Failure::Input(format!("{name}: no samples to plot")));
@@ -224,6 +224,7 @@ fn flights(args: &FlightPlotArgs) -> Result<Figure, Failure> {
         trace.summary = Some(scan.summary());
         traces.push(trace);
     }
-    let title = args.title.clone().unwrap_or_else(flight_title);
+    let drag = traces.iter().any(FlightTrace::has_drag);
+    let title = args.title.clone().unwrap_or_else(|| flight_title(drag));
     Ok(flight_figure(&title, &traces, units))
 }

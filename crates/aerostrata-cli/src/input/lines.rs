@@ -6,12 +6,8 @@ use std::fs::File;
 use std::io::{self, BufRead, BufReader};
 use std::path::Path;
 
-use aerostrata::units::Unit;
-use aerostrata::Quantity;
-
 use crate::failure::Failure;
 use crate::input::progress::{Progress, When};
-use crate::units::in_words;
 
 /// A file, or stdin for `-` or no file, with a progress line when asked.
 ///
@@ -29,12 +25,12 @@ pub fn open_input(path: Option<&Path>, when: When) -> Result<Progress<Box<dyn Bu
     }
 }
 
-/// `text` (a cell or a line) read as a number: `quantity` in `unit`.
-///
-/// # Errors
-/// A message naming the text, the quantity and the unit expected.
-pub fn number(text: &str, quantity: Quantity, unit: &Unit) -> Result<f64, String> {
-    text.parse().map_err(|_| format!("'{text}' is not a number ({})", in_words(quantity, unit)))
+/// The name of an input in messages: its path, or `stdin` for `-` or none.
+pub fn source_name(path: Option<&Path>) -> String {
+    match path.filter(|path| path.as_os_str() != "-") {
+        Some(path) => path.display().to_string(),
+        None => "stdin".to_owned(),
+    }
 }
 
 /// The data lines of a text input, one at a time (any number of lines in bounded memory).
@@ -72,11 +68,6 @@ impl<R: BufRead> DataLines<R> {
                 return Ok(Some((number, self.line.trim())));
             }
         }
-    }
-
-    /// The number of the last line read (from 1).
-    pub fn number(&self) -> usize {
-        self.number
     }
 
     /// The underlying input.

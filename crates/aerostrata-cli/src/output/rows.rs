@@ -112,6 +112,14 @@ impl Cell<'_> {
         }
     }
 
+    /// As the tables show it with `--exact`: every digit, `-` for nothing.
+    fn exact(&self) -> String {
+        match *self {
+            Cell::Number(value) => value.map_or_else(|| "-".to_owned(), exact),
+            _ => self.readable(Rounding::Significant),
+        }
+    }
+
     /// As the tables show it to people: rounded numbers, `-` for nothing.
     fn readable(&self, rounding: Rounding) -> String {
         match *self {
@@ -134,6 +142,7 @@ pub struct RowWriter<W: Write> {
     /// Terminal table: rows held back until the widths are known.
     pending: Vec<Vec<String>>,
     widths: Option<Vec<usize>>,
+    exact: bool,
 }
 
 impl<W: Write> RowWriter<W> {
@@ -167,7 +176,14 @@ impl<W: Write> RowWriter<W> {
             }
             Format::Table => {}
         }
-        Ok(RowWriter { out, format, columns, rows: 0, pending: Vec::new(), widths: None })
+        Ok(RowWriter { out, format, columns, rows: 0, pending: Vec::new(), widths: None, exact: false })
+    }
+
+    /// With `exact`, the terminal and Markdown tables too write every number with the
+    /// digits that read back to it (CSV and JSON always do).
+    pub fn exact(mut self, exact: bool) -> Self {
+        self.exact = exact;
+        self
     }
 
     /// One row of numbers, a value (or nothing) per column.
@@ -222,7 +238,12 @@ impl<W: Write> RowWriter<W> {
     }
 
     fn shown_cells(&self, cells: &[Cell]) -> Vec<String> {
-        self.columns.iter().zip(cells).filter(|(c, _)| c.shown).map(|(c, v)| v.readable(c.rounding)).collect()
+        let shown = self.columns.iter().zip(cells).filter(|(c, _)| c.shown);
+        if self.exact {
+            shown.map(|(_, v)| v.exact()).collect()
+        } else {
+            shown.map(|(c, v)| v.readable(c.rounding)).collect()
+        }
     }
 
     /// A line of the terminal table: numbers aligned right, text left.
@@ -319,6 +340,13 @@ mod tests {
         assert!(json[1]["mach"].is_null());
         assert_eq!(written(Format::Markdown, 1), "| Z (m) |\n| ---: |\n| 0.0 |\n");
         assert_eq!(written(Format::Table, 2), "     Z\n     m\n   0.0\n1000.0\n");
+        let columns = vec![Column::of(UnitSystem::Si, Quantity::Mach)];
+        let mut exact = RowWriter::new(Vec::new(), Format::Table, columns).unwrap().exact(true);
+        exact.row(&[Some(2.0 / 3.0)]).unwrap();
+        assert_eq!(
+            String::from_utf8(exact.finish().unwrap()).unwrap(),
+            "                 M\n0.6666666666666666\n"
+        );
         // Past the sizing rows the widths stay; a wider value pushes its line out.
         let long = written(Format::Table, TABLE_SIZING_ROWS + 1);
         assert_eq!(long.lines().count(), TABLE_SIZING_ROWS + 3);

@@ -1,13 +1,16 @@
-//! The chart drawing: panels of line series with titles, axis labels, legends and
-//! annotated points, drawn with plotters' SVG backend. Text is written as SVG `<text>`
-//! elements (plotters' built-in size estimate lays it out), so no font is needed to build
-//! or draw; the viewer renders the text with its own sans-serif font.
+//! The chart drawing every figure goes through: panels of line series with a title, axis
+//! titles, legends and annotated points, written as SVG (`plot::svg`).
+//!
+//! Nothing is ever drawn over the data: each panel's legend sits in a band above its
+//! axes and the notes of its annotated points in a band below, each note led by a dot of
+//! its point's colour. Axes run from tick to tick (`plot::axis`), and the layout is
+//! worked out from the figure's width, so that a narrow figure (a phone's) keeps its text
+//! at a readable size: side-by-side panels wrap into rows, legends and notes into lines,
+//! and the figure grows taller rather than squeezing its panels.
 
-use plotters::coord::ranged1d::{AsRangedCoord, ValueFormatter};
-use plotters::coord::Shift;
-use plotters::prelude::*;
-
-use crate::format::tick;
+use crate::plot::axis::Axis;
+use crate::plot::palette::color;
+use crate::plot::svg::{text_width, wrap, Anchor, Stroke, Svg};
 
 /// One line on a panel.
 #[derive(Clone, Debug, Default)]
@@ -22,7 +25,7 @@ pub struct Series {
     pub color: usize,
 }
 
-/// An annotated point: a dot and a note beside it.
+/// An annotated point: a dot on the data, and its note below the panel.
 #[derive(Clone, Debug)]
 pub struct Marker {
     /// Where, in the panel's data coordinates.
@@ -31,20 +34,6 @@ pub struct Marker {
     pub text: String,
     /// Index into the palette.
     pub color: usize,
-}
-
-/// Where a panel's legend goes.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
-pub enum LegendPosition {
-    /// Upper right corner.
-    #[default]
-    UpperRight,
-    /// Upper left corner.
-    UpperLeft,
-    /// Lower right corner.
-    LowerRight,
-    /// Lower left corner.
-    LowerLeft,
 }
 
 /// One set of axes.
@@ -62,10 +51,8 @@ pub struct Panel {
     pub log_x: bool,
     /// A logarithmic y axis.
     pub log_y: bool,
-    /// Start the y axis at 0 when every value is positive (for q, Mach, heights).
+    /// Start the y axis at 0 when no value is negative (for q, Mach, heights).
     pub y_from_zero: bool,
-    /// Where the legend goes.
-    pub legend: LegendPosition,
 }
 
 /// How panels share a figure.
@@ -73,7 +60,8 @@ pub struct Panel {
 pub enum Layout {
     /// One above the other, sharing the x range (quantities against time).
     Stacked,
-    /// Side by side, sharing the y range (quantities against altitude).
+    /// Side by side, sharing the y range (quantities against altitude); they wrap into
+    /// rows where the figure is too narrow for them all.
     SideBySide,
 }
 
@@ -86,84 +74,165 @@ pub struct Figure {
     pub layout: Layout,
     /// The panels, top to bottom or left to right.
     pub panels: Vec<Panel>,
-    /// Width and height, px.
+    /// Width and height, px. The height grows where the panels would otherwise be too
+    /// short to read; the width is at least [`MIN_WIDTH`].
     pub size: (u32, u32),
 }
 
-/// Distinguishable line colours (a common qualitative palette).
-const PALETTE: [RGBColor; 6] = [
-    RGBColor(31, 119, 180),
-    RGBColor(214, 39, 40),
-    RGBColor(44, 160, 44),
-    RGBColor(148, 103, 189),
-    RGBColor(255, 127, 14),
-    RGBColor(110, 110, 110),
-];
+/// The narrowest figure drawn, px (a small phone's screen is about 320 px wide).
+pub const MIN_WIDTH: u32 = 240;
 
-const FONT: &str = "sans-serif";
+const PAD: f64 = 12.0;
+const GAP: f64 = 20.0;
+const TITLE_SIZE: f64 = 18.0;
+const TITLE_LINE: f64 = 24.0;
+const LABEL_SIZE: f64 = 13.0;
+const LABEL_LINE: f64 = 17.0;
+const TICK_SIZE: f64 = 12.0;
+const TICK_LENGTH: f64 = 5.0;
+const KEY_SIZE: f64 = 12.0;
+const KEY_LINE: f64 = 18.0;
+const SWATCH: f64 = 24.0;
+/// Narrower than this, side-by-side panels wrap into rows.
+const MIN_CELL_WIDTH: f64 = 250.0;
+const MIN_PLOT_HEIGHT: f64 = 150.0;
+/// Room right of the axes for the half of the last tick label that overhangs.
+const RIGHT_ROOM: f64 = 28.0;
+const GRID: &str = "#dddddd";
+const MINOR_GRID: &str = "#f0f0f0";
+const AXIS_LINE: &str = "#666666";
 
-fn color(index: usize) -> RGBColor {
-    PALETTE[index % PALETTE.len()]
-}
-
-/// A range of data with a little room on either side.
+/// A range of data, and whether each end needs room: a line's end may sit on the frame,
+/// a peak or an annotated point may not.
 #[derive(Clone, Copy, Debug, PartialEq)]
 struct Span {
     lo: f64,
     hi: f64,
+    room: (bool, bool),
 }
 
 impl Span {
-    fn of(values: impl Iterator<Item = f64>, log: bool) -> Option<Span> {
+    /// The span of `values`, each with whether it needs room.
+    fn of(values: impl Iterator<Item = (f64, bool)>, log: bool) -> Option<Span> {
         let mut span: Option<Span> = None;
-        for v in values.filter(|v| v.is_finite() && (!log || *v > 0.0)) {
+        for (v, room) in values.filter(|(v, _)| v.is_finite() && (!log || *v > 0.0)) {
             span = Some(match span {
-                None => Span { lo: v, hi: v },
-                Some(s) => Span { lo: s.lo.min(v), hi: s.hi.max(v) },
+                None => Span { lo: v, hi: v, room: (room, room) },
+                Some(s) => s.union(Span { lo: v, hi: v, room: (room, room) }),
             });
         }
         span
     }
 
     fn union(self, other: Span) -> Span {
-        Span { lo: self.lo.min(other.lo), hi: self.hi.max(other.hi) }
+        let end = |a: f64, a_room: bool, b: f64, b_room: bool, lower: bool| {
+            let a_wins = if lower { a < b } else { a > b };
+            if a == b {
+                (a, a_room || b_room)
+            } else if a_wins {
+                (a, a_room)
+            } else {
+                (b, b_room)
+            }
+        };
+        let (lo, room_lo) = end(self.lo, self.room.0, other.lo, other.room.0, true);
+        let (hi, room_hi) = end(self.hi, self.room.1, other.hi, other.room.1, false);
+        Span { lo, hi, room: (room_lo, room_hi) }
     }
+}
 
-    /// Widened by a twentieth of the span (a factor on a log axis); never empty.
-    fn padded(self, log: bool) -> Span {
-        if log {
-            let (lo, hi) =
-                if self.hi > self.lo { (self.lo, self.hi) } else { (self.lo / 2.0, self.hi * 2.0) };
-            let factor = (hi / lo).powf(0.05);
-            Span { lo: lo / factor, hi: hi * factor }
-        } else {
-            let width = self.hi - self.lo;
-            let room = if width > 0.0 { 0.05 * width } else { 0.5 * self.lo.abs().max(1.0) };
-            Span { lo: self.lo - room, hi: self.hi + room }
+/// The legend of a panel: its labelled series, each label once.
+fn legend_items(panel: &Panel) -> Vec<&Series> {
+    let mut items: Vec<&Series> = Vec::new();
+    for series in panel.series.iter().filter(|s| !s.label.is_empty()) {
+        if !items
+            .iter()
+            .any(|s| s.label == series.label && s.color == series.color && s.dashed == series.dashed)
+        {
+            items.push(series);
         }
     }
+    items
 }
 
-type Area<'a> = DrawingArea<SVGBackend<'a>, Shift>;
-
-fn failed(error: impl std::fmt::Display) -> String {
-    format!("cannot draw the plot: {error}")
+/// Whether two panels' legends list the same items.
+fn same_legend(a: &Panel, b: &Panel) -> bool {
+    let (a, b) = (legend_items(a), legend_items(b));
+    a.len() == b.len()
+        && a.iter().zip(&b).all(|(x, y)| x.label == y.label && x.color == y.color && x.dashed == y.dashed)
 }
+
+/// The legend's items laid out in lines no wider than `width`: (item, x offset) per line.
+fn legend_lines<'a>(items: &[&'a Series], width: f64) -> Vec<Vec<(&'a Series, f64)>> {
+    let mut lines: Vec<Vec<(&Series, f64)>> = Vec::new();
+    let mut x = 0.0;
+    for item in items {
+        let item_width = SWATCH + 6.0 + text_width(&item.label, KEY_SIZE);
+        if x > 0.0 && x + item_width > width {
+            x = 0.0;
+        }
+        if x == 0.0 {
+            lines.push(Vec::new());
+        }
+        if let Some(line) = lines.last_mut() {
+            line.push((item, x));
+        }
+        x += item_width + 18.0;
+    }
+    lines
+}
+
+/// What each panel holds around its axes, laid out for a cell `width` px wide.
+struct Bands<'a> {
+    legend: Vec<Vec<(&'a Series, f64)>>,
+    notes: Vec<(usize, Vec<String>)>,
+    x_title: Vec<String>,
+}
+
+impl<'a> Bands<'a> {
+    fn of(panel: &'a Panel, width: f64) -> Self {
+        let legend = legend_lines(&legend_items(panel), width);
+        let notes = panel.markers.iter().map(|m| (m.color, wrap(&m.text, KEY_SIZE, width - 18.0))).collect();
+        let x_title = wrap(&panel.x_label, LABEL_SIZE, width - 40.0);
+        Bands { legend, notes, x_title }
+    }
+
+    fn top(&self) -> f64 {
+        if self.legend.is_empty() {
+            0.0
+        } else {
+            self.legend.len() as f64 * KEY_LINE + 10.0
+        }
+    }
+
+    fn bottom(&self) -> f64 {
+        let notes: usize = self.notes.iter().map(|(_, lines)| lines.len()).sum();
+        let notes = if notes == 0 { 0.0 } else { 6.0 + notes as f64 * KEY_LINE };
+        TICK_LENGTH + TICK_SIZE + 8.0 + self.x_title.len() as f64 * LABEL_LINE + notes
+    }
+}
+
+type Failed = String;
 
 impl Figure {
     /// The figure as an SVG document.
     ///
     /// # Errors
     /// A message when a panel has nothing finite to draw (on a log axis: nothing
-    /// positive) or plotters fails.
-    pub fn to_svg(&self) -> Result<String, String> {
+    /// positive).
+    pub fn to_svg(&self) -> Result<String, Failed> {
         let mut spans = Vec::with_capacity(self.panels.len());
         for (number, panel) in self.panels.iter().enumerate() {
+            // Each point, and whether it needs room: every point but a line's two ends.
             let points = || {
-                panel.series.iter().flat_map(|s| s.points.iter()).chain(panel.markers.iter().map(|m| &m.at))
+                let lines = panel.series.iter().flat_map(|s| {
+                    let last = s.points.len().saturating_sub(1);
+                    s.points.iter().enumerate().map(move |(i, p)| (*p, i != 0 && i != last))
+                });
+                lines.chain(panel.markers.iter().map(|m| (m.at, true)))
             };
-            let x = Span::of(points().map(|p| p.0), panel.log_x);
-            let y = Span::of(points().map(|p| p.1), panel.log_y);
+            let x = Span::of(points().map(|(p, room)| (p.0, room)), panel.log_x);
+            let y = Span::of(points().map(|(p, room)| (p.1, room)), panel.log_y);
             match (x, y) {
                 (Some(x), Some(y)) => spans.push((x, y)),
                 _ => {
@@ -184,46 +253,213 @@ impl Figure {
                 spans.iter_mut().for_each(|s| s.1 = shared.unwrap_or(s.1));
             }
         }
-        let mut svg = String::new();
-        {
-            let root = SVGBackend::with_string(&mut svg, self.size).into_drawing_area();
-            root.fill(&WHITE).map_err(failed)?;
-            let root = root.titled(&self.title, (FONT, 22)).map_err(failed)?;
-            let shape = match self.layout {
-                Layout::Stacked => (self.panels.len(), 1),
-                Layout::SideBySide => (1, self.panels.len()),
-            };
-            let areas = root.split_evenly(shape);
-            for ((area, panel), (x, y)) in areas.iter().zip(&self.panels).zip(spans) {
-                let mut y = y.padded(panel.log_y);
-                if !panel.markers.is_empty() && !panel.log_y {
-                    // Room above the highest point for its note.
-                    y.hi += 0.06 * (y.hi - y.lo);
-                }
-                if panel.y_from_zero && !panel.log_y && y.lo < 0.0 && spans_positive(panel) {
-                    y.lo = 0.0;
-                }
-                let x = x.padded(panel.log_x);
-                match (panel.log_x, panel.log_y) {
-                    (false, false) => draw_panel(area, panel, x.lo..x.hi, y.lo..y.hi)?,
-                    (true, false) => draw_panel(area, panel, (x.lo..x.hi).log_scale(), y.lo..y.hi)?,
-                    (false, true) => draw_panel(area, panel, x.lo..x.hi, (y.lo..y.hi).log_scale())?,
-                    (true, true) => {
-                        draw_panel(area, panel, (x.lo..x.hi).log_scale(), (y.lo..y.hi).log_scale())?
-                    }
-                }
+        Ok(self.draw(&spans))
+    }
+
+    fn draw(&self, spans: &[(Span, Span)]) -> String {
+        let width = f64::from(self.size.0.max(MIN_WIDTH));
+        let inner = width - 2.0 * PAD;
+        let count = self.panels.len().max(1);
+        let columns = match self.layout {
+            Layout::Stacked => 1,
+            Layout::SideBySide => (((inner + GAP) / (MIN_CELL_WIDTH + GAP)).floor() as usize).clamp(1, count),
+        };
+        let rows = count.div_ceil(columns);
+        let cell_width = (inner - GAP * (columns - 1) as f64) / columns as f64;
+        let mut bands: Vec<Bands> = self.panels.iter().map(|p| Bands::of(p, cell_width)).collect();
+        // A legend the same as the panel's before it is said once.
+        for i in (1..bands.len()).rev() {
+            if same_legend(&self.panels[i], &self.panels[i - 1]) {
+                bands[i].legend.clear();
             }
-            root.present().map_err(failed)?;
         }
-        Ok(svg)
+        let row_band = |row: usize, top: bool| {
+            let band = |b: &Bands| if top { b.top() } else { b.bottom() };
+            bands.iter().skip(row * columns).take(columns).map(band).fold(0.0, f64::max)
+        };
+        let tops: Vec<f64> = (0..rows).map(|r| row_band(r, true)).collect();
+        let bottoms: Vec<f64> = (0..rows).map(|r| row_band(r, false)).collect();
+        let title = wrap(&self.title, TITLE_SIZE, inner);
+        let title_height = title.len() as f64 * TITLE_LINE + 8.0;
+        let fixed = 2.0 * PAD
+            + title_height
+            + tops.iter().sum::<f64>()
+            + bottoms.iter().sum::<f64>()
+            + GAP * (rows - 1) as f64;
+        let min_plot = if self.layout == Layout::SideBySide && rows > 1 {
+            MIN_PLOT_HEIGHT.max(0.8 * cell_width)
+        } else {
+            MIN_PLOT_HEIGHT
+        };
+        let plot_height = ((f64::from(self.size.1) - fixed) / rows as f64).max(min_plot);
+        let height = fixed + plot_height * rows as f64;
+
+        // The y axes need the plot's height; their labels and title set the left margin,
+        // the same for every panel so that stacked axes line up.
+        let y_axes: Vec<Axis> = self
+            .panels
+            .iter()
+            .zip(spans)
+            .map(|(panel, (_, y))| {
+                let from_zero = panel.y_from_zero && y.lo >= 0.0;
+                Axis::fit(y.lo, y.hi, panel.log_y, y.room, from_zero, plot_height, &|_| 2.3 * TICK_SIZE)
+            })
+            .collect();
+        let y_titles: Vec<Vec<String>> =
+            self.panels.iter().map(|p| wrap(&p.y_label, LABEL_SIZE, plot_height)).collect();
+        let widest_tick = y_axes
+            .iter()
+            .flat_map(|a| a.ticks.iter().map(|t| text_width(&t.label, TICK_SIZE)))
+            .fold(0.0, f64::max);
+        let title_lines = y_titles.iter().map(Vec::len).max().unwrap_or(1) as f64;
+        let left = title_lines * LABEL_LINE + 6.0 + widest_tick + 4.0 + TICK_LENGTH;
+        let plot_width = (cell_width - left - RIGHT_ROOM).max(40.0);
+
+        let mut svg = Svg::new(width, height);
+        for (i, line) in title.iter().enumerate() {
+            svg.text(
+                width / 2.0,
+                PAD + (i + 1) as f64 * TITLE_LINE - 6.0,
+                TITLE_SIZE,
+                Anchor::Middle,
+                line,
+                false,
+            );
+        }
+        let mut row_y = PAD + title_height;
+        for row in 0..rows {
+            for column in 0..columns {
+                let index = row * columns + column;
+                let Some(panel) = self.panels.get(index) else { break };
+                let cell_x = PAD + column as f64 * (cell_width + GAP);
+                let x = spans[index].0;
+                let x_axis = Axis::fit(x.lo, x.hi, panel.log_x, x.room, false, plot_width, &|label| {
+                    text_width(label, TICK_SIZE) + 14.0
+                });
+                let area =
+                    Area { x: cell_x + left, y: row_y + tops[row], width: plot_width, height: plot_height };
+                let axes = Axes { x: &x_axis, y: &y_axes[index], area };
+                draw_panel(&mut svg, panel, &axes, &bands[index], &y_titles[index], (cell_x, row_y), index);
+            }
+            row_y += tops[row] + plot_height + bottoms[row] + GAP;
+        }
+        svg.finish()
     }
 }
 
-fn spans_positive(panel: &Panel) -> bool {
-    panel.series.iter().flat_map(|s| &s.points).all(|p| !p.1.is_finite() || p.1 >= 0.0)
+/// Where a panel's axes are, px.
+#[derive(Clone, Copy)]
+struct Area {
+    x: f64,
+    y: f64,
+    width: f64,
+    height: f64,
 }
 
-/// The runs of finite points of `points`.
+struct Axes<'a> {
+    x: &'a Axis,
+    y: &'a Axis,
+    area: Area,
+}
+
+impl Axes<'_> {
+    fn px(&self, (x, y): (f64, f64)) -> (f64, f64) {
+        let a = self.area;
+        (a.x + self.x.fraction(x) * a.width, a.y + a.height - self.y.fraction(y) * a.height)
+    }
+}
+
+fn draw_panel(
+    svg: &mut Svg,
+    panel: &Panel,
+    axes: &Axes,
+    bands: &Bands,
+    y_title: &[String],
+    (cell_x, cell_y): (f64, f64),
+    index: usize,
+) {
+    let a = axes.area;
+    let solid = |colour, width| Stroke { colour, width, dash: None };
+    // The legend, above the axes.
+    for (line_index, line) in bands.legend.iter().enumerate() {
+        let baseline = cell_y + (line_index + 1) as f64 * KEY_LINE - 5.0;
+        for (series, x) in line {
+            let colour = color(series.color).hex();
+            let dash = series.dashed.then_some("6 4");
+            let x = cell_x + x;
+            svg.line(
+                (x, baseline - 4.0),
+                (x + SWATCH, baseline - 4.0),
+                &Stroke { colour: &colour, width: 2.5, dash },
+            );
+            svg.text(x + SWATCH + 6.0, baseline, KEY_SIZE, Anchor::Start, &series.label, false);
+        }
+    }
+    // The grid, then the frame and ticks.
+    let vertical = |svg: &mut Svg, v: f64, colour| {
+        let (x, _) = axes.px((v, axes.y.lo));
+        svg.line((x, a.y), (x, a.y + a.height), &solid(colour, 1.0));
+    };
+    let horizontal = |svg: &mut Svg, v: f64, colour| {
+        let (_, y) = axes.px((axes.x.lo, v));
+        svg.line((a.x, y), (a.x + a.width, y), &solid(colour, 1.0));
+    };
+    axes.x.minor.iter().for_each(|v| vertical(svg, *v, MINOR_GRID));
+    axes.y.minor.iter().for_each(|v| horizontal(svg, *v, MINOR_GRID));
+    axes.x.ticks.iter().for_each(|t| vertical(svg, t.value, GRID));
+    axes.y.ticks.iter().for_each(|t| horizontal(svg, t.value, GRID));
+    svg.frame(a.x, a.y, a.width, a.height, &solid(AXIS_LINE, 1.0));
+    let bottom = a.y + a.height;
+    for t in &axes.x.ticks {
+        let (x, _) = axes.px((t.value, axes.y.lo));
+        svg.line((x, bottom), (x, bottom + TICK_LENGTH), &solid(AXIS_LINE, 1.0));
+        svg.text(x, bottom + TICK_LENGTH + TICK_SIZE + 1.0, TICK_SIZE, Anchor::Middle, &t.label, false);
+    }
+    for t in &axes.y.ticks {
+        let (_, y) = axes.px((axes.x.lo, t.value));
+        svg.line((a.x - TICK_LENGTH, y), (a.x, y), &solid(AXIS_LINE, 1.0));
+        svg.text(a.x - TICK_LENGTH - 4.0, y + 0.35 * TICK_SIZE, TICK_SIZE, Anchor::End, &t.label, false);
+    }
+    // The axis titles.
+    let mut y = bottom + TICK_LENGTH + TICK_SIZE + 8.0;
+    for line in &bands.x_title {
+        y += LABEL_LINE;
+        svg.text(a.x + a.width / 2.0, y - 4.0, LABEL_SIZE, Anchor::Middle, line, false);
+    }
+    for (i, line) in y_title.iter().enumerate() {
+        let x = cell_x + (i + 1) as f64 * LABEL_LINE - 4.0;
+        svg.text(x, a.y + a.height / 2.0, LABEL_SIZE, Anchor::Middle, line, true);
+    }
+    // The data, clipped to the axes.
+    let clip = format!("plot-area-{index}");
+    svg.clip(&clip, a.x, a.y, a.width, a.height);
+    for series in &panel.series {
+        let colour = color(series.color).hex();
+        let stroke = Stroke { colour: &colour, width: 2.0, dash: series.dashed.then_some("8 5") };
+        for run in segments(&series.points, panel.log_x, panel.log_y) {
+            let points: Vec<(f64, f64)> = run.into_iter().map(|p| axes.px(p)).collect();
+            svg.path(&points, &stroke, &clip);
+        }
+    }
+    for marker in &panel.markers {
+        svg.dot(axes.px(marker.at), 4.5, &color(marker.color).hex());
+    }
+    // The notes, below the axes.
+    if !bands.notes.is_empty() {
+        y += 6.0;
+    }
+    for (colour, lines) in &bands.notes {
+        for (i, line) in lines.iter().enumerate() {
+            y += KEY_LINE;
+            if i == 0 {
+                svg.dot((cell_x + 6.0, y - 8.0), 4.5, &color(*colour).hex());
+            }
+            svg.text(cell_x + 16.0, y - 4.0, KEY_SIZE, Anchor::Start, line, false);
+        }
+    }
+}
+
+/// The runs of finite points of `points` (on a log axis: positive too).
 fn segments(points: &[(f64, f64)], log_x: bool, log_y: bool) -> Vec<Vec<(f64, f64)>> {
     let usable =
         |p: &(f64, f64)| p.0.is_finite() && p.1.is_finite() && (!log_x || p.0 > 0.0) && (!log_y || p.1 > 0.0);
@@ -241,93 +477,6 @@ fn segments(points: &[(f64, f64)], log_x: bool, log_y: bool) -> Vec<Vec<(f64, f6
     runs
 }
 
-fn draw_panel<X, Y>(area: &Area, panel: &Panel, x: X, y: Y) -> Result<(), String>
-where
-    X: AsRangedCoord<Value = f64>,
-    Y: AsRangedCoord<Value = f64>,
-    X::CoordDescType: ValueFormatter<f64>,
-    Y::CoordDescType: ValueFormatter<f64>,
-{
-    let (width, height) = area.dim_in_pixel();
-    let (narrow, short) = (width < 500, height < 300);
-    let mut chart = ChartBuilder::on(area)
-        .margin(12)
-        .x_label_area_size(46)
-        .y_label_area_size(72)
-        .build_cartesian_2d(x, y)
-        .map_err(failed)?;
-    let x_format = |v: &f64| tick(*v);
-    let y_format = |v: &f64| tick(*v);
-    chart
-        .configure_mesh()
-        .x_labels(if narrow { 5 } else { 10 })
-        .y_labels(if short { 5 } else { 10 })
-        .x_desc(&panel.x_label)
-        .y_desc(&panel.y_label)
-        .x_label_formatter(&x_format)
-        .y_label_formatter(&y_format)
-        .axis_desc_style((FONT, 15))
-        .label_style((FONT, 12))
-        .light_line_style(RGBColor(235, 235, 235))
-        .bold_line_style(RGBColor(210, 210, 210))
-        .draw()
-        .map_err(failed)?;
-    let mut legend = false;
-    for series in &panel.series {
-        let colour = color(series.color);
-        let style = colour.stroke_width(2);
-        let mut labelled = series.label.is_empty();
-        for run in segments(&series.points, panel.log_x, panel.log_y) {
-            let drawn = if series.dashed {
-                chart.draw_series(DashedLineSeries::new(run, 8, 5, style)).map_err(failed)?
-            } else {
-                chart.draw_series(LineSeries::new(run, style)).map_err(failed)?
-            };
-            if !labelled {
-                labelled = true;
-                legend = true;
-                let dashed = series.dashed;
-                drawn.label(series.label.as_str()).legend(move |(x, y)| {
-                    let end = if dashed { 10 } else { 22 };
-                    PathElement::new(vec![(x, y), (x + end, y)], colour.stroke_width(2))
-                });
-            }
-        }
-    }
-    for (number, marker) in panel.markers.iter().enumerate() {
-        let colour = color(marker.color);
-        let (x_range, _) = (chart.x_range(), ());
-        let in_right_half = (marker.at.0 - x_range.start) > 0.55 * (x_range.end - x_range.start);
-        // plotters' estimate of text width is about 0.46 em per character.
-        let width = (marker.text.chars().count() as f64 * 13.0 * 0.5) as i32;
-        // Notes alternate above and below their points, so that two close ones stay apart.
-        let dy = if number % 2 == 0 { -18 } else { 8 };
-        let offset = if in_right_half { (-10 - width, dy) } else { (10, dy) };
-        let dot = EmptyElement::at(marker.at)
-            + Circle::new((0, 0), 5, colour.filled())
-            + Circle::new((0, 0), 5, BLACK.stroke_width(1))
-            + Text::new(marker.text.clone(), offset, (FONT, 13).into_font().color(&BLACK));
-        chart.draw_series(std::iter::once(dot)).map_err(failed)?;
-    }
-    if legend {
-        let position = match panel.legend {
-            LegendPosition::UpperRight => SeriesLabelPosition::UpperRight,
-            LegendPosition::UpperLeft => SeriesLabelPosition::UpperLeft,
-            LegendPosition::LowerRight => SeriesLabelPosition::LowerRight,
-            LegendPosition::LowerLeft => SeriesLabelPosition::LowerLeft,
-        };
-        chart
-            .configure_series_labels()
-            .position(position)
-            .label_font((FONT, 13))
-            .background_style(WHITE.mix(0.85))
-            .border_style(RGBColor(160, 160, 160))
-            .draw()
-            .map_err(failed)?;
-    }
-    Ok(())
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -339,30 +488,64 @@ mod tests {
         assert_eq!(segments(&points, false, true), vec![vec![(0.0, 1.0)], vec![(2.0, 3.0), (3.0, 4.0)]]);
     }
 
-    #[test]
-    fn a_figure_has_its_title_labels_and_legend() {
-        let panel = Panel {
+    fn figure(width: u32) -> Figure {
+        let panel = |label: &str| Panel {
             x_label: "time (s)".to_owned(),
-            y_label: "q (kPa)".to_owned(),
-            series: vec![Series {
-                label: "one".to_owned(),
-                points: vec![(0.0, 1.0), (1.0, 2.0)],
-                ..Series::default()
-            }],
-            markers: vec![Marker { at: (1.0, 2.0), text: "peak".to_owned(), color: 0 }],
+            y_label: label.to_owned(),
+            series: vec![
+                Series { label: "one".to_owned(), points: vec![(0.0, 1.0), (1.0, 2.0)], ..Series::default() },
+                Series {
+                    label: "two".to_owned(),
+                    points: vec![(0.0, 2.0), (1.0, 1.0)],
+                    color: 1,
+                    dashed: true,
+                },
+            ],
+            markers: vec![Marker { at: (1.0, 2.0), text: "peak at t = 1 s".to_owned(), color: 0 }],
             ..Panel::default()
         };
-        let figure = Figure {
-            title: "A title".to_owned(),
-            layout: Layout::Stacked,
-            panels: vec![panel],
-            size: (400, 300),
-        };
-        let svg = figure.to_svg().unwrap();
-        for text in ["A title", "time (s)", "q (kPa)", "one", "peak", "<svg"] {
+        Figure {
+            title: "A title & more".to_owned(),
+            layout: Layout::SideBySide,
+            panels: vec![panel("q (kPa)"), panel("Mach number"), panel("drag (N)")],
+            size: (width, 300),
+        }
+    }
+
+    #[test]
+    fn a_figure_has_its_title_labels_legend_and_notes() {
+        let svg = figure(1200).to_svg().unwrap();
+        for text in ["A title &amp; more", "time (s)", "q (kPa)", ">one<", ">two<", "peak at t = 1 s", "<svg"]
+        {
             assert!(svg.contains(text), "{text}");
         }
-        let empty = Figure { panels: vec![Panel::default()], ..figure };
+        assert!(svg.contains("stroke-dasharray=\"8 5\""), "the dashed series");
+        assert!(svg.contains(&color(1).hex()));
+        let empty = Figure { panels: vec![Panel::default()], ..figure(400) };
         assert!(empty.to_svg().unwrap_err().contains("no finite"));
+    }
+
+    /// The height an SVG declares.
+    fn height(svg: &str) -> f64 {
+        let at = svg.find("height=\"").unwrap() + 8;
+        svg[at..at + svg[at..].find('"').unwrap()].parse().unwrap()
+    }
+
+    #[test]
+    fn a_narrow_figure_wraps_its_panels_and_grows() {
+        let wide = figure(1200).to_svg().unwrap();
+        let narrow = figure(360).to_svg().unwrap();
+        assert!(
+            height(&narrow) > 2.5 * height(&wide),
+            "three rows: {} against {}",
+            height(&narrow),
+            height(&wide)
+        );
+        // The same notes, at the same size.
+        assert_eq!(narrow.matches(">peak at t = 1 s<").count(), 3);
+        assert_eq!(wide.matches(">peak at t = 1 s<").count(), 3);
+        assert!(narrow.contains("width=\"360\""));
+        let tiny = Figure { size: (10, 10), ..figure(10) }.to_svg().unwrap();
+        assert!(tiny.contains(&format!("width=\"{MIN_WIDTH}\"")));
     }
 }

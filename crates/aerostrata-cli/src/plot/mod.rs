@@ -1,13 +1,16 @@
 //! SVG figures, for `aerostrata plot` and for the worked examples alike: the chart
-//! drawing every figure goes through, and the two figures the tool draws, the profile
-//! (state quantities against altitude) and the flight (q and Mach number against time).
-//! Their labels are the catalogue's.
+//! drawing every figure goes through (its axes, palette and SVG writer), and the two
+//! figures the tool draws, the profile (state quantities against altitude) and the flight
+//! (q, Mach number and drag against time). Their labels are the catalogue's.
 
+pub mod axis;
 pub mod chart;
 pub mod flight;
+pub mod palette;
 pub mod profile;
+mod svg;
 
-pub use chart::{Figure, Layout, LegendPosition, Marker, Panel, Series};
+pub use chart::{Figure, Layout, Marker, Panel, Series};
 pub use flight::{flight_figure, flight_title, trace_flight, FlightTrace, FLIGHT_PLOT_POINTS};
 
 use aerostrata::units::Unit;

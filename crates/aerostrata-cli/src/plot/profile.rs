@@ -9,7 +9,7 @@ use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
 use clap::ValueEnum;
 
 use crate::args::model::altitude_quantity;
-use crate::plot::chart::{Figure, Layout, LegendPosition, Panel, Series};
+use crate::plot::chart::{Figure, Layout, Panel, Series};
 use crate::plot::{axis_label, capitalised};
 use crate::units::UnitSystem;
 
@@ -84,8 +84,6 @@ impl ProfilePlot {
             .map(|q| Panel {
                 x_label: axis_label(*q, units.unit(*q)),
                 y_label: axis_label(altitude, altitude_unit(units, altitude)),
-                // Low and to the left is where profiles of the air leave room.
-                legend: LegendPosition::LowerLeft,
                 ..Panel::default()
             })
             .collect();
