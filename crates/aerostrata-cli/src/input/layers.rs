@@ -10,6 +10,7 @@ use std::fs::File;
 use std::io::BufReader;
 use std::path::Path;
 
+use aerostrata::model::MAX_LAPSE_RATE_K_M;
 use aerostrata::units::Tidy;
 use aerostrata::{Layer, LayerSpec, Layered, Quantity};
 
@@ -77,7 +78,20 @@ pub fn load(path: &Path) -> Result<Layered<Vec<Layer>>, Failure> {
                         ),
                     ));
                 }
-                specs.push(LayerSpec { top_geopotential_m: h, lapse_rate_k_m: (t - below_t) / (h - below_h) });
+                let lapse = (t - below_t) / (h - below_h);
+                if lapse.is_nan() || lapse.abs() > MAX_LAPSE_RATE_K_M {
+                    return Err(table.at_cell(
+                        Quantity::Temperature,
+                        format!(
+                            "the temperature changes by {} K from the row before: a lapse rate of {} K/km, \
+                             steeper than any atmosphere's 100 K/km (check the temperature's unit and the \
+                             altitudes)",
+                            Tidy(t - below_t),
+                            Tidy(lapse * 1000.0)
+                        ),
+                    ));
+                }
+                specs.push(LayerSpec { top_geopotential_m: h, lapse_rate_k_m: lapse });
             }
         }
         last = Some((h, t));
@@ -147,7 +161,7 @@ mod tests {
         assert!(error("altitude_m,temperature_K,pressure_Pa\n")
             .starts_with("line 1: the header needs a column geopotential_altitude"));
         assert!(error("geopotential_altitude_m,temperature_K,pressure_Pa\n0,288,101325\n1000,-5,\n")
-            .contains("temperature"),);
+            .starts_with("line 3, column 2 (temperature_K): the temperature changes by -293 K"));
         assert!(
             matches!(load(Path::new("/no/such/layers.csv")), Err(Failure::Input(m)) if m.starts_with("cannot read layers /no/such/layers.csv"))
         );
