@@ -111,6 +111,15 @@ fn every_mistake_is_refused_where_it_is() {
             assert!(error.contains(word), "{text:?}: {error:?} lacks {word:?}");
         }
     }
+    // A plain altitude is geometric, as in a flight file.
+    let plain =
+        read_winds_csv("altitude (ft),wind_east (kt),wind_north (kt)\n1000,5,0\n", &Options::default());
+    assert_eq!(plain.unwrap().winds.levels()[0].altitude_m, 304.8);
+    let both = "altitude_m,geometric_altitude_m,wind_east_m_s,wind_north_m_s\n0,0,1,1\n";
+    assert!(read_winds_csv(both, &Options::default())
+        .unwrap_err()
+        .to_string()
+        .contains("one altitude column"));
     // A header alone.
     let error = read_winds_csv("geometric_altitude_m,wind_east_m_s,wind_north_m_s\n", &Options::default());
     assert!(error.unwrap_err().to_string().contains("no row of winds"));

@@ -133,6 +133,8 @@ units! {
     RADIAN = unit("rad", "rad", Dimension::Angle, RADIAN_DEG), &["rad", "radian", "radians"];
     /// Pascal degree (q-alpha).
     PASCAL_DEGREE = unit("Pa deg", "Pa_deg", Dimension::PressureAngle, 1.0), &["Pa deg", "Pa_deg", "Pa*deg", "Pa.deg"];
+    /// Kilopascal degree (q-alpha).
+    KILOPASCAL_DEGREE = unit("kPa deg", "kPa_deg", Dimension::PressureAngle, 1000.0), &["kPa deg", "kPa_deg", "kPa*deg", "kPa.deg"];
     /// Pound-force per square foot degree (q-alpha).
     PSF_DEGREE = unit("psf deg", "psf_deg", Dimension::PressureAngle, PSF_PA), &["psf deg", "psf_deg", "psf*deg", "psf.deg"];
     /// Kelvin per metre (a lapse rate, dT/dH).

@@ -135,13 +135,14 @@ pub struct WindFile {
     pub ignored: Vec<(usize, String)>,
 }
 
-const WIND_COLUMNS: &str = "geometric_altitude or geopotential_altitude, and wind_speed with \
+const WIND_COLUMNS: &str = "altitude (geometric) or geopotential_altitude, and wind_speed with \
      wind_direction (the direction it blows from) or wind_east with wind_north, each with its unit \
      (geometric_altitude_ft, wind_speed_kt, wind_direction_deg)";
 
 /// Reads a wind profile from CSV text: `#` comments and blank lines anywhere, one header
 /// line, one row per level; the same headings, units and cells as a sounding's
-/// ([`super::csv::read_csv`]). Geopotential altitudes are converted to geometric.
+/// ([`super::csv::read_csv`]), except that a plain `altitude` column is read as geometric
+/// (as in a flight file). Geopotential altitudes are converted to geometric.
 ///
 /// ```
 /// use aerostrata::model::sounding_io::{read_winds_csv, Options};
@@ -169,29 +170,27 @@ pub fn read_winds_csv(text: &str, options: &Options) -> Result<WindFile, LoadErr
         table::cells(header_text, table::delimiter_of(header_text)).map(ToString::to_string).collect();
     let taken = |q: Quantity| {
         WIND_QUANTITIES.contains(&q)
-            || q == Quantity::GeometricAltitude
-            || q == Quantity::GeopotentialAltitude
+            || matches!(q, Quantity::Altitude | Quantity::GeometricAltitude | Quantity::GeopotentialAltitude)
     };
     let header = Header::read(header_text, taken, options.default_unit)
         .map_err(|error| header_error(header_line, &names, error))?;
-    let (altitude, kind) =
-        match (header.position(Quantity::GeometricAltitude), header.position(Quantity::GeopotentialAltitude))
-        {
-            (Some(index), None) => (index, AltitudeKind::Geometric),
-            (None, Some(index)) => (index, AltitudeKind::Geopotential),
-            (Some(_), Some(_)) => {
-                return Err(LoadError::at(
-                    header_line,
-                    "give one altitude column, geometric or geopotential",
-                ));
-            }
-            (None, None) => {
-                return Err(LoadError::at(
-                    header_line,
-                    alloc::format!("the header needs an altitude column; the columns are {WIND_COLUMNS}"),
-                ));
-            }
-        };
+    // A plain `altitude` is geometric, as in a flight file (winds are reported against
+    // height); a sounding, whose temperatures depend on which, must say.
+    let one = |message: &str| Err(LoadError::at(header_line, message.to_string()));
+    let geometric = match [Quantity::GeometricAltitude, Quantity::Altitude].map(|q| header.position(q)) {
+        [Some(_), Some(_)] => return one("give one altitude column, geometric or geopotential"),
+        [a, b] => a.or(b),
+    };
+    let (altitude, kind) = match (geometric, header.position(Quantity::GeopotentialAltitude)) {
+        (Some(index), None) => (index, AltitudeKind::Geometric),
+        (None, Some(index)) => (index, AltitudeKind::Geopotential),
+        (Some(_), Some(_)) => return one("give one altitude column, geometric or geopotential"),
+        (None, None) => {
+            return one(&alloc::format!(
+                "the header needs an altitude column; the columns are {WIND_COLUMNS}"
+            ));
+        }
+    };
     let columns = match WindColumns::of(&header) {
         Found::Pair(columns) => columns,
         Found::Nothing => {
