@@ -115,6 +115,12 @@ pub(crate) fn atan2_deg(y: f64, x: f64) -> f64 {
     libm::atan2(y, x) * (180.0 / core::f64::consts::PI)
 }
 
+/// The least integer not below x.
+#[inline]
+pub(crate) fn ceil(x: f64) -> f64 {
+    libm::ceil(x)
+}
+
 /// The cube root.
 #[inline]
 pub(crate) fn cbrt(x: f64) -> f64 {

@@ -8,7 +8,7 @@ use crate::altitude::{Altitude, AltitudeKind};
 use crate::constants::SEA_LEVEL_MOLAR_MASS_KG_KMOL;
 use crate::error::{positive, Error, Result};
 use crate::gas::Air;
-use crate::math::{exp, ln};
+use crate::math::{ceil, exp, ln};
 use crate::model::atmosphere::Atmosphere;
 use crate::model::standard::US1976;
 
@@ -107,7 +107,7 @@ fn check_falls(blend: &Blend, below: bool) -> Result<()> {
         depth_m: blend.depth_m,
         ratio: exp(blend.ln_pressure_ratio),
         // The blend's term scales as 1 / depth: this depth brings the worst step to half.
-        min_depth_m: (2.0 * worst * blend.depth_m).ceil(),
+        min_depth_m: ceil(2.0 * worst * blend.depth_m),
     })
 }
 
