@@ -82,7 +82,7 @@ pub fn run(root: &Path) -> Result<(), String> {
     );
     step(
         "spreadsheet add-in: the .oxt installed with unopkg into a fresh profile, every function's formulas \
-         checked headless (cargo xtask addin --check)",
+         checked headless; the Windows DLLs under Wine (cargo xtask addin --check --windows)",
         crate::addin::test(root),
     );
     step(

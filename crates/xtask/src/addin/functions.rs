@@ -79,7 +79,7 @@ fn camel(words: &str) -> String {
 
 fn unit_text(unit: &str) -> String {
     if unit.is_empty() {
-        "a pure number".to_owned()
+        "none (a pure number)".to_owned()
     } else {
         unit.to_owned()
     }
@@ -122,7 +122,7 @@ fn column(name: &'static str, description: &str) -> Arg {
 }
 
 fn function(name: &str, what: &str, unit: &'static str, args: Vec<Arg>, call: Call) -> Function {
-    let description = format!("{what}, {}. {CAUTION}", unit_text(unit));
+    let description = format!("{what}. Unit: {}. {CAUTION}", unit_text(unit));
     Function {
         display: format!("{PREFIX}{}", name.to_ascii_uppercase()),
         method: camel(name),
@@ -161,8 +161,8 @@ pub fn all() -> Vec<Function> {
     };
     out.push(function(
         "state",
-        "Any state quantity at an altitude, by its machine name, in the quantity's SI unit",
-        "SI unit of the quantity",
+        "Any state quantity at an altitude, by its machine name",
+        "the quantity's SI unit",
         vec![altitude(), quantity, model()],
         Call::StateByName,
     ));

@@ -47,9 +47,32 @@ pub fn run(root: &Path, args: &[String]) -> Result<(), String> {
     Ok(())
 }
 
-/// The add-in step of `cargo xtask test`: the .oxt built, installed and checked.
+/// For `cargo xtask catalogue`: every state quantity of the catalogue has its cell
+/// function, named after its machine name, calling the C library with its id, its SI unit
+/// in the Function Wizard's line. Returns how many.
+pub fn catalogue_check() -> Result<usize, String> {
+    use aerostrata::quantity::Group;
+    let functions = functions::all();
+    let mut count = 0;
+    for q in aerostrata::Quantity::of_group(Group::State) {
+        let display = format!("{}{}", functions::PREFIX, q.name().to_ascii_uppercase());
+        let f = functions
+            .iter()
+            .find(|f| f.display == display)
+            .ok_or(format!("the spreadsheet add-in has no {display} for the state quantity {}", q.name()))?;
+        if f.call != functions::Call::State(q.id()) || !f.description.contains(q.si().symbol()) {
+            return Err(format!("the add-in's {display} does not give {} in {}", q.name(), q.si().symbol()));
+        }
+        count += 1;
+    }
+    Ok(count)
+}
+
+/// The add-in step of `cargo xtask test`: the .oxt built, installed and checked, and the
+/// Windows DLLs built and tested (skipped with a message where mingw or Wine cannot be
+/// installed).
 pub fn test(root: &Path) -> Result<(), String> {
-    run(root, &["--check".to_owned()])
+    run(root, &["--check".to_owned(), "--windows".to_owned()])
 }
 
 /// Generates the add-in from the function list and zips `target/addin/aerostrata.oxt`.
@@ -206,5 +229,13 @@ fn check(root: &Path, functions: &[functions::Function], oxt: &Path) -> Result<(
         Ok(())
     } else {
         Err(format!("the add-in check failed ({}):\n{}", run.status, run.last_lines()))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #[test]
+    fn every_state_quantity_has_its_cell_function() {
+        assert_eq!(super::catalogue_check(), Ok(20));
     }
 }
