@@ -348,6 +348,38 @@ mod tests {
     }
 
     #[test]
+    fn state_by_id_and_spec() {
+        let at = |z: f64| US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();
+        let spec = |text: &str| alloc::ffi::CString::new(text).unwrap();
+        let density = Quantity::Density.id();
+        // SAFETY (every call below): NULL or a CString's NUL-terminated pointer.
+        unsafe {
+            assert_eq!(aerostrata_xl_state(density, 5000.0, core::ptr::null()), at(5000.0).density_kg_m3);
+            assert_eq!(
+                aerostrata_xl_state(density, 5000.0, spec(" standard ").as_ptr()),
+                at(5000.0).density_kg_m3
+            );
+            assert_eq!(
+                aerostrata_xl_state(density, 5000.0, spec("offset=+27F").as_ptr()),
+                aerostrata_xl_state_offset(density, 5000.0, 15.0)
+            );
+            assert_eq!(
+                aerostrata_xl_state(Quantity::Temperature.id(), 9000.0, spec("isothermal=250K").as_ptr()),
+                250.0
+            );
+            assert!(aerostrata_xl_state(Quantity::Mach.id(), 5000.0, core::ptr::null()).is_nan());
+            assert!(aerostrata_xl_state(density, 5000.0, spec("layers=a.csv").as_ptr()).is_nan());
+            assert!(aerostrata_xl_model_valid(spec("exponential=1.225,8500m").as_ptr()) == 1.0);
+            assert!(aerostrata_xl_model_valid(spec("offset=15").as_ptr()) == 1.0);
+            assert!(aerostrata_xl_model_valid(spec("offset").as_ptr()).is_nan());
+        }
+        let given = Quantity::TrueAirspeed.id();
+        assert_eq!(aerostrata_xl_airspeed(given, given, 70.0, 1000.0, 280.0), 70.0);
+        assert!(aerostrata_xl_airspeed(given, Quantity::Time.id(), 70.0, 1000.0, 280.0).is_nan());
+        assert!(aerostrata_xl_isentropic_temperature_ratio(f64::INFINITY).is_nan());
+    }
+
+    #[test]
     fn the_header_declares_exactly_these_functions() {
         // cbindgen skips extern "system", so cbindgen.toml declares them by hand.
         let source = include_str!("spreadsheet.rs");
