@@ -6,7 +6,10 @@ library the extension carries, called directly; an array formula over a column;
 SUMPRODUCT over results; every kind of error a cell error (never 0); the Function Wizard's
 text of every function. Run by `cargo xtask addin --check`:
 
-    /usr/bin/python3 check_calc.py PROFILE FUNCTIONS_JSON LIBRARY VECTORS_DIR RESULTS_JSON
+    /usr/bin/python3 check_calc.py PROFILE FUNCTIONS_JSON LIBRARY VECTORS_DIR RESULTS_JSON EXAMPLE
+
+EXAMPLE is examples/spreadsheet/invented-ascent.fods: a workbook whose cells are add-in
+formulas; it is opened, recalculated and every formula cell compared with the library.
 
 It starts its own soffice on a private pipe and stops it; only processes it started are
 ever killed, by their PID. Exit status 0 and "RESULT: PASS" when every check passes.
@@ -24,7 +27,7 @@ import uno
 from com.sun.star.beans import PropertyValue
 from com.sun.star.connection import NoConnectException
 
-PROFILE, FUNCTIONS_JSON, LIBRARY, VECTORS, OUT = sys.argv[1:6]
+PROFILE, FUNCTIONS_JSON, LIBRARY, VECTORS, OUT, EXAMPLE = sys.argv[1:7]
 PIPE = "strata_check_%d" % os.getpid()
 CAUTION = "Not certified flight software; verify independently; local codes, range-safety rules and " \
           "licensed engineering practice govern."
@@ -120,6 +123,43 @@ class Sheet:
         check["formula"] = text
         self.pending.append((address, check))
         return address
+
+
+def check_example(desktop, record):
+    """The example workbook: every formula cell computes and equals the library's value."""
+    doc = desktop.loadComponentFromURL(uno.systemPathToFileUrl(os.path.abspath(EXAMPLE)), "_blank", 0,
+                                       (pv("Hidden", True),))
+    try:
+        doc.calculateAll()
+        sheet = doc.Sheets.getByIndex(0)
+
+        def cell(col, row):
+            return sheet.getCellByPosition(col, row)
+
+        cd, area = cell(1, 2).getValue(), cell(3, 2).getValue()
+        mach = cfn("aerostrata_xl_mach_at", [D, D, S])
+        q = cfn("aerostrata_xl_dynamic_pressure_at", [D, D, S])
+        drag = cfn("aerostrata_xl_drag", [D, D, D, D, S])
+        row, rows, max_q = 4, 0, 0.0
+        while cell(0, row).getType().value == "VALUE" and cell(3, row).getFormula():
+            z, v = cell(1, row).getValue(), cell(2, row).getValue()
+            expected = [xl_state(5, z, None), xl_state(6, z, None), mach(z, v, None), q(z, v, None),
+                        drag(z, v, cd, area, None), q(z, v, b"hydrostatic-offset=+15K"),
+                        xl_state(5, z, b"offset=15.0K")]
+            for col, want in enumerate(expected, start=3):
+                c = cell(col, row)
+                record("example workbook %s%d" % ("ABCDEFGHIJ"[col], row + 1),
+                       c.getError() == 0 and c.getValue() == want and c.getFormula().startswith(("=", "{=")),
+                       "the C library directly", value=c.getValue(), error=c.getError(), want=want,
+                       formula=c.getFormula())
+            max_q = max(max_q, expected[3])
+            rows += 1
+            row += 1
+        c = cell(1, row)
+        record("example workbook: maximum q", rows > 5 and c.getError() == 0 and c.getValue() == max_q,
+               "the C library directly, maximum taken here", value=c.getValue(), want=max_q, rows=rows)
+    finally:
+        doc.close(True)
 
 
 def main():
@@ -378,6 +418,9 @@ def main():
         cell = doc.Sheets.getByIndex(0).getCellRangeByName(first_address)
         record("after saving as .ods and reloading", cell.getError() == 0 and cell.getValue() == first_check["lib"],
                "the C library directly", value=cell.getValue(), formula=cell.getFormula())
+        doc.close(True)
+        doc = None
+        check_example(desktop, record)
         results["ok"] = all(c["ok"] for c in results["checks"]) and len(results["checks"]) > 300
     except Exception as e:
         results["exception"] = repr(e)
