@@ -25,7 +25,7 @@
 #define AEROSTRATA_VERSION_STRING "0.1.0"
 
 /*
- * Spreadsheet functions: doubles in, one double out, NaN on any error; they do not set
+ * Spreadsheet functions: doubles (and a model spec string) in, one double out, NaN on any error; they do not set
  * the thread's error detail. Declared here by hand (cbindgen skips extern "system"):
  * AEROSTRATA_XL_CALL is __stdcall on 32-bit Windows, where spreadsheet macro languages
  * expect it, and nothing elsewhere. A Rust test checks this list against the source.
@@ -75,6 +75,61 @@ double AEROSTRATA_XL_CALL aerostrata_xl_true_airspeed(double calibrated_m_s, dou
 
 /** Calibrated airspeed, m/s, of true airspeed `true_m_s` at pressure altitude `pressure_altitude_m` and outside air temperature `temperature_k`; NaN on error. */
 double AEROSTRATA_XL_CALL aerostrata_xl_calibrated_airspeed(double true_m_s, double pressure_altitude_m, double temperature_k);
+
+/*
+ * The spreadsheet add-in's functions. A model spec is NULL or "" for the 1976 standard,
+ * else the command line's --model grammar without files ("offset=+15K",
+ * "hydrostatic-offset=+15K", "isothermal=250K", "exponential=1.225,8500m"), as a
+ * NUL-terminated UTF-8 string. A quantity id is an AEROSTRATA_QUANTITY_* value.
+ */
+
+/** The state quantity `quantity_id` (ids 0 to 19) in its SI unit at geometric `altitude_m` in the model `model_spec` names; NaN on error (an id outside the state, a bad spec, an altitude outside the model, a property undefined there). */
+double AEROSTRATA_XL_CALL aerostrata_xl_state(uint32_t quantity_id, double altitude_m, const char *model_spec);
+
+/** The state quantity `quantity_id` in the 1976 standard plus `offset_k` at geometric `altitude_m` (the bits of aerostrata_us1976_state); NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_state_offset(uint32_t quantity_id, double altitude_m, double offset_k);
+
+/** 1.0 when `model_spec` names a model the spreadsheet functions accept, NaN otherwise. */
+double AEROSTRATA_XL_CALL aerostrata_xl_model_valid(const char *model_spec);
+
+/** Mach number of `velocity_m_s` at geometric `altitude_m` in the model `model_spec` names; NaN on error and above 86 km. */
+double AEROSTRATA_XL_CALL aerostrata_xl_mach_at(double altitude_m, double velocity_m_s, const char *model_spec);
+
+/** Dynamic pressure rho V^2 / 2, Pa, of `velocity_m_s` at geometric `altitude_m` in the model `model_spec` names; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_dynamic_pressure_at(double altitude_m, double velocity_m_s, const char *model_spec);
+
+/** Drag q Cd A, N, at `velocity_m_s` and geometric `altitude_m` in the model `model_spec` names; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_drag(double altitude_m, double velocity_m_s, double drag_coefficient, double reference_area_m2, const char *model_spec);
+
+/** QNH altitude, m, an altimeter set to `qnh_pa` reads at static pressure `pressure_pa`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_qnh_altitude(double pressure_pa, double qnh_pa);
+
+/** The airspeed quantity `wanted_id` (CAS, EAS, TAS m/s, Mach, impact or dynamic pressure Pa) of the airspeed `speed_m_s` that `given_id` names (CAS, EAS or TAS) at pressure altitude `pressure_altitude_m` and outside air temperature `temperature_k`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_airspeed(uint32_t given_id, uint32_t wanted_id, double speed_m_s, double pressure_altitude_m, double temperature_k);
+
+/** Isentropic p/p0 of air (gamma 1.4) at Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_isentropic_pressure_ratio(double mach);
+
+/** Isentropic T/T0 of air at Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_isentropic_temperature_ratio(double mach);
+
+/** Isentropic rho/rho0 of air at Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_isentropic_density_ratio(double mach);
+
+/** Downstream Mach number of a normal shock in air at upstream Mach `mach` (at least 1); NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_mach(double mach);
+
+/** p2/p1 across a normal shock in air at upstream Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_pressure_ratio(double mach);
+
+/** rho2/rho1 across a normal shock in air at upstream Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_density_ratio(double mach);
+
+/** T2/T1 across a normal shock in air at upstream Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_temperature_ratio(double mach);
+
+/** p02/p01 across a normal shock in air at upstream Mach `mach`; NaN on error. */
+double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_total_pressure_ratio(double mach);
 
 #ifdef __cplusplus
 }  /* extern "C" */

@@ -47,4 +47,8 @@ void test_spreadsheet(void);
 void test_species(void);
 void test_catalogue(void);
 
+/* The spreadsheet add-in's functions against the status-returning ones
+ * (test_spreadsheet_addin.c). */
+void test_spreadsheet_addin(void);
+
 #endif

@@ -52,6 +52,7 @@ int main(int argc, char **argv) {
     test_spreadsheet();
     test_species();
     test_catalogue();
+    test_spreadsheet_addin();
     cells += check_vector_file(dir, "usa76_lower.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper_high.csv", MODEL_US1976);

@@ -3,7 +3,8 @@
 //! command-line tool's (`aerostrata quantities --format json`), the WebAssembly module's
 //! (`quantities()` under Node), the C library's (`aerostrata_quantity_info` for every id,
 //! from a small C program) and the C header's `AEROSTRATA_QUANTITY_*` ids (static
-//! assertions compiled against the header) are compared with it field by field. Adding a
+//! assertions compiled against the header) are compared with it field by field, and the
+//! spreadsheet add-in must have a cell function for every state quantity. Adding a
 //! quantity to the core is then the only edit: a door that lags fails here.
 
 use std::fmt::Write as _;
@@ -184,9 +185,11 @@ pub fn check(root: &Path, package_dir: &Path) -> Result<String, String> {
     compare("the command-line tool", &core, &cli(root)?)?;
     compare("the wasm module", &core, &wasm(root, package_dir)?)?;
     compare("the C library", &core, &c(root)?)?;
+    let cells = crate::addin::catalogue_check()?;
     Ok(format!(
         "{} quantities with the same ids, names, units and columns in the core, the command-line tool, the \
-         wasm module, the C library and the C header",
+         wasm module, the C library and the C header; the spreadsheet add-in has a function for each of the \
+         {cells} state quantities",
         core.len()
     ))
 }

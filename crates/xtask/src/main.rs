@@ -9,6 +9,9 @@
 //! cargo xtask c-package [--prefix DIR] [--target TRIPLE]  the C library, header, pkg-config and CMake files
 //! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
+//! cargo xtask addin [--check] [--windows]  the Calc extension target/addin/aerostrata.oxt (cell
+//!                               functions over the C library); --check installs it into a fresh
+//!                               profile and checks its formulas; --windows the DLLs under Wine
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
 //! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
 //! cargo xtask bits --compare FILE  another host's bit lines in FILE against the native ones
@@ -33,6 +36,7 @@
 // the core as the C crate does.
 extern crate aerostrata as aerostrata_core;
 
+mod addin;
 mod bench;
 mod c;
 mod catalogue;
@@ -52,6 +56,7 @@ use std::process::ExitCode;
 
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
+                     | addin [--check] [--windows] \
                      | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
                      | icount [--against REV] | catalogue";
 
@@ -68,6 +73,7 @@ fn main() -> ExitCode {
         Some("c-package") => c::package::run(&root, &args[1..]),
         Some("c-test") => c::c_test::run(&root),
         Some("spreadsheet") => spreadsheet::run(&root),
+        Some("addin") => addin::run(&root, &args[1..]),
         Some("bits") if args.get(1).is_some_and(|a| a == "--compare") => match args.get(2) {
             Some(file) => rust::vectors::compare_file(&root, file, Path::new(file)),
             None => Err("usage: cargo xtask bits --compare FILE".to_owned()),

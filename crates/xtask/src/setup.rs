@@ -24,7 +24,7 @@ fn quiet_success(program: &str, args: &[&str]) -> bool {
     Cmd::new(program).args(args).succeeds()
 }
 
-fn is_root() -> bool {
+pub(crate) fn is_root() -> bool {
     Cmd::new("id").arg("-u").quiet().output().is_ok_and(|o| o.stdout.starts_with(b"0\n"))
 }
 

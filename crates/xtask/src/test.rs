@@ -81,6 +81,11 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::spreadsheet::run(root),
     );
     step(
+        "spreadsheet add-in: the .oxt installed with unopkg into a fresh profile, every function's formulas \
+         checked headless; the Windows DLLs under Wine (cargo xtask addin --check --windows)",
+        crate::addin::test(root),
+    );
+    step(
         "firmware: vectors on emulated Cortex-M4F and M3 and the C library in C firmware, bit-identical \
          to native; flash/stack/heap budgets",
         crate::firmware::run(root),
