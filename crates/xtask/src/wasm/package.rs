@@ -12,7 +12,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (224 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (259 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -21,12 +21,23 @@ use crate::{io_error, target_dir};
 /// and flight files read as the command line reads them): 66 KiB, 37 KiB compressed, of
 /// which Rust's correctly rounded decimal parser and its tables are about 17 KiB. Raised
 /// from 216 and 106 KiB when the flight scan took in winds, vector velocities, the
-/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed.
+/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed. Raised from 224
+/// and 110 KiB, to the module's size rounded up to the KiB, when `scanFlight` took an
+/// options object (velocity components or path, the axis, winds, boundary layer, limits,
+/// plateau), `WindProfile` and the vector columns of `readFlightCsv`: 37.9 KiB, 15.8 KiB
+/// compressed (220.4 -> 258.3 KiB, 107.1 -> 122.9 KiB). About half is the core's code
+/// that the scalar scan never reached: sines and cosines of degrees (libm's sin, cos,
+/// their argument reduction for any argument, fmod and the 128-bit division it needs:
+/// 10 KiB before optimisation), atan2, the vector sample, the wind profile, the limit
+/// watch and the plateau; the rest is the door (reading the options, the columns a
+/// setting gives, the exceedances and the plateau laid out for JS, the class) and its
+/// messages. `math::sin_cos_deg` reduces an angle already within +-360 deg with fmod and
+/// calls libm's general sin and cos: a reduction of its own would take back about 6 KiB.
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 224 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (110 KiB).
-pub const MAX_GZIP_BYTES: u64 = 110 * 1024;
+pub const MAX_WASM_BYTES: u64 = 259 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (123 KiB).
+pub const MAX_GZIP_BYTES: u64 = 123 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";
