@@ -27,13 +27,27 @@ fn doc(q: Quantity, extra: &str) -> String {
 }
 
 fn interface(out: &mut String, name: &str, doc_text: &str, quantities: &[Quantity], value: &str, tail: &str) {
+    interface_with(out, name, doc_text, quantities, value, tail, |_| false)
+}
+
+/// As [`interface`], with the fields `optional` names marked optional (`?`).
+fn interface_with(
+    out: &mut String,
+    name: &str,
+    doc_text: &str,
+    quantities: &[Quantity],
+    value: &str,
+    tail: &str,
+    optional: impl Fn(Quantity) -> bool,
+) {
     let _ = write!(out, "/**\n * {doc_text}\n */\nexport interface {name} {{\n");
     for &q in quantities {
         let undefined = q.info().may_be_undefined && value == "number";
         let extra = if undefined { " `null` where undefined." } else { "" };
         out.push_str(&doc(q, extra));
         let ty = if undefined { "number | null" } else { value };
-        let _ = writeln!(out, "  {}: {ty};", naming::js_key(q.name(), q.si().suffix()));
+        let mark = if optional(q) { "?" } else { "" };
+        let _ = writeln!(out, "  {}{mark}: {ty};", naming::js_key(q.name(), q.si().suffix()));
     }
     out.push_str(tail);
     out.push_str("}\n\n");
@@ -65,14 +79,24 @@ fn main() {
         "number",
         "",
     );
-    interface(
+    // The columns of the scalar scan are always there; the velocity's components, the
+    // wind, the angle of attack and the recovery temperature only where the scan's setting
+    // can fill them (`scanFlight`).
+    let scalar = FlightPoint::DEFINED_MACH
+        | FlightPoint::DEFINED_REYNOLDS_PER_M
+        | FlightPoint::DEFINED_REYNOLDS_NUMBER
+        | FlightPoint::DEFINED_DRAG;
+    interface_with(
         &mut out,
         "FlightPoints",
-        "One column per quantity, one entry per sample; NaN where `defined` lacks the quantity's bit.",
+        "One column per quantity the scan can give, one entry per sample; NaN where `defined` lacks the \
+         quantity's bit.",
         &FlightPoint::QUANTITIES,
         "Float64Array",
-        "  /** Per sample: 1 Mach defined, 2 unit Reynolds number, 4 Reynolds number, 8 drag. */\n  \
+        "  /** Per sample: 1 Mach defined, 2 unit Reynolds number, 4 Reynolds number, 8 drag, 16 velocity \
+         components, 32 wind, 64 angle of attack and q-alpha, 128 recovery temperature. */\n  \
          defined: Uint8Array;\n",
+        |q| FlightPoint::defined_bit(q) & !scalar != 0,
     );
     interface(
         &mut out,

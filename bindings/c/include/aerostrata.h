@@ -217,6 +217,53 @@ double AEROSTRATA_XL_CALL aerostrata_xl_normal_shock_total_pressure_ratio(double
 #define AEROSTRATA_POINT_DRAG 8
 
 /**
+ * `AerostrataFlightPoint::defined` bit: `velocity_east_m_s`, `velocity_north_m_s` and
+ * `velocity_up_m_s` are set (a sample of `aerostrata_flight_scan_vector`).
+ */
+#define AEROSTRATA_POINT_VELOCITY_COMPONENTS 16
+
+/**
+ * `AerostrataFlightPoint::defined` bit: `wind_east_m_s` and `wind_north_m_s` are set (a
+ * scan with winds).
+ */
+#define AEROSTRATA_POINT_WIND 32
+
+/**
+ * `AerostrataFlightPoint::defined` bit: `alpha_deg` and `q_alpha_pa_deg` are set (a
+ * vector sample moving through the air, or with an axis).
+ */
+#define AEROSTRATA_POINT_ALPHA 64
+
+/**
+ * `AerostrataFlightPoint::defined` bit: `recovery_temperature_k` is set (a scan with a
+ * boundary layer, in the continuum). `total_temperature_k` goes with `AEROSTRATA_POINT_MACH`.
+ */
+#define AEROSTRATA_POINT_RECOVERY_TEMPERATURE 128
+
+/**
+ * `sizeof(AerostrataFlightSummary)`, bytes: a program can compare it with the size of
+ * the record it was compiled with (see the record's documentation).
+ */
+#define AEROSTRATA_FLIGHT_SUMMARY_SIZE 288
+
+/**
+ * `boundary_layer` value of `aerostrata_flight_scan_vector`: no recovery temperature.
+ */
+#define AEROSTRATA_RECOVERY_NONE 0
+
+/**
+ * `boundary_layer` value: recovery temperature for a laminar boundary layer (recovery
+ * factor Pr^(1/2)).
+ */
+#define AEROSTRATA_RECOVERY_LAMINAR 1
+
+/**
+ * `boundary_layer` value: recovery temperature for a turbulent boundary layer (recovery
+ * factor Pr^(1/3)).
+ */
+#define AEROSTRATA_RECOVERY_TURBULENT 2
+
+/**
  * `altitude_kind` value: geometric altitude above mean sea level, m.
  */
 #define AEROSTRATA_GEOMETRIC 0
@@ -720,6 +767,16 @@ typedef struct AerostrataDragCurve AerostrataDragCurve;
 typedef struct AerostrataModel AerostrataModel;
 
 /**
+ * A wind profile: horizontal wind against geometric altitude, interpolated linearly in
+ * its east and north components between levels and held beyond its lowest and highest
+ * levels. Opaque; made by `aerostrata_wind_profile_new` or
+ * `aerostrata_wind_profile_new_speed_direction`, released with
+ * `aerostrata_wind_profile_free`. It never changes after it is made, so it may be used
+ * from any number of threads at once.
+ */
+typedef struct AerostrataWindProfile AerostrataWindProfile;
+
+/**
  * The isentropic static-to-total ratios at one Mach number.
  */
 typedef struct AerostrataIsentropic {
@@ -949,6 +1006,11 @@ typedef struct AerostrataFlightPoint {
  * The summary of a flight. Each `has_*` flag is 1 when its group of fields is set; the
  * fields of an unset group are NaN (and their `*_sample_index` 0). Times of Mach 1
  * crossings are interpolated between samples; NaN when `count` is 0.
+ *
+ * The record only grows at its end, and its size is `AEROSTRATA_FLIGHT_SUMMARY_SIZE`:
+ * fields from `has_max_q_alpha` on came with the winds and q-alpha (the record grew from
+ * 176 to 288 bytes; a program compiled against an older header must be recompiled, since
+ * the library writes the whole record).
  */
 typedef struct AerostrataFlightSummary {
   /**
@@ -977,7 +1039,7 @@ typedef struct AerostrataFlightSummary {
    */
   double max_q_altitude_m;
   /**
-   * Its velocity, m/s.
+   * Its airspeed (speed relative to the air; |velocity| without winds), m/s.
    */
   double max_q_velocity_m_s;
   /**
@@ -1052,7 +1114,139 @@ typedef struct AerostrataFlightSummary {
    * Time of the last downward crossing, s.
    */
   double mach_one_down_last_time_s;
+  /**
+   * 1 when the `max_q_alpha*` fields are set (a sample of
+   * `aerostrata_flight_scan_vector` moving through the air).
+   */
+  uint32_t has_max_q_alpha;
+  /**
+   * 1 when the sampling resolves the maximum q: its uncertainty is known and at most
+   * 0.1 % of it.
+   */
+  uint32_t max_q_resolved;
+  /**
+   * 1 when `max_q_uncertainty_pa` is set: 0 where the largest sample is the first or
+   * the last (the maximum may lie outside the record).
+   */
+  uint32_t has_max_q_uncertainty;
+  /**
+   * 1 when `max_q_suggested_spacing_s` is set: the peak is bounded but not resolved.
+   */
+  uint32_t has_max_q_suggested_spacing;
+  /**
+   * The largest sampled dynamic pressure, Pa (`max_q_pa` is never below it).
+   */
+  double max_q_sample_max_pa;
+  /**
+   * How far the maximum of the sampled flight can be from `max_q_pa`, Pa (a bound from
+   * local fits either side of the peak, with a safety factor; docs/aerodynamics.md).
+   */
+  double max_q_uncertainty_pa;
+  /**
+   * A sample spacing around the peak that would resolve it, s.
+   */
+  double max_q_suggested_spacing_s;
+  /**
+   * Maximum q-alpha of any sample, Pa deg.
+   */
+  double max_q_alpha_pa_deg;
+  /**
+   * Its time, s.
+   */
+  double max_q_alpha_time_s;
+  /**
+   * Its geometric altitude, m.
+   */
+  double max_q_alpha_altitude_m;
+  /**
+   * Its airspeed, m/s.
+   */
+  double max_q_alpha_airspeed_m_s;
+  /**
+   * Its Mach number (NaN where undefined).
+   */
+  double max_q_alpha_mach;
+  /**
+   * Its sample index.
+   */
+  uint64_t max_q_alpha_sample_index;
+  /**
+   * The Mach number at the maximum drag (NaN where undefined or no drag).
+   */
+  double max_drag_mach;
+  /**
+   * Samples whose Mach number is undefined (above 86 km): a Mach 1 crossing among them
+   * cannot be seen.
+   */
+  uint64_t mach_undefined_samples;
+  /**
+   * Samples beyond the wind profile's lowest or highest level, where its nearest
+   * level's wind was held.
+   */
+  uint64_t wind_held_samples;
 } AerostrataFlightSummary;
+
+/**
+ * The wind at one altitude (`aerostrata_wind_profile_at`).
+ */
+typedef struct AerostrataWind {
+  /**
+   * East component of the wind's velocity (toward the east is positive), m/s.
+   */
+  double east_m_s;
+  /**
+   * North component (toward the north is positive), m/s.
+   */
+  double north_m_s;
+  /**
+   * Speed, m/s.
+   */
+  double speed_m_s;
+  /**
+   * The direction the wind blows FROM, degrees clockwise from true north in [0, 360);
+   * 0 for a calm.
+   */
+  double direction_deg;
+  /**
+   * 1 when the altitude lies below the lowest level or above the highest, where the
+   * nearest level's wind is held rather than interpolated.
+   */
+  uint32_t held;
+} AerostrataWind;
+
+/**
+ * One interval where a quantity of a scanned flight exceeds a limit
+ * (`aerostrata_flight_exceedances`).
+ */
+typedef struct AerostrataExceedance {
+  /**
+   * When the quantity rose above the limit, s: interpolated linearly between the last
+   * sample at or below it and the first above; the first sample's time when the flight
+   * starts above it.
+   */
+  double start_time_s;
+  /**
+   * When it fell back to the limit, s, interpolated likewise; the last sample's time
+   * when the flight ends above it.
+   */
+  double end_time_s;
+  /**
+   * The largest sampled value in the interval, in the quantity's SI unit.
+   */
+  double peak;
+  /**
+   * Time of that sample, s.
+   */
+  double peak_time_s;
+  /**
+   * 1 when the quantity was already above the limit at the first sample.
+   */
+  uint32_t open_start;
+  /**
+   * 1 when it was still above the limit at the last sample.
+   */
+  uint32_t open_end;
+} AerostrataExceedance;
 
 /**
  * One user layer: where it ends and its constant lapse rate.
@@ -1590,6 +1784,13 @@ enum AerostrataStatus aerostrata_terminal_velocity_m_s(const struct AerostrataMo
                                                        double *out);
 
 /**
+ * The size of the `AerostrataFlightSummary` this library writes, bytes: a program checks
+ * it against `sizeof(AerostrataFlightSummary)` of the header it was compiled with (the
+ * two differ when it runs against a library whose record grew). Thread-safe.
+ */
+size_t aerostrata_flight_summary_size(void);
+
+/**
  * Scans a flight of `count` samples (`time_s[i]` strictly increasing, geometric
  * `altitude_m[i]`, `velocity_m_s[i]` relative to the air, sign ignored) through
  * `model`, writing each sample's values to `points[i]` (or nothing, if `points` is
@@ -1616,6 +1817,124 @@ enum AerostrataStatus aerostrata_flight_scan(const struct AerostrataModel *model
                                              size_t count,
                                              struct AerostrataFlightPoint *points,
                                              struct AerostrataFlightSummary *summary);
+
+/**
+ * Makes a wind profile of `count` levels: at geometric `altitude_m[i]` (strictly
+ * increasing), the wind's east component `east_m_s[i]` and north component
+ * `north_m_s[i]` (the direction the air moves TOWARD; each within +-250 m/s).
+ *
+ * The arrays are copied. On success writes a new profile to `*out`, which the caller
+ * releases with `aerostrata_wind_profile_free`; on failure `*out` is unchanged.
+ *
+ * Errors: TOO_FEW_ROWS for no level; INVALID_POINT (the detail's `index` names the
+ * level) for a NaN, an altitude not above the previous one or a component out of range;
+ * NOT_FINITE or OUT_OF_RANGE (index named) for a component; NULL_POINTER for a NULL
+ * array with `count` above 0 or a NULL `out`.
+ */
+enum AerostrataStatus aerostrata_wind_profile_new(const double *altitude_m,
+                                                  const double *east_m_s,
+                                                  const double *north_m_s,
+                                                  size_t count,
+                                                  struct AerostrataWindProfile **out);
+
+/**
+ * Makes a wind profile of `count` levels from speeds and directions: at geometric
+ * `altitude_m[i]` (strictly increasing), a wind of `speed_m_s[i]` (0 to 250) blowing
+ * FROM `direction_deg[i]` degrees clockwise from true north (-360 to 360; 270 is a west
+ * wind, blowing toward the east): east = -W sin(dir), north = -W cos(dir).
+ *
+ * Ownership and errors as `aerostrata_wind_profile_new`.
+ */
+enum AerostrataStatus aerostrata_wind_profile_new_speed_direction(const double *altitude_m,
+                                                                  const double *speed_m_s,
+                                                                  const double *direction_deg,
+                                                                  size_t count,
+                                                                  struct AerostrataWindProfile **out);
+
+/**
+ * Releases a wind profile. NULL is accepted and does nothing. The profile must not be
+ * used afterwards, nor freed twice, nor be in use by another thread.
+ */
+void aerostrata_wind_profile_free(struct AerostrataWindProfile *profile);
+
+/**
+ * The wind of `profile` at geometric `altitude_m`, written to `*out`.
+ *
+ * Errors: NOT_FINITE for an altitude that is NaN or infinite; NULL_POINTER.
+ * Thread-safe for a shared profile.
+ */
+enum AerostrataStatus aerostrata_wind_profile_at(const struct AerostrataWindProfile *profile,
+                                                 double altitude_m,
+                                                 struct AerostrataWind *out);
+
+/**
+ * Scans a flight of `count` samples whose ground-relative velocity is given by its
+ * components: `time_s[i]` strictly increasing, geometric `altitude_m[i]`, and the
+ * velocity relative to the ground `velocity_east_m_s[i]`, `velocity_north_m_s[i]`,
+ * `velocity_up_m_s[i]` (m/s). Writes each sample's values to `points[i]` (or nothing if
+ * `points` is NULL) and the summary to `*summary`.
+ *
+ * With `winds` (NULL for still air) the air-relative velocity is the ground velocity
+ * less the wind at the sample's altitude; airspeed, q, Mach, drag and Reynolds numbers
+ * come from it. The vehicle's axis is `axis_elevation_deg[i]` above the horizontal
+ * (-90 to 90) and `axis_azimuth_deg[i]` clockwise from true north (-360 to 360), or,
+ * with both arrays NULL, along the ground-relative velocity (a vehicle flying its
+ * trajectory: the wind alone makes its angle of attack). `alpha_deg` is the angle between
+ * the axis and the air-relative velocity, `q_alpha_pa_deg` its product with q.
+ * `boundary_layer` is `AEROSTRATA_RECOVERY_NONE`, `_LAMINAR` or `_TURBULENT` (the
+ * recovery temperature's factor). `drag`, `reference_area_m2` and `reference_length_m`
+ * as `aerostrata_flight_scan`.
+ *
+ * Not certified flight software; verify independently; local codes, range-safety rules
+ * and licensed engineering practice govern.
+ *
+ * All or nothing: on failure neither `points` nor `*summary` is written and the
+ * detail's `index` names the first failing sample. Errors: INVALID_POINT for a time not
+ * after the previous one; NOT_FINITE or OUT_OF_RANGE for a velocity component, an
+ * airspeed, an axis angle or an altitude (index named); INVALID_ARGUMENT for an unknown
+ * `boundary_layer`; NULL_POINTER for a NULL model, summary, sample array with `count`
+ * above 0, or one axis array NULL without the other. Thread-safe for shared model,
+ * curve and winds.
+ */
+enum AerostrataStatus aerostrata_flight_scan_vector(const struct AerostrataModel *model,
+                                                    const struct AerostrataDragCurve *drag,
+                                                    double reference_area_m2,
+                                                    double reference_length_m,
+                                                    const struct AerostrataWindProfile *winds,
+                                                    uint32_t boundary_layer,
+                                                    const double *time_s,
+                                                    const double *altitude_m,
+                                                    const double *velocity_east_m_s,
+                                                    const double *velocity_north_m_s,
+                                                    const double *velocity_up_m_s,
+                                                    const double *axis_elevation_deg,
+                                                    const double *axis_azimuth_deg,
+                                                    size_t count,
+                                                    struct AerostrataFlightPoint *points,
+                                                    struct AerostrataFlightSummary *summary);
+
+/**
+ * The intervals where quantity `quantity_id` (an `AEROSTRATA_QUANTITY_*` id of a flight
+ * point, such as `AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE` or `AEROSTRATA_QUANTITY_Q_ALPHA`)
+ * of the `count` scanned `points` exceeds `limit` (in the quantity's SI unit), in order:
+ * the crossings are interpolated linearly between samples. Writes the first `capacity`
+ * intervals to `out` (NULL is fine with `capacity` 0) and the number found to `*found`;
+ * a `*found` above `capacity` says `out` was too short for them all.
+ *
+ * All or nothing: on failure neither `out` nor `*found` is written. Errors: NOT_FINITE
+ * for a NaN or infinite limit; INVALID_POINT (index named) for a sample whose value is
+ * undefined (NaN: a Mach number above 86 km, q-alpha of a sample without its velocity's
+ * direction) or whose time is not after the previous one; NOT_CARRIED for a quantity a
+ * flight point does not carry; INVALID_ARGUMENT for an unknown id; NULL_POINTER.
+ * Thread-safe.
+ */
+enum AerostrataStatus aerostrata_flight_exceedances(const struct AerostrataFlightPoint *points,
+                                                    size_t count,
+                                                    uint32_t quantity_id,
+                                                    double limit,
+                                                    struct AerostrataExceedance *out,
+                                                    size_t capacity,
+                                                    size_t *found);
 
 /**
  * Makes the 1976 standard atmosphere (-5 km to 1000 km geometric) with every

@@ -158,6 +158,18 @@ pub const AEROSTRATA_POINT_REYNOLDS_PER_M: u32 = 2;
 pub const AEROSTRATA_POINT_REYNOLDS_NUMBER: u32 = 4;
 /// `AerostrataFlightPoint::defined` bit: `drag_coefficient` and `drag_n` are set.
 pub const AEROSTRATA_POINT_DRAG: u32 = 8;
+/// `AerostrataFlightPoint::defined` bit: `velocity_east_m_s`, `velocity_north_m_s` and
+/// `velocity_up_m_s` are set (a sample of `aerostrata_flight_scan_vector`).
+pub const AEROSTRATA_POINT_VELOCITY_COMPONENTS: u32 = 16;
+/// `AerostrataFlightPoint::defined` bit: `wind_east_m_s` and `wind_north_m_s` are set (a
+/// scan with winds).
+pub const AEROSTRATA_POINT_WIND: u32 = 32;
+/// `AerostrataFlightPoint::defined` bit: `alpha_deg` and `q_alpha_pa_deg` are set (a
+/// vector sample moving through the air, or with an axis).
+pub const AEROSTRATA_POINT_ALPHA: u32 = 64;
+/// `AerostrataFlightPoint::defined` bit: `recovery_temperature_k` is set (a scan with a
+/// boundary layer, in the continuum). `total_temperature_k` goes with `AEROSTRATA_POINT_MACH`.
+pub const AEROSTRATA_POINT_RECOVERY_TEMPERATURE: u32 = 128;
 
 // The bits are the core's (`FlightPoint::defined`) under their C names; written out above
 // because cbindgen reads only literal values.
@@ -166,6 +178,10 @@ const _: () = assert!(
         && AEROSTRATA_POINT_REYNOLDS_PER_M == FlightPoint::DEFINED_REYNOLDS_PER_M as u32
         && AEROSTRATA_POINT_REYNOLDS_NUMBER == FlightPoint::DEFINED_REYNOLDS_NUMBER as u32
         && AEROSTRATA_POINT_DRAG == FlightPoint::DEFINED_DRAG as u32
+        && AEROSTRATA_POINT_VELOCITY_COMPONENTS == FlightPoint::DEFINED_VELOCITY_COMPONENTS as u32
+        && AEROSTRATA_POINT_WIND == FlightPoint::DEFINED_WIND as u32
+        && AEROSTRATA_POINT_ALPHA == FlightPoint::DEFINED_ALPHA as u32
+        && AEROSTRATA_POINT_RECOVERY_TEMPERATURE == FlightPoint::DEFINED_RECOVERY_TEMPERATURE as u32
 );
 
 impl From<&FlightPoint> for AerostrataFlightPoint {
@@ -177,6 +193,11 @@ impl From<&FlightPoint> for AerostrataFlightPoint {
 /// The summary of a flight. Each `has_*` flag is 1 when its group of fields is set; the
 /// fields of an unset group are NaN (and their `*_sample_index` 0). Times of Mach 1
 /// crossings are interpolated between samples; NaN when `count` is 0.
+///
+/// The record only grows at its end, and its size is `AEROSTRATA_FLIGHT_SUMMARY_SIZE`:
+/// fields from `has_max_q_alpha` on came with the winds and q-alpha (the record grew from
+/// 176 to 288 bytes; a program compiled against an older header must be recompiled, since
+/// the library writes the whole record).
 #[repr(C)]
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct AerostrataFlightSummary {
@@ -193,7 +214,7 @@ pub struct AerostrataFlightSummary {
     pub max_q_time_s: f64,
     /// Its geometric altitude, m.
     pub max_q_altitude_m: f64,
-    /// Its velocity, m/s.
+    /// Its airspeed (speed relative to the air; |velocity| without winds), m/s.
     pub max_q_velocity_m_s: f64,
     /// Its Mach number (NaN where undefined).
     pub max_q_mach: f64,
@@ -231,6 +252,58 @@ pub struct AerostrataFlightSummary {
     pub mach_one_down_first_time_s: f64,
     /// Time of the last downward crossing, s.
     pub mach_one_down_last_time_s: f64,
+    /// 1 when the `max_q_alpha*` fields are set (a sample of
+    /// `aerostrata_flight_scan_vector` moving through the air).
+    pub has_max_q_alpha: u32,
+    /// 1 when the sampling resolves the maximum q: its uncertainty is known and at most
+    /// 0.1 % of it.
+    pub max_q_resolved: u32,
+    /// 1 when `max_q_uncertainty_pa` is set: 0 where the largest sample is the first or
+    /// the last (the maximum may lie outside the record).
+    pub has_max_q_uncertainty: u32,
+    /// 1 when `max_q_suggested_spacing_s` is set: the peak is bounded but not resolved.
+    pub has_max_q_suggested_spacing: u32,
+    /// The largest sampled dynamic pressure, Pa (`max_q_pa` is never below it).
+    pub max_q_sample_max_pa: f64,
+    /// How far the maximum of the sampled flight can be from `max_q_pa`, Pa (a bound from
+    /// local fits either side of the peak, with a safety factor; docs/aerodynamics.md).
+    pub max_q_uncertainty_pa: f64,
+    /// A sample spacing around the peak that would resolve it, s.
+    pub max_q_suggested_spacing_s: f64,
+    /// Maximum q-alpha of any sample, Pa deg.
+    pub max_q_alpha_pa_deg: f64,
+    /// Its time, s.
+    pub max_q_alpha_time_s: f64,
+    /// Its geometric altitude, m.
+    pub max_q_alpha_altitude_m: f64,
+    /// Its airspeed, m/s.
+    pub max_q_alpha_airspeed_m_s: f64,
+    /// Its Mach number (NaN where undefined).
+    pub max_q_alpha_mach: f64,
+    /// Its sample index.
+    pub max_q_alpha_sample_index: u64,
+    /// The Mach number at the maximum drag (NaN where undefined or no drag).
+    pub max_drag_mach: f64,
+    /// Samples whose Mach number is undefined (above 86 km): a Mach 1 crossing among them
+    /// cannot be seen.
+    pub mach_undefined_samples: u64,
+    /// Samples beyond the wind profile's lowest or highest level, where its nearest
+    /// level's wind was held.
+    pub wind_held_samples: u64,
+}
+
+/// `sizeof(AerostrataFlightSummary)`, bytes: a program can compare it with the size of
+/// the record it was compiled with (see the record's documentation).
+pub const AEROSTRATA_FLIGHT_SUMMARY_SIZE: usize = 288;
+
+const _: () = assert!(core::mem::size_of::<AerostrataFlightSummary>() == AEROSTRATA_FLIGHT_SUMMARY_SIZE);
+
+/// The size of the `AerostrataFlightSummary` this library writes, bytes: a program checks
+/// it against `sizeof(AerostrataFlightSummary)` of the header it was compiled with (the
+/// two differ when it runs against a library whose record grew). Thread-safe.
+#[no_mangle]
+pub extern "C" fn aerostrata_flight_summary_size() -> usize {
+    AEROSTRATA_FLIGHT_SUMMARY_SIZE
 }
 
 impl From<&FlightSummary> for AerostrataFlightSummary {
@@ -240,6 +313,9 @@ impl From<&FlightSummary> for AerostrataFlightSummary {
         let q = s.max_dynamic_pressure;
         let m = s.max_mach;
         let d = s.max_drag;
+        let qa = s.max_q_alpha;
+        let uncertainty = q.and_then(|q| q.uncertainty_pa);
+        let spacing = q.and_then(|q| q.suggested_spacing_s);
         Self {
             samples: index(s.samples),
             has_max_q: u32::from(q.is_some()),
@@ -266,8 +342,42 @@ impl From<&FlightSummary> for AerostrataFlightSummary {
             mach_one_up_last_time_s: s.mach_one_up.last_time_s.unwrap_or(nan),
             mach_one_down_first_time_s: s.mach_one_down.first_time_s.unwrap_or(nan),
             mach_one_down_last_time_s: s.mach_one_down.last_time_s.unwrap_or(nan),
+            has_max_q_alpha: u32::from(qa.is_some()),
+            max_q_resolved: u32::from(q.is_some_and(|q| q.resolved)),
+            has_max_q_uncertainty: u32::from(uncertainty.is_some()),
+            has_max_q_suggested_spacing: u32::from(spacing.is_some()),
+            max_q_sample_max_pa: q.map_or(nan, |q| q.sample_max_pa),
+            max_q_uncertainty_pa: uncertainty.unwrap_or(nan),
+            max_q_suggested_spacing_s: spacing.unwrap_or(nan),
+            max_q_alpha_pa_deg: qa.map_or(nan, |e| e.value),
+            max_q_alpha_time_s: qa.map_or(nan, |e| e.time_s),
+            max_q_alpha_altitude_m: qa.map_or(nan, |e| e.altitude_m),
+            max_q_alpha_airspeed_m_s: qa.map_or(nan, |e| e.velocity_m_s),
+            max_q_alpha_mach: qa.and_then(|e| e.mach).unwrap_or(nan),
+            max_q_alpha_sample_index: qa.map_or(0, |e| index(e.sample_index)),
+            max_drag_mach: d.and_then(|e| e.mach).unwrap_or(nan),
+            mach_undefined_samples: index(s.mach_undefined_samples),
+            wind_held_samples: index(s.wind_held_samples),
         }
     }
+}
+
+/// The vehicle of a scan: none without a curve; with one, its reference area and, above
+/// 0, its reference length.
+pub(crate) fn vehicle<'a>(
+    drag: *const AerostrataDragCurve,
+    reference_area_m2: f64,
+    reference_length_m: f64,
+) -> Result<Option<Vehicle<'a>>, Failure> {
+    if drag.is_null() {
+        return Ok(None);
+    }
+    let vehicle = Vehicle::new(curve_ref(drag)?.get()?, reference_area_m2)?;
+    Ok(Some(if reference_length_m == 0.0 {
+        vehicle
+    } else {
+        vehicle.with_reference_length(reference_length_m)?
+    }))
 }
 
 /// Scans a flight of `count` samples (`time_s[i]` strictly increasing, geometric
@@ -304,18 +414,7 @@ pub unsafe extern "C" fn aerostrata_flight_scan(
         let t = slice("time_s", time_s, count)?;
         let z = slice("altitude_m", altitude_m, count)?;
         let v = slice("velocity_m_s", velocity_m_s, count)?;
-        let curve = if drag.is_null() { None } else { Some(curve_ref(drag)?.get()?) };
-        let vehicle = match curve {
-            None => None,
-            Some(curve) => {
-                let vehicle = Vehicle::new(curve, reference_area_m2)?;
-                Some(if reference_length_m == 0.0 {
-                    vehicle
-                } else {
-                    vehicle.with_reference_length(reference_length_m)?
-                })
-            }
-        };
+        let vehicle = vehicle(drag, reference_area_m2, reference_length_m)?;
         let mut scan = FlightScan::new(m, vehicle);
         let mut computed = Vec::with_capacity(if points.is_null() { 0 } else { count });
         for (i, sample) in samples_from_slices(t, z, v)?.enumerate() {

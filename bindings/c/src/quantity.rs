@@ -72,7 +72,7 @@ pub struct AerostrataQuantityInfo {
     pub us_column: *const c_char,
 }
 
-fn quantity(id: u32) -> Result<Quantity, Failure> {
+pub(crate) fn quantity(id: u32) -> Result<Quantity, Failure> {
     Quantity::from_id(id).ok_or_else(|| {
         Failure::invalid_argument(
             "quantity",

@@ -42,6 +42,9 @@ void test_batches(void);
 void test_helpers(void);
 void test_flight(void);
 
+/* Winds aloft, the vector flight scan, q-alpha and limit exceedances (test_loads.c). */
+void test_loads(void);
+
 /* The spreadsheet functions, the species and the quantity catalogue (test_catalogue.c). */
 void test_spreadsheet(void);
 void test_species(void);

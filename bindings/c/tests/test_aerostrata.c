@@ -49,6 +49,7 @@ int main(int argc, char **argv) {
     test_batches();
     test_helpers();
     test_flight();
+    test_loads();
     test_spreadsheet();
     test_species();
     test_catalogue();

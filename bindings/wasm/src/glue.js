@@ -247,9 +247,57 @@ export function parsedValue(si, value, unit, explicit) {
   return { si, value, unit, explicit };
 }
 
-export function flightSamples(keys, a, b, c, ignored) {
-  const [ka, kb, kc] = keys.split(",");
-  return { [ka]: a.slice(), [kb]: b.slice(), [kc]: c.slice(), ignored: ignored === "" ? [] : ignored.split("\u001f") };
+// A flight file's samples: `{<keys>: Float64Array, ..., ignored: [headings]}`, the
+// columns one after another in `values`; the ignored headings separated by U+001F.
+export function flightSamples(keys, values, count, ignored) {
+  const out = columns(keys, values, count);
+  out.ignored = ignored === "" ? [] : ignored.split("\u001f");
+  return out;
+}
+
+export function windAt(windEastMS, windNorthMS, windSpeedMS, windDirectionDeg, held) {
+  return { windEastMS, windNorthMS, windSpeedMS, windDirectionDeg, held };
+}
+
+// Whether a first argument is an options object rather than an array.
+export function isOptions(value) {
+  return typeof value === "object" && value !== null && !Array.isArray(value) && !ArrayBuffer.isView(value);
+}
+
+// Winds aloft: a WindProfile (anything with the `levels()` it has), or the arrays
+// {altitudeM, windEastMS, windNorthMS} or {altitudeM, windSpeedMS, windDirectionDeg}.
+// Returned flat: [kind (0 components, 1 speed and direction), n, altitudes, a, b].
+export function winds(name, value) {
+  if (typeof value !== "object" || value === null || Array.isArray(value)) {
+    throw typeError(name, "a WindProfile or {altitudeM, windEastMS, windNorthMS} or {altitudeM, windSpeedMS, windDirectionDeg}", value);
+  }
+  let kind = 0;
+  let levels = value;
+  if (typeof value.levels === "function") {
+    levels = value.levels();
+  } else {
+    const keys = Object.keys(value);
+    kind = keys.includes("windSpeedMS") || keys.includes("windDirectionDeg") ? 1 : 0;
+    options(name, value, kind === 0 ? "altitudeM,windEastMS,windNorthMS" : "altitudeM,windSpeedMS,windDirectionDeg");
+  }
+  const [ka, kb] = kind === 0 ? ["windEastMS", "windNorthMS"] : ["windSpeedMS", "windDirectionDeg"];
+  const z = numbers(name + ".altitudeM", levels.altitudeM);
+  const a = numbers(name + "." + ka, levels[ka]);
+  const b = numbers(name + "." + kb, levels[kb]);
+  const n = z.length;
+  if (a.length !== n || b.length !== n) {
+    throw new RangeError(
+      name + ": altitudeM, " + ka + " and " + kb + " must have the same length (one element per level), got " +
+        n + ", " + a.length + " and " + b.length,
+    );
+  }
+  const out = new Float64Array(2 + 3 * n);
+  out[0] = kind;
+  out[1] = n;
+  out.set(z, 2);
+  out.set(a, 2 + n);
+  out.set(b, 2 + 2 * n);
+  return out;
 }
 
 export function parseJson(text) {
@@ -282,35 +330,70 @@ export function columns(keys, values, count) {
 }
 
 // The flight summary, from the flat layout `flight.rs` writes (`summary_layout` there):
-// samples; then the maximum dynamic pressure (present flag, timeS, altitudeM, velocityMS,
-// mach, dynamicPressurePa, sampleIndex, refined); the maximum Mach number and the maximum
-// drag (present flag, value, timeS, altitudeM, velocityMS, sampleIndex); the Mach 1
-// crossings up and down (count, firstTimeS, lastTimeS).
-export function flightResult(points, defined, s) {
+// samples; the maximum dynamic pressure (present flag, timeS, altitudeM, velocityMS, mach,
+// dynamicPressurePa, sampleIndex, refined); the maximum Mach number, drag and q-alpha
+// (present flag, value, timeS, altitudeM, velocityMS, sampleIndex, mach); the Mach 1
+// crossings up and down (count, firstTimeS, lastTimeS); the maximum q's sampleMaxPa,
+// uncertaintyPa, resolved, suggestedSpacingS; machUndefinedSamples, windHeldSamples.
+// `extra` (loads.rs, `extras`): the q exceedances (count or -1 when not asked, then six
+// numbers each: startTimeS, endTimeS, peak, peakTimeS, openStart, openEnd), the q-alpha
+// exceedances likewise, and the q plateau (present flag, startTimeS, endTimeS, maximum,
+// fraction, open).
+export function flightResult(points, defined, s, extra) {
   const orNull = (v) => (Number.isNaN(v) ? null : v);
   const extreme = (i) =>
-    s[i] ? { value: s[i + 1], timeS: s[i + 2], altitudeM: s[i + 3], velocityMS: s[i + 4], sampleIndex: s[i + 5] } : null;
+    s[i]
+      ? { value: s[i + 1], timeS: s[i + 2], altitudeM: s[i + 3], velocityMS: s[i + 4], sampleIndex: s[i + 5], mach: orNull(s[i + 6]) }
+      : null;
   const crossings = (i) => ({ count: s[i], firstTimeS: orNull(s[i + 1]), lastTimeS: orNull(s[i + 2]) });
-  points.defined = defined.slice();
-  return {
-    points,
-    summary: {
-      samples: s[0],
-      maxDynamicPressure: s[1]
-        ? {
-            timeS: s[2],
-            altitudeM: s[3],
-            velocityMS: s[4],
-            mach: orNull(s[5]),
-            dynamicPressurePa: s[6],
-            sampleIndex: s[7],
-            refined: s[8] === 1,
-          }
-        : null,
-      maxMach: extreme(9),
-      machOneUp: crossings(21),
-      machOneDown: crossings(24),
-      maxDrag: extreme(15),
-    },
+  let at = 0;
+  const intervals = () => {
+    const n = extra[at++];
+    if (n < 0) return undefined;
+    const out = [];
+    for (let k = 0; k < n; k++, at += 6) {
+      out.push({
+        startTimeS: extra[at],
+        endTimeS: extra[at + 1],
+        peak: extra[at + 2],
+        peakTimeS: extra[at + 3],
+        openStart: extra[at + 4] === 1,
+        openEnd: extra[at + 5] === 1,
+      });
+    }
+    return out;
   };
+  const qExceedances = intervals();
+  const qAlphaExceedances = intervals();
+  const p = extra.subarray(at);
+  points.defined = defined.slice();
+  const summary = {
+    samples: s[0],
+    maxDynamicPressure: s[1]
+      ? {
+          timeS: s[2],
+          altitudeM: s[3],
+          velocityMS: s[4],
+          mach: orNull(s[5]),
+          dynamicPressurePa: s[6],
+          sampleIndex: s[7],
+          refined: s[8] === 1,
+          sampleMaxPa: s[36],
+          uncertaintyPa: orNull(s[37]),
+          resolved: s[38] === 1,
+          suggestedSpacingS: orNull(s[39]),
+        }
+      : null,
+    maxMach: extreme(9),
+    machOneUp: crossings(30),
+    machOneDown: crossings(33),
+    maxDrag: extreme(16),
+    maxQAlpha: extreme(23),
+    machUndefinedSamples: s[40],
+    windHeldSamples: s[41],
+    qPlateau: p[0] ? { startTimeS: p[1], endTimeS: p[2], maximum: p[3], fraction: p[4], open: p[5] === 1 } : null,
+  };
+  if (qExceedances !== undefined) summary.qExceedances = qExceedances;
+  if (qAlphaExceedances !== undefined) summary.qAlphaExceedances = qAlphaExceedances;
+  return { points, summary };
 }

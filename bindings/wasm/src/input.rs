@@ -16,7 +16,7 @@ use wasm_bindgen::prelude::*;
 use crate::error::{Failure, Js};
 use crate::js;
 use crate::model::AtmosphereModel;
-use crate::quantity::{key, named};
+use crate::quantity::named;
 use crate::text::{push_count, Text};
 
 /// A typed value's refusal as the core words it, numbers as a person reads them (six
@@ -182,22 +182,41 @@ impl AtmosphereModel {
 }
 
 /// The samples of a flight file, read as the command line reads them: a header naming
-/// `time`, `altitude` (geometric) and `velocity` in any spelling, with or without units
-/// (`time (s),altitude (ft),velocity (ft/s)`); columns without a unit read in SI, or in
-/// US units when `defaultUnits` is `"us"`; a cell's own unit wins; other columns are kept
-/// out and listed in `ignored`. At most 16 777 216 samples.
+/// `time` and `altitude` (geometric) and the velocity, in any spelling, with or without
+/// units (`time (s),altitude (ft),velocity (ft/s)`); columns without a unit read in SI, or
+/// in US units when `defaultUnits` is `"us"`; a cell's own unit wins; other columns are
+/// kept out and listed in `ignored`. At most 16 777 216 samples.
 ///
-/// Returns `{timeS, altitudeM, velocityMS, ignored}` (three `Float64Array`s in SI, and the
-/// headings kept out). Throws an `Error` naming the line and column for a file it cannot
-/// read.
+/// The velocity is a `velocity` column (the speed), or `velocity_east`, `velocity_north`
+/// and `velocity_up` (the ground-relative velocity; a `velocity` column beside them is
+/// kept out), or `velocity` with `flight_path_angle` and `heading`; `axis_elevation` and
+/// `axis_azimuth` give the vehicle's axis. The result has the columns the file gives, so
+/// that `{ignored, ...samples}` is what `scanFlight(options)` takes.
+///
+/// Returns `{timeS, altitudeM, velocityMS?, velocityEastMS?, velocityNorthMS?,
+/// velocityUpMS?, flightPathAngleDeg?, headingDeg?, axisElevationDeg?, axisAzimuthDeg?,
+/// ignored}` (`Float64Array`s in SI, and the headings kept out). Throws an `Error` naming
+/// the line and column for a file it cannot read.
 #[wasm_bindgen(js_name = readFlightCsv, unchecked_return_type = "FlightSamples")]
 pub fn read_flight_csv(
     #[wasm_bindgen(js_name = text, unchecked_param_type = "string")] text: JsValue,
     #[wasm_bindgen(js_name = defaultUnits, unchecked_optional_param_type = "\"si\" | \"us\"")] units: JsValue,
 ) -> Result<JsValue, JsValue> {
+    use Quantity as Q;
     let text = js::long_text("text", &text)?;
     let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-    let wanted = [Quantity::Time, Quantity::Altitude, Quantity::Velocity];
+    let readable = [
+        Q::Time,
+        Q::Altitude,
+        Q::Velocity,
+        Q::VelocityEast,
+        Q::VelocityNorth,
+        Q::VelocityUp,
+        Q::FlightPathAngle,
+        Q::Heading,
+        Q::AxisElevation,
+        Q::AxisAzimuth,
+    ];
     let default_unit = if us { Quantity::us } else { Quantity::si };
     let mut lines = text
         .lines()
@@ -209,21 +228,41 @@ pub fn read_flight_csv(
     };
     let at =
         |line: usize, message: &str| Failure::plain(Text::new("line ").u(line).s(": ").s(message).done());
-    let header = Header::read(header_text, |q| wanted.contains(&q), default_unit)
+    let header = Header::read(header_text, |q| readable.contains(&q), default_unit)
         .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
-    let mut positions = [0usize; 3];
-    for (slot, q) in positions.iter_mut().zip(wanted) {
-        *slot = header.position(q).ok_or_else(|| {
-            JsValue::from(at(
-                header_line,
-                &Text::new("the header needs a ")
-                    .s(q.name())
-                    .s(" column (time, altitude and velocity, each with or without its unit)")
-                    .done(),
-            ))
-        })?;
+    let has = |q: Quantity| header.position(q).is_some();
+    let all_or_none = |group: &[Quantity]| group.iter().all(|q| has(*q)) || !group.iter().any(|q| has(*q));
+    let components = [Q::VelocityEast, Q::VelocityNorth, Q::VelocityUp];
+    let path = [Q::FlightPathAngle, Q::Heading];
+    let axis = [Q::AxisElevation, Q::AxisAzimuth];
+    let problem = if !(has(Q::Time) && has(Q::Altitude)) {
+        Some("the header needs a time and an altitude column, each with or without its unit")
+    } else if !all_or_none(&components) {
+        Some(
+            "the velocity's components need all three columns: velocity_east, velocity_north and velocity_up",
+        )
+    } else if !all_or_none(&path) || (has(Q::Heading) && (has(Q::VelocityEast) || !has(Q::Velocity))) {
+        Some(
+            "a flight path needs velocity (the speed), flight_path_angle and heading, without the components",
+        )
+    } else if !(has(Q::Velocity) || has(Q::VelocityEast)) {
+        Some("the header needs a velocity column, or velocity_east, velocity_north and velocity_up")
+    } else if !all_or_none(&axis) || (has(Q::AxisElevation) && !(has(Q::VelocityEast) || has(Q::Heading))) {
+        Some("the vehicle's axis needs axis_elevation and axis_azimuth, and the velocity's direction")
+    } else {
+        None
+    };
+    if let Some(problem) = problem {
+        return Err(at(header_line, problem).into());
     }
-    let mut columns: [Vec<f64>; 3] = [Vec::new(), Vec::new(), Vec::new()];
+    // The components win over a speed beside them, which is kept out.
+    let speed_kept_out = has(Q::VelocityEast) && has(Q::Velocity);
+    let given: Vec<(usize, Quantity)> = readable
+        .iter()
+        .filter(|q| !(speed_kept_out && **q == Q::Velocity))
+        .filter_map(|&q| header.position(q).map(|p| (p, q)))
+        .collect();
+    let mut columns: Vec<Vec<f64>> = given.iter().map(|_| Vec::new()).collect();
     let mut values = [None; table::MAX_COLUMNS];
     for (line, row) in lines {
         header.read_row(row, &mut values).map_err(|e| {
@@ -232,8 +271,8 @@ pub fn read_flight_csv(
                 _ => at(line, "not a row of the table"),
             })
         })?;
-        for (column, (&index, q)) in columns.iter_mut().zip(positions.iter().zip(wanted)) {
-            let value = values[index].ok_or_else(|| {
+        for (column, &(index, q)) in columns.iter_mut().zip(&given) {
+            let value = values.get(index).copied().flatten().ok_or_else(|| {
                 let mut message = Text::new("column ");
                 let mut number = String::new();
                 push_count(&mut number, index + 1);
@@ -248,11 +287,13 @@ pub fn read_flight_csv(
     }
     let names: Vec<&str> = table::cells(header_text, header.delimiter()).collect();
     let mut ignored = String::new();
-    for name in header.ignored().filter_map(|i| names.get(i)) {
+    let speed_position = header.position(Q::Velocity).filter(|_| speed_kept_out);
+    for name in header.ignored().chain(speed_position).filter_map(|i| names.get(i)) {
         ignored.push_str(if ignored.is_empty() { "" } else { "\u{1f}" });
         ignored.push_str(name);
     }
-    let keys =
-        Text::new(&key(Quantity::Time)).s(",").s(&key(Quantity::Altitude)).s(",").s(&key(Quantity::Velocity));
-    js::flight_samples(&keys.done(), &columns[0], &columns[1], &columns[2], &ignored)
+    let count = columns.first().map_or(0, Vec::len);
+    let keys = crate::quantity::keys(given.iter().map(|&(_, q)| q));
+    let flat: Vec<f64> = columns.into_iter().flatten().collect();
+    js::flight_samples(&keys, &flat, count, &ignored)
 }

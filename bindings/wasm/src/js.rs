@@ -99,16 +99,28 @@ extern "C" {
     #[wasm_bindgen(catch, js_name = parsedValue)]
     pub fn parsed_value(si: f64, value: f64, unit: &str, explicit: bool) -> Result<JsValue, JsValue>;
 
-    /// `{<keys>: Float64Array, ..., ignored: [headings]}` of a flight file's samples; the
-    /// ignored headings separated by U+001F.
+    /// `{<keys>: Float64Array, ..., ignored: [headings]}` of a flight file's samples, the
+    /// columns one after another in `values`; the ignored headings separated by U+001F.
     #[wasm_bindgen(catch, js_name = flightSamples)]
     pub fn flight_samples(
         keys: &str,
-        a: &[f64],
-        b: &[f64],
-        c: &[f64],
+        values: &[f64],
+        count: usize,
         ignored: &str,
     ) -> Result<JsValue, JsValue>;
+
+    /// `{windEastMS, windNorthMS, windSpeedMS, windDirectionDeg, held}`.
+    #[wasm_bindgen(js_name = windAt)]
+    pub fn wind_at(east: f64, north: f64, speed: f64, direction: f64, held: bool) -> JsValue;
+
+    /// Whether a first argument is an options object (not an array or typed array).
+    #[wasm_bindgen(js_name = isOptions)]
+    pub fn is_options(value: &JsValue) -> bool;
+
+    /// Winds aloft as `[kind, n, altitudes, a, b]`: kind 0 for east and north components,
+    /// 1 for speed and direction; a `TypeError` or `RangeError` naming `name` otherwise.
+    #[wasm_bindgen(catch)]
+    pub fn winds(name: &str, value: &JsValue) -> Result<Vec<f64>, JsValue>;
 
     /// `JSON.parse(text)` of text this module wrote.
     #[wasm_bindgen(catch, js_name = parseJson)]
@@ -125,7 +137,13 @@ extern "C" {
     #[wasm_bindgen(catch)]
     pub fn columns(keys: &str, values: &[f64], count: usize) -> Result<JsValue, JsValue>;
 
-    /// The flight scan's result object (see `flight::summary_layout`).
+    /// The flight scan's result object (see `flight::summary_layout` and
+    /// `loads::extras`).
     #[wasm_bindgen(catch, js_name = flightResult)]
-    pub fn flight_result(points: &JsValue, defined: &[u8], summary: &[f64]) -> Result<JsValue, JsValue>;
+    pub fn flight_result(
+        points: &JsValue,
+        defined: &[u8],
+        summary: &[f64],
+        extra: &[f64],
+    ) -> Result<JsValue, JsValue>;
 }

@@ -45,6 +45,7 @@ mod error;
 mod flight;
 mod input;
 mod js;
+mod loads;
 mod model;
 mod naming;
 mod quantity;
@@ -53,6 +54,7 @@ mod text;
 pub use aero::*;
 pub use error::{Class, Failure};
 pub use input::{model_grammar, parse_value, read_flight_csv};
+pub use loads::WindProfile;
 pub use model::{standard_species, standard_state, AtmosphereModel};
 pub use quantity::{from_us, quantities, to_us};
 
@@ -121,11 +123,22 @@ export interface ParsedValue {
   explicit: boolean;
 }
 
-/** What `readFlightCsv` returns: the samples in SI, and the headings kept out. */
+/**
+ * What `readFlightCsv` returns: the samples in SI (the columns the file gives), and the
+ * headings kept out. `{ignored, ...samples}` is what `scanFlight(options)` takes.
+ */
 export interface FlightSamples {
   timeS: Float64Array;
   altitudeM: Float64Array;
-  velocityMS: Float64Array;
+  /** The speed (without components), or with flightPathAngleDeg and headingDeg the ground-relative speed. */
+  velocityMS?: Float64Array;
+  velocityEastMS?: Float64Array;
+  velocityNorthMS?: Float64Array;
+  velocityUpMS?: Float64Array;
+  flightPathAngleDeg?: Float64Array;
+  headingDeg?: Float64Array;
+  axisElevationDeg?: Float64Array;
+  axisAzimuthDeg?: Float64Array;
   ignored: string[];
 }
 
@@ -214,30 +227,40 @@ export interface DynamicPressurePeak {
   timeS: number;
   /** Geometric altitude there, m. */
   altitudeM: number;
-  /** Velocity there, m/s. */
+  /** Airspeed there (speed relative to the air; the speed given, without winds), m/s. */
   velocityMS: number;
   /** Mach number there (`null` where a sample has none). */
   mach: number | null;
-  /** The maximum dynamic pressure, Pa. */
+  /** The maximum dynamic pressure, Pa: never below the largest sample. */
   dynamicPressurePa: number;
   /** Index of the largest sample. */
   sampleIndex: number;
   /** Whether the parabola refined it (false at the ends of the flight). */
   refined: boolean;
+  /** The largest sampled dynamic pressure, Pa. */
+  sampleMaxPa: number;
+  /** How far the maximum of the sampled flight can be from `dynamicPressurePa`, Pa; `null` when the largest sample is the first or the last. */
+  uncertaintyPa: number | null;
+  /** Whether the sampling resolves the peak (the uncertainty at most 0.1 % of it). */
+  resolved: boolean;
+  /** Where the peak is bounded but not resolved, a sample spacing that would resolve it, s. */
+  suggestedSpacingS: number | null;
 }
 
 /** The largest value of a quantity over the samples. */
 export interface FlightExtreme {
-  /** The value (Mach number, or drag in N). */
+  /** The value (Mach number, drag in N, or q-alpha in Pa deg). */
   value: number;
   /** Time of the sample, s. */
   timeS: number;
   /** Geometric altitude of the sample, m. */
   altitudeM: number;
-  /** Velocity of the sample, m/s. */
+  /** Airspeed of the sample, m/s. */
   velocityMS: number;
   /** Index of the sample. */
   sampleIndex: number;
+  /** Mach number of the sample (`null` where undefined). */
+  mach: number | null;
 }
 
 /** Crossings of Mach 1 in one direction. */
@@ -249,6 +272,33 @@ export interface MachCrossings {
   lastTimeS: number | null;
 }
 
+/** One interval where a series exceeds its limit, the crossings interpolated linearly between samples. */
+export interface Exceedance {
+  /** When it rose above the limit, s (the first sample's time when it starts above). */
+  startTimeS: number;
+  /** When it fell back to the limit, s (the last sample's time when it ends above). */
+  endTimeS: number;
+  /** The largest sampled value in the interval. */
+  peak: number;
+  /** Time of that sample, s. */
+  peakTimeS: number;
+  /** Already above the limit at the first sample. */
+  openStart: boolean;
+  /** Still above the limit at the last sample. */
+  openEnd: boolean;
+}
+
+/** The span around the maximum q where q stays at least (1 - fraction) times the maximum. */
+export interface Plateau {
+  startTimeS: number;
+  endTimeS: number;
+  /** The maximum it is measured from (the refined maximum q), Pa. */
+  maximum: number;
+  fraction: number;
+  /** Whether it reaches the first or the last sample. */
+  open: boolean;
+}
+
 /** The summary of a scanned flight. */
 export interface FlightSummary {
   samples: number;
@@ -258,12 +308,81 @@ export interface FlightSummary {
   machOneDown: MachCrossings;
   /** Largest drag, N (with a vehicle). */
   maxDrag: FlightExtreme | null;
+  /** Largest q-alpha, Pa deg (samples with the velocity's direction). */
+  maxQAlpha: FlightExtreme | null;
+  /** Samples without a Mach number (above 86 km): a Mach 1 crossing among them cannot be seen. */
+  machUndefinedSamples: number;
+  /** Samples beyond the wind profile's levels, where the nearest level's wind was held. */
+  windHeldSamples: number;
+  /** The q plateau (at `plateauFraction`, 0.02 by default). */
+  qPlateau: Plateau | null;
+  /** The intervals above `qLimitPa` (when given). */
+  qExceedances?: Exceedance[];
+  /** The intervals above `qAlphaLimitPaDeg` (when given). */
+  qAlphaExceedances?: Exceedance[];
 }
 
 /** What `AtmosphereModel.scanFlight` returns. */
 export interface FlightScanResult {
   points: FlightPoints;
   summary: FlightSummary;
+}
+
+/** Winds aloft for a flight scan: a profile, or its levels as arrays (geometric altitudes, m; m/s; the direction the wind blows from, deg). */
+export type WindsSpec =
+  | WindProfile
+  | { altitudeM: Float64Array | number[]; windEastMS: Float64Array | number[]; windNorthMS: Float64Array | number[] }
+  | { altitudeM: Float64Array | number[]; windSpeedMS: Float64Array | number[]; windDirectionDeg: Float64Array | number[] };
+
+/** The wind at one altitude (`WindProfile.at`). */
+export interface WindAt {
+  windEastMS: number;
+  windNorthMS: number;
+  windSpeedMS: number;
+  /** The direction it blows from, deg clockwise from true north, in [0, 360). */
+  windDirectionDeg: number;
+  /** Whether the altitude lies beyond the levels and the nearest level's wind is held. */
+  held: boolean;
+}
+
+/** A wind profile's levels. */
+export interface WindLevels {
+  altitudeM: Float64Array;
+  windEastMS: Float64Array;
+  windNorthMS: Float64Array;
+}
+
+/**
+ * The options of `scanFlight(options)`: the samples (arrays of one length) and what to
+ * compute. The velocity in one of three forms: `velocityMS` alone (speed relative to the
+ * air); `velocityEastMS`, `velocityNorthMS`, `velocityUpMS` (ground-relative); or
+ * `velocityMS`, `flightPathAngleDeg`, `headingDeg` (ground-relative speed and direction).
+ */
+export interface FlightScanOptions {
+  timeS: Float64Array | number[];
+  altitudeM: Float64Array | number[];
+  velocityMS?: Float64Array | number[];
+  velocityEastMS?: Float64Array | number[];
+  velocityNorthMS?: Float64Array | number[];
+  velocityUpMS?: Float64Array | number[];
+  /** Angle of the ground-relative velocity above the horizontal, deg (-90 to 90). */
+  flightPathAngleDeg?: Float64Array | number[];
+  /** Direction of its horizontal part, deg clockwise from true north. */
+  headingDeg?: Float64Array | number[];
+  /** The vehicle's axis above the horizontal, deg; with `axisAzimuthDeg`. Along the ground velocity when omitted. */
+  axisElevationDeg?: Float64Array | number[];
+  axisAzimuthDeg?: Float64Array | number[];
+  vehicle?: VehicleSpec;
+  /** Winds aloft (needs the velocity's direction). */
+  winds?: WindsSpec;
+  /** The boundary layer of the recovery temperature. */
+  boundaryLayer?: "laminar" | "turbulent";
+  /** List the intervals where q exceeds this, Pa. */
+  qLimitPa?: number;
+  /** List the intervals where q-alpha exceeds this, Pa deg (needs the velocity's direction). */
+  qAlphaLimitPaDeg?: number;
+  /** The q plateau's fraction below the maximum (0 to 1, default 0.02). */
+  plateauFraction?: number;
 }
 
 /** Static-to-total ratios of isentropic flow. */

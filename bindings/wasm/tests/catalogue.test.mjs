@@ -33,10 +33,22 @@ test("every result object carries exactly its group's keys, in catalogue order",
   assert.deepEqual(Object.keys(standard.state(1000)), group("state"));
   assert.deepEqual(Object.keys(a.standardSpecies(300000)), group("species"));
   assert.deepEqual(Object.keys(a.airspeeds(101325, 288.15, "mach", 0.5)), [...group("airspeed").slice(0, 3), "mach", "impactPressurePa", "dynamicPressurePa"]);
-  const flight = standard.scanFlight([0, 1], [0, 10], [0, 20]);
+  // A scan with every column: the velocity's direction, winds and a boundary layer.
+  const flight = standard.scanFlight({
+    timeS: [0, 1],
+    altitudeM: [0, 10],
+    velocityEastMS: [0, 1],
+    velocityNorthMS: [0, 1],
+    velocityUpMS: [5, 20],
+    winds: { altitudeM: [0], windEastMS: [2], windNorthMS: [0] },
+    boundaryLayer: "laminar",
+  });
   const keys = Object.keys(flight.points).filter((k) => k !== "defined");
   for (const key of keys) assert.ok(list.some((q) => q.key === key), key);
   for (const key of group("flight")) assert.ok(keys.includes(key), key);
+  // Beyond the flight group and the air's state, the scan carries the wind's components
+  // and nothing else.
+  assert.deepEqual(keys.filter((k) => !group("flight").includes(k) && !group("state").includes(k)), ["windEastMS", "windNorthMS"]);
   // The quantities that can be undefined are null above 86 km, the others numbers.
   const high = standard.state(150000);
   for (const q of list.filter((q) => q.group === "state")) {

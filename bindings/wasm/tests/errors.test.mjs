@@ -97,8 +97,8 @@ test("inconsistent models and tables are Errors naming the layer, row or point",
   throwsWith(() => AtmosphereModel.tabulated("geometric", [0, 1000], [288, -4], { pressurePa: [1e5, null] }), RangeError, /^row 1: temperature must be above 0 K, got -4 K$/);
   throwsWith(() => AtmosphereModel.tabulated("geometric", [0, 1000], [288], {}), Error, /^temperaturesK has 1 elements and altitudesM 2/);
   throwsWith(() => a.dragCoefficient({ mach: [0, 1, 1], cd: [0.3, 0.5, 0.6] }, 0.5), Error, /^drag table point 2: Mach number must be above the previous point's, got 1$/);
-  throwsWith(() => standard.scanFlight([0, 1, 1], [0, 10, 20], [0, 10, 20]), Error, /^flight sample point 2: time \(s\) must be after the previous sample's/);
-  throwsWith(() => standard.scanFlight([0, 1], [0, 10, 20], [0, 10]), Error, /same length/);
+  throwsWith(() => standard.scanFlight([0, 1, 1], [0, 10, 20], [0, 10, 20]), RangeError, /^flight sample point 2: time \(s\) must be after the previous sample's/);
+  throwsWith(() => standard.scanFlight([0, 1], [0, 10, 20], [0, 10]), RangeError, /same length/);
   throwsWith(() => standard.scanFlight([0, 1], [0, 2e6], [0, 10]), RangeError, /^flight sample 1: geometric altitude 2000000 m is outside the allowed range/);
   throwsWith(() => standard.batch([0, 1], ["temperatureK", "temperatureK"]), Error, /^quantities\[1\]: temperatureK is listed twice$/);
 });
@@ -271,7 +271,9 @@ function call(fn, args) {
 }
 
 test("every export is covered by the garbage test", () => {
-  const functions = Object.keys(a).filter((k) => typeof a[k] === "function" && k !== "AtmosphereModel" && !k.startsWith("init"));
+  const functions = Object.keys(a).filter(
+    (k) => typeof a[k] === "function" && !["AtmosphereModel", "WindProfile"].includes(k) && !k.startsWith("init"),
+  );
   assert.deepEqual(functions.filter((k) => !(k in VALID)), []);
   const statics = Object.getOwnPropertyNames(AtmosphereModel).filter((k) => typeof AtmosphereModel[k] === "function");
   assert.deepEqual(statics.filter((k) => !(k in STATIC) && !["__wrap"].includes(k)), []);
@@ -329,4 +331,53 @@ test("garbage at every export throws Errors and never traps", () => {
   // And the module still works, with the same bits as before.
   assert.equal(AtmosphereModel.standard().state(0).pressurePa, 101325);
   assert.equal(a.standardState(11000, "geopotential").temperatureK, 216.65);
+});
+
+test("garbage at WindProfile and in every option of scanFlight throws Errors and never traps", () => {
+  const { WindProfile } = a;
+  const statics = Object.getOwnPropertyNames(WindProfile).filter((k) => typeof WindProfile[k] === "function");
+  assert.deepEqual(statics.filter((k) => !["fromSpeedDirection", "__wrap"].includes(k)), []);
+  const methods = Object.getOwnPropertyNames(WindProfile.prototype).filter(
+    (k) => typeof Object.getOwnPropertyDescriptor(WindProfile.prototype, k).value === "function" && !["constructor", "free", "__destroy_into_raw"].includes(k),
+  );
+  assert.deepEqual(methods.sort(), ["at", "levels"]);
+  const valid = [[0, 1000], [3, 6], [0, -2]];
+  const winds = new WindProfile(...valid);
+  const options = {
+    timeS: [0, 1, 2],
+    altitudeM: [0, 100, 300],
+    velocityEastMS: [0, 1, 2],
+    velocityNorthMS: [0, 1, 2],
+    velocityUpMS: [10, 150, 250],
+    axisElevationDeg: [89, 88, 87],
+    axisAzimuthDeg: [0, 10, 20],
+    vehicle: { drag: 0.5, referenceAreaM2: 0.01 },
+    winds,
+    boundaryLayer: "laminar",
+    qLimitPa: 1000,
+    qAlphaLimitPaDeg: 1000,
+    plateauFraction: 0.1,
+  };
+  assert.equal(call(() => standard.scanFlight(options), []), "returned");
+  const outcomes = new Set();
+  for (const g of GARBAGE) {
+    for (let i = 0; i < 3; i++) {
+      const args = [...valid];
+      args[i] = g;
+      outcomes.add(call(() => new WindProfile(...args), []));
+      outcomes.add(call(() => WindProfile.fromSpeedDirection(...args), []));
+    }
+    outcomes.add(call(() => winds.at(g), []));
+    for (const key of Object.keys(options)) {
+      outcomes.add(call(() => standard.scanFlight({ ...options, [key]: g }), []));
+    }
+    const levels = { altitudeM: [0, 1000], windSpeedMS: [3, 6], windDirectionDeg: [0, 270] };
+    for (const key of Object.keys(levels)) {
+      outcomes.add(call(() => standard.scanFlight({ ...options, winds: { ...levels, [key]: g } }), []));
+    }
+    outcomes.add(call(() => standard.scanFlight({ ...options, extra: g }), []));
+  }
+  for (const expected of ["returned", "TypeError", "RangeError"]) assert.ok(outcomes.has(expected), expected);
+  assert.equal(winds.levelCount, 2);
+  winds.free();
 });

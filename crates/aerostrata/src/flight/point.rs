@@ -176,6 +176,27 @@ impl FlightPoint {
     /// asked for it, in the continuum). The total temperature goes with the Mach number.
     pub const DEFINED_RECOVERY_TEMPERATURE: u8 = 128;
 
+    /// The `DEFINED_*` bit that says whether a point defines `quantity`, or 0 for a
+    /// quantity every point carries (time, altitude, q, airspeed, the air's properties)
+    /// and for one a point never carries: what a door needs to give a column only where
+    /// the scan's setting can fill it (the velocity's components only for samples with a
+    /// direction, the wind only with winds, the recovery temperature only with a boundary
+    /// layer). The total temperature goes with the Mach number.
+    pub const fn defined_bit(quantity: Quantity) -> u8 {
+        use Quantity as Q;
+        match quantity {
+            Q::SpeedOfSound | Q::Mach | Q::TotalTemperature => Self::DEFINED_MACH,
+            Q::UnitReynoldsNumber => Self::DEFINED_REYNOLDS_PER_M,
+            Q::ReynoldsNumber => Self::DEFINED_REYNOLDS_NUMBER,
+            Q::DragCoefficient | Q::Drag => Self::DEFINED_DRAG,
+            Q::VelocityEast | Q::VelocityNorth | Q::VelocityUp => Self::DEFINED_VELOCITY_COMPONENTS,
+            Q::WindEast | Q::WindNorth => Self::DEFINED_WIND,
+            Q::AngleOfAttack | Q::QAlpha => Self::DEFINED_ALPHA,
+            Q::RecoveryTemperature => Self::DEFINED_RECOVERY_TEMPERATURE,
+            _ => 0,
+        }
+    }
+
     /// Which of the values that can be missing are defined, as `DEFINED_*` bits: what the
     /// C and WebAssembly doors hand on beside the values, which they give as NaN where
     /// `None`.
@@ -442,5 +463,36 @@ mod tests {
         );
         #[cfg(feature = "upper")]
         assert_eq!(point(Some(with_length), 120_000.0).defined(), FlightPoint::DEFINED_DRAG);
+    }
+
+    /// `defined_bit` agrees with `defined` and `get`: a quantity of a point is given
+    /// exactly when its bit is set (or it has none), in every setting and at rest.
+    #[test]
+    fn each_quantity_has_the_bit_that_defines_it() {
+        use crate::flight::{BoundaryLayer, VectorSample};
+        use crate::wind::{WindLevel, WindProfile};
+        let winds = WindProfile::new([WindLevel::new(0.0, 5.0, -3.0).unwrap()]).unwrap();
+        let vehicle = Vehicle::new(DragCurve::constant(0.5).unwrap(), 0.02).unwrap();
+        let with_length = vehicle.with_reference_length(1.5).unwrap();
+        let vector = |up, z| VectorSample::from_path(0.0, z, up, 80.0, 45.0, None).unwrap();
+        let check = |point: FlightPoint| {
+            for q in FlightPoint::QUANTITIES {
+                let bit = FlightPoint::defined_bit(q);
+                let given = bit == 0 || point.defined() & bit != 0;
+                assert_eq!(point.get(q).is_ok(), given, "{q:?} at {point:?}");
+            }
+        };
+        let altitudes: &[f64] = if cfg!(feature = "upper") { &[1_000.0, 120_000.0] } else { &[1_000.0] };
+        for &z in altitudes {
+            for v in [0.0, 250.0] {
+                let full = FlightScan::new(US1976, Some(with_length))
+                    .with_winds(&winds)
+                    .with_recovery(BoundaryLayer::Laminar);
+                check(full.evaluate_vector(vector(v, z)).unwrap());
+                check(FlightScan::new(US1976, Some(vehicle)).evaluate_vector(vector(v, z)).unwrap());
+                let scalar = Sample { time_s: 0.0, altitude_m: z, velocity_m_s: v };
+                check(FlightScan::new(US1976, None).evaluate(scalar).unwrap());
+            }
+        }
     }
 }

@@ -12,12 +12,13 @@ use crate::target_dir;
 
 /// The C tests, by subject, linked into one program (main() is in test_aerostrata.c; the
 /// helpers they share are in check.h beside them).
-const C_TESTS: [&str; 7] = [
+const C_TESTS: [&str; 8] = [
     "bindings/c/tests/test_aerostrata.c",
     "bindings/c/tests/test_vectors.c",
     "bindings/c/tests/test_status.c",
     "bindings/c/tests/test_models.c",
     "bindings/c/tests/test_aero.c",
+    "bindings/c/tests/test_loads.c",
     "bindings/c/tests/test_catalogue.c",
     "bindings/c/tests/test_spreadsheet_addin.c",
 ];

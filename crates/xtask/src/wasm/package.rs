@@ -12,7 +12,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (232 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (261 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -21,15 +21,21 @@ use crate::{io_error, target_dir};
 /// and flight files read as the command line reads them): 66 KiB, 37 KiB compressed, of
 /// which Rust's correctly rounded decimal parser and its tables are about 17 KiB. Raised
 /// from 216 and 106 KiB when the flight scan took in winds, vector velocities, the
-/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed; and from 224 and
+/// bounded maximum q and the limit watch: about 5 KiB, 2 KiB compressed; from 224 and
 /// 110 KiB when soundings took in winds: 9 KiB, 2 KiB compressed, after sine and cosine
-/// kernels of our own (math.rs) spared the module libm's argument reduction (6 KiB) and
-/// an insertion spared it the slice sort (5 KiB).
+/// kernels of our own (math.rs: an exact reduction of degrees, then libm's own kernels)
+/// spared the module libm's general argument reduction (6 KiB) and an insertion spared it
+/// the slice sort (5 KiB); and to the module's size rounded up to the KiB when
+/// `scanFlight` took an options object (velocity components or path, the axis, winds,
+/// boundary layer, limits, plateau), `WindProfile` and the vector columns of
+/// `readFlightCsv`: about 30 KiB, 11 KiB compressed, half of it the core's code the
+/// scalar scan never reached (atan2, the vector sample, the wind profile, the limit watch
+/// and the plateau), the rest the door and its messages.
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 232 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (112 KiB).
-pub const MAX_GZIP_BYTES: u64 = 112 * 1024;
+pub const MAX_WASM_BYTES: u64 = 261 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (125 KiB).
+pub const MAX_GZIP_BYTES: u64 = 125 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";
