@@ -370,11 +370,10 @@ impl core::fmt::Display for ColumnError<'_> {
             ColumnError::Unknown => f.write_str("no quantity has that name"),
             ColumnError::Unit { quantity, unit } => {
                 let dimension = quantity.si().dimension();
-                let (unit, cut) = units::shorten(unit, 40);
                 write!(
                     f,
-                    "unknown unit '{unit}{}' for the {}; write {}",
-                    if cut { "..." } else { "" },
+                    "unknown unit {} for the {}; write {}",
+                    units::Quoted(unit),
                     quantity.info().label,
                     units::UnitList(dimension)
                 )
