@@ -8,6 +8,8 @@ reading of NOAA-S/T 76-1562, October 1976): a closed-form kinetic temperature
 and the diffusion equations for ln n of N2, O, O2, Ar and He, integrated upward
 from their 86 km values with scipy.integrate.solve_ivp, plus atomic hydrogen
 integrated from its 500 km value down to 150 km and up to 1000 km.  The
+ellipse's constants (91-110 km) are derived here from its joins, unrounded, as
+the crate does: the printed ones end 2.7e-4 K short of 240 K.  The
 integration is restarted at every altitude where a coefficient changes form
 (91, 95, 97, 100, 110, 115, 120, 150 and 500 km) and at every altitude asked
 for, so no output is interpolated.
@@ -98,13 +100,34 @@ LOWER_86 = {"pressure_Pa": 0.37338046, "density_kg_m3": 6.9578238e-6}
 # ---------------------------------------------------------------------------
 # Temperature, gravity, eddy diffusion
 # ---------------------------------------------------------------------------
+def _ellipse():
+    """Tc (K), A (K) and a (km) of the 91-110 km ellipse T = Tc + A sqrt(1 - ((Z-91)/a)^2).
+
+    From its joins: T = T7 with zero slope at 91 km (the ellipse's vertex, so
+    Tc = T7 - A) and T = 240 K with 12 K/km at 110 km.  At 110 km, with x = 19 km / a
+    and s = sqrt(1 - x^2): 240 - T7 = -A (1 - s), and the slope -A x / (a s) =
+    -A (1 - s^2) / (19 km s) = 12 K/km.  Dividing the second by the first gives s,
+    then A and a.  They round to the standard's printed 263.1905, -76.3232, -19.9429.
+    """
+    t7, t9, slope, span = 186.8673, 240.0, 12.0, 19.0
+    rise = t9 - t7
+    # slope span s = rise (1 + s)
+    s = rise / (slope * span - rise)
+    a_t = -rise / (1.0 - s)
+    a_z = -span / math.sqrt(1.0 - s * s)
+    return t7 - a_t, a_t, a_z
+
+
+ELLIPSE_TC, ELLIPSE_A, ELLIPSE_AZ = _ellipse()
+
+
 def temperature(z):
     """Kinetic temperature T (K) and dT/dZ (K/m) at geometric altitude z (m)."""
     zk = z / 1000.0
     if zk <= 91.0:
         return 186.8673, 0.0
     if zk <= 110.0:
-        tc, a_t, a_z = 263.1905, -76.3232, -19.9429
+        tc, a_t, a_z = ELLIPSE_TC, ELLIPSE_A, ELLIPSE_AZ
         x = (zk - 91.0) / a_z
         s = math.sqrt(1.0 - x * x)
         return tc + a_t * s, -(a_t / a_z) * x / s / 1000.0
