@@ -15,9 +15,9 @@
 //!   pressure scale height stays under 300 km), some 10^4 ulps, far above the rounding
 //!   of the interpolant (about 1e-14); closer than that (down to one ulp of altitude)
 //!   the change is below rounding and is not tested. A step at a join of more than
-//!   3e-12 relative shows as a rise here. One step is the standard's own and stays:
-//!   hydrogen begins at 150 km (n_H/N = 7.3e-6 there), so across 150 km the other five
-//!   species' p, rho and N are the ones that must fall (see `falls`).
+//!   3e-12 relative shows as a rise here. No join is exempt: hydrogen, which the standard
+//!   lists from 150 km up only, is carried below as its equation's continuation, so it no
+//!   longer appears at once there (it used to add 7.26e-6 to p and N at 150 km).
 
 #![cfg(feature = "upper")]
 
@@ -46,28 +46,17 @@ fn run_ends() -> Vec<f64> {
 }
 
 /// Pressure, density and total number density at `z_m`: the quantities that must fall.
-/// With `without_hydrogen`, less hydrogen's share (see [`falls`]).
-fn bulk(z_m: f64, without_hydrogen: bool) -> [f64; 3] {
+fn bulk(z_m: f64) -> [f64; 3] {
     let s = standard_at(z_m);
-    let mut out = [s.pressure_pa, s.density_kg_m3, s.number_density_m3];
-    if without_hydrogen {
-        let n_h = US1976.species(Altitude::geometric_m(z_m).unwrap()).unwrap().h_m3;
-        out[0] -= n_h * BOLTZMANN_J_K * s.temperature_k;
-        out[1] -= n_h * MOLAR_MASS_KG_KMOL[5] / AVOGADRO_PER_KMOL;
-        out[2] -= n_h;
-    }
-    out
+    [s.pressure_pa, s.density_kg_m3, s.number_density_m3]
 }
 
 const BULK_NAMES: [&str; 3] = ["pressure", "density", "number density"];
 
 /// The relative change of p, rho and N from `low` to `high` (low < high), each of which
-/// must be negative. One exception, the standard's: hydrogen is part of it from 150 km up
-/// and is not defined below, so its share appears at once at 150 km (n_H/N = 7.3e-6).
-/// Across 150 km the other five species' p, rho and N are compared instead.
+/// must be negative, at every join alike.
 fn falls(low: f64, high: f64) -> [f64; 3] {
-    let across_hydrogen = low < HYDROGEN_BASE_M && high >= HYDROGEN_BASE_M;
-    let (a, b) = (bulk(low, false), bulk(high, across_hydrogen));
+    let (a, b) = (bulk(low), bulk(high));
     core::array::from_fn(|i| (b[i] - a[i]) / a[i])
 }
 
@@ -157,8 +146,8 @@ proptest! {
     }
 }
 
-/// Each species on the fine grid: N2, O2, Ar and He fall strictly from 86 km up, H from
-/// 150 km (where it begins); atomic oxygen rises to 97 km and falls above it. (The
+/// Each species on the fine grid: N2, O2, Ar, He and H (below 150 km its continuation)
+/// fall strictly from 86 km up; atomic oxygen rises to 97 km and falls above it. (The
 /// standard's O profile peaks at 97 km, where its second flow term, for O below 97 km,
 /// ends: from memory of the standard's number-density table. Here d(ln n_O)/dZ is
 /// 3.3e-10 /m at 97 km and the peak lies 3 cm above it. Within 10 m of the peak O
@@ -174,9 +163,7 @@ fn each_species_falls_except_atomic_oxygen_below_97_km() {
     for (i, pair) in grid.windows(2).enumerate() {
         let (a, b) = (&species[i], &species[i + 1]);
         for s in 0..6 {
-            if s == 5 && pair[0] < HYDROGEN_BASE_M {
-                assert_eq!(a[5], 0.0, "H below 150 km");
-            } else if s == 1 && pair[1] <= OXYGEN_PEAK_M - 10.0 {
+            if s == 1 && pair[1] <= OXYGEN_PEAK_M - 10.0 {
                 assert!(b[1] > a[1], "O falls from {} m to {} m, below 97 km", pair[0], pair[1]);
             } else if s != 1 || pair[0] >= OXYGEN_PEAK_M + 10.0 {
                 assert!(b[s] < a[s], "{} does not fall from {} m to {} m", names[s], pair[0], pair[1]);
@@ -220,9 +207,6 @@ fn interpolant_is_continuous_with_bounded_slope_jumps_at_nodes() {
         let (below, at, above) = (ln_species(z - offset), ln_species(z), ln_species(z + offset));
         let (below2, above2) = (ln_species(z - 2.0 * offset), ln_species(z + 2.0 * offset));
         for s in 0..6 {
-            if s == 5 && z <= 150e3 {
-                continue;
-            }
             // Continuity: the two sides' one-step extrapolations to the node meet it.
             let from_below = below[s] + (below[s] - below2[s]);
             let from_above = above[s] - (above2[s] - above[s]);
@@ -243,39 +227,80 @@ fn interpolant_is_continuous_with_bounded_slope_jumps_at_nodes() {
     assert!(checked > 1000);
 }
 
-/// The join at 86 km is the standard's own: its 86 km species (Part 1, the boundary
-/// values of the diffusion equations) summed with T7 = 186.8673 K give a pressure and a
-/// density above those of its layers at 86 km. Measured here and written in
-/// docs/models.md and docs/validation.md: +1.0789e-5 in p, +8.0559e-6 in rho, +7.989e-6
-/// in N, +5.13e-7 in T. The same sums at 30 digits (mpmath; the layers' values from
-/// tests/reference/usa76_mpmath.py): p 0.373384490250404 Pa against 0.373380461831058 Pa,
-/// rho 6.95787983272346e-6 against 6.95782378133248e-6 kg/m^3.
+/// The join at 86 km. The standard's 86 km species (Part 1, the boundary values of the
+/// diffusion equations) summed with T7 = 186.8673 K give a pressure and a density above
+/// those of its layers at 86 km: +1.0789e-5 in p, +8.0559e-6 in rho, +7.989e-6 in N
+/// (the same sums at 30 digits, mpmath, the layers' values from
+/// tests/reference/usa76_mpmath.py: p 0.373384490250404 Pa against 0.373380461831058 Pa,
+/// rho 6.95787983272346e-6 against 6.95782378133248e-6 kg/m^3). aerostrata adds
+/// hydrogen's continuation, 1.6727e-6 of N at 86 km (the standard lists no hydrogen
+/// below 150 km), so its own step is +1.2462e-5 in p, +8.1141e-6 in rho, +9.662e-6 in N,
+/// -1.548e-6 in M and +5.13e-7 in T: measured here as the core's value at 86 km (the
+/// layers) against its first value above it (the next f64 altitude), and written in
+/// docs/models.md and docs/validation.md.
 #[test]
 fn the_parts_meet_at_86_km_within_the_standards_own_step() {
     let lower = standard_at(86_000.0);
     let upper = standard_at(f64::from_bits(86_000.0f64.to_bits() + 1));
     let jump = |a: f64, b: f64| (b - a) / a;
-    // The upper part's first value is the standard's species sum (1 ulp of altitude
-    // above it, a change far below 1e-13).
+    // The upper part's first value is the species sum at 86 km (1 ulp of altitude above
+    // it, a change far below 1e-13): the standard's five and hydrogen's continuation.
     let n = US1976.species(Altitude::geometric_m(86_000.0).unwrap()).unwrap();
-    for (got, want) in
-        n.as_array().iter().zip([1.129794e20, 8.6e16, 3.030898e19, 1.351400e18, 7.5817e14, 0.0])
-    {
+    for (got, want) in n.as_array().iter().zip([1.129794e20, 8.6e16, 3.030898e19, 1.351400e18, 7.5817e14]) {
         assert!((got - want).abs() <= 1e-12 * want, "{got} vs {want}");
     }
+    let hydrogen_share = n.h_m3 / n.total_m3();
+    assert!((hydrogen_share - 1.6727e-6).abs() < 5e-11, "n_H/N {hydrogen_share:e} at 86 km");
     let sum_p = n.total_m3() * BOLTZMANN_J_K * 186.8673;
     assert!(jump(sum_p, upper.pressure_pa).abs() < 1e-13, "{sum_p} vs {}", upper.pressure_pa);
     assert!(jump(n.density_kg_m3(), upper.density_kg_m3).abs() < 1e-13);
-    // The layers at 86 km against it: the figures the docs quote, to their digits.
+    // The standard's own step: its five species alone against the layers.
+    let standard_n = n.total_m3() - n.h_m3;
+    let standard_rho = n.density_kg_m3() - n.h_m3 * MOLAR_MASS_KG_KMOL[5] / AVOGADRO_PER_KMOL;
+    let p = jump(lower.pressure_pa, standard_n * BOLTZMANN_J_K * 186.8673);
+    assert!((p - 1.0789e-5).abs() < 5e-10, "the standard's p steps by {p:e}");
+    let rho = jump(lower.density_kg_m3, standard_rho);
+    assert!((rho - 8.0559e-6).abs() < 5e-11, "the standard's rho steps by {rho:e}");
+    // aerostrata's step, hydrogen included: the figures the docs quote, to their digits.
     let (p, rho) =
         (jump(lower.pressure_pa, upper.pressure_pa), jump(lower.density_kg_m3, upper.density_kg_m3));
-    assert!((p - 1.0789e-5).abs() < 5e-10, "p jumps by {p:e}");
-    assert!((rho - 8.0559e-6).abs() < 5e-11, "rho jumps by {rho:e}");
+    assert!((p - 1.2462e-5).abs() < 5e-10, "p jumps by {p:e}");
+    assert!((rho - 8.1141e-6).abs() < 5e-11, "rho jumps by {rho:e}");
     let number = jump(lower.number_density_m3, upper.number_density_m3);
-    assert!((number - 7.989e-6).abs() < 5e-10, "N jumps by {number:e}");
+    assert!((number - 9.662e-6).abs() < 5e-10, "N jumps by {number:e}");
     let t = jump(lower.temperature_k, upper.temperature_k);
     assert!((t - 5.13e-7).abs() < 5e-10, "T jumps by {t:e}");
-    assert!(jump(lower.mean_molar_mass_kg_kmol, upper.mean_molar_mass_kg_kmol).abs() < 1e-7);
+    let m = jump(lower.mean_molar_mass_kg_kmol, upper.mean_molar_mass_kg_kmol);
+    assert!((m + 1.548e-6).abs() < 5e-10, "M jumps by {m:e}");
+}
+
+/// Hydrogen at 150 km, where the standard begins it: continuous, because below it
+/// aerostrata carries its equation's continuation (the slope's continuity is checked
+/// with every node's in `interpolant_is_continuous_with_bounded_slope_jumps_at_nodes`).
+/// That continuation is the one departure from the standard's numbers above 86 km: below
+/// 150 km it adds at most 7.27e-6 to N and p (just below 150 km) and 3.04e-7 to rho,
+/// and 1.67e-6 to N at 86 km, falling all the way down.
+#[test]
+fn hydrogen_is_continuous_at_150_km_and_its_continuation_below_is_small() {
+    let at = |z: f64| US1976.species(Altitude::geometric_m(z).unwrap()).unwrap();
+    let base = at(HYDROGEN_BASE_M).h_m3;
+    assert!(base > 0.0);
+    for z in [-1e-3, -1e-6, 1e-6, 1e-3].map(|d| HYDROGEN_BASE_M + d) {
+        let step = (at(z).h_m3 - base) / base;
+        // d(ln n_H)/dZ is 3e-5 /m here: 1 mm moves n_H by 3e-8.
+        assert!(step.abs() < 5e-8 && (step < 0.0) == (z > HYDROGEN_BASE_M), "n_H steps by {step:e} at {z} m");
+    }
+    let (mut share_n, mut share_rho) = (0.0f64, 0.0f64);
+    let mut previous = f64::INFINITY;
+    for z in fine_grid().into_iter().filter(|z| *z <= HYDROGEN_BASE_M) {
+        let n = at(z);
+        assert!(n.h_m3 > 0.0 && n.h_m3 < previous, "n_H {} at {z} m", n.h_m3);
+        previous = n.h_m3;
+        share_n = share_n.max(n.h_m3 / n.total_m3());
+        share_rho = share_rho.max(n.h_m3 * MOLAR_MASS_KG_KMOL[5] / AVOGADRO_PER_KMOL / n.density_kg_m3());
+    }
+    assert!(share_n > 7.2e-6 && share_n < 7.27e-6, "n_H/N at most {share_n:e} below 150 km");
+    assert!(share_rho > 3.0e-7 && share_rho < 3.04e-7, "n_H m_H/rho at most {share_rho:e} below 150 km");
 }
 
 #[test]

@@ -8,7 +8,8 @@
 //! stored as ln n and d(ln n)/dZ at nodes; here each ln n is a piecewise cubic Hermite
 //! interpolant through those values and slopes, within 1e-6 relative of the generator's
 //! own integration everywhere (proved by a test of the generator). No integration at run
-//! time.
+//! time. One departure from the standard: hydrogen, which it gives from 150 km up only,
+//! is continued below by its own equation ([`HYDROGEN_BASE_M`]).
 
 mod segment;
 mod upper_table;
@@ -33,7 +34,10 @@ pub const RANGE: AltitudeRange = AltitudeRange::from_geometric(BASE_M, TOP_M);
 /// Molecular weights of N2, O, O2, Ar, He, H, kg/kmol (the standard's values).
 pub const MOLAR_MASS_KG_KMOL: [f64; 6] = [28.0134, 15.9994, 31.9988, 39.948, 4.0026, 1.00797];
 
-/// Hydrogen is part of the standard from 150 km up; below it is taken as zero.
+/// Hydrogen is part of the standard from 150 km up. Below, the standard lists none;
+/// aerostrata carries the continuation of the standard's hydrogen equation down to 86 km
+/// (at most 7.3e-6 of N, just below 150 km; 1.7e-6 at 86 km), so that n_H, and with it
+/// p, rho and N, are continuous at 150 km.
 pub const HYDROGEN_BASE_M: f64 = 150_000.0;
 
 // Temperature segments (the standard's constants, Part 1).
@@ -74,7 +78,8 @@ pub struct Species {
     pub ar_m3: f64,
     /// Helium.
     pub he_m3: f64,
-    /// Atomic hydrogen (zero below 150 km).
+    /// Atomic hydrogen (below 150 km, where the standard lists none, the continuation
+    /// of its equation; see [`HYDROGEN_BASE_M`]).
     pub h_m3: f64,
 }
 
@@ -185,14 +190,13 @@ pub(crate) fn species(z_m: f64) -> Species {
     let step = segment.step_m;
     let ln_n =
         |i: usize| h00 * y0[i] + h01 * y1[i] + step * (h10 * f64::from(d0[i]) + h11 * f64::from(d1[i]));
-    let hydrogen = if z_m >= HYDROGEN_BASE_M { exp(ln_n(5)) } else { 0.0 };
     Species {
         n2_m3: exp(ln_n(0)),
         o_m3: exp(ln_n(1)),
         o2_m3: exp(ln_n(2)),
         ar_m3: exp(ln_n(3)),
         he_m3: exp(ln_n(4)),
-        h_m3: hydrogen,
+        h_m3: exp(ln_n(5)),
     }
 }
 
