@@ -574,7 +574,7 @@ enum AerostrataQuantity
    */
   AEROSTRATA_QUANTITY_N_HE = 24,
   /**
-   * H number density, 1/m3 (H): atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
+   * H number density, 1/m3 (H): atoms of hydrogen per volume, above 86 km (below 150 km a continuation).
    */
   AEROSTRATA_QUANTITY_N_H = 25,
   /**
@@ -1420,7 +1420,7 @@ typedef struct AerostrataSpecies {
    */
   double he_m3;
   /**
-   * H number density, 1/m3: atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
+   * H number density, 1/m3: atoms of hydrogen per volume, above 86 km (below 150 km a continuation).
    */
   double h_m3;
 } AerostrataSpecies;
