@@ -23,7 +23,7 @@ import { fileURLToPath } from "node:url";
 
 import { chromium } from "playwright-core";
 
-import { coarseCorner, inFeet, longFlight, noise, oversized, rowsOf, vectorFlight } from "./files.mjs";
+import { coarseCorner, inFeet, longFlight, noise, oversized, pathFlight, rowsOf, vectorFlight } from "./files.mjs";
 
 const [url, shots, vectors] = process.argv.slice(2);
 if (!url || !shots || !vectors) {
@@ -299,6 +299,27 @@ try {
   await page.fill("#flight-wind-speed", "");
   await page.fill("#flight-wind-direction", "");
 
+  // 10c'. The same boost as speed, flight-path angle and heading with the axis a degree
+  // above the path, and no wind: the page's q-alpha is the module's for the same columns,
+  // and about q times 1 degree (hand-worked: the axis and the velocity lie in one vertical
+  // plane, 86 - 85 = 1 degree apart).
+  const path = pathFlight();
+  const { ignored: pathIgnored, ...pathSamples } = aerostrata.readFlightCsv(path);
+  check(pathIgnored.length === 0 && pathSamples.headingDeg !== undefined && pathSamples.axisElevationDeg !== undefined, "the path flight is read as speed, path, heading and axis");
+  const pathScan = standard.scanFlight({ ...pathSamples, vehicle });
+  await page.setInputFiles("#flight-file", upload("path-axis.csv", Buffer.from(path)));
+  await flightDone();
+  const pathQAlpha = await flightValue("maxQAlphaPaDeg");
+  check(Object.is(pathQAlpha, pathScan.summary.maxQAlpha.value), `max q-alpha of the path file: page ${pathQAlpha}, module ${pathScan.summary.maxQAlpha.value}`);
+  const pathQ = pathScan.points.dynamicPressurePa[pathScan.summary.maxQAlpha.sampleIndex];
+  check(Math.abs(pathQAlpha - pathQ) <= 1e-9 * pathQ, `q-alpha at a 1 degree angle of attack ${pathQAlpha}, q there ${pathQ}`);
+  // In US units the page shows the catalogue's psf deg, converted by the module.
+  await page.check('input[name="units"][value="us"]');
+  const usText = await page.textContent('#flight-summary [data-quantity="maxQAlphaPaDeg"] + dd.u');
+  const usValue = await page.textContent('#flight-summary [data-quantity="maxQAlphaPaDeg"]');
+  check(usText === "psf·deg" && usValue === String(Number(aerostrata.toUs("q_alpha", pathQAlpha).toPrecision(6))), `q-alpha in US units: "${usValue} ${usText}"`);
+  await page.check('input[name="units"][value="si"]');
+
   // 10d. A coarsely sampled flight with a corner: the maximum q is bounded but not
   // resolved, and the page advises the module's spacing.
   const coarse = coarseCorner();
@@ -387,6 +408,7 @@ try {
   check((await page.evaluate(() => document.body.dataset.flight)) === "done", `the million samples scanned: "${await flightMessage()}"`);
   const longQ = await flightValue("maxDynamicPressurePa");
   check(Object.is(longQ, longScan.summary.maxDynamicPressure.dynamicPressurePa), `max q of a million samples: page ${longQ}, module ${longScan.summary.maxDynamicPressure.dynamicPressurePa}`);
+  check(longScan.summary.machUndefinedSamples > 0 && Object.is(await flightValue("machUndefinedSamples"), longScan.summary.machUndefinedSamples), `samples without a Mach number (above 86 km): page ${await flightValue("machUndefinedSamples")}, module ${longScan.summary.machUndefinedSamples}`);
   check(Object.is(await flightValue("samples"), 1_000_000), "a million samples counted");
   check(await page.isVisible('[data-marker="max-q"]'), "the maximum q of a million samples is marked");
   const qPath = await page.$eval('#flight-chart [data-series="dynamicPressurePa"]', (p) => ({ points: Number(p.dataset.points), highest: Number(p.dataset.highest), d: p.getAttribute("d") }));

@@ -1,5 +1,6 @@
 // Files the browser test uploads, written by the test itself: the demo flight in feet,
-// a flight with the velocity's direction, a coarsely sampled flight with a corner,
+// a flight with the velocity's direction (as components, and as a path with the axis),
+// a coarsely sampled flight with a corner,
 // a long synthetic flight, bytes that are no text at all, and a file above the page's
 // upload limit. Invented data throughout.
 
@@ -105,6 +106,22 @@ export function coarseCorner() {
       for (let k = 1; k < mid.length; k++) z += ((speed(mid[k - 1]) + speed(mid[k])) / 2) * (mid[k] - mid[k - 1]) * climb;
     }
     lines.push(`${t},${z.toFixed(3)},${speed(t)}`);
+  }
+  lines.push("");
+  return lines.join("\n");
+}
+
+/**
+ * The same invented boost as `vectorFlight`, written as speed, flight-path angle (85
+ * degrees) and heading (90, east), with the vehicle's axis a degree steeper than the
+ * path (86 degrees, toward the east): a q-alpha without any wind.
+ */
+export function pathFlight() {
+  const lines = ["time (s),altitude (m),velocity (m/s),flight_path_angle (deg),heading (deg),axis_elevation (deg),axis_azimuth (deg)"];
+  for (const line of vectorFlight().split("\n").slice(1)) {
+    if (line === "") continue;
+    const [t, z, east, , up] = line.split(",").map(Number);
+    lines.push(`${t},${z},${Math.hypot(east, up).toFixed(4)},85,90,86,90`);
   }
   lines.push("");
   return lines.join("\n");
