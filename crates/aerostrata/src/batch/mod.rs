@@ -157,21 +157,22 @@ pub fn evaluate<A: Atmosphere + ?Sized>(
     outputs: &mut [&mut [f64]],
 ) -> Result<(), BatchError> {
     check_request(altitudes_m.len(), quantities, outputs)?;
-    run(altitudes_m, quantities, outputs, 0, |meters| {
+    run(altitudes_m, quantities, outputs, 0, |meters, slot| {
         let altitude = kind.altitude(meters)?;
-        model.air(altitude).map(|air| (altitude, air))
+        *slot = (altitude, model.air(altitude)?);
+        Ok(())
     })
 }
 
-/// The block loop behind every batch, on a checked request: `air` gives the altitude and
-/// air of one input (or the scalar path's error); `offset` is the index of the first
+/// The block loop behind every batch, on a checked request: `air` writes the altitude and
+/// air of one input into its slot (or gives the scalar path's error); `offset` is the index of the first
 /// input in the caller's whole batch (the parallel chunks), for the error's index.
 pub(crate) fn run(
     altitudes_m: &[f64],
     quantities: &[Quantity],
     outputs: &mut [&mut [f64]],
     offset: usize,
-    mut air: impl FnMut(f64) -> Result<(Altitude, Air), Error>,
+    mut air: impl FnMut(f64, &mut (Altitude, Air)) -> Result<(), Error>,
 ) -> Result<(), BatchError> {
     // Sea level is a valid altitude, so the `else` never runs; it keeps the function
     // free of any panic.
@@ -184,13 +185,11 @@ pub(crate) fn run(
         let mut failure = None;
         let mut filled = inputs.len();
         for (j, (&meters, slot)) in inputs.iter().zip(block.iter_mut()).enumerate() {
-            match air(meters) {
-                Ok(pair) => *slot = pair,
-                Err(error) => {
-                    failure = Some((j, error));
-                    filled = j;
-                    break;
-                }
+            // Written in place: the pair is 64 bytes, the error beside it more.
+            if let Err(error) = air(meters, slot) {
+                failure = Some((j, error));
+                filled = j;
+                break;
             }
         }
         // A continuum property asked of rarefied air fails before any air error after it.

@@ -44,12 +44,13 @@ impl Cursor {
         self.layer.temperature_pressure(h_m)
     }
 
-    #[cold]
+    #[inline]
     fn seek(&mut self, h_m: f64) {
         // The number of bases above the first at or below h: the scalar path's
         // `partition_point(base <= h) - 1` (or 0) for strictly increasing bases, without
         // the search's branches, which random altitudes mispredict.
-        let index = self.layers.iter().skip(1).filter(|layer| layer.base_geopotential_m <= h_m).count();
+        let index: usize =
+            self.layers.iter().skip(1).map(|layer| usize::from(layer.base_geopotential_m <= h_m)).sum();
         if let Some(layer) = self.layers.get(index) {
             self.layer = *layer;
         }
@@ -71,7 +72,7 @@ pub(crate) fn run_standard(
     let Some(mut cursor) = Cursor::new(US1976.layers()) else {
         return super::evaluate(&US1976, kind, altitudes_m, quantities, outputs);
     };
-    run(altitudes_m, quantities, outputs, offset, |meters| -> Result<(Altitude, Air), Error> {
+    run(altitudes_m, quantities, outputs, offset, |meters, slot: &mut (Altitude, Air)| -> Result<(), Error> {
         let altitude = kind.altitude(meters)?;
         let h = altitude.geopotential().meters();
         // In the standard's range (checked in the kind the caller gave, as the scalar
@@ -82,10 +83,11 @@ pub(crate) fn run_standard(
         };
         if above_bottom && h <= LAYERS_ALONE_TOP_GEOPOTENTIAL_M {
             let (temperature_k, pressure_pa) = cursor.temperature_pressure(h);
-            Ok((altitude, Air::trusted(temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL)))
+            *slot = (altitude, Air::trusted(temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL));
         } else {
-            US1976.air(altitude).map(|air| (altitude, air))
+            *slot = (altitude, US1976.air(altitude)?);
         }
+        Ok(())
     })
 }
 
