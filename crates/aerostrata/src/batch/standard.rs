@@ -99,7 +99,7 @@ impl Us1976 {
     /// Only the quantities asked are computed (density needs temperature and pressure,
     /// not the viscosity), and the layer search is skipped while successive altitudes
     /// stay in one layer, which sorted or nearly sorted altitudes (a flight) do. With the
-    /// `rayon` feature, [`Us1976::batch_parallel`] shares a large batch among threads.
+    /// `rayon` feature, `Us1976::batch_parallel` shares a large batch among threads.
     ///
     /// ```
     /// use aerostrata::{AltitudeKind, Altitude, Atmosphere, Quantity, US1976};
