@@ -15,7 +15,7 @@ use std::path::Path;
 
 use crate::machine::{load_average, load_text, Machine};
 use crate::process::Cmd;
-use crate::report::Section;
+use crate::report::BATCH;
 use crate::target_dir;
 
 /// Altitudes in the batch (fixed by crates/aerostrata/benches/batch.rs).
@@ -30,12 +30,6 @@ const GOAL_PARALLEL: f64 = 1.8;
 
 const REPORT: &str = "docs/performance.md";
 const SCRIPT: &str = "crates/aerostrata/benches/numpy_baseline.py";
-
-/// The section this command writes.
-pub const BATCH: Section = Section {
-    begin: "<!-- batch-bench: begin (written by `cargo xtask batch-bench`) -->",
-    end: "<!-- batch-bench: end -->",
-};
 
 /// One side's figures over all rounds.
 #[derive(Default)]
