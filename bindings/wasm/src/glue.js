@@ -356,8 +356,8 @@ export function guardFreed(instance, className, what, stateKeys) {
   instance.free();
 }
 
-// Altitudes per chunk of `batchInto`: the module then holds at most 128 KiB of altitudes
-// and 20 x 128 KiB of values at once, whatever the batch's length.
+// Altitudes per chunk of `batchInto`: the module then holds 128 KiB of altitudes and at
+// most 20 x 128 KiB of values at once, whatever the batch's length.
 const CHUNK = 16384;
 
 // `AtmosphereModel.batchInto(altitudesM, outputs, altitudeKind?)`: `batch` chunk by

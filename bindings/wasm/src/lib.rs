@@ -165,7 +165,7 @@ export interface AtmosphereModel {
    * `altitudesM.length` elements each; returns `outputs`.
    *
    * Memory: the caller's arrays (8 bytes per value) and, inside the module, one chunk of
-   * 16 384 altitudes at a time (at most 2.6 MiB with all 20 quantities), where `batch`
+   * 16 384 altitudes at a time (2.6 MiB of data with all 20 quantities), where `batch`
    * holds every value twice. Not all or nothing: the first bad altitude throws as in
    * `batch` (naming its index in the whole array), and elements before it may already
    * have been written.
