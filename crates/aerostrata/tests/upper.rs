@@ -140,9 +140,15 @@ proptest! {
 
     #[test]
     fn temperature_is_monotone_above_91_km(z in 91_000.0..999_000.0f64, gap in 1.0..1000.0f64) {
-        let (t0, dt0) = temperature(z);
-        let (t1, _) = temperature(z + gap);
+        let (t0, dt0) = temperature(z).unwrap();
+        let (t1, _) = temperature(z + gap).unwrap();
         prop_assert!(t1 > t0 && dt0 > 0.0);
+    }
+
+    /// Outside 86 to 1000 km, or not a number: an error, never a NaN.
+    #[test]
+    fn temperature_outside_its_band_is_an_error(z in prop_oneof![-1e7..85_999.0f64, 1_000_001.0..1e9f64]) {
+        prop_assert!(temperature(z).is_err());
     }
 }
 
@@ -181,9 +187,10 @@ fn each_species_falls_except_atomic_oxygen_below_97_km() {
 #[test]
 fn temperature_and_its_gradient_are_continuous_at_its_joins() {
     for z in [91e3, 110e3, 120e3f64] {
-        let (below, slope_below) = temperature(f64::from_bits(z.to_bits() - 1));
-        let (at, slope_at) = temperature(z);
-        let (above, slope_above) = temperature(f64::from_bits(z.to_bits() + 1));
+        let (below, slope_below) = temperature(f64::from_bits(z.to_bits() - 1)).unwrap();
+        let (at, slope_at) = temperature(z).unwrap();
+        let (above, slope_above) = temperature(f64::from_bits(z.to_bits() + 1)).unwrap();
+        assert!(temperature(f64::NAN).is_err());
         for t in [below, above] {
             assert!(((t - at) / at).abs() < 1e-14, "T jumps at {z} m: {below} {at} {above}");
         }

@@ -121,6 +121,12 @@ fn flow(species: usize, z_m: f64, regime_z_m: f64) -> f64 {
     per_km / 1000.0
 }
 
+/// The core's temperature profile at an altitude of the integration, 86 to 1000 km (the
+/// integration never steps outside it; NaN would show in the table's check if it did).
+fn temperature_at(z_m: f64) -> (f64, f64) {
+    temperature(z_m).unwrap_or((f64::NAN, f64::NAN))
+}
+
 fn gravity(z_m: f64) -> f64 {
     let ratio = EARTH_RADIUS_M / (EARTH_RADIUS_M + z_m);
     G0_M_S2 * ratio * ratio
@@ -129,7 +135,7 @@ fn gravity(z_m: f64) -> f64 {
 /// d(ln n)/dZ of N2, O, O2, Ar, He at `z_m`, with the coefficient forms of the piece
 /// containing `regime_z_m` (which settles the side at a break).
 fn rhs(z_m: f64, y: &[f64; 5], regime_z_m: f64) -> [f64; 5] {
-    let (t, dt_dz) = temperature(z_m);
+    let (t, dt_dz) = temperature_at(z_m);
     let g = gravity(z_m);
     let mb = background_molar_mass(regime_z_m);
     let k = eddy(z_m, regime_z_m);
@@ -162,7 +168,7 @@ fn rhs(z_m: f64, y: &[f64; 5], regime_z_m: f64) -> [f64; 5] {
 /// flux term, both positive, so n_H stays positive and smooth, and its share of N falls
 /// from 7.3e-6 at 150 km to 1.7e-6 at 86 km.
 fn hydrogen_rhs(z_m: f64, n_h: f64, total: f64, regime_z_m: f64) -> f64 {
-    let (t, dt_dz) = temperature(z_m);
+    let (t, dt_dz) = temperature_at(z_m);
     let d = DIFFUSION_A[4] / total * libm::pow(t / 273.15, DIFFUSION_B[4]);
     let k = eddy(z_m, regime_z_m);
     let share = d / (d + k);

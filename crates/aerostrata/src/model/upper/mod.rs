@@ -130,7 +130,7 @@ impl Species {
 }
 
 /// Kinetic temperature (K) and its gradient dT/dZ (K/m) at geometric altitude `z_m`,
-/// for 86 km <= Z <= 1000 km (the caller checks).
+/// 86 km <= Z <= 1000 km.
 ///
 /// ```text
 /// 86-91 km     T = 186.8673
@@ -144,7 +144,16 @@ impl Species {
 /// at full precision; the standard prints them rounded (263.1905, -76.3232, -19.9429 km),
 /// which would leave T 2.7e-4 K short of 240 K at 110 km. T and dT/dZ are continuous at
 /// every join.
-pub fn temperature(z_m: f64) -> (f64, f64) {
+///
+/// # Errors
+/// [`Error::NotFinite`] or [`Error::OutOfRange`] for an altitude outside [`BASE_M`] to
+/// [`TOP_M`].
+pub fn temperature(z_m: f64) -> Result<(f64, f64)> {
+    Ok(temperature_within(crate::error::within("geometric altitude", "m", z_m, BASE_M, TOP_M)?))
+}
+
+/// [`temperature`] at an altitude the caller has checked.
+pub(crate) fn temperature_within(z_m: f64) -> (f64, f64) {
     if z_m <= Z8_M {
         (T7_K, 0.0)
     } else if z_m <= Z9_M {
@@ -202,7 +211,7 @@ pub(crate) fn species(z_m: f64) -> Species {
 
 /// The air at `z_m`, 86 km < Z <= 1000 km (the caller checks).
 pub(crate) fn air(z_m: f64) -> Result<Air> {
-    let (temperature_k, _) = temperature(z_m);
+    let (temperature_k, _) = temperature_within(z_m);
     let species = species(z_m);
     Air::from_number_density(temperature_k, species.total_m3(), species.density_kg_m3())
 }
