@@ -14,7 +14,7 @@ use aerostrata::units::Unit;
 use aerostrata::Quantity;
 
 use crate::failure::Failure;
-use crate::input::lines::DataLines;
+use crate::input::lines::{quoted, DataLines};
 use crate::units::UnitSystem;
 
 /// A header's check: `Err` with what the command misses.
@@ -108,7 +108,10 @@ impl<R: BufRead> TableReader<R> {
     /// of the wrong width, a cell that is not a number of its column's quantity.
     pub fn next_row(&mut self) -> Result<Option<Row<'_>>, Failure> {
         loop {
-            let Some((number, text)) = self.lines.next_line()? else { return Ok(None) };
+            let source = &self.source;
+            let Some((number, text)) = self.lines.next_line().map_err(|e| e.within(source))? else {
+                return Ok(None);
+            };
             self.line = number;
             let text = text.to_owned();
             if self.header.is_none() {
@@ -140,8 +143,8 @@ impl<R: BufRead> TableReader<R> {
         if header.ignored().count() == header.count() {
             let names: Vec<&str> = accepts.iter().map(|q| q.name()).collect();
             return Err(self.at_line(format!(
-                "'{}' is neither a row of numbers nor a header naming {}",
-                aerostrata::units::shorten(text, 40).0,
+                "{} is neither a row of numbers nor a header naming {}",
+                quoted(text),
                 names.join(", ")
             )));
         }
@@ -249,7 +252,10 @@ pub fn needs(header: &Header, groups: &[&[Quantity]]) -> Result<(), String> {
                     names[0]
                 ))
             }
-            _ => return Err(format!("the header has columns {}: keep one", names.join(" and "))),
+            _ => {
+                let present: Vec<&str> = present.iter().map(|q| q.name()).collect();
+                return Err(format!("the header has columns {}: keep one", present.join(" and ")));
+            }
         }
     }
     Ok(())
