@@ -46,6 +46,8 @@ pub struct TableReader<R> {
     implicit: bool,
     values: Vec<Option<f64>>,
     line: usize,
+    /// The last line's text (a buffer reused from line to line).
+    text: String,
 }
 
 impl<R: BufRead> TableReader<R> {
@@ -62,6 +64,7 @@ impl<R: BufRead> TableReader<R> {
             implicit: false,
             values: Vec::new(),
             line: 0,
+            text: String::new(),
         }
     }
 
@@ -109,17 +112,21 @@ impl<R: BufRead> TableReader<R> {
     pub fn next_row(&mut self) -> Result<Option<Row<'_>>, Failure> {
         loop {
             let source = &self.source;
-            let Some((number, text)) = self.lines.next_line().map_err(|e| e.within(source))? else {
+            let Some((number, line)) = self.lines.next_line().map_err(|e| e.within(source))? else {
                 return Ok(None);
             };
+            // Copied into a buffer reused from line to line (the borrow of `lines` ends here).
+            let mut text = std::mem::take(&mut self.text);
+            text.clear();
+            text.push_str(line);
             self.line = number;
-            let text = text.to_owned();
             if self.header.is_none() {
                 // `NaN` and `inf` start like words, but mean to be numbers: a row.
                 let numbers = table::cells(&text, table::delimiter_of(table::clean(&text)))
                     .all(|c| c.parse::<f64>().is_ok());
                 if table::is_header(&text) && !numbers {
                     self.read_header(&text)?;
+                    self.text = text;
                     continue;
                 }
                 self.implicit_header(&text)?;
@@ -127,9 +134,12 @@ impl<R: BufRead> TableReader<R> {
             let Some(header) = &self.header else { return Ok(None) };
             self.values.clear();
             self.values.resize(header.count(), None);
-            if let Err(error) = header.read_row(&text, &mut self.values) {
-                return Err(self.cell_error(&error));
+            let failure = header.read_row(&text, &mut self.values).err().map(|e| self.cell_error(&e));
+            self.text = text;
+            if let Some(failure) = failure {
+                return Err(failure);
             }
+            let Some(header) = &self.header else { return Ok(None) };
             return Ok(Some(Row { header, values: &self.values }));
         }
     }
