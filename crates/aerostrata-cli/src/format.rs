@@ -27,7 +27,26 @@ pub fn write_exact(out: &mut Vec<u8>, value: f64) {
         return;
     }
     let mut buffer = ryu::Buffer::new();
-    let (mut digits, mut count, mut point) = shortest(buffer.format_finite(magnitude));
+    let text = buffer.format_finite(magnitude);
+    if (1e-3..1e7).contains(&magnitude) {
+        // Here Ryu's text is std's but for an integer's `.0`; and no tie is possible (a tie
+        // of 16 or 17 digits has at most 5 decimals, so lies above 1e10: `is_midpoint`).
+        if value < 0.0 {
+            out.push(b'-');
+        }
+        let text = text.strip_suffix(".0").unwrap_or(text);
+        out.extend_from_slice(text.as_bytes());
+        return;
+    }
+    if magnitude < 1e10 && text.contains('e') {
+        // Ryu's exponent form (below 1e-5 here) is std's `{:e}`, and no tie is possible.
+        if value < 0.0 {
+            out.push(b'-');
+        }
+        out.extend_from_slice(text.as_bytes());
+        return;
+    }
+    let (mut digits, mut count, mut point) = shortest(text);
     // Ryu breaks a tie between two shortest candidates to the even one, std upwards
     // (233115890514796.125 is ...612 to Ryu, ...613 to std): std's text is kept.
     // A tie needs 16 or 17 digits (shorter candidates are too far apart to both read
@@ -93,15 +112,15 @@ fn is_midpoint(value: f64, digits: &[u8], point: i32) -> bool {
     let fraction = bits & ((1 << 52) - 1);
     let (m, q) =
         if exponent_bits == 0 { (fraction, -1074) } else { (fraction | 1 << 52, exponent_bits - 1075) };
-    let mut n: u128 = 0;
-    for d in digits.iter().chain(b"5") {
-        n = n * 10 + u128::from(d - b'0');
-    }
     let j = point - digits.len() as i32 - 1;
     // m 2^q = N 10^j with N below 2^64 and m at least 2^52 (or a subnormal, far below any
     // 17-digit tie) needs 5^-j <= 2^12 or 5^j dividing m < 2^53: j in -5..=22.
     if !(-5..=22).contains(&j) {
         return false;
+    }
+    let mut n: u128 = 0;
+    for d in digits.iter().chain(b"5") {
+        n = n * 10 + u128::from(d - b'0');
     }
     let scaled = |base: u128, twos: i32, fives: i32| -> Option<u128> {
         let mut x = base.checked_mul(5u128.checked_pow(fives.max(0).try_into().ok()?)?)?;
@@ -120,7 +139,7 @@ fn is_midpoint(value: f64, digits: &[u8], point: i32) -> bool {
 }
 
 /// DIGITS plus one in the last place (a carry may add a digit, moving the point).
-fn round_up(digits: &mut [u8; 20], count: usize, point: i32) -> (usize, i32) {
+fn round_up(digits: &mut [u8; 32], count: usize, point: i32) -> (usize, i32) {
     for i in (0..count).rev() {
         if digits[i] == b'9' {
             digits[i] = b'0';
@@ -140,37 +159,36 @@ fn round_up(digits: &mut [u8; 20], count: usize, point: i32) -> (usize, i32) {
 /// The significant digits of a positive number's shortest text (`1.25e-7`, `123.0`,
 /// `0.001`, as `ryu` writes it), leading and trailing zeros dropped, with their count
 /// and the decimal point's place: the number is 0.DIGITS x 10^point.
-fn shortest(text: &str) -> ([u8; 20], usize, i32) {
-    let (mantissa, exponent) = match text.split_once(['e', 'E']) {
-        Some((m, e)) => (m, e.trim_start_matches('+').parse::<i32>().unwrap_or(0)),
-        None => (text, 0),
-    };
-    let mut digits = [0u8; 20];
-    let mut count = 0;
-    // Digits before the point, less leading zeros, set the point.
-    let mut point = exponent;
-    let mut seen_point = false;
-    for b in mantissa.bytes() {
-        match b {
-            b'.' => seen_point = true,
-            b'0' if count == 0 && seen_point => point -= 1,
-            b'0' if count == 0 => {}
-            b'0'..=b'9' => {
-                if count < digits.len() {
-                    digits[count] = b;
-                    count += 1;
-                }
-                if !seen_point {
-                    point += 1;
-                }
-            }
-            _ => {}
+fn shortest(text: &str) -> ([u8; 32], usize, i32) {
+    let bytes = text.as_bytes();
+    let (mantissa, exponent) = match bytes.iter().position(|b| *b == b'e' || *b == b'E') {
+        Some(at) => {
+            let (negative, digits) = match &bytes[at + 1..] {
+                [b'-', rest @ ..] => (true, rest),
+                [b'+', rest @ ..] => (false, rest),
+                rest => (false, rest),
+            };
+            let magnitude = digits.iter().fold(0i32, |e, d| e * 10 + i32::from(d.wrapping_sub(b'0')));
+            (&bytes[..at], if negative { -magnitude } else { magnitude })
         }
-    }
+        None => (bytes, 0),
+    };
+    let (whole, fraction): (&[u8], &[u8]) = match mantissa.iter().position(|b| *b == b'.') {
+        Some(at) => (&mantissa[..at], &mantissa[at + 1..]),
+        None => (mantissa, &[]),
+    };
+    let mut digits = [0u8; 32];
+    let count = (whole.len() + fraction.len()).min(digits.len());
+    let split = whole.len().min(count);
+    digits[..split].copy_from_slice(&whole[..split]);
+    digits[split..count].copy_from_slice(&fraction[..count - split]);
+    let lead = digits[..count].iter().take_while(|d| **d == b'0').count().min(count.saturating_sub(1));
+    digits.copy_within(lead..count, 0);
+    let mut count = count - lead;
     while count > 1 && digits[count - 1] == b'0' {
         count -= 1;
     }
-    (digits, count, point)
+    (digits, count, whole.len() as i32 + exponent - lead as i32)
 }
 
 /// `value` rounded as the catalogue says for people (CSV and JSON are always exact).
