@@ -1,4 +1,4 @@
-//! docs/performance.md is written by several commands (`bench`, `wasm-bench`, `icount`, `batch-bench`),
+//! docs/performance.md is written by several commands (`bench`, `wasm-bench`, `icount`, `batch-bench`, `cli-bench`),
 //! each owning one section between a pair of HTML comment markers; a command rewrites its
 //! own section and keeps the others.
 
@@ -27,8 +27,14 @@ pub const BATCH: Section = Section {
     end: "<!-- batch-bench: end -->",
 };
 
+/// The section `cli-bench` writes.
+pub const CLI: Section = Section {
+    begin: "<!-- cli-bench: begin (written by `cargo xtask cli-bench`) -->",
+    end: "<!-- cli-bench: end -->",
+};
+
 /// Every section another command owns, in the order they follow `bench`'s text.
-pub const KEPT: [Section; 3] = [ICOUNT, WASM, BATCH];
+pub const KEPT: [Section; 4] = [ICOUNT, WASM, BATCH, CLI];
 
 impl Section {
     /// Replaces this section of `report` with `text` (markers included), or appends it.

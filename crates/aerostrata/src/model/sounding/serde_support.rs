@@ -59,6 +59,11 @@ mod owned {
                     while let Some(row) = seq.next_element_seed(RowSeed { before: &rows })? {
                         rows.push(row);
                     }
+                    // Here, not in the table's constructor, so that the error carries the
+                    // line of the list's end.
+                    if rows.len() < 2 {
+                        return Err(A::Error::custom(crate::Error::TooFewRows { count: rows.len() }));
+                    }
                     Ok(CheckedRows(rows))
                 }
             }
@@ -129,26 +134,82 @@ mod owned {
         }
     }
 
-    #[derive(serde::Deserialize)]
-    #[serde(deny_unknown_fields)]
-    struct Parts {
-        altitude: AltitudeKind,
-        rows: CheckedRows,
-        #[serde(default)]
-        below: OutsideTable,
-        #[serde(default)]
-        above: OutsideTable,
+    /// The fields of a table.
+    #[derive(Clone, Copy, serde::Deserialize)]
+    #[serde(field_identifier, rename_all = "snake_case")]
+    enum Part {
+        Altitude,
+        Rows,
+        Below,
+        Above,
+    }
+
+    const PARTS: [&str; 4] = ["altitude", "rows", "below", "above"];
+
+    /// A table built as soon as its kind and rows are read, and each side set as soon
+    /// as it is read and the table is there, so that an error across rows or in a side
+    /// carries the line where it was read.
+    struct TableVisitor;
+
+    impl<'de> Visitor<'de> for TableVisitor {
+        type Value = Tabulated<Vec<SoundingLevel>>;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("a sounding: altitude, rows, and optionally below and above")
+        }
+        fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Self::Value, A::Error> {
+            let mut kind: Option<AltitudeKind> = None;
+            let mut rows: Option<Vec<SoundingRow>> = None;
+            let mut sides: [Option<OutsideTable>; 2] = [None, None];
+            let mut table: Option<Tabulated<Vec<SoundingLevel>>> = None;
+            let mut seen = [false; 4];
+            while let Some(part) = map.next_key::<Part>()? {
+                let slot = part as usize;
+                if core::mem::replace(&mut seen[slot], true) {
+                    return Err(A::Error::duplicate_field(PARTS[slot]));
+                }
+                match part {
+                    Part::Altitude => kind = Some(map.next_value()?),
+                    Part::Rows => rows = Some(map.next_value::<CheckedRows>()?.0),
+                    Part::Below => sides[0] = Some(map.next_value()?),
+                    Part::Above => sides[1] = Some(map.next_value()?),
+                }
+                if let (None, Some(kind), Some(rows)) = (&table, kind, &rows) {
+                    table = Some(Tabulated::from_rows_vec(kind, rows).map_err(A::Error::custom)?);
+                }
+                if let Some(built) = table.take() {
+                    table = Some(with_sides(built, &mut sides).map_err(A::Error::custom)?);
+                }
+            }
+            let kind = kind.ok_or_else(|| A::Error::missing_field(PARTS[0]))?;
+            let rows = rows.ok_or_else(|| A::Error::missing_field(PARTS[1]))?;
+            let built = match table {
+                Some(table) => table,
+                None => Tabulated::from_rows_vec(kind, &rows).map_err(A::Error::custom)?,
+            };
+            with_sides(built, &mut sides).map_err(A::Error::custom)
+        }
+    }
+
+    /// `table` with the sides read so far (each taken once).
+    fn with_sides(
+        table: Tabulated<Vec<SoundingLevel>>,
+        sides: &mut [Option<OutsideTable>; 2],
+    ) -> crate::Result<Tabulated<Vec<SoundingLevel>>> {
+        let table = match sides[0].take() {
+            Some(below) => table.with_below(below)?,
+            None => table,
+        };
+        match sides[1].take() {
+            Some(above) => table.with_above(above),
+            None => Ok(table),
+        }
     }
 
     /// Reads what [`Tabulated`]'s `Serialize` writes, through the constructors'
     /// checks.
     impl<'de> serde::Deserialize<'de> for Tabulated<Vec<SoundingLevel>> {
         fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
-            let parts = Parts::deserialize(deserializer)?;
-            Tabulated::from_rows_vec(parts.altitude, &parts.rows.0)
-                .and_then(|table| table.with_below(parts.below))
-                .and_then(|table| table.with_above(parts.above))
-                .map_err(D::Error::custom)
+            deserializer.deserialize_struct("Tabulated", &PARTS, TableVisitor)
         }
     }
 }
