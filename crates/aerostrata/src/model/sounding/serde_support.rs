@@ -37,6 +37,7 @@ mod owned {
     use serde::de::{DeserializeSeed, Error as _, MapAccess, SeqAccess, Visitor};
 
     use crate::altitude::AltitudeKind;
+    use crate::units::Quoted;
 
     use super::super::interpolate::OutsideTable;
     use super::super::rows::{check_row, SoundingLevel, SoundingRow};
@@ -81,15 +82,77 @@ mod owned {
         "relative_humidity_percent",
     ];
 
-    #[derive(serde::Deserialize)]
-    #[serde(field_identifier, rename_all = "snake_case")]
-    enum Field {
-        AltitudeM,
-        TemperatureK,
-        PressurePa,
-        DensityKgM3,
-        DewPointK,
-        RelativeHumidityPercent,
+    /// A name read as text and matched against `names` (a field, or a unit variant such as
+    /// the kind of altitude): an unknown one is refused with its text escaped and cut
+    /// (serde's own message would quote it whole and raw, control characters included).
+    struct Named<'a> {
+        names: &'a [&'static str],
+        what: &'static str,
+    }
+
+    impl<'de> DeserializeSeed<'de> for Named<'_> {
+        type Value = usize;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<usize, D::Error> {
+            deserializer.deserialize_identifier(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Named<'_> {
+        type Value = usize;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            write!(f, "a {}", self.what)
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<usize, E> {
+            self.names.iter().position(|name| *name == text).ok_or_else(|| {
+                E::custom(format_args!(
+                    "unknown {} {}, expected one of {}",
+                    self.what,
+                    Quoted(text),
+                    self.names.join(", ")
+                ))
+            })
+        }
+        fn visit_bytes<E: serde::de::Error>(self, bytes: &[u8]) -> Result<usize, E> {
+            self.visit_str(&alloc::string::String::from_utf8_lossy(bytes))
+        }
+    }
+
+    /// A number; a string where it belongs is refused with the string escaped and cut.
+    struct Number;
+
+    impl<'de> DeserializeSeed<'de> for Number {
+        type Value = Option<f64>;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<Option<f64>, D::Error> {
+            deserializer.deserialize_option(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Number {
+        type Value = Option<f64>;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("a number or null")
+        }
+        fn visit_none<E: serde::de::Error>(self) -> Result<Option<f64>, E> {
+            Ok(None)
+        }
+        fn visit_unit<E: serde::de::Error>(self) -> Result<Option<f64>, E> {
+            Ok(None)
+        }
+        fn visit_some<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<Option<f64>, D::Error> {
+            deserializer.deserialize_f64(self)
+        }
+        fn visit_f64<E: serde::de::Error>(self, value: f64) -> Result<Option<f64>, E> {
+            Ok(Some(value))
+        }
+        fn visit_i64<E: serde::de::Error>(self, value: i64) -> Result<Option<f64>, E> {
+            Ok(Some(value as f64))
+        }
+        fn visit_u64<E: serde::de::Error>(self, value: u64) -> Result<Option<f64>, E> {
+            Ok(Some(value as f64))
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Option<f64>, E> {
+            Err(E::custom(format_args!("a string {} where a number belongs", Quoted(text))))
+        }
     }
 
     /// One row, read and checked against the rows `before` it.
@@ -112,13 +175,12 @@ mod owned {
         fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<SoundingRow, A::Error> {
             let mut values: [Option<f64>; 6] = [None; 6];
             let mut seen = [false; 6];
-            while let Some(field) = map.next_key::<Field>()? {
-                let slot = field as usize;
+            while let Some(slot) = map.next_key_seed(Named { names: &FIELDS, what: "field" })? {
                 if core::mem::replace(&mut seen[slot], true) {
                     return Err(A::Error::duplicate_field(FIELDS[slot]));
                 }
                 // `null` reads as "not given", as an absent field does.
-                values[slot] = map.next_value::<Option<f64>>()?;
+                values[slot] = map.next_value_seed(Number)?;
             }
             let [altitude, temperature, pressure, density, dew_point, relative_humidity] = values;
             let row = SoundingRow {
@@ -135,8 +197,7 @@ mod owned {
     }
 
     /// The fields of a table.
-    #[derive(Clone, Copy, serde::Deserialize)]
-    #[serde(field_identifier, rename_all = "snake_case")]
+    #[derive(Clone, Copy)]
     enum Part {
         Altitude,
         Rows,
@@ -145,6 +206,7 @@ mod owned {
     }
 
     const PARTS: [&str; 4] = ["altitude", "rows", "below", "above"];
+    const KINDS: [&str; 2] = ["geometric", "geopotential"];
 
     /// A table built as soon as its kind and rows are read, and each side set as soon
     /// as it is read and the table is there, so that an error across rows or in a side
@@ -162,13 +224,16 @@ mod owned {
             let mut sides: [Option<OutsideTable>; 2] = [None, None];
             let mut table: Option<Tabulated<Vec<SoundingLevel>>> = None;
             let mut seen = [false; 4];
-            while let Some(part) = map.next_key::<Part>()? {
-                let slot = part as usize;
+            while let Some(slot) = map.next_key_seed(Named { names: &PARTS, what: "field" })? {
+                let part = [Part::Altitude, Part::Rows, Part::Below, Part::Above][slot];
                 if core::mem::replace(&mut seen[slot], true) {
                     return Err(A::Error::duplicate_field(PARTS[slot]));
                 }
                 match part {
-                    Part::Altitude => kind = Some(map.next_value()?),
+                    Part::Altitude => {
+                        let index = map.next_value_seed(Named { names: &KINDS, what: "kind of altitude" })?;
+                        kind = Some([AltitudeKind::Geometric, AltitudeKind::Geopotential][index]);
+                    }
                     Part::Rows => rows = Some(map.next_value::<CheckedRows>()?.0),
                     Part::Below => sides[0] = Some(map.next_value()?),
                     Part::Above => sides[1] = Some(map.next_value()?),
