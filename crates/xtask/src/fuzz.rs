@@ -50,15 +50,22 @@ pub fn run(root: &Path, seconds: u32) -> Result<(), String> {
     fuzz_all(root, &cargo_fuzz, seconds)
 }
 
-/// `cargo test` in fuzz/: every target's body over its corpus, on the stable toolchain.
+/// fuzz/ linted (rustfmt, clippy: the main workspace's checks do not reach it), then
+/// `cargo test` there: every target's body over its corpus, on the stable toolchain.
 pub fn replay(root: &Path) -> Result<(), String> {
     let manifest = root.join("fuzz").join("Cargo.toml");
     let manifest = manifest.to_string_lossy();
-    Cmd::new("cargo")
-        .args(["test", "--manifest-path", &manifest, "-p", "aerostrata-fuzz-bodies"])
-        .place("fuzz")
-        .dir(root)
-        .run()
+    let cargo = |args: &[&str]| {
+        Cmd::new("cargo")
+            .args(&args[..1])
+            .args(["--manifest-path", &manifest])
+            .args(&args[1..])
+            .place("fuzz")
+            .dir(root)
+    };
+    cargo(&["fmt", "--all", "--", "--check"]).run()?;
+    cargo(&["clippy", "-p", "aerostrata-fuzz-bodies", "--all-targets", "--", "-D", "warnings"]).run()?;
+    cargo(&["test", "-p", "aerostrata-fuzz-bodies"]).run()
 }
 
 /// A nightly toolchain (installed with rustup when missing, within five minutes) and
