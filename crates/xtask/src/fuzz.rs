@@ -113,6 +113,12 @@ fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32) -> Result<(), String> 
         for dir in [&corpus, &artifacts] {
             std::fs::create_dir_all(dir).map_err(|e| crate::io_error("create", dir, e))?;
         }
+        let listing = |dir: &Path| -> Vec<String> {
+            std::fs::read_dir(dir)
+                .map(|d| d.flatten().map(|e| e.path().display().to_string()).collect())
+                .unwrap_or_default()
+        };
+        let before = listing(&artifacts);
         let seeds = root.join("fuzz").join("corpus").join(target);
         let (corpus, seeds) = (corpus.to_string_lossy(), seeds.to_string_lossy());
         let time = format!("-max_total_time={seconds}");
@@ -141,9 +147,9 @@ fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32) -> Result<(), String> 
             .map_or_else(|| "?".to_owned(), |n| n.trim().to_owned());
         eprintln!("  fuzz {target}: {executions} inputs ({done})");
         if !output.success {
-            let found: Vec<String> = std::fs::read_dir(&artifacts)
-                .map(|dir| dir.flatten().map(|e| e.path().display().to_string()).collect())
-                .unwrap_or_default();
+            // Only this run's inputs: the folder keeps earlier runs' too.
+            let found: Vec<String> =
+                listing(&artifacts).into_iter().filter(|f| !before.contains(f)).collect();
             eprintln!("{}", output.last_lines());
             failed.push(format!("{target} (inputs kept: {})", found.join(", ")));
         }
