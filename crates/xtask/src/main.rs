@@ -28,6 +28,8 @@
 //!                               against another revision's core); writes docs/performance.md
 //! cargo xtask catalogue         every door lists every quantity as the core's catalogue does
 //!                               (after `wasm` and with the C package)
+//! cargo xtask fuzz [--seconds N] the fuzz targets over their corpus on stable; then N s each
+//!                               under libFuzzer where nightly and cargo-fuzz can be had
 //! ```
 //!
 //! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
@@ -46,6 +48,7 @@ mod c;
 mod catalogue;
 mod cli_bench;
 mod firmware;
+mod fuzz;
 mod icount;
 mod machine;
 mod process;
@@ -63,7 +66,7 @@ const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table 
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
                      | addin [--check] [--windows] \
                      | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
-                     | icount [--against REV] | catalogue | cli-bench";
+                     | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N]";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -108,6 +111,7 @@ fn main() -> ExitCode {
         }
         Some("catalogue") => catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg"))
             .map(|line| eprintln!("{line}")),
+        Some("fuzz") => fuzz::seconds(&args[1..]).and_then(|seconds| fuzz::run(&root, seconds)),
         _ => Err(USAGE.to_owned()),
     };
     match result {

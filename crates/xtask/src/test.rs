@@ -113,6 +113,11 @@ pub fn run(root: &Path) -> Result<(), String> {
         }
         Err(message) => step("wasm package build (cargo xtask wasm)", Err(message)),
     }
+    step(
+        "fuzz targets over the committed corpus, then 15 s each under libFuzzer where nightly can be had \
+         (cargo xtask fuzz)",
+        crate::fuzz::run(root, crate::fuzz::TEST_SECONDS),
+    );
     let failed_count = failed.len();
     eprintln!("\nxtask test: {:.0} s", started.elapsed().as_secs_f64());
     println!("{passed} passed, {failed_count} failed");

@@ -1,0 +1,2 @@
+#![no_main]
+libfuzzer_sys::fuzz_target!(|data: &[u8]| aerostrata_fuzz_bodies::winds_csv::run(data));
