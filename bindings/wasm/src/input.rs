@@ -63,10 +63,8 @@ fn load_error(error: &aerostrata::model::sounding_io::LoadError) -> String {
 
 /// A spec's refusal, worded as the core's `Display` words it.
 fn spec_error(error: &SpecError<'_>) -> String {
-    let cut = |text: &str| {
-        let (shown, cut) = units::shorten(text, 40);
-        Text::new(shown).s(if cut { "..." } else { "" }).done()
-    };
+    // What a person typed, escaped and cut, as the core writes it.
+    let cut = |text: &str| units::Escaped(text).to_string();
     let grammar = |text: Text| text.s("; a model is one of: ").s(spec::GRAMMAR).done();
     match error {
         SpecError::UnknownModel { name } => grammar(Text::new("unknown model '").s(&cut(name)).s("'")),

@@ -100,24 +100,21 @@ pub enum SpecError<'a> {
 
 impl fmt::Display for SpecError<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let (shown, cut) = units::shorten(
-            match self {
-                SpecError::UnknownModel { name } => name,
-                SpecError::Unexpected { text, .. } => text,
-                _ => "",
-            },
-            40,
-        );
-        let more = if cut { "..." } else { "" };
+        // What a person typed, escaped and cut (units::Quoted).
+        let shown = units::Quoted(match self {
+            SpecError::UnknownModel { name } => name,
+            SpecError::Unexpected { text, .. } => text,
+            _ => "",
+        });
         match self {
             SpecError::UnknownModel { .. } => {
-                write!(f, "unknown model '{shown}{more}'; a model is one of: {GRAMMAR}")
+                write!(f, "unknown model {shown}; a model is one of: {GRAMMAR}")
             }
             SpecError::Missing { model, what } => {
                 write!(f, "{model} needs {what}; a model is one of: {GRAMMAR}")
             }
             SpecError::Unexpected { model, .. } => {
-                write!(f, "{model} does not take '{shown}{more}'; a model is one of: {GRAMMAR}")
+                write!(f, "{model} does not take {shown}; a model is one of: {GRAMMAR}")
             }
             SpecError::Value { model, what, error } => write!(f, "{model}: {what}: {error}"),
         }

@@ -196,6 +196,71 @@ mod owned {
         }
     }
 
+    /// What a table does beyond a side, as [`OutsideTable`] serialises it (`"error"` or
+    /// `{"blend_into_us1976": {"depth_m": D}}`), read with what a person typed escaped
+    /// and cut in every refusal.
+    struct Side;
+
+    const SIDES: [&str; 2] = ["error", "blend_into_us1976"];
+
+    impl<'de> DeserializeSeed<'de> for Side {
+        type Value = OutsideTable;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<OutsideTable, D::Error> {
+            deserializer.deserialize_any(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Side {
+        type Value = OutsideTable;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("\"error\" or {\"blend_into_us1976\": {\"depth_m\": D}}")
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<OutsideTable, E> {
+            let named = Named { names: &SIDES[..1], what: "side" };
+            named.visit_str(text).map(|_| OutsideTable::Error)
+        }
+        fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<OutsideTable, A::Error> {
+            let Some(_) = map.next_key_seed(Named { names: &SIDES[1..], what: "side" })? else {
+                return Err(A::Error::custom(
+                    "an empty side; write \"error\" or {\"blend_into_us1976\": {...}}",
+                ));
+            };
+            let depth_m = map.next_value_seed(Depth)?;
+            if map.next_key_seed(Named { names: &[], what: "field" })?.is_some() {
+                return Err(A::Error::custom("a side has one entry"));
+            }
+            Ok(OutsideTable::BlendIntoUs1976 { depth_m })
+        }
+    }
+
+    /// `{"depth_m": D}`.
+    struct Depth;
+
+    impl<'de> DeserializeSeed<'de> for Depth {
+        type Value = f64;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<f64, D::Error> {
+            deserializer.deserialize_map(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Depth {
+        type Value = f64;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("{\"depth_m\": D}")
+        }
+        fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<f64, A::Error> {
+            let mut depth = None;
+            while map.next_key_seed(Named { names: &["depth_m"], what: "field" })?.is_some() {
+                if depth.is_some() {
+                    return Err(A::Error::duplicate_field("depth_m"));
+                }
+                depth =
+                    Some(map.next_value_seed(Number)?.ok_or_else(|| A::Error::custom("depth_m is null"))?);
+            }
+            depth.ok_or_else(|| A::Error::missing_field("depth_m"))
+        }
+    }
+
     /// The fields of a table.
     #[derive(Clone, Copy)]
     enum Part {
@@ -235,8 +300,8 @@ mod owned {
                         kind = Some([AltitudeKind::Geometric, AltitudeKind::Geopotential][index]);
                     }
                     Part::Rows => rows = Some(map.next_value::<CheckedRows>()?.0),
-                    Part::Below => sides[0] = Some(map.next_value()?),
-                    Part::Above => sides[1] = Some(map.next_value()?),
+                    Part::Below => sides[0] = Some(map.next_value_seed(Side)?),
+                    Part::Above => sides[1] = Some(map.next_value_seed(Side)?),
                 }
                 if let (None, Some(kind), Some(rows)) = (&table, kind, &rows) {
                     table = Some(Tabulated::from_rows_vec(kind, rows).map_err(A::Error::custom)?);
