@@ -1,7 +1,8 @@
 // The page's two charts, drawn as SVG at the width they are shown at (one SVG unit per
 // CSS pixel, so text stays legible on a phone): the profile of the chosen model with the
 // point marked, and a flight's dynamic pressure and Mach number against time with the
-// maximum q marked. Colours: the page's own palette (style.css, --series-1 to -3: a deep
+// maximum q marked (and, when the file gives the velocity's direction, q-alpha in a
+// panel of its own below, on its own axis). Colours: the page's own palette (style.css, --series-1 to -3: a deep
 // blue, an amber and a charcoal, told apart by lightness as well as hue, so that they
 // stay distinct under the common colour-vision deficiencies); the lines also differ in
 // dash, and each panel is titled, so colour is never the only cue.
@@ -139,6 +140,11 @@ function flightBox(width) {
   return width < 640 ? [56, 44, 40, 220, 40] : [80, 64, 40, 290, 40];
 }
 
+/** The q-alpha panel below the flight chart: [gap above it, its plot height]. */
+function qAlphaBox(width) {
+  return width < 640 ? [44, 130] : [48, 160];
+}
+
 /** How many pixel columns the flight chart's plot has at its current width. */
 export function flightColumns(svg) {
   const width = widthOf(svg);
@@ -169,7 +175,9 @@ export function drawFlight(svg, flight) {
   const width = widthOf(svg);
   const [x0, right, y0, height, below] = flightBox(width);
   const plotWidth = width - x0 - right;
-  reset(svg, width, y0 + height + below);
+  const withQAlpha = Boolean(flight?.chart?.qAlpha) && flight.summary.samples > 0;
+  const [qaGap, qaHeight] = qAlphaBox(width);
+  reset(svg, width, y0 + height + below + (withQAlpha ? qaGap + qaHeight + below : 0));
   if (!flight || flight.summary.samples === 0) {
     const hint = flight ? "The file names its columns but holds no samples." : "Paste samples, upload a file or load the demo flight to see its loads here.";
     const short = flight ? "No samples." : "No flight yet.";
@@ -231,6 +239,7 @@ export function drawFlight(svg, flight) {
       "data-highest": largest(chart.q.values.subarray(0, chart.q.count)),
     }),
   );
+  if (withQAlpha) drawQAlpha(svg, chart, { x0, plotWidth, xOf, t0, t1, top: y0 + height + below + qaGap, height: qaHeight, narrow });
   if (!peak) return;
   const px = xOf(peak.timeS);
   const py = yQ(peak.dynamicPressurePa);
@@ -245,4 +254,39 @@ export function drawFlight(svg, flight) {
   const onLeft = !fits(label, roomRight) && roomLeft > roomRight;
   const ly = Math.max(y0 + 14, py - 10);
   svg.append(el("text", { x: onLeft ? px - 12 : px + 12, y: ly, "text-anchor": onLeft ? "end" : "start", class: "peak-label" }, label));
+}
+
+/**
+ * The q-alpha panel under the flight chart, on its own axis from 0 (q-alpha is never
+ * negative), sharing the time axis above; drawn from the same per-pixel thinning as q.
+ */
+function drawQAlpha(svg, chart, { x0, plotWidth, xOf, t0, t1, top, height, narrow }) {
+  const label = pretty(unitOf("q_alpha"));
+  const highest = chart.highestQAlpha > 0 ? shownValue("q_alpha", chart.highestQAlpha) : 1;
+  const { top: qaTop, ticks: qaTicks } = axis(highest, 5);
+  const y = (v) => top + height - (shownValue("q_alpha", v) / qaTop) * height;
+  for (const t of qaTicks) {
+    const ty = top + height - (t / qaTop) * height;
+    svg.append(el("line", { x1: x0, x2: x0 + plotWidth, y1: ty, y2: ty, class: "grid" }));
+    svg.append(el("text", { x: x0 - 8, y: ty + 4, "text-anchor": "end" }, show(t)));
+  }
+  for (const t of ticks(t0, t1, narrow ? 4 : 8)) {
+    const x = xOf(t);
+    svg.append(el("line", { x1: x, x2: x, y1: top + height, y2: top + height + 5, class: "frame" }));
+    svg.append(el("text", { x, y: top + height + 18, "text-anchor": "middle" }, show(t)));
+  }
+  svg.append(el("text", { x: x0 + plotWidth / 2, y: top + height + 34, "text-anchor": "middle" }, "time, s"));
+  svg.append(el("rect", { x: x0, y: top, width: plotWidth, height, class: "frame" }));
+  // The panel's title names the quantity and its unit, above it at the left.
+  svg.append(el("line", { x1: narrow ? 12 : x0, x2: (narrow ? 12 : x0) + 26, y1: top - 14, y2: top - 14, class: "curve s3" }));
+  svg.append(el("text", { x: (narrow ? 12 : x0) + 32, y: top - 10, class: "panel-title" }, `${quantity("q_alpha").label}, ${label}`));
+  svg.append(
+    el("path", {
+      d: pathOf(chart.qAlpha, xOf, y),
+      class: "curve s3",
+      "data-series": "qAlphaPaDeg",
+      "data-points": chart.qAlpha.count,
+      "data-highest": largest(chart.qAlpha.values.subarray(0, chart.qAlpha.count)),
+    }),
+  );
 }

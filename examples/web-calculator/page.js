@@ -70,6 +70,9 @@ const FIELDS = {
   length: { quantity: "reference_length" },
   "flight-cd": { quantity: "drag_coefficient" },
   "flight-area": { quantity: "reference_area" },
+  "flight-wind-speed": { quantity: "wind_speed", optional: true },
+  "flight-wind-direction": { quantity: "wind_direction", optional: true },
+  "flight-q-limit": { quantity: "dynamic_pressure", optional: true },
 };
 
 /** The ids of the fields whose unit follows the unit system. */

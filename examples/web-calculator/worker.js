@@ -78,12 +78,36 @@ async function point({ described, inputs }) {
   return computePoint(api, model, inputs);
 }
 
-async function flight({ source, units, model: described, cd, areaM2, columns }) {
+/** Whether the samples give the velocity's direction (components, or a path and heading). */
+const hasDirection = (samples) => samples.velocityEastMS !== undefined || samples.headingDeg !== undefined;
+
+/**
+ * The field a scan's message belongs to: the vehicle's, the wind's, the limit's, or the
+ * flight's own.
+ */
+function scanField(message) {
+  if (/drag coefficient/.test(message)) return "flight-cd";
+  if (/reference area/.test(message)) return "flight-area";
+  if (/^winds?\b|wind speed/.test(message)) return "flight-wind-speed";
+  if (/wind direction/.test(message)) return "flight-wind-direction";
+  if (/qLimitPa/.test(message)) return "flight-q-limit";
+  return "flight";
+}
+
+async function flight({ source, units, model: described, cd, areaM2, wind, qLimitPa, columns }) {
   let samples;
   try {
     samples = readFlight(await textOf(source), units);
   } catch (e) {
     return failure("flight", e);
+  }
+  const { ignored, ...given } = samples;
+  const directed = hasDirection(given);
+  if (wind && !directed) {
+    return failure(
+      "flight-wind-speed",
+      new Error("a wind needs the velocity's direction: the file gives only the speed; give velocity_east, velocity_north and velocity_up, or velocity with flight_path_angle and heading, or clear the wind"),
+    );
   }
   let model;
   let owned = false;
@@ -97,28 +121,37 @@ async function flight({ source, units, model: described, cd, areaM2, columns }) 
   } catch (e) {
     return failure(described.spec !== undefined ? "model-kind" : "sounding-file", e);
   }
+  // One options object for every file: the speed form gives exactly the positional
+  // call's numbers (the module's own test), and the limit applies to both.
+  const options = { ...given, vehicle: { drag: cd, referenceAreaM2: areaM2 } };
+  // A wind the same at every altitude: one level, held above and below it.
+  if (wind) options.winds = { altitudeM: [0], windSpeedMS: [wind.speedMS], windDirectionDeg: [wind.directionDeg] };
+  if (qLimitPa !== null && qLimitPa !== undefined) options.qLimitPa = qLimitPa;
   let scan;
   try {
-    scan = model.scanFlight(samples.timeS, samples.altitudeM, samples.velocityMS, { drag: cd, referenceAreaM2: areaM2 });
+    scan = model.scanFlight(options);
   } catch (e) {
-    const field = /drag coefficient/.test(e.message) ? "flight-cd" : /reference area/.test(e.message) ? "flight-area" : "flight";
-    return failure(field, e);
+    return failure(scanField(e.message), e);
   } finally {
     if (owned) model.free();
   }
   const { points, summary } = scan;
   const times = points.timeS;
+  const qAlpha = points.qAlphaPaDeg;
   return {
     ok: true,
     summary,
-    ignored: samples.ignored,
+    ignored,
+    directed,
     chart: {
       t0: times[0],
       t1: times[times.length - 1],
       q: thin(times, points.dynamicPressurePa, columns),
       mach: thin(times, points.mach, columns),
+      qAlpha: qAlpha ? thin(times, qAlpha, columns) : null,
       highestQ: largest(points.dynamicPressurePa),
       highestMach: largest(points.mach),
+      highestQAlpha: qAlpha ? largest(qAlpha) : null,
     },
   };
 }
@@ -132,7 +165,8 @@ self.onmessage = ({ data }) => {
     .then(() => JOBS[data.job](data))
     .catch((e) => failure(data.job === "flight" ? "flight" : "sounding-file", e))
     .then((answer) => {
-      const transfer = answer.chart ? [answer.chart.q.times.buffer, answer.chart.q.values.buffer, answer.chart.mach.times.buffer, answer.chart.mach.values.buffer] : [];
+      const series = answer.chart ? [answer.chart.q, answer.chart.mach, answer.chart.qAlpha].filter(Boolean) : [];
+      const transfer = series.flatMap((s) => [s.times.buffer, s.values.buffer]);
       self.postMessage({ id: data.id, ...answer }, transfer);
     });
 };

@@ -3,9 +3,10 @@
 // reference vectors (tests/vectors/usa76_lower.csv: U.S. Standard Atmosphere 1976, from
 // memory of the printed table, each cell within half a unit of its last digit), enter bad
 // values and read the messages beside their fields, choose each model and read the
-// module's numbers, load flight files (in metres, in feet, a million samples, random
-// bytes, one above the upload limit) and read the maximum dynamic pressure against the
-// Node build of the same module. Saves screenshots at a desktop's and a phone's width.
+// module's numbers, load flight files (in metres, in feet, with the velocity's direction
+// through a typed crosswind, coarsely sampled, a million samples, random bytes, one above
+// the upload limit) and read the maximum dynamic pressure, q-alpha, the resampling advice
+// and the q-limit exceedances against the Node build of the same module. Saves screenshots at a desktop's and a phone's width.
 // The times the page takes to answer are measured and printed, never asserted (a slow
 // machine must not fail the test); what is asserted is that the answer comes, and what
 // it says.
@@ -22,7 +23,7 @@ import { fileURLToPath } from "node:url";
 
 import { chromium } from "playwright-core";
 
-import { inFeet, longFlight, noise, oversized, rowsOf } from "./files.mjs";
+import { coarseCorner, inFeet, longFlight, noise, oversized, pathFlight, rowsOf, vectorFlight } from "./files.mjs";
 
 const [url, shots, vectors] = process.argv.slice(2);
 if (!url || !shots || !vectors) {
@@ -220,6 +221,130 @@ try {
   check(Math.abs(inFeetQ - reported) <= 1e-9 * reported, `max q of the flight in feet ${inFeetQ}, in metres ${reported}`);
   check(Math.abs((await flightValue("maxDynamicPressureAltitudeM")) - scan.summary.maxDynamicPressure.altitudeM) < 1e-6, "altitude of max q read from feet");
 
+  // 10a. A flight with the velocity's direction through a wind typed on the page: the
+  // q-alpha the page shows is the module's for the same file and wind (read by the
+  // module's readFlightCsv and scanned with the same options); without the wind the
+  // axis lies along the air-relative velocity and q-alpha is 0 (common practice, no
+  // source: alpha is the angle between the axis and the air-relative velocity).
+  const vector = vectorFlight();
+  const { ignored: vectorIgnored, ...vectorSamples } = aerostrata.readFlightCsv(vector);
+  check(vectorIgnored.length === 0 && vectorSamples.velocityEastMS !== undefined, "the vector flight is read as components");
+  const standard = aerostrata.AtmosphereModel.standard();
+  const crosswind = { altitudeM: [0], windSpeedMS: [15], windDirectionDeg: [0] };
+  const vehicle = { drag: 0.45, referenceAreaM2: 0.0064 };
+  const vectorScan = standard.scanFlight({ ...vectorSamples, vehicle, winds: crosswind, qLimitPa: 35000 });
+  const calm = standard.scanFlight({ ...vectorSamples, vehicle });
+  await page.fill("#flight-wind-speed", "15");
+  await page.fill("#flight-wind-direction", "0");
+  await page.setInputFiles("#flight-file", upload("vector-crosswind.csv", Buffer.from(vector)));
+  await flightDone();
+  await page.waitForSelector('#flight-summary [data-quantity="maxQAlphaPaDeg"]');
+  const qAlpha = await flightValue("maxQAlphaPaDeg");
+  const moduleQAlpha = vectorScan.summary.maxQAlpha;
+  check(Object.is(qAlpha, moduleQAlpha.value), `max q-alpha: page ${qAlpha}, module ${moduleQAlpha.value}`);
+  check(moduleQAlpha.value > 1000, `the crosswind gives a q-alpha worth checking (${moduleQAlpha.value} Pa deg)`);
+  // (The angle between two parallel vectors rounds to about 1e-15 rad, not exactly 0.)
+  check(calm.summary.maxQAlpha.value < 1e-9 * moduleQAlpha.value, `no q-alpha without the wind (axis along the velocity): ${calm.summary.maxQAlpha.value}`);
+  const qAlphaText = await page.textContent('#flight-summary [data-quantity="maxQAlphaPaDeg"]');
+  check(qAlphaText === String(Number(moduleQAlpha.value.toPrecision(6))), `q-alpha written on the page: "${qAlphaText}"`);
+  check(Object.is(await flightValue("maxQAlphaTimeS"), moduleQAlpha.timeS), "time of max q-alpha");
+  check(Object.is(await flightValue("maxQAlphaAltitudeM"), moduleQAlpha.altitudeM), "altitude of max q-alpha");
+  check(Object.is(await flightValue("maxQAlphaMach"), moduleQAlpha.mach), "Mach at max q-alpha");
+  check(Object.is(await flightValue("maxDynamicPressurePa"), vectorScan.summary.maxDynamicPressure.dynamicPressurePa), "max q of the vector flight through the wind");
+  // Hand-worked at the sample of the largest q-alpha: alpha = acos(u . a / (|u| |a|)) with
+  // u the ground velocity less the wind (a north wind of 15 m/s blows toward the south, so
+  // u_north = +15) and a the axis along the ground velocity; q-alpha = q alpha.
+  {
+    const i = moduleQAlpha.sampleIndex;
+    const [e, n, u] = [vectorSamples.velocityEastMS[i], vectorSamples.velocityNorthMS[i], vectorSamples.velocityUpMS[i]];
+    const air = [e, n + 15, u];
+    const dot = air[0] * e + air[1] * n + air[2] * u;
+    const alpha = (Math.acos(dot / (Math.hypot(...air) * Math.hypot(e, n, u))) * 180) / Math.PI;
+    const q = vectorScan.points.dynamicPressurePa[i];
+    check(Math.abs(q * alpha - qAlpha) <= 1e-9 * qAlpha, `q-alpha by hand ${q * alpha}, page ${qAlpha}`);
+  }
+  const qAlphaSeries = await page.$eval('#flight-chart [data-series="qAlphaPaDeg"]', (p) => ({ points: Number(p.dataset.points), highest: Number(p.dataset.highest) }));
+  check(qAlphaSeries.points > 0, "the chart draws q-alpha");
+  // q-alpha is undefined (NaN) at the first sample, at rest on the pad: skipped.
+  const highestQAlpha = vectorScan.points.qAlphaPaDeg.reduce((best, v) => (v > best ? v : best), -Infinity);
+  check(Object.is(qAlphaSeries.highest, highestQAlpha) && highestQAlpha === moduleQAlpha.value, `the q-alpha line keeps the highest sample: ${qAlphaSeries.highest}`);
+  check((await page.textContent("#view-flight .results .caution")).includes("range-safety rules"), "the caution stands beside q-alpha");
+
+  // 10b. A q limit typed with its unit: the page lists the module's exceedance intervals.
+  await page.fill("#flight-q-limit", "35kPa");
+  await flightDone();
+  await page.waitForFunction(() => !document.getElementById("flight-exceedances").hidden);
+  const intervals = await page.$$eval("#flight-exceedance-list li", (lis) => lis.map((li) => ({ start: Number(li.dataset.start), end: Number(li.dataset.end), peak: Number(li.dataset.peak), text: li.textContent })));
+  const expected = vectorScan.summary.qExceedances;
+  check(expected.length >= 1, `the module finds q above 35 kPa (${expected.length} intervals)`);
+  check(
+    intervals.length === expected.length && expected.every((x, k) => Object.is(intervals[k].start, x.startTimeS) && Object.is(intervals[k].end, x.endTimeS) && Object.is(intervals[k].peak, x.peak)),
+    `exceedances: page ${JSON.stringify(intervals)}, module ${JSON.stringify(expected)}`,
+  );
+  check(/^[\d.]+ s( \([^)]*\))? to [\d.]+ s( \([^)]*\))?: peak [\d.]+ Pa at [\d.]+ s$/.test(intervals[0]?.text ?? ""), `an interval written out: "${intervals[0]?.text}"`);
+  check((await page.textContent("#flight-q-limit-note")) === "read as 35000 Pa", `the limit read as: "${await page.textContent("#flight-q-limit-note")}"`);
+  await page.screenshot({ path: join(shots, "web-calculator-flight-loads.png"), fullPage: true });
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+  check((await page.evaluate(() => document.documentElement.scrollWidth)) <= 390, "the flight view with q-alpha fits 390 px");
+  await page.screenshot({ path: join(shots, "web-calculator-phone-flight-loads.png"), fullPage: true });
+  await page.setViewportSize({ width: 1180, height: 1500 });
+
+  // 10c. A wind for a file without the velocity's direction is refused beside the wind.
+  await page.fill("#flight-q-limit", "");
+  await page.fill("#flight-csv", csv.slice(0, 20).map((r) => r.join(",")).join("\n"));
+  await flightDone();
+  check(/needs the velocity's direction/.test(await message("flight-wind-speed")), `a wind for a speed-only file: "${await message("flight-wind-speed")}"`);
+  check(await page.isHidden("#flight-exceedances"), "no exceedance list without a limit");
+  await page.fill("#flight-wind-speed", "");
+  await page.fill("#flight-wind-direction", "");
+
+  // 10c'. The same boost as speed, flight-path angle and heading with the axis a degree
+  // above the path, and no wind: the page's q-alpha is the module's for the same columns,
+  // and about q times 1 degree (hand-worked: the axis and the velocity lie in one vertical
+  // plane, 86 - 85 = 1 degree apart).
+  const path = pathFlight();
+  const { ignored: pathIgnored, ...pathSamples } = aerostrata.readFlightCsv(path);
+  check(pathIgnored.length === 0 && pathSamples.headingDeg !== undefined && pathSamples.axisElevationDeg !== undefined, "the path flight is read as speed, path, heading and axis");
+  const pathScan = standard.scanFlight({ ...pathSamples, vehicle });
+  await page.setInputFiles("#flight-file", upload("path-axis.csv", Buffer.from(path)));
+  await flightDone();
+  const pathQAlpha = await flightValue("maxQAlphaPaDeg");
+  check(Object.is(pathQAlpha, pathScan.summary.maxQAlpha.value), `max q-alpha of the path file: page ${pathQAlpha}, module ${pathScan.summary.maxQAlpha.value}`);
+  const pathQ = pathScan.points.dynamicPressurePa[pathScan.summary.maxQAlpha.sampleIndex];
+  check(Math.abs(pathQAlpha - pathQ) <= 1e-9 * pathQ, `q-alpha at a 1 degree angle of attack ${pathQAlpha}, q there ${pathQ}`);
+  // In US units the page shows the catalogue's psf deg, converted by the module.
+  await page.check('input[name="units"][value="us"]');
+  const usText = await page.textContent('#flight-summary [data-quantity="maxQAlphaPaDeg"] + dd.u');
+  const usValue = await page.textContent('#flight-summary [data-quantity="maxQAlphaPaDeg"]');
+  check(usText === "psf·deg" && usValue === String(Number(aerostrata.toUs("q_alpha", pathQAlpha).toPrecision(6))), `q-alpha in US units: "${usValue} ${usText}"`);
+  await page.check('input[name="units"][value="si"]');
+
+  // 10d. A coarsely sampled flight with a corner: the maximum q is bounded but not
+  // resolved, and the page advises the module's spacing.
+  const coarse = coarseCorner();
+  const coarseRows = rowsOf(coarse);
+  const coarseScan = standard.scanFlight(
+    coarseRows.map((r) => r[0]),
+    coarseRows.map((r) => r[1]),
+    coarseRows.map((r) => r[2]),
+    vehicle,
+  );
+  const coarsePeak = coarseScan.summary.maxDynamicPressure;
+  check(!coarsePeak.resolved && coarsePeak.suggestedSpacingS !== null, `the module does not resolve the cornered peak (${JSON.stringify(coarsePeak)})`);
+  await page.setInputFiles("#flight-file", upload("coarse-corner.csv", Buffer.from(coarse)));
+  await flightDone();
+  const advice = await page.textContent("#flight-resolution");
+  check((await page.getAttribute("#flight-resolution", "data-state")) === "resample", "the coarse flight is marked for resampling");
+  check(advice.includes(`Resample the flight at ${Number(coarsePeak.suggestedSpacingS.toPrecision(6))} s or finer`), `the advice names the module's spacing: "${advice}"`);
+  check(Object.is(await flightValue("maxDynamicPressureUncertaintyPa"), coarsePeak.uncertaintyPa), "the uncertainty of max q is the module's");
+  check(Object.is(await flightValue("maxDynamicPressureSampleMaxPa"), coarsePeak.sampleMaxPa), "the largest sample of q is the module's");
+  check((await page.$$eval('#flight-chart [data-series="qAlphaPaDeg"]', (p) => p.length)) === 0, "no q-alpha panel for a file without direction");
+  const plateau = coarseScan.summary.qPlateau;
+  check(Object.is(await flightValue("qPlateauStartS"), plateau.startTimeS) && Object.is(await flightValue("qPlateauEndS"), plateau.endTimeS), "the q plateau is the module's");
+  await page.screenshot({ path: join(shots, "web-calculator-flight-resample.png"), fullPage: true });
+  standard.free();
+
   // 11. The upload limit: a 21 MB file is refused at once, with its size and the limit.
   const bigPath = upload("too-big.csv", oversized(21_000_000));
   let started = performance.now();
@@ -283,6 +408,7 @@ try {
   check((await page.evaluate(() => document.body.dataset.flight)) === "done", `the million samples scanned: "${await flightMessage()}"`);
   const longQ = await flightValue("maxDynamicPressurePa");
   check(Object.is(longQ, longScan.summary.maxDynamicPressure.dynamicPressurePa), `max q of a million samples: page ${longQ}, module ${longScan.summary.maxDynamicPressure.dynamicPressurePa}`);
+  check(longScan.summary.machUndefinedSamples > 0 && Object.is(await flightValue("machUndefinedSamples"), longScan.summary.machUndefinedSamples), `samples without a Mach number (above 86 km): page ${await flightValue("machUndefinedSamples")}, module ${longScan.summary.machUndefinedSamples}`);
   check(Object.is(await flightValue("samples"), 1_000_000), "a million samples counted");
   check(await page.isVisible('[data-marker="max-q"]'), "the maximum q of a million samples is marked");
   const qPath = await page.$eval('#flight-chart [data-series="dynamicPressurePa"]', (p) => ({ points: Number(p.dataset.points), highest: Number(p.dataset.highest), d: p.getAttribute("d") }));

@@ -7,10 +7,16 @@ O2 uses N = n(N2) and D_i of Ar and He uses N = n(N2)+n(O)+n(O2); itself a
 reading of NOAA-S/T 76-1562, October 1976): a closed-form kinetic temperature
 and the diffusion equations for ln n of N2, O, O2, Ar and He, integrated upward
 from their 86 km values with scipy.integrate.solve_ivp, plus atomic hydrogen
-integrated from its 500 km value down to 150 km and up to 1000 km.  The
-integration is restarted at every altitude where a coefficient changes form
-(91, 95, 97, 100, 110, 115, 120, 150 and 500 km) and at every altitude asked
-for, so no output is interpolated.
+integrated from its 500 km value down to 150 km and up to 1000 km.  Below 150 km
+the standard lists no hydrogen; the crate carries the continuation of hydrogen's
+equation down to 86 km, and so does this reference, written here from the
+equation (flux form, with the standard's eddy diffusion and background weight
+below 120 km) over a dense-output solution of the other five species, not taken
+from the crate.  The ellipse's constants (91-110 km) are derived here from its
+joins, unrounded, as the crate does: the printed ones end 2.7e-4 K short of
+240 K.  The integration is restarted at every altitude where a coefficient
+changes form (91, 95, 97, 100, 110, 115, 120, 150 and 500 km) and at every
+altitude asked for, so no output is interpolated.
 
 Modes:
   usa76_upper_scipy.py [BIN]        run `BIN eval --species FILE` at fixed
@@ -98,13 +104,34 @@ LOWER_86 = {"pressure_Pa": 0.37338046, "density_kg_m3": 6.9578238e-6}
 # ---------------------------------------------------------------------------
 # Temperature, gravity, eddy diffusion
 # ---------------------------------------------------------------------------
+def _ellipse():
+    """Tc (K), A (K) and a (km) of the 91-110 km ellipse T = Tc + A sqrt(1 - ((Z-91)/a)^2).
+
+    From its joins: T = T7 with zero slope at 91 km (the ellipse's vertex, so
+    Tc = T7 - A) and T = 240 K with 12 K/km at 110 km.  At 110 km, with x = 19 km / a
+    and s = sqrt(1 - x^2): 240 - T7 = -A (1 - s), and the slope -A x / (a s) =
+    -A (1 - s^2) / (19 km s) = 12 K/km.  Dividing the second by the first gives s,
+    then A and a.  They round to the standard's printed 263.1905, -76.3232, -19.9429.
+    """
+    t7, t9, slope, span = 186.8673, 240.0, 12.0, 19.0
+    rise = t9 - t7
+    # slope span s = rise (1 + s)
+    s = rise / (slope * span - rise)
+    a_t = -rise / (1.0 - s)
+    a_z = -span / math.sqrt(1.0 - s * s)
+    return t7 - a_t, a_t, a_z
+
+
+ELLIPSE_TC, ELLIPSE_A, ELLIPSE_AZ = _ellipse()
+
+
 def temperature(z):
     """Kinetic temperature T (K) and dT/dZ (K/m) at geometric altitude z (m)."""
     zk = z / 1000.0
     if zk <= 91.0:
         return 186.8673, 0.0
     if zk <= 110.0:
-        tc, a_t, a_z = 263.1905, -76.3232, -19.9429
+        tc, a_t, a_z = ELLIPSE_TC, ELLIPSE_A, ELLIPSE_AZ
         x = (zk - 91.0) / a_z
         s = math.sqrt(1.0 - x * x)
         return tc + a_t * s, -(a_t / a_z) * x / s / 1000.0
@@ -176,33 +203,80 @@ def rhs(z, y):
         out[i] = -(dtdz / t + gr * (f * MASS[name] + (1.0 - f) * mb)
                    + f * ALPHA[name] * dtdz / t + flow(name, z))
     if len(y) > 5:
-        a, b = DIFF["H"]
-        d_h = a / sum(float(n[j]) for j in N_FOR_D["H"]) * (t / 273.15) ** b
-        n_h = N_H_500 * math.exp(y[5])
-        out[5] = (-((1.0 + ALPHA["H"]) * dtdz / t + MASS["H"] * gr)
-                  - PHI_H / (d_h * n_h))
+        out[5] = hydrogen_slope(z, n, y[5])
     return out
+
+
+def hydrogen_slope(z, n, y_h):
+    """d y_H / dZ (1/m), y_H = ln(n_H / 8e10), over the heavy densities n (N2..He).
+
+    The flux form of the diffusion equation, with the escape flux phi:
+      n_H v = phi = -D (dn/dZ + n (1+alpha) T'/T + n g M_H/(R T))
+                    - K (dn/dZ + n T'/T + n g M/(R T)),
+    solved for dn/dZ and divided by n.  Above 115 km K = 0 and it is the standard's
+    hydrogen equation; below 150 km (no hydrogen in the standard) it is its
+    continuation, with the standard's K and background weight M as for the others.
+    """
+    t, dtdz = temperature(z)
+    gr = gravity(z) / (R_STAR * t)
+    k_eddy = eddy(z)
+    a, b = DIFF["H"]
+    d_h = a / sum(float(n[j]) for j in N_FOR_D["H"]) * (t / 273.15) ** b
+    n_h = N_H_500 * math.exp(y_h)
+    thermal = (d_h * (1.0 + ALPHA["H"]) + k_eddy) * dtdz / t
+    weight = (d_h * MASS["H"] + k_eddy * background_mass(z)) * gr
+    return -(thermal + weight + PHI_H / n_h) / (d_h + k_eddy)
 
 
 DEFAULT_OPTS = {"method": "DOP853", "rtol": 1e-12, "atol": 1e-14, "max_step": 250.0}
 SECOND_OPTS = {"method": "Radau", "rtol": 1e-13, "atol": 1e-15, "max_step": 100.0}
 
 
-def _march(y0, stops, opts):
-    """Integrate from stops[0] through every stop; return the state at each."""
+def _march(y0, stops, opts, fun=rhs, dense=None):
+    """Integrate from stops[0] through every stop; return the state at each.
+
+    With a list `dense`, each piece's continuous solution is appended to it as
+    (low, high, sol).
+    """
     out = [np.array(y0, dtype=float)]
     y = out[0]
     for a, b in zip(stops, stops[1:]):
         if a == b:
             out.append(y.copy())
             continue
-        sol = solve_ivp(rhs, (a, b), y, method=opts["method"], rtol=opts["rtol"],
-                        atol=opts["atol"], max_step=opts["max_step"])
+        sol = solve_ivp(fun, (a, b), y, method=opts["method"], rtol=opts["rtol"],
+                        atol=opts["atol"], max_step=opts["max_step"],
+                        dense_output=dense is not None)
         if not sol.success:
             raise RuntimeError("integration %g -> %g m failed: %s" % (a, b, sol.message))
         y = sol.y[:, -1]
         out.append(y.copy())
+        if dense is not None:
+            dense.append((min(a, b), max(a, b), sol.sol))
     return out
+
+
+def _hydrogen_below_150_km(y_h_150, altitudes, opts):
+    """y_H at each altitude below 150 km: hydrogen's equation continued downward.
+
+    The heavy species come from their own upward integration (86 -> 150 km, dense
+    output, restarted at the same breaks), so they are not integrated downward.
+    """
+    stops = sorted(set([Z_BOT, Z_H_BOT] + [b for b in BREAKS if b < Z_H_BOT]))
+    pieces = []
+    _march(np.zeros(5), stops, opts, dense=pieces)
+
+    def heavy_at(z):
+        for low, high, sol in pieces:
+            if low <= z <= high:
+                return np.exp(sol(z) + LOG_REF)
+        raise ValueError("altitude %r m outside 86 to 150 km" % z)
+
+    down = sorted(set([Z_BOT, Z_H_BOT] + [b for b in BREAKS if b < Z_H_BOT]
+                      + [z for z in altitudes if z < Z_H_BOT]), reverse=True)
+    def fun(z, y):
+        return np.array([hydrogen_slope(z, heavy_at(z), y[0])])
+    return {z: s[0] for z, s in zip(down, _march([y_h_150], down, opts, fun=fun))}
 
 
 def solve(altitudes, opts=None):
@@ -225,6 +299,8 @@ def solve(altitudes, opts=None):
                       + [z for z in alts if Z_H_BOT <= z <= Z_H_REF]), reverse=True)
     start = np.append(heavy[Z_H_REF], 0.0)
     hyd = {z: s[5] for z, s in zip(down, _march(start, down, opts))}
+    # 2b. hydrogen alone from 150 km down to 86 km (its continuation)
+    hyd.update(_hydrogen_below_150_km(hyd[Z_H_BOT], alts, opts))
     # 3. all six from 500 km up to 1000 km
     top = sorted(set([Z_H_REF, Z_TOP] + [z for z in alts if z >= Z_H_REF]))
     upper = dict(zip(top, _march(start, top, opts)))
@@ -235,10 +311,9 @@ def solve(altitudes, opts=None):
             y = upper[z]
             heavy_y, y_h = y[:5], y[5]
         else:
-            heavy_y = heavy[z]
-            y_h = hyd.get(z) if z >= Z_H_BOT else None
+            heavy_y, y_h = heavy[z], hyd[z]
         n = {name: math.exp(v + r) for name, v, r in zip(HEAVY, heavy_y, LOG_REF)}
-        n["H"] = N_H_500 * math.exp(y_h) if y_h is not None else 0.0
+        n["H"] = N_H_500 * math.exp(y_h)
         states.append(derived(z, n))
     return states
 
@@ -319,10 +394,7 @@ def compare_cli(binary):
             worst, worst_col, bad = 0.0, cols[0], []
             for col in cols:
                 value = _cell(row, col)
-                if col == "n_H_m3" and ref[col] == 0.0:
-                    ok = value == 0.0            # hydrogen is exactly 0 below 150 km
-                    err = 0.0 if ok else math.inf
-                elif value is None:
+                if value is None:
                     ok, err = False, math.inf    # an empty cell where a value is due
                 else:
                     err = rel(value, ref[col])
@@ -377,12 +449,19 @@ def self_check():
 
     # The jump at 86 km between the lower layers and the species.
     s86 = first[0]
+    n_h = s86["n_H_m3"]
+    five = {"pressure_Pa": s86["pressure_Pa"] - n_h * K_B * s86["temperature_K"],
+            "density_kg_m3": s86["density_kg_m3"] - n_h * MASS["H"] / N_A}
     print("86 km: upper part (sum of species, N k T with T = 186.8673 K) vs lower part (layers):")
     for col, unit in (("pressure_Pa", "Pa"), ("density_kg_m3", "kg/m^3")):
         print("  %-14s species %.8e  lower %.8e %s  relative jump %+.3e"
-              % (col, s86[col], LOWER_86[col], unit, s86[col] / LOWER_86[col] - 1.0))
-    print("  number density %.8e 1/m^3, M = %.6f kg/kmol (species)"
-          % (s86["number_density_m3"], s86["mean_molar_mass_kg_kmol"]))
+              " (the standard's five species alone %+.3e)"
+              % (col, s86[col], LOWER_86[col], unit, s86[col] / LOWER_86[col] - 1.0,
+                 five[col] / LOWER_86[col] - 1.0))
+    print("  number density %.8e 1/m^3, M = %.6f kg/kmol (species); hydrogen's continuation"
+          " %.4e 1/m^3, %.4e of N"
+          % (s86["number_density_m3"], s86["mean_molar_mass_kg_kmol"], n_h,
+             n_h / s86["number_density_m3"]))
     return tally.close()
 
 

@@ -461,6 +461,13 @@ typedef enum AerostrataStatus {
    * state).
    */
   AEROSTRATA_STATUS_NOT_CARRIED = 27,
+  /**
+   * A handle argument was not a live handle of its type: freed already (used after
+   * `_free`, or freed twice), a handle of another type (a drag curve passed as a
+   * model), or not a handle at all. The message says which. Only misuse that the
+   * library can see is reported; docs/c-guide.md says what it cannot see.
+   */
+  AEROSTRATA_STATUS_INVALID_HANDLE = 28,
 } AerostrataStatus;
 
 /**
@@ -574,7 +581,7 @@ enum AerostrataQuantity
    */
   AEROSTRATA_QUANTITY_N_HE = 24,
   /**
-   * H number density, 1/m3 (H): atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
+   * H number density, 1/m3 (H): atoms of hydrogen per volume, above 86 km (below 150 km a continuation).
    */
   AEROSTRATA_QUANTITY_N_H = 25,
   /**
@@ -1420,7 +1427,7 @@ typedef struct AerostrataSpecies {
    */
   double he_m3;
   /**
-   * H number density, 1/m3: atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km).
+   * H number density, 1/m3: atoms of hydrogen per volume, above 86 km (below 150 km a continuation).
    */
   double h_m3;
 } AerostrataSpecies;
@@ -1691,10 +1698,6 @@ enum AerostrataStatus aerostrata_barometric_altitude_m(double pressure_pa,
                                                        double reference_pa,
                                                        double *out);
 
-extern void *malloc(size_t size);
-
-extern void free(void *pointer);
-
 /**
  * A static, NUL-terminated English sentence for `status` (an `AerostrataStatus` value
  * given as an int, so that any number is safe to pass); an unknown number gives
@@ -1710,7 +1713,9 @@ const char *aerostrata_status_message(int status);
  * `AEROSTRATA_STATUS_NULL_POINTER` if `out` is NULL, else `AEROSTRATA_STATUS_OK`.
  *
  * Thread-safety: each thread has its own detail; a call on one thread never changes
- * another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it. In the
+ * another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it, and the
+ * `_free` functions set it only when they fail (so that cleanup between a failed call
+ * and the reading of its detail keeps the detail). In the
  * bare-metal build (no std) there is one detail for the whole program, and a call made
  * from an interrupt handler while another call is storing its detail leaves no detail.
  */
@@ -1746,10 +1751,12 @@ enum AerostrataStatus aerostrata_drag_curve_new_table(const double *mach,
                                                       struct AerostrataDragCurve **out);
 
 /**
- * Releases a curve. NULL is accepted and does nothing. The curve must not be used
+ * Releases a curve. NULL is accepted and does nothing (OK). The curve must not be used
  * afterwards, nor freed twice, nor be in use by another thread.
+ *
+ * Errors: INVALID_HANDLE, releasing nothing, as `aerostrata_model_free`.
  */
-void aerostrata_drag_curve_free(struct AerostrataDragCurve *curve);
+enum AerostrataStatus aerostrata_drag_curve_free(struct AerostrataDragCurve *curve);
 
 /**
  * The drag coefficient of `curve` at Mach `mach`, written to `*out`.
@@ -1852,10 +1859,12 @@ enum AerostrataStatus aerostrata_wind_profile_new_speed_direction(const double *
                                                                   struct AerostrataWindProfile **out);
 
 /**
- * Releases a wind profile. NULL is accepted and does nothing. The profile must not be
- * used afterwards, nor freed twice, nor be in use by another thread.
+ * Releases a wind profile. NULL is accepted and does nothing (OK). The profile must not
+ * be used afterwards, nor freed twice, nor be in use by another thread.
+ *
+ * Errors: INVALID_HANDLE, releasing nothing, as `aerostrata_model_free`.
  */
-void aerostrata_wind_profile_free(struct AerostrataWindProfile *profile);
+enum AerostrataStatus aerostrata_wind_profile_free(struct AerostrataWindProfile *profile);
 
 /**
  * The wind of `profile` at geometric `altitude_m`, written to `*out`.
@@ -2030,10 +2039,14 @@ enum AerostrataStatus aerostrata_model_new_sounding(uint32_t altitude_kind,
 
 /**
  * Releases a model made by an `aerostrata_model_new_*` function. NULL is accepted and
- * does nothing. The model must not be used afterwards, nor freed twice, nor be in use
- * by another thread.
+ * does nothing (OK). The model must not be used afterwards, nor freed twice, nor be in
+ * use by another thread.
+ *
+ * Errors: INVALID_HANDLE, releasing nothing, for a model freed already, a handle of
+ * another type or a pointer that is no handle (within the limits docs/c-guide.md
+ * states). The thread's error detail is written only on failure.
  */
-void aerostrata_model_free(struct AerostrataModel *model);
+enum AerostrataStatus aerostrata_model_free(struct AerostrataModel *model);
 
 /**
  * The geometric altitude range of `model`, m: writes the lowest and highest altitudes

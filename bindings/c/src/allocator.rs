@@ -7,6 +7,9 @@
 use core::alloc::{GlobalAlloc, Layout};
 use core::ffi::c_void;
 
+// The C library declares these in <stdlib.h>; the public header must not declare them
+// again (a second declaration can clash with the C library's own, for example with
+// attributes or another `size_t`): cbindgen.toml excludes them.
 extern "C" {
     fn malloc(size: usize) -> *mut c_void;
     fn free(pointer: *mut c_void);

@@ -87,6 +87,11 @@ pub enum AerostrataStatus {
     /// A quantity was asked of a result that does not carry it (a Mach number of a
     /// state).
     NotCarried = 27,
+    /// A handle argument was not a live handle of its type: freed already (used after
+    /// `_free`, or freed twice), a handle of another type (a drag curve passed as a
+    /// model), or not a handle at all. The message says which. Only misuse that the
+    /// library can see is reported; docs/c-guide.md says what it cannot see.
+    InvalidHandle = 28,
 }
 
 /// Length of [`AerostrataErrorDetail::message`], bytes, the terminating NUL included.
@@ -116,7 +121,7 @@ pub struct AerostrataErrorDetail {
 }
 
 impl AerostrataErrorDetail {
-    const fn ok() -> Self {
+    pub(crate) const fn ok() -> Self {
         Self {
             status: AerostrataStatus::Ok,
             value: f64::NAN,
@@ -140,7 +145,7 @@ pub(crate) struct Failure {
 }
 
 impl Failure {
-    fn bare(status: AerostrataStatus, message: String) -> Self {
+    pub(crate) fn bare(status: AerostrataStatus, message: String) -> Self {
         Self { status, value: f64::NAN, min: f64::NAN, max: f64::NAN, index: None, message }
     }
 
@@ -346,14 +351,21 @@ pub(crate) fn require<T>(name: &str, pointer: *const T) -> Result<(), Failure> {
 /// Runs `body` inside the panic boundary, records its detail for this thread and returns
 /// its status.
 pub(crate) fn guard(body: impl FnOnce() -> Result<(), Failure>) -> AerostrataStatus {
+    let status = guard_failures(body);
+    if status == AerostrataStatus::Ok {
+        record(None);
+    }
+    status
+}
+
+/// As [`guard`], but a success leaves the thread's detail as it was: the `_free`
+/// functions, which cleanup code calls between a failure and the reading of its detail.
+pub(crate) fn guard_failures(body: impl FnOnce() -> Result<(), Failure>) -> AerostrataStatus {
     let outcome = catch(body).unwrap_or_else(|text| {
         Err(Failure::bare(AerostrataStatus::Panic, format!("internal error (a bug in aerostrata): {text}")))
     });
     match outcome {
-        Ok(()) => {
-            record(None);
-            AerostrataStatus::Ok
-        }
+        Ok(()) => AerostrataStatus::Ok,
         Err(failure) => {
             record(Some(&failure));
             failure.status
@@ -402,6 +414,7 @@ fn status_text(status: c_int) -> &'static str {
         25 => "the storage given is too small\0",
         26 => "an error this version of the library has no status for\0",
         27 => "the result does not carry that quantity\0",
+        28 => "a handle was freed already, is of another type, or is not a handle\0",
         _ => "unknown status\0",
     }
 }
@@ -411,7 +424,9 @@ fn status_text(status: c_int) -> &'static str {
 /// `AEROSTRATA_STATUS_NULL_POINTER` if `out` is NULL, else `AEROSTRATA_STATUS_OK`.
 ///
 /// Thread-safety: each thread has its own detail; a call on one thread never changes
-/// another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it. In the
+/// another thread's. The spreadsheet functions (`aerostrata_xl_*`) do not set it, and the
+/// `_free` functions set it only when they fail (so that cleanup between a failed call
+/// and the reading of its detail keeps the detail). In the
 /// bare-metal build (no std) there is one detail for the whole program, and a call made
 /// from an interrupt handler while another call is storing its detail leaves no detail.
 #[no_mangle]
@@ -478,10 +493,10 @@ mod tests {
     #[test]
     fn every_status_has_its_own_message() {
         let mut seen = std::collections::HashSet::new();
-        for s in 0..=27 {
+        for s in 0..=28 {
             assert!(seen.insert(status_text(s)), "status {s} repeats a message");
         }
-        assert_eq!(status_text(28), "unknown status\0");
+        assert_eq!(status_text(29), "unknown status\0");
         assert_eq!(status_text(-1), "unknown status\0");
     }
 

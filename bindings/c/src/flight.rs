@@ -30,6 +30,15 @@ pub struct AerostrataDragCurve {
     curve: Curve,
 }
 
+/// The tag word of a drag curve handle ("drag").
+pub(crate) const DRAG_CURVE_TAG: u32 = u32::from_le_bytes(*b"drag");
+
+impl crate::Handle for AerostrataDragCurve {
+    const TAG: u32 = DRAG_CURVE_TAG;
+    const WHAT: &'static str = "drag curve";
+    const FREE: &'static str = "aerostrata_drag_curve_free";
+}
+
 impl AerostrataDragCurve {
     fn get(&self) -> Result<DragCurve<'_>, Failure> {
         Ok(match &self.curve {
@@ -96,11 +105,13 @@ pub unsafe extern "C" fn aerostrata_drag_curve_new_table(
     })
 }
 
-/// Releases a curve. NULL is accepted and does nothing. The curve must not be used
+/// Releases a curve. NULL is accepted and does nothing (OK). The curve must not be used
 /// afterwards, nor freed twice, nor be in use by another thread.
+///
+/// Errors: INVALID_HANDLE, releasing nothing, as `aerostrata_model_free`.
 #[no_mangle]
-pub unsafe extern "C" fn aerostrata_drag_curve_free(curve: *mut AerostrataDragCurve) {
-    free_handle(curve)
+pub unsafe extern "C" fn aerostrata_drag_curve_free(curve: *mut AerostrataDragCurve) -> AerostrataStatus {
+    free_handle("curve", curve)
 }
 
 fn curve_ref<'a>(curve: *const AerostrataDragCurve) -> Result<&'a AerostrataDragCurve, Failure> {

@@ -9,7 +9,10 @@
 //! - no panic unwinds into C: every export runs inside `catch_unwind` and reports
 //!   [`AerostrataStatus::Panic`] (the spreadsheet functions return NaN instead);
 //! - the detail of a failure (message, value, allowed range, index) is kept per thread and
-//!   read with [`aerostrata_last_error`]; see `error.rs` for why a thread-local.
+//!   read with [`aerostrata_last_error`]; see `error.rs` for why a thread-local;
+//! - a handle (model, drag curve, wind profile) carries a type tag and a liveness word
+//!   that every call checks, so that a freed handle, a double free or a handle of another
+//!   type is [`AerostrataStatus::InvalidHandle`] with a message (`handle.rs`).
 //!
 //! Features: `std` (default) for the panic boundary and the per-thread detail; without
 //! it the crate is `no_std` + `alloc` for bare-metal static libraries, where `malloc`
@@ -33,6 +36,7 @@ mod allocator;
 mod catalogue;
 mod error;
 mod flight;
+mod handle;
 mod loads;
 mod model;
 mod quantity;
@@ -47,8 +51,9 @@ pub use model::*;
 pub use quantity::*;
 pub use spreadsheet::*;
 
-use alloc::boxed::Box;
 use core::ffi::c_char;
+
+pub(crate) use handle::{free_handle, handle_ref, into_handle, Handle};
 
 #[cfg(feature = "panic-handler")]
 #[panic_handler]
@@ -87,31 +92,6 @@ pub(crate) fn output<T>(out: *mut T, f: impl FnOnce() -> Result<T, Failure>) -> 
         write(out, value);
         Ok(())
     })
-}
-
-/// A new opaque handle that owns `value`, released by [`free_handle`] (the `_free`
-/// function of its type).
-pub(crate) fn into_handle<T>(value: T) -> *mut T {
-    Box::into_raw(Box::new(value))
-}
-
-/// What the handle `handle` (the argument `name`) holds, or NULL-pointer status.
-pub(crate) fn handle_ref<'a, T>(name: &'static str, handle: *const T) -> Result<&'a T, Failure> {
-    error::require(name, handle)?;
-    // SAFETY: non-NULL, and a live handle from `into_handle` (the caller's contract).
-    Ok(unsafe { &*handle })
-}
-
-/// Releases a handle made by [`into_handle`]; NULL does nothing.
-///
-/// The handle must not be used afterwards, nor released twice (the caller's contract).
-pub(crate) unsafe fn free_handle<T>(handle: *mut T) {
-    if !handle.is_null() {
-        let _ = error::catch(|| {
-            // SAFETY: made by Box::into_raw in `into_handle`, and released once.
-            drop(unsafe { Box::from_raw(handle) });
-        });
-    }
 }
 
 /// Checks `count` elements at `data` before a slice is made over them: NULL is fine

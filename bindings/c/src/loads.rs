@@ -26,6 +26,15 @@ pub struct AerostrataWindProfile {
     profile: WindProfile<Vec<WindLevel>>,
 }
 
+/// The tag word of a wind profile handle ("wind").
+pub(crate) const WIND_PROFILE_TAG: u32 = u32::from_le_bytes(*b"wind");
+
+impl crate::Handle for AerostrataWindProfile {
+    const TAG: u32 = WIND_PROFILE_TAG;
+    const WHAT: &'static str = "wind profile";
+    const FREE: &'static str = "aerostrata_wind_profile_free";
+}
+
 /// The wind at one altitude (`aerostrata_wind_profile_at`).
 #[repr(C)]
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -153,11 +162,15 @@ pub unsafe extern "C" fn aerostrata_wind_profile_new_speed_direction(
     })
 }
 
-/// Releases a wind profile. NULL is accepted and does nothing. The profile must not be
-/// used afterwards, nor freed twice, nor be in use by another thread.
+/// Releases a wind profile. NULL is accepted and does nothing (OK). The profile must not
+/// be used afterwards, nor freed twice, nor be in use by another thread.
+///
+/// Errors: INVALID_HANDLE, releasing nothing, as `aerostrata_model_free`.
 #[no_mangle]
-pub unsafe extern "C" fn aerostrata_wind_profile_free(profile: *mut AerostrataWindProfile) {
-    free_handle(profile)
+pub unsafe extern "C" fn aerostrata_wind_profile_free(
+    profile: *mut AerostrataWindProfile,
+) -> AerostrataStatus {
+    free_handle("profile", profile)
 }
 
 /// The wind of `profile` at geometric `altitude_m`, written to `*out`.

@@ -71,6 +71,15 @@ pub struct AerostrataModel {
     pub(crate) model: Model,
 }
 
+/// The tag word of a model handle ("modl").
+pub(crate) const MODEL_TAG: u32 = u32::from_le_bytes(*b"modl");
+
+impl crate::Handle for AerostrataModel {
+    const TAG: u32 = MODEL_TAG;
+    const WHAT: &'static str = "model";
+    const FREE: &'static str = "aerostrata_model_free";
+}
+
 /// The standard with an offset; the standard itself for 0, so that a model and the
 /// handle-free functions give the same bits.
 fn standard(offset_k: f64) -> Result<Model, Failure> {
@@ -277,11 +286,15 @@ pub unsafe extern "C" fn aerostrata_model_new_sounding(
 }
 
 /// Releases a model made by an `aerostrata_model_new_*` function. NULL is accepted and
-/// does nothing. The model must not be used afterwards, nor freed twice, nor be in use
-/// by another thread.
+/// does nothing (OK). The model must not be used afterwards, nor freed twice, nor be in
+/// use by another thread.
+///
+/// Errors: INVALID_HANDLE, releasing nothing, for a model freed already, a handle of
+/// another type or a pointer that is no handle (within the limits docs/c-guide.md
+/// states). The thread's error detail is written only on failure.
 #[no_mangle]
-pub unsafe extern "C" fn aerostrata_model_free(model: *mut AerostrataModel) {
-    free_handle(model)
+pub unsafe extern "C" fn aerostrata_model_free(model: *mut AerostrataModel) -> AerostrataStatus {
+    free_handle("model", model)
 }
 
 pub(crate) fn model_ref<'a>(model: *const AerostrataModel) -> Result<&'a Model, Failure> {
@@ -486,7 +499,7 @@ mod tests {
             assert_eq!(a, b);
             assert_eq!(a.pressure_pa, 101_325.0);
             assert_eq!(a.defined, AEROSTRATA_DEFINED_CONTINUUM);
-            aerostrata_model_free(model);
+            assert_eq!(aerostrata_model_free(model), AerostrataStatus::Ok);
         }
     }
 

@@ -37,6 +37,9 @@ void test_every_status(void);
 void test_models(void);
 void test_batches(void);
 
+/* Handle misuse: used after free, freed twice, of another type, no handle (test_handles.c). */
+void test_handles(void);
+
 /* Aerodynamics, compressible flow, airspeeds, altimetry, drag curves and the flight
  * scan (test_aero.c). */
 void test_helpers(void);

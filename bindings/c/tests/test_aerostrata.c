@@ -1,7 +1,7 @@
 /*
  * C tests of libaerostrata: the reference vectors of tests/vectors (the same files the
  * Rust tests read), every status, NULL arguments, bad arrays, outputs written only on
- * success, and handle lifetimes. Built as C99 with -Wall -Wextra -Werror -pedantic
+ * success, handle lifetimes and handle misuse. Built as C99 with -Wall -Wextra -Werror -pedantic
  * against the static and the shared library, and run under AddressSanitizer with
  * UBSan and under Valgrind by `cargo xtask test` (crates/xtask/src/c/c_test.rs).
  *
@@ -47,6 +47,7 @@ int main(int argc, char **argv) {
     test_every_status();
     test_models();
     test_batches();
+    test_handles();
     test_helpers();
     test_flight();
     test_loads();

@@ -113,6 +113,28 @@ def main():
     message.restype = ctypes.c_char_p
     check(message(2) == b"a required pointer argument was NULL", "status message")
 
+    # A handle freed twice or used after its free, as a wrapper's finaliser might do it:
+    # INVALID_HANDLE (28), not a crash (the library's own contract, docs/c-guide.md).
+    model = ctypes.c_void_p()
+    new = lib.aerostrata_model_new_isothermal
+    new.argtypes = [ctypes.c_double, ctypes.c_double, ctypes.POINTER(ctypes.c_void_p)]
+    new.restype = ctypes.c_int
+    free = lib.aerostrata_model_free
+    free.argtypes = [ctypes.c_void_p]
+    free.restype = ctypes.c_int
+    span = lib.aerostrata_model_range_geometric_m
+    span.argtypes = [ctypes.c_void_p, ctypes.POINTER(ctypes.c_double), ctypes.POINTER(ctypes.c_double)]
+    span.restype = ctypes.c_int
+    low, high = ctypes.c_double(-1.0), ctypes.c_double(-1.0)
+    check(new(250.0, 101325.0, ctypes.byref(model)) == 0 and model.value, "a model")
+    check(span(model, ctypes.byref(low), ctypes.byref(high)) == 0 and high.value > low.value, "its range")
+    check(free(model) == 0, "freed once")
+    low.value = -1.0
+    check(span(model, ctypes.byref(low), ctypes.byref(high)) == 28 and low.value == -1.0, "used after free")
+    check(free(model) == 28, "freed twice")
+    check(free(None) == 0, "freeing NULL does nothing")
+    check(message(28) == b"a handle was freed already, is of another type, or is not a handle", "its message")
+
     print(f"{passed} passed, {failed} failed")
     return 0 if failed == 0 else 1
 

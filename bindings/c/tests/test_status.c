@@ -6,7 +6,7 @@
 
 void test_status_messages(void) {
     int s;
-    for (s = 0; s <= AEROSTRATA_STATUS_NOT_CARRIED; s++) {
+    for (s = 0; s <= AEROSTRATA_STATUS_INVALID_HANDLE; s++) {
         const char *m = aerostrata_status_message(s);
         int t;
         CHECK(m != NULL && strlen(m) > 0 && strcmp(m, "unknown status") != 0);
@@ -15,7 +15,7 @@ void test_status_messages(void) {
         }
     }
     CHECK(strcmp(aerostrata_status_message(-1), "unknown status") == 0);
-    CHECK(strcmp(aerostrata_status_message(AEROSTRATA_STATUS_NOT_CARRIED + 1), "unknown status") == 0);
+    CHECK(strcmp(aerostrata_status_message(AEROSTRATA_STATUS_INVALID_HANDLE + 1), "unknown status") == 0);
     CHECK(strcmp(aerostrata_status_message(1000000), "unknown status") == 0);
     CHECK(AEROSTRATA_STATUS_OK == 0 && AEROSTRATA_STATUS_PANIC == 1 && AEROSTRATA_STATUS_NULL_POINTER == 2);
     CHECK(aerostrata_last_error(NULL) == AEROSTRATA_STATUS_NULL_POINTER);

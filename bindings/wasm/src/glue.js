@@ -274,6 +274,7 @@ export function winds(name, value) {
   let kind = 0;
   let levels = value;
   if (typeof value.levels === "function") {
+    if (value.__wbg_ptr === 0) throw new Error(name + ": this wind profile was freed (its free() was called); make a new one");
     levels = value.levels();
   } else {
     const keys = Object.keys(value);
@@ -298,6 +299,110 @@ export function winds(name, value) {
   out.set(a, 2 + n);
   out.set(b, 2 + 2 * n);
   return out;
+}
+
+// Wraps every method and getter on the prototype of `instance` (an object of an exported
+// class, made only for this and freed here) so that a call on an object whose free() has
+// run throws an Error that says so: wasm-bindgen's own check would throw "null pointer
+// passed to rust", which names neither the object nor the cause. A second free() does
+// nothing. `__wbg_ptr` is wasm-bindgen's field for the object's memory, 0 once freed (the
+// version is pinned in Cargo.toml; the Node tests fail if that changes).
+export function guardFreed(instance, className, what, stateKeys) {
+  const proto = Object.getPrototypeOf(instance);
+  if (typeof instance.__wbg_ptr === "number" && !Object.prototype.hasOwnProperty.call(proto, "__aerostrataGuarded")) {
+    Object.defineProperty(proto, "__aerostrataGuarded", { value: true });
+    if (stateKeys !== "") {
+      Object.defineProperty(proto, "batchInto", { value: batchInto(stateKeys), writable: true, configurable: true });
+    }
+    for (const key of Object.getOwnPropertyNames(proto)) {
+      if (key === "constructor" || key.startsWith("__")) continue;
+      const d = Object.getOwnPropertyDescriptor(proto, key);
+      const place = className + "." + key + (d.get ? "" : "()");
+      // Another class's object would be read as this one's memory: refused too.
+      const own = (self) => {
+        if (self === null || typeof self !== "object" || !proto.isPrototypeOf(self)) {
+          const article = /^[AEIOU]/.test(className) ? "an " : "a ";
+          throw new TypeError(place + ": called on something that is not " + article + className);
+        }
+      };
+      const check = (self) => {
+        own(self);
+        if (self.__wbg_ptr === 0) throw new Error(place + ": this " + what + " was freed (its free() was called); make a new one");
+      };
+      if (key === "free" && typeof d.value === "function") {
+        const free = d.value;
+        d.value = function () {
+          own(this);
+          if (this.__wbg_ptr !== 0) free.call(this);
+        };
+      } else if (typeof d.value === "function") {
+        const f = d.value;
+        d.value = function (...args) {
+          check(this);
+          return f.apply(this, args);
+        };
+      } else if (d.get) {
+        const g = d.get;
+        d.get = function () {
+          check(this);
+          return g.call(this);
+        };
+      } else {
+        continue;
+      }
+      Object.defineProperty(proto, key, d);
+    }
+  }
+  instance.free();
+}
+
+// Altitudes per chunk of `batchInto`: the module then holds 128 KiB of altitudes and at
+// most 20 x 128 KiB of values at once, whatever the batch's length.
+const CHUNK = 16384;
+
+// `AtmosphereModel.batchInto(altitudesM, outputs, altitudeKind?)`: `batch` chunk by
+// chunk, each chunk's columns copied into the caller's Float64Arrays (`outputs`, keys
+// among the comma-separated `stateKeys`). Every number comes from `batch`; this only
+// checks the arrays, cuts the altitudes and moves the columns. An error of a chunk names
+// the altitude's index in the whole array.
+function batchInto(stateKeys) {
+  return function batchInto(altitudesM, outputs, altitudeKind) {
+    if (!(altitudesM instanceof Float64Array) && !Array.isArray(altitudesM)) {
+      throw typeError("altitudesM", "a Float64Array or an array of numbers", altitudesM);
+    }
+    const n = altitudesM.length;
+    const object = options("outputs", outputs, stateKeys);
+    if (object === undefined) throw typeError("outputs", "an object of Float64Arrays", outputs);
+    const keys = Object.keys(object);
+    if (keys.length === 0) {
+      throw new RangeError("outputs lists 0 names; the allowed range is 1 to " + stateKeys.split(",").length);
+    }
+    const arrays = keys.map((key) => {
+      const array = object[key];
+      if (!(array instanceof Float64Array)) throw typeError("outputs." + key, "a Float64Array", array);
+      if (array.length !== n) {
+        throw new RangeError(
+          "outputs." + key + " has " + array.length + " elements and altitudesM " + n + "; they must have the same length",
+        );
+      }
+      return array;
+    });
+    for (let start = 0; start < n; start += CHUNK) {
+      const end = Math.min(n, start + CHUNK);
+      const chunk = altitudesM instanceof Float64Array ? altitudesM.subarray(start, end) : altitudesM.slice(start, end);
+      let columns;
+      try {
+        columns = this.batch(chunk, keys, altitudeKind);
+      } catch (e) {
+        const place = /^altitudesM\[(\d+)\]/.exec(e.message);
+        if (place === null || start === 0) throw e;
+        throw new e.constructor("altitudesM[" + (start + Number(place[1])) + "]" + e.message.slice(place[0].length));
+      }
+      for (let j = 0; j < keys.length; j++) arrays[j].set(columns[keys[j]], start);
+    }
+    if (n === 0) this.batch([], keys, altitudeKind); // the kind is checked even for no altitudes
+    return outputs;
+  };
 }
 
 export function parseJson(text) {

@@ -122,6 +122,14 @@ extern "C" {
     #[wasm_bindgen(catch)]
     pub fn winds(name: &str, value: &JsValue) -> Result<Vec<f64>, JsValue>;
 
+    /// Makes every method and getter of `instance`'s class throw an `Error` naming the
+    /// class and the method when called on a freed object (`what` names it: "model"),
+    /// a `TypeError` on an object of another class, and a second `free()` do nothing;
+    /// then frees `instance`. For `AtmosphereModel` it also adds `batchInto`, whose
+    /// outputs may be named by the comma-separated `state_keys`.
+    #[wasm_bindgen(js_name = guardFreed)]
+    pub fn guard_freed(instance: JsValue, class_name: &str, what: &str, state_keys: &str);
+
     /// `JSON.parse(text)` of text this module wrote.
     #[wasm_bindgen(catch, js_name = parseJson)]
     pub fn parse_json(text: &str) -> Result<JsValue, JsValue>;

@@ -66,6 +66,21 @@ pub fn version() -> alloc::string::String {
     alloc::string::String::from(env!("CARGO_PKG_VERSION"))
 }
 
+/// Runs once when the module is instantiated: makes the methods of a freed
+/// `AtmosphereModel` or `WindProfile` throw an `Error` that says it was freed, and adds
+/// `AtmosphereModel.batchInto` (see `guardFreed` in glue.js), by reaching each class's
+/// prototype through a throwaway object. `batchInto` lives in glue.js because it is only
+/// `batch` called chunk by chunk, and the module has a size budget.
+#[wasm_bindgen(start, skip_typescript, js_name = __aerostrataStart)]
+fn start() {
+    let keys = quantity::keys(aerostrata::Quantity::of_group(aerostrata::quantity::Group::State));
+    let model = AtmosphereModel::from_model(model::Model::Us1976);
+    js::guard_freed(JsValue::from(model), "AtmosphereModel", "model", &keys);
+    if let Some(calm) = WindProfile::calm() {
+        js::guard_freed(JsValue::from(calm), "WindProfile", "wind profile", "");
+    }
+}
+
 /// The TypeScript types of the catalogue's quantities, written by build.rs from the core's
 /// catalogue.
 #[wasm_bindgen(typescript_custom_section)]
@@ -140,6 +155,26 @@ export interface FlightSamples {
   axisElevationDeg?: Float64Array;
   axisAzimuthDeg?: Float64Array;
   ignored: string[];
+}
+
+export interface AtmosphereModel {
+  /**
+   * Batch evaluation into the caller's arrays: for every altitude of `altitudesM` (metres
+   * of `altitudeKind`), each quantity of the state that `outputs` names, written to
+   * `outputs[name][i]`. `outputs` maps names of `AtmosphereState` to `Float64Array`s of
+   * `altitudesM.length` elements each; returns `outputs`.
+   *
+   * Memory: the caller's arrays (8 bytes per value) and, inside the module, one chunk of
+   * 16 384 altitudes at a time (2.6 MiB of data with all 20 quantities), where `batch`
+   * holds every value twice. Not all or nothing: the first bad altitude throws as in
+   * `batch` (naming its index in the whole array), and elements before it may already
+   * have been written.
+   */
+  batchInto(
+    altitudesM: Float64Array | number[],
+    outputs: Partial<Record<StateQuantity, Float64Array>>,
+    altitudeKind?: AltitudeKind,
+  ): Partial<Record<StateQuantity, Float64Array>>;
 }
 
 /** The altitudes a model accepts. */

@@ -24,6 +24,15 @@ pub struct WindProfile {
     profile: Profile<Vec<WindLevel>>,
 }
 
+impl WindProfile {
+    /// One calm level: the throwaway object through which the module start reaches the
+    /// class (see `start` in lib.rs).
+    pub(crate) fn calm() -> Option<Self> {
+        let level = WindLevel::new(0.0, 0.0, 0.0).ok()?;
+        Profile::new(alloc::vec![level]).ok().map(|profile| Self { profile })
+    }
+}
+
 /// A wind failure as a `RangeError`, naming level `index` where the core did not.
 fn level_failure(e: aerostrata::Error, index: usize) -> Failure {
     let failure = Failure::from(e);

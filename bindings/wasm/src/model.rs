@@ -516,8 +516,8 @@ pub fn standard_state(
 }
 
 /// The number densities (1/m^3) of the six species of the 1976 standard above 86 km:
-/// N2, O, O2, Ar, He and H (zero below 150 km), at `altitudeM` metres of `altitudeKind`,
-/// from 86 km to 1000 km geometric.
+/// N2, O, O2, Ar, He and H (below 150 km, where the standard lists none, H continues its
+/// equation), at `altitudeM` metres of `altitudeKind`, from 86 km to 1000 km geometric.
 ///
 /// Throws a `RangeError` outside 86 km to 1000 km geometric.
 #[wasm_bindgen(js_name = standardSpecies, unchecked_return_type = "SpeciesNumberDensities")]

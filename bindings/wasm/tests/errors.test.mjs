@@ -198,6 +198,9 @@ const GARBAGE = [
 
 /** Plausible arguments for each export, so that one garbage argument reaches deep. */
 const VALID = {
+  // The module's start function (glue.js's guardFreed), which wasm-bindgen exports too;
+  // called again it changes nothing.
+  __aerostrataStart: [],
   dynamicPressurePa: [1.2, 100],
   dynamicPressureFromMachPa: [1e5, 0.8],
   dragN: [1e4, 0.5, 0.01],
@@ -249,6 +252,7 @@ const STATIC = {
 const METHODS = {
   state: [1000, "geometric"],
   batch: [[0, 1000], ["temperatureK", "densityKgM3"], "geometric"],
+  batchInto: [[0, 1000], { temperatureK: new Float64Array(2), densityKgM3: new Float64Array(2) }, "geometric"],
   altitudeOf: ["pressure", 5e4],
   terminalVelocityMS: [1000, 1, 1, 1.5, "geometric"],
   scanFlight: [[0, 1, 2], [0, 100, 300], [0, 150, 250], { drag: 0.5, referenceAreaM2: 0.01, referenceLengthM: 1 }],

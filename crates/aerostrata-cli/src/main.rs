@@ -13,7 +13,7 @@ use std::process::ExitCode;
 
 use aerostrata_cli::commands::{airspeed, altitude, completions, eval, flight, man, plot, quantities, table};
 use aerostrata_cli::Failure;
-use clap::{CommandFactory, Parser, Subcommand};
+use clap::{CommandFactory, FromArgMatches, Parser, Subcommand};
 
 /// Air properties of the U.S. Standard Atmosphere 1976 (-5 km to 1000 km) on a
 /// standard, hot or cold day, a sounding or any --model, and the aerodynamics of a flight
@@ -62,8 +62,32 @@ enum Command {
     Man(man::ManArgs),
 }
 
+/// The command line with one rule for every option's value: any option that takes a
+/// number, a text or a path (not one of a fixed list) takes one that starts with `-`
+/// (`--step -1`, `--label -x`), which the option's own check then judges, so that clap
+/// never refuses a negative number as an unknown option for some options and not others.
+fn command() -> clap::Command {
+    fn hyphen_values(command: clap::Command) -> clap::Command {
+        command
+            .mut_args(|arg| {
+                let takes_text = !arg.is_positional()
+                    && arg.get_num_args().is_none_or(|n| n.takes_values())
+                    && arg.get_action().takes_values()
+                    && arg.get_possible_values().is_empty();
+                if takes_text {
+                    arg.allow_hyphen_values(true)
+                } else {
+                    arg
+                }
+            })
+            .mut_subcommands(hyphen_values)
+    }
+    hyphen_values(Cli::command())
+}
+
 fn main() -> ExitCode {
-    let cli = match Cli::try_parse() {
+    let parsed = command().try_get_matches().and_then(|mut matches| Cli::from_arg_matches_mut(&mut matches));
+    let cli = match parsed {
         Ok(cli) => cli,
         Err(error) => return usage_error(&error),
     };
@@ -75,8 +99,8 @@ fn main() -> ExitCode {
         Command::Altitude(args) => altitude::run(&args),
         Command::Plot(command) => plot::run(&command),
         Command::Quantities(args) => quantities::run(&args),
-        Command::Completions(args) => completions::run(&args, Cli::command()),
-        Command::Man(args) => man::run(&args, Cli::command()),
+        Command::Completions(args) => completions::run(&args, command()),
+        Command::Man(args) => man::run(&args, command()),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,
@@ -138,7 +162,46 @@ mod tests {
 
     #[test]
     fn the_command_line_is_consistent() {
-        Cli::command().debug_assert();
+        command().debug_assert();
+    }
+
+    /// Common practice, no source: a negative number is a value wherever an option takes
+    /// one; each option's own check then refuses it with the option's name (before, `--step
+    /// -1`, `--plateau-fraction -1` and `--width -5` were refused as unknown arguments).
+    #[test]
+    fn every_option_with_a_value_takes_a_leading_hyphen() {
+        let mut stack = vec![command()];
+        let mut checked = 0;
+        while let Some(mut sub) = stack.pop() {
+            sub.build();
+            for arg in sub.get_arguments() {
+                let free = !arg.is_positional()
+                    && arg.get_action().takes_values()
+                    && arg.get_possible_values().is_empty();
+                if free {
+                    assert!(arg.is_allow_hyphen_values_set(), "{} --{:?}", sub.get_name(), arg.get_long());
+                    checked += 1;
+                }
+            }
+            stack.extend(sub.get_subcommands().cloned());
+        }
+        assert!(checked > 30, "{checked}");
+        for (args, option) in [
+            (&["table", "--from", "0", "--to", "1", "--step", "-1"][..], "--step"),
+            (&["flight", "f.csv", "--plateau-fraction", "-1"][..], "--plateau-fraction"),
+            (&["plot", "flight", "f.csv", "--width", "-5"][..], "--width"),
+            (&["plot", "profile", "--label", "-x"][..], ""),
+        ] {
+            let argv = std::iter::once("aerostrata").chain(args.iter().copied());
+            match command().try_get_matches_from(argv) {
+                Ok(_) => assert!(option != "--width"),
+                Err(e) => {
+                    let text = e.to_string();
+                    assert!(!text.contains("unexpected argument"), "{args:?}: {text}");
+                    assert!(text.contains(option), "{args:?}: {text}");
+                }
+            }
+        }
     }
 
     #[test]

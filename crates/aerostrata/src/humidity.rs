@@ -30,7 +30,9 @@ pub const MOLAR_MASS_RATIO: f64 = WATER_MOLAR_MASS_KG_KMOL / SEA_LEVEL_MOLAR_MAS
 /// Lowest temperature (and dew point) at which the saturation formula is used, K
 /// (-100 degC). Buck fitted it from -40 to +50 degC; below -40 degC its error grows, but
 /// the vapour there is so thin that its effect on density stays below 1e-5.
-pub const MIN_TEMPERATURE_K: f64 = CELSIUS_ZERO_K - 100.0;
+/// (Written as a decimal: 273.15 - 100 in f64 is 173.14999999999998, which messages
+/// would print.)
+pub const MIN_TEMPERATURE_K: f64 = 173.15;
 
 /// Highest temperature (and dew point) at which the saturation formula is used, K
 /// (+60 degC, where it reads 0.4 % above the handbook value; see the tests).

@@ -40,6 +40,7 @@ mod deserialize;
 pub mod aero;
 pub mod airspeed;
 pub mod altitude;
+pub mod batch;
 pub mod constants;
 mod error;
 pub mod flight;

@@ -168,7 +168,7 @@ catalogue! {
     HeliumNumberDensity = 24, Species, "n_He", "He", "He number density",
         "atoms of helium per volume, above 86 km", PER_CUBIC_METRE, PER_CUBIC_FOOT, true, Scientific, true;
     AtomicHydrogenNumberDensity = 25, Species, "n_H", "H", "H number density",
-        "atoms of hydrogen per volume, above 150 km (0 from 86 to 150 km)", PER_CUBIC_METRE, PER_CUBIC_FOOT, true, Scientific, true;
+        "atoms of hydrogen per volume, above 86 km (below 150 km a continuation)", PER_CUBIC_METRE, PER_CUBIC_FOOT, true, Scientific, true;
     // A flight sample (ids 26 to 34); it also carries temperature, pressure, density and
     // speed of sound.
     Time = 26, Flight, "time", "t", "time",
@@ -370,11 +370,10 @@ impl core::fmt::Display for ColumnError<'_> {
             ColumnError::Unknown => f.write_str("no quantity has that name"),
             ColumnError::Unit { quantity, unit } => {
                 let dimension = quantity.si().dimension();
-                let (unit, cut) = units::shorten(unit, 40);
                 write!(
                     f,
-                    "unknown unit '{unit}{}' for the {}; write {}",
-                    if cut { "..." } else { "" },
+                    "unknown unit {} for the {}; write {}",
+                    units::Quoted(unit),
                     quantity.info().label,
                     units::UnitList(dimension)
                 )

@@ -250,8 +250,7 @@ impl fmt::Display for HeaderError<'_> {
                 write!(f, "the header has {count} or more columns; a table has at most {MAX_COLUMNS}")
             }
             HeaderError::Unit { index, heading, error } => {
-                let (shown, cut) = units::shorten(heading, 40);
-                write!(f, "column {} '{shown}{}': {error}", index + 1, if cut { "..." } else { "" })
+                write!(f, "column {} {}: {error}", index + 1, units::Quoted(heading))
             }
             HeaderError::Duplicate { quantity, first, second } => write!(
                 f,

@@ -142,3 +142,27 @@ fn a_sounding_with_half_a_wind_loads() {
     let error = read_csv(none, &Options::default()).unwrap_err().to_string();
     assert!(error.contains("no wind on any row"), "{error}");
 }
+
+/// Headings, units and cells are echoed with control characters escaped (a fuzzing
+/// finding: they were quoted raw), as the unit parser's own messages do.
+#[test]
+fn echoed_text_has_no_control_characters() {
+    let cases = [
+        "geometric_altitude_m,wind_speed (k\u{1}t),wind_direction_deg\n0,3,90\n",
+        "geometric_altitude_m,wind_speed_m_s,wind_direction_deg\n0,3\u{7},90\n",
+        "geometric_altitude_m,temperature (de\u{1b}[31mC),pressure_Pa\n0,15,101325\n1000,8.5,\n",
+        "geometric_altitude_m,temperature_K,pressure_Pa\n0,2\u{0}88,101325\n1000,281.65,\n",
+    ];
+    for text in cases {
+        let messages = [
+            read_winds_csv(text, &Options::default()).map(|_| ()).unwrap_err().to_string(),
+            read_csv(text, &Options::default()).map(|_| ()).err().map(|e| e.to_string()).unwrap_or_default(),
+        ];
+        for message in messages {
+            assert!(!message.chars().any(char::is_control), "{message:?}");
+        }
+    }
+    let header = aerostrata::table::Header::read("temperature (de\u{1}C)", |_| true, |q| q.si());
+    let message = header.unwrap_err().to_string();
+    assert!(message.contains("de\\u{1}C") && !message.chars().any(char::is_control), "{message:?}");
+}

@@ -13,6 +13,9 @@
 //!                               functions over the C library); --check installs it into a fresh
 //!                               profile and checks its formulas; --windows the DLLs under Wine
 //! cargo xtask bench             run the criterion benchmarks, write docs/performance.md
+//! cargo xtask batch-bench       a million states: the core's batch (one thread, rayon) vs numpy
+//! cargo xtask cli-bench         the CLI's eval and flight on a million rows against `cat` and
+//!                               the core's own loop; writes docs/performance.md
 //! cargo xtask bits              every vector quantity's f64 bit pattern, natively (stdout)
 //! cargo xtask bits --compare FILE  another host's bit lines in FILE against the native ones
 //! cargo xtask firmware          the vectors in QEMU on Cortex-M4F and M3, bit for bit against
@@ -39,9 +42,11 @@
 extern crate aerostrata as aerostrata_core;
 
 mod addin;
+mod batch_bench;
 mod bench;
 mod c;
 mod catalogue;
+mod cli_bench;
 mod firmware;
 mod fuzz;
 mod icount;
@@ -60,8 +65,8 @@ use std::process::ExitCode;
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
                      | addin [--check] [--windows] \
-                     | bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
-                     | icount [--against REV] | catalogue | fuzz [--seconds N]";
+                     | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
+                     | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N]";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -70,6 +75,9 @@ fn main() -> ExitCode {
         Some("test") => test::run(&root),
         Some("validate") => rust::validate::run(&root, args.iter().any(|a| a == "--check")),
         Some("bench") => bench::run(&root),
+        Some("batch-bench") => batch_bench::run(&root),
+        Some("cli-bench") => cli_bench::run(&root),
+        Some("cli-bench-core") => cli_bench::core(&args[1..]),
         Some("upper-table") => rust::upper::run(&root, args.iter().any(|a| a == "--check")),
         Some("flash") => rust::flash::check(&root, &[], &[]),
         Some("header") => c::header::run(&root, args.iter().any(|a| a == "--check")),

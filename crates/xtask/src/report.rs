@@ -1,4 +1,4 @@
-//! docs/performance.md is written by several commands (`bench`, `wasm-bench`, `icount`),
+//! docs/performance.md is written by several commands (`bench`, `wasm-bench`, `icount`, `batch-bench`, `cli-bench`),
 //! each owning one section between a pair of HTML comment markers; a command rewrites its
 //! own section and keeps the others.
 
@@ -21,8 +21,20 @@ pub const ICOUNT: Section = Section {
     end: "<!-- icount: end -->",
 };
 
+/// The section `batch-bench` writes.
+pub const BATCH: Section = Section {
+    begin: "<!-- batch-bench: begin (written by `cargo xtask batch-bench`) -->",
+    end: "<!-- batch-bench: end -->",
+};
+
+/// The section `cli-bench` writes.
+pub const CLI: Section = Section {
+    begin: "<!-- cli-bench: begin (written by `cargo xtask cli-bench`) -->",
+    end: "<!-- cli-bench: end -->",
+};
+
 /// Every section another command owns, in the order they follow `bench`'s text.
-pub const KEPT: [Section; 2] = [ICOUNT, WASM];
+pub const KEPT: [Section; 4] = [ICOUNT, WASM, BATCH, CLI];
 
 impl Section {
     /// Replaces this section of `report` with `text` (markers included), or appends it.

@@ -49,7 +49,7 @@ pub fn apt_install(root: &Path, packages: &[&str]) -> Result<(), String> {
         .run()
 }
 
-fn dpkg_installed(package: &str) -> bool {
+pub(crate) fn dpkg_installed(package: &str) -> bool {
     Cmd::new("dpkg-query")
         .args(["-W", "-f=${Status}", package])
         .quiet()

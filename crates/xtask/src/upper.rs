@@ -12,7 +12,10 @@
 //! Method: classical fourth-order Runge-Kutta on y = ln n for N2, O, O2, Ar and He from
 //! 86 km up, with a fixed step of 5 m, restarted at every altitude where a coefficient
 //! changes form; then hydrogen (linear in n_H, because of its flux term) from its 500 km
-//! value down to 150 km and up to 1000 km with a 10 m step over the stored densities.
+//! value down and up to 1000 km with a 10 m step over the stored densities. The standard
+//! defines hydrogen from 150 km up only; below, its own equation (flux, molecular and the
+//! standard's eddy diffusion) is continued down to 86 km, so n_H is continuous at 150 km
+//! instead of appearing there at once (see `hydrogen_rhs`).
 //! The integration error is estimated by repeating with twice the step (RK4: the error
 //! at step h is about 1/15 of the difference) and must stay below 1e-10 in ln n.
 
@@ -118,6 +121,12 @@ fn flow(species: usize, z_m: f64, regime_z_m: f64) -> f64 {
     per_km / 1000.0
 }
 
+/// The core's temperature profile at an altitude of the integration, 86 to 1000 km (the
+/// integration never steps outside it; NaN would show in the table's check if it did).
+fn temperature_at(z_m: f64) -> (f64, f64) {
+    temperature(z_m).unwrap_or((f64::NAN, f64::NAN))
+}
+
 fn gravity(z_m: f64) -> f64 {
     let ratio = EARTH_RADIUS_M / (EARTH_RADIUS_M + z_m);
     G0_M_S2 * ratio * ratio
@@ -126,7 +135,7 @@ fn gravity(z_m: f64) -> f64 {
 /// d(ln n)/dZ of N2, O, O2, Ar, He at `z_m`, with the coefficient forms of the piece
 /// containing `regime_z_m` (which settles the side at a break).
 fn rhs(z_m: f64, y: &[f64; 5], regime_z_m: f64) -> [f64; 5] {
-    let (t, dt_dz) = temperature(z_m);
+    let (t, dt_dz) = temperature_at(z_m);
     let g = gravity(z_m);
     let mb = background_molar_mass(regime_z_m);
     let k = eddy(z_m, regime_z_m);
@@ -147,12 +156,25 @@ fn rhs(z_m: f64, y: &[f64; 5], regime_z_m: f64) -> [f64; 5] {
 }
 
 /// d(n_H)/dZ at `z_m` for hydrogen density `n_h` over background density `total` (the
-/// other five species).
-fn hydrogen_rhs(z_m: f64, n_h: f64, total: f64) -> f64 {
-    let (t, dt_dz) = temperature(z_m);
+/// other five species), with the coefficient forms of the piece containing `regime_z_m`.
+///
+/// The flux form of the species' equations, with the hydrogen flux phi in place of a
+/// fitted flow term:
+///   dn/dZ = -n [(1 + alpha D/(D+K)) T'/T + g (D M_H + K M) / ((D+K) R T)] - phi/(D+K).
+/// Above 115 km, where K = 0, it is the standard's hydrogen equation; below 150 km the
+/// standard gives no hydrogen, and this continues the same equation down to 86 km with
+/// the standard's K and background weight M, as for the other species. Integrated
+/// downward it is well behaved: n_H grows downward like its own scale height and the
+/// flux term, both positive, so n_H stays positive and smooth, and its share of N falls
+/// from 7.3e-6 at 150 km to 1.7e-6 at 86 km.
+fn hydrogen_rhs(z_m: f64, n_h: f64, total: f64, regime_z_m: f64) -> f64 {
+    let (t, dt_dz) = temperature_at(z_m);
     let d = DIFFUSION_A[4] / total * libm::pow(t / 273.15, DIFFUSION_B[4]);
-    let per_weight = gravity(z_m) * MOLAR_MASS_KG_KMOL[5] / (GAS_CONSTANT_J_KMOL_K * t);
-    -n_h * ((1.0 + ALPHA[4]) * dt_dz / t + per_weight) - HYDROGEN_FLUX / d
+    let k = eddy(z_m, regime_z_m);
+    let share = d / (d + k);
+    let weight = MOLAR_MASS_KG_KMOL[5] * share + background_molar_mass(regime_z_m) * (1.0 - share);
+    let per_weight = gravity(z_m) * weight / (GAS_CONSTANT_J_KMOL_K * t);
+    -n_h * ((1.0 + ALPHA[4] * share) * dt_dz / t + per_weight) - HYDROGEN_FLUX / (d + k)
 }
 
 /// The integrated profiles at every multiple of the step from 86 to 1000 km.
@@ -160,7 +182,7 @@ pub struct Solution {
     pub step_m: f64,
     /// ln n of N2, O, O2, Ar, He at 86 km + i step.
     pub ln_n: Vec<[f64; 5]>,
-    /// n_H at 86 km + i step for altitudes >= 150 km at even i (0 elsewhere).
+    /// n_H at 86 km + i step at even i (0 at odd i); below 150 km the continuation.
     pub n_h: Vec<f64>,
 }
 
@@ -169,7 +191,7 @@ impl Solution {
         ((z_m - BREAKS_M[0]) / self.step_m).round() as usize
     }
 
-    /// ln n of all six species at a multiple of twice the step (H: -inf below 150 km).
+    /// ln n of all six species at a multiple of twice the step.
     pub fn ln_n_at(&self, z_m: f64) -> [f64; 6] {
         let i = self.index(z_m);
         let y = self.ln_n[i];
@@ -204,23 +226,25 @@ pub fn integrate(step_m: f64) -> Solution {
     let mut n_h = vec![0.0; ln_n.len()];
     let z_of = |i: usize| BREAKS_M[0] + i as f64 * step_m;
     let anchor = ((HYDROGEN_ANCHOR_M - BREAKS_M[0]) / step_m).round() as usize;
-    let bottom = ((HYDROGEN_FROM_M - BREAKS_M[0]) / step_m).round() as usize;
     n_h[anchor] = HYDROGEN_500;
     // RK4 with step 2h, so that the midpoints are stored points of the other species.
+    // Every break is a multiple of 2h from the anchor, so no step straddles one and its
+    // midpoint settles the coefficients' forms.
     for direction in [-1i64, 1] {
         let mut i = anchor as i64;
         let mut n = HYDROGEN_500;
         loop {
             let next = i + 2 * direction;
-            if next < bottom as i64 || next as usize >= ln_n.len() {
+            if next < 0 || next as usize >= ln_n.len() {
                 break;
             }
             let (i0, im, i1) = (i as usize, (i + direction) as usize, next as usize);
             let h = 2.0 * step_m * direction as f64;
-            let k1 = hydrogen_rhs(z_of(i0), n, total(i0));
-            let k2 = hydrogen_rhs(z_of(im), n + 0.5 * h * k1, total(im));
-            let k3 = hydrogen_rhs(z_of(im), n + 0.5 * h * k2, total(im));
-            let k4 = hydrogen_rhs(z_of(i1), n + h * k3, total(i1));
+            let regime = z_of(im);
+            let k1 = hydrogen_rhs(z_of(i0), n, total(i0), regime);
+            let k2 = hydrogen_rhs(z_of(im), n + 0.5 * h * k1, total(im), regime);
+            let k3 = hydrogen_rhs(z_of(im), n + 0.5 * h * k2, total(im), regime);
+            let k4 = hydrogen_rhs(z_of(i1), n + h * k3, total(i1), regime);
             n += h / 6.0 * (k1 + 2.0 * k2 + 2.0 * k3 + k4);
             n_h[i1] = n;
             i = next;
@@ -244,13 +268,9 @@ fn node(solution: &Solution, z_m: f64, regime_z_m: f64) -> Node {
     let i = solution.index(z_m);
     let y = solution.ln_n[i];
     let d = rhs(z_m, &y, regime_z_m);
-    let (mut h_value, mut h_slope) = (0.0, 0.0);
-    if z_m >= HYDROGEN_FROM_M {
-        let n_h = solution.n_h[i];
-        let total: f64 = y.iter().map(|v| libm::exp(*v)).sum();
-        h_value = n_h.ln();
-        h_slope = hydrogen_rhs(z_m, n_h, total) / n_h;
-    }
+    let n_h = solution.n_h[i];
+    let total: f64 = y.iter().map(|v| libm::exp(*v)).sum();
+    let (h_value, h_slope) = (n_h.ln(), hydrogen_rhs(z_m, n_h, total, regime_z_m) / n_h);
     Node { ln_n: [y[0], y[1], y[2], y[3], y[4], h_value], slope: [d[0], d[1], d[2], d[3], d[4], h_slope] }
 }
 
@@ -285,9 +305,6 @@ fn generate(solution: &Solution, integration_error: f64, verbose: bool) -> (Stri
                 let u = (z - z0) / step;
                 let truth = solution.ln_n_at(z);
                 for s in 0..6 {
-                    if s == 5 && z0 < HYDROGEN_FROM_M {
-                        continue;
-                    }
                     let slope = |n: &Node| f64::from(n.slope[s] as f32);
                     let value =
                         hermite(pair[0].ln_n[s], pair[1].ln_n[s], slope(&pair[0]), slope(&pair[1]), step, u);
@@ -310,9 +327,9 @@ fn generate(solution: &Solution, integration_error: f64, verbose: bool) -> (Stri
          // ln n (n in 1/m^3) and d(ln n)/dZ (per metre) of N2, O, O2, Ar, He, H at the nodes of\n\
          // each segment, from the diffusion equations of the U.S. Standard Atmosphere 1976\n\
          // integrated by RK4 at a {STEP_M} m step (estimated integration error {integration_error:.1e} in\n\
-         // ln n). Hydrogen is zero below 150 km (its entries there are placeholders). Cubic\n\
-         // Hermite interpolation of this table departs from the integration by at most\n\
-         // {worst:.1e} in ln n.\n\n\
+         // ln n). The standard gives hydrogen from 150 km up; below, its entries continue its\n\
+         // equation down to 86 km. Cubic Hermite interpolation of this table departs from the\n\
+         // integration by at most {worst:.1e} in ln n.\n\n\
          use super::segment::Segment;\n\n\
          #[rustfmt::skip]\n\
          pub(super) static SEGMENTS: [Segment; {}] = [\n{segments}];\n\n\
@@ -356,6 +373,23 @@ fn hermite(y0: f64, y1: f64, d0: f64, d1: f64, step: f64, u: f64) -> f64 {
         + step * ((u3 - 2.0 * u2 + u) * d0 + (u3 - u2) * d1)
 }
 
+/// The largest share n_H/N of hydrogen's continuation below 150 km, and where.
+fn hydrogen_share_below_150_km(solution: &Solution) -> (f64, f64) {
+    let mut worst = (0.0f64, 0.0);
+    for i in (0..solution.ln_n.len()).step_by(2) {
+        let z = BREAKS_M[0] + i as f64 * solution.step_m;
+        if z > HYDROGEN_FROM_M {
+            break;
+        }
+        let heavy: f64 = solution.ln_n[i].iter().map(|v| libm::exp(*v)).sum();
+        let share = solution.n_h[i] / (heavy + solution.n_h[i]);
+        if share > worst.0 {
+            worst = (share, z);
+        }
+    }
+    worst
+}
+
 /// The worst difference in ln n between integrations at `STEP_M` and twice it, over
 /// their common points, divided by 15: RK4's error estimate at `STEP_M`.
 fn integration_error(fine: &Solution, coarse: &Solution) -> f64 {
@@ -367,7 +401,7 @@ fn integration_error(fine: &Solution, coarse: &Solution) -> f64 {
             worst = worst.max((f[s] - c[s]).abs());
         }
         // Hydrogen lives on every other point of each solution.
-        if z >= HYDROGEN_FROM_M && i % 2 == 0 {
+        if i % 2 == 0 {
             let (a, b) = (fine.n_h[fine.index(z)], coarse.n_h[i]);
             if a > 0.0 && b > 0.0 {
                 worst = worst.max((a.ln() - b.ln()).abs());
@@ -386,6 +420,10 @@ pub fn run(root: &Path, check_only: bool) -> Result<(), String> {
         return Err(format!("integration error {error:e} exceeds {INTEGRATION_TOLERANCE:e}"));
     }
     let (source, worst) = generate(&fine, error, !check_only);
+    if !check_only {
+        let (share, at) = hydrogen_share_below_150_km(&fine);
+        eprintln!("  hydrogen's continuation below 150 km: n_H/N at most {share:.3e} (at {at} m)");
+    }
     if worst > INTERPOLATION_TOLERANCE / 2.0 {
         return Err(format!(
             "table interpolation error {worst:e} exceeds half of {INTERPOLATION_TOLERANCE:e}: refine NODE_SEGMENTS"
@@ -423,16 +461,36 @@ mod tests {
             let species = US1976.species(Altitude::geometric_m(z).unwrap()).unwrap().as_array();
             let truth = solution.ln_n_at(z);
             for s in 0..6 {
-                if s == 5 && z < HYDROGEN_FROM_M {
-                    assert_eq!(species[5], 0.0);
-                    continue;
-                }
                 worst = worst.max((species[s].ln() - truth[s]).abs());
             }
             points += 1;
         }
         assert!(points > 90_000);
         assert!(worst <= INTERPOLATION_TOLERANCE, "worst interpolation error {worst:e}");
+    }
+
+    /// Hydrogen below 150 km, where the standard lists none, is its equation continued
+    /// downward: positive, falling with altitude, its share of N largest at 150 km, and
+    /// meeting the standard's hydrogen there in value (one integration runs through it)
+    /// and in slope (the equation's two sides agree at 150 km, where K = 0).
+    #[test]
+    fn hydrogen_continuation_is_small_falls_and_meets_the_standard_at_150_km() {
+        let solution = integrate(STEP_M);
+        let heavy = |i: usize| -> f64 { solution.ln_n[i].iter().map(|v| libm::exp(*v)).sum() };
+        let share = |i: usize| solution.n_h[i] / (heavy(i) + solution.n_h[i]);
+        let top = solution.index(HYDROGEN_FROM_M);
+        let mut below = f64::INFINITY;
+        for i in (0..=top).step_by(2) {
+            let n_h = solution.n_h[i];
+            assert!(n_h > 0.0 && n_h < below, "n_H {n_h} at {} m", BREAKS_M[0] + i as f64 * STEP_M);
+            assert!(share(i) <= share(top));
+            below = n_h;
+        }
+        assert!(share(0) > 1e-6 && share(top) < 1e-5, "{} {}", share(0), share(top));
+        let (n_h, total) = (solution.n_h[top], heavy(top));
+        let from_below = hydrogen_rhs(HYDROGEN_FROM_M, n_h, total, 140e3);
+        let from_above = hydrogen_rhs(HYDROGEN_FROM_M, n_h, total, 175e3);
+        assert_eq!(from_below.to_bits(), from_above.to_bits());
     }
 
     #[test]

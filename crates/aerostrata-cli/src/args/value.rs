@@ -55,6 +55,22 @@ pub const TEMPERATURE: Dimensional = Dimensional {
     band: Plausible::AIR_TEMPERATURE,
     examples: "15C, 288.15K, 59F",
 };
+/// `--dew-point`: the air's dew point.
+pub const DEW_POINT: Dimensional = Dimensional {
+    option: "--dew-point",
+    quantity: Quantity::DewPoint,
+    band: Plausible::DEW_POINT,
+    examples: "12C, 285.15K, 54F",
+};
+/// A relative humidity: 0 to 100 % with respect to liquid water (the core refuses more).
+const RELATIVE_HUMIDITY_BAND: Plausible = Plausible { min_si: 0.0, max_si: 100.0, what: "relative humidity" };
+/// `--relative-humidity`: the air's relative humidity.
+pub const RELATIVE_HUMIDITY: Dimensional = Dimensional {
+    option: "--relative-humidity",
+    quantity: Quantity::RelativeHumidity,
+    band: RELATIVE_HUMIDITY_BAND,
+    examples: "65%, 65percent",
+};
 /// `--offset`: the day's temperature offset from the standard.
 pub const OFFSET: Dimensional = Dimensional {
     option: "--offset",

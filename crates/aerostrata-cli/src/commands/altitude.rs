@@ -5,8 +5,8 @@
 //! `--exact` or in CSV and JSON; a file of pressures: CSV by default.
 
 use aerostrata::inverse::{
-    altitude_of, barometric_altitude_m, density_altitude, density_altitude_from, pressure_altitude,
-    BarometricReference, Property,
+    altitude_of, barometric_altitude_m, density_altitude, density_altitude_from, density_altitude_humid,
+    pressure_altitude, BarometricReference, Moisture, Property,
 };
 use aerostrata::units::Tidy;
 use aerostrata::{Altitude, AnyModel, Atmosphere, Quantity};
@@ -14,7 +14,7 @@ use clap::{ArgGroup, Args};
 
 use crate::args::model::ModelArgs;
 use crate::args::output::OutputArgs;
-use crate::args::value::{PAD, PRESSURE, QNH, TEMPERATURE};
+use crate::args::value::{DEW_POINT, PAD, PRESSURE, QNH, RELATIVE_HUMIDITY, TEMPERATURE};
 use crate::failure::Failure;
 use crate::input::lines::{open_input, source_name};
 use crate::input::progress::When;
@@ -25,6 +25,7 @@ use crate::units::UnitSystem;
 #[derive(Args)]
 #[command(
     after_help = "Examples:\n  aerostrata altitude --pressure 843hPa --pad 981hPa --temperature 8C\n  \
+                       aerostrata altitude --pressure 1008hPa --temperature 32C --dew-point 26C\n  \
                        printf '29.92\\n20.58\\n' | aerostrata altitude - --units us --qnh 30.12inHg\n  \
                        aerostrata altitude --pressure 700hPa --model hydrostatic-offset=+15K"
 )]
@@ -46,6 +47,13 @@ pub struct AltitudeArgs {
     #[arg(long, alias = "oat", value_name = "T", allow_hyphen_values = true,
           help = TEMPERATURE.help("Outside air temperature: adds the density altitude (dry air)"))]
     temperature: Option<String>,
+    #[arg(long, value_name = "TD", allow_hyphen_values = true, requires = "temperature",
+          conflicts_with = "relative_humidity",
+          help = DEW_POINT.help("With --temperature: the dew point, for the density altitude of moist air"))]
+    dew_point: Option<String>,
+    #[arg(long, value_name = "RH", requires = "temperature",
+          help = RELATIVE_HUMIDITY.help("With --temperature: the relative humidity, for the density altitude of moist air"))]
+    relative_humidity: Option<String>,
     #[command(flatten)]
     model: ModelArgs,
     /// Every digit in the table too (CSV and JSON always carry them).
@@ -64,6 +72,7 @@ const PRESSURES: [Quantity; 2] = [Quantity::StaticPressure, Quantity::Pressure];
 struct Extras {
     reference: Option<(Quantity, BarometricReference)>,
     temperature_k: Option<f64>,
+    moisture: Option<Moisture>,
     model: Option<AnyModel>,
 }
 
@@ -104,7 +113,13 @@ impl Extras {
             model_density = Some(state.density_kg_m3);
         }
         let density = match (self.temperature_k, model_density) {
-            (Some(t), _) => Some(density_altitude_from(pa, t).map_err(|e| format!("--temperature: {e}"))?),
+            (Some(t), _) => Some(match self.moisture {
+                Some(moisture) => density_altitude_humid(pa, t, moisture).map_err(|e| match moisture {
+                    Moisture::DewPoint { .. } => format!("--dew-point: {e}"),
+                    Moisture::RelativeHumidity { .. } => format!("--relative-humidity: {e}"),
+                })?,
+                None => density_altitude_from(pa, t).map_err(|e| format!("--temperature: {e}"))?,
+            }),
             (None, Some(rho)) => Some(density_altitude(rho).map_err(|e| format!("in the model: {e}"))?),
             (None, None) => None,
         };
@@ -141,7 +156,18 @@ pub fn run(args: &AltitudeArgs) -> Result<(), Failure> {
     }
     let temperature_k = args.temperature.as_deref().map(|t| TEMPERATURE.si(t, units)).transpose()?;
     let model = args.model.given().then(|| args.model.load(units)).transpose()?.map(|m| m.atmosphere);
-    let extras = Extras { reference: reference.map(|(q, _, r)| (q, r)), temperature_k, model };
+    let moisture = match (&args.dew_point, &args.relative_humidity) {
+        (Some(td), _) => Some(Moisture::DewPoint { dew_point_k: DEW_POINT.si(td, units)? }),
+        (_, Some(rh)) => Some(Moisture::RelativeHumidity { percent: RELATIVE_HUMIDITY.si(rh, units)? }),
+        _ => None,
+    };
+    // Check the moisture once, up front, so that its error names its option.
+    if let (Some(t), Some(moisture)) = (temperature_k, moisture) {
+        let option = if args.dew_point.is_some() { "--dew-point" } else { "--relative-humidity" };
+        density_altitude_humid(101_325.0, t, moisture)
+            .map_err(|e| Failure::Input(format!("{option}: {e}")))?;
+    }
+    let extras = Extras { reference: reference.map(|(q, _, r)| (q, r)), temperature_k, moisture, model };
     let columns = extras.quantities().iter().map(|q| Column::of(units, *q)).collect();
     // A single pressure is checked before anything is written, so a bad one leaves stdout empty.
     let single = match &args.pressure {

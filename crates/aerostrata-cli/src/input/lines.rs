@@ -25,6 +25,38 @@ pub fn open_input(path: Option<&Path>, when: When) -> Result<Progress<Box<dyn Bu
     }
 }
 
+/// The text of an open file read whole (a sounding, a winds file), its lines bounded as
+/// [`DataLines`] bounds them, comments and blank lines kept as blank lines so that line
+/// numbers stay the file's; `check_header` sees the text up to the first data line (the
+/// header) before the rest is read, so that a file that is not what it should be is
+/// refused at once, however large.
+///
+/// # Errors
+/// A message naming the line: it cannot be read, is too long, or the header's check fails.
+pub fn read_text(
+    file: File,
+    mut check_header: impl FnMut(&str) -> Result<(), String>,
+) -> Result<String, String> {
+    let mut lines = DataLines::new(BufReader::with_capacity(1 << 16, file));
+    let mut text = String::new();
+    let mut count = 0;
+    while let Some((number, line)) = lines.next_line().map_err(|e| match e {
+        Failure::Input(message) => message,
+        Failure::Io(error) => error.to_string(),
+    })? {
+        for _ in count + 1..number {
+            text.push('\n');
+        }
+        text.push_str(line);
+        text.push('\n');
+        if count == 0 {
+            check_header(&text)?;
+        }
+        count = number;
+    }
+    Ok(text)
+}
+
 /// The name of an input in messages: its path, or `stdin` for `-` or none.
 pub fn source_name(path: Option<&Path>) -> String {
     match path.filter(|path| path.as_os_str() != "-") {
@@ -33,39 +65,113 @@ pub fn source_name(path: Option<&Path>) -> String {
     }
 }
 
-/// The data lines of a text input, one at a time (any number of lines in bounded memory).
+/// The longest line read, in bytes: far beyond any row of numbers or header, and small
+/// enough that a file that is no table (one line of a binary or of 200 MB of commas) is
+/// refused after reading this much rather than held whole.
+pub const MAX_LINE_BYTES: usize = 64 * 1024;
+
+/// At most 40 characters of `text` for a message, control characters written as escapes
+/// (`\u{0}`), `...` where it was cut, in quotes: what a line echoed in an error may show.
+pub fn quoted(text: &str) -> String {
+    let (cut_text, cut) = aerostrata::units::shorten(text, 40);
+    let mut out = String::with_capacity(cut_text.len() + 5);
+    out.push('\'');
+    for c in cut_text.chars() {
+        match c {
+            '\t' => out.push_str("\\t"),
+            '\r' => out.push_str("\\r"),
+            '\n' => out.push_str("\\n"),
+            c if c.is_control() => out.push_str(&format!("\\u{{{:x}}}", u32::from(c))),
+            c => out.push(c),
+        }
+    }
+    out.push_str(if cut { "...'" } else { "'" });
+    out
+}
+
+/// The data lines of a text input, one at a time (any number of lines in bounded memory,
+/// none longer than [`MAX_LINE_BYTES`]).
 pub struct DataLines<R> {
     input: R,
-    line: String,
+    line: Vec<u8>,
     number: usize,
 }
 
 impl<R: BufRead> DataLines<R> {
     /// The lines of `input`.
     pub fn new(input: R) -> Self {
-        DataLines { input, line: String::new(), number: 0 }
+        DataLines { input, line: Vec::new(), number: 0 }
     }
 
     /// The next line that is neither blank nor a `#` comment, trimmed, with its number
-    /// (from 1), or `None` at the end.
+    /// (from 1), or `None` at the end. A UTF-8 byte-order mark opening the input is
+    /// skipped, as editors write it.
     ///
     /// # Errors
-    /// [`Failure::Input`] naming the line that cannot be read (not UTF-8, or a read error).
+    /// [`Failure::Input`] naming the line that cannot be read: longer than
+    /// [`MAX_LINE_BYTES`], not UTF-8, or a read error.
     pub fn next_line(&mut self) -> Result<Option<(usize, &str)>, Failure> {
         loop {
-            self.line.clear();
             self.number += 1;
-            let number = self.number;
-            let read = self
-                .input
-                .read_line(&mut self.line)
-                .map_err(|e| Failure::Input(format!("line {number}: cannot read: {e}")))?;
-            if read == 0 {
+            if !self.read_line()? {
                 return Ok(None);
             }
-            let text = self.line.trim();
-            if !text.is_empty() && !text.starts_with('#') {
-                return Ok(Some((number, self.line.trim())));
+            let start = if self.number == 1 && self.line.starts_with(BOM) { BOM.len() } else { 0 };
+            let bytes = &self.line[start..];
+            let text = std::str::from_utf8(bytes).map_err(|e| {
+                Failure::Input(format!(
+                    "line {}: cannot read: not UTF-8 text (byte {} of the line is 0x{:02x}); save the file as \
+                     UTF-8",
+                    self.number,
+                    start + e.valid_up_to() + 1,
+                    bytes.get(e.valid_up_to()).copied().unwrap_or(0)
+                ))
+            })?;
+            let trimmed = text.trim();
+            if !trimmed.is_empty() && !trimmed.starts_with('#') {
+                // Where the trimmed text lies, so that the borrow of the line ends here.
+                let from = start + (trimmed.as_ptr() as usize - text.as_ptr() as usize);
+                let to = from + trimmed.len();
+                let text = std::str::from_utf8(&self.line[from..to]).unwrap_or_default();
+                return Ok(Some((self.number, text)));
+            }
+        }
+    }
+
+    /// Reads the next line (without its end) into `self.line`; `false` at the end.
+    fn read_line(&mut self) -> Result<bool, Failure> {
+        self.line.clear();
+        let number = self.number;
+        let mut any = false;
+        loop {
+            let buffer = match self.input.fill_buf() {
+                Ok(buffer) => buffer,
+                Err(e) if e.kind() == io::ErrorKind::Interrupted => continue,
+                Err(e) => return Err(Failure::Input(format!("line {number}: cannot read: {e}"))),
+            };
+            if buffer.is_empty() {
+                return Ok(any);
+            }
+            any = true;
+            let (chunk, used, end) = match buffer.iter().position(|b| *b == b'\n') {
+                Some(at) => (&buffer[..at], at + 1, true),
+                None => (buffer, buffer.len(), false),
+            };
+            if self.line.len() + chunk.len() > MAX_LINE_BYTES {
+                return Err(Failure::Input(format!(
+                    "line {number}: longer than {MAX_LINE_BYTES} bytes, the longest line read (it starts {}); \
+                     is this a table of numbers, one row per line?",
+                    quoted(&String::from_utf8_lossy(if self.line.is_empty() {
+                        &chunk[..chunk.len().min(160)]
+                    } else {
+                        &self.line[..self.line.len().min(160)]
+                    }))
+                )));
+            }
+            self.line.extend_from_slice(chunk);
+            self.input.consume(used);
+            if end {
+                return Ok(true);
             }
         }
     }
@@ -75,6 +181,9 @@ impl<R: BufRead> DataLines<R> {
         &mut self.input
     }
 }
+
+/// The UTF-8 byte-order mark some editors open a file with.
+const BOM: &[u8] = b"\xef\xbb\xbf";
 
 #[cfg(test)]
 mod tests {
@@ -98,5 +207,40 @@ mod tests {
             }
             other => panic!("{other:?}"),
         }
+    }
+
+    /// Common practice, no source: a line is bounded, so an endless line (here an
+    /// endless reader of commas) is refused after `MAX_LINE_BYTES`, not read forever.
+    #[test]
+    fn an_endless_line_is_refused_at_the_bound() {
+        let mut lines = DataLines::new(io::BufReader::new(io::repeat(b',')));
+        match lines.next_line() {
+            Err(Failure::Input(message)) => {
+                assert!(message.starts_with("line 1: longer than 65536 bytes"), "{message}");
+                assert!(message.contains("',,,,") && message.len() < 200, "{message}");
+            }
+            other => panic!("{other:?}"),
+        }
+        // A line of exactly the bound is read.
+        let text = format!("{}\n2\n", "1".repeat(MAX_LINE_BYTES));
+        let mut lines = DataLines::new(text.as_bytes());
+        assert_eq!(lines.next_line().unwrap().map(|(n, t)| (n, t.len())), Some((1, MAX_LINE_BYTES)));
+        assert_eq!(lines.next_line().unwrap(), Some((2, "2")));
+    }
+
+    /// Common practice, no source: editors may open a UTF-8 file with a byte-order mark,
+    /// which is no part of the first heading (before, a flight file's header with one was
+    /// refused, the mark invisible in the message); a mark later on is no mark.
+    #[test]
+    fn a_byte_order_mark_is_skipped() {
+        let mut lines = DataLines::new("\u{feff}time_s,altitude_m\n\u{feff}1\n".as_bytes());
+        assert_eq!(lines.next_line().unwrap(), Some((1, "time_s,altitude_m")));
+        assert_eq!(lines.next_line().unwrap(), Some((2, "\u{feff}1")));
+    }
+
+    #[test]
+    fn echoed_text_is_short_and_escaped() {
+        assert_eq!(quoted("ab\0\t"), "'ab\\u{0}\\t'");
+        assert_eq!(quoted(&"x".repeat(100)), format!("'{}...'", "x".repeat(40)));
     }
 }

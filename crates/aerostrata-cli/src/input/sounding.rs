@@ -5,14 +5,15 @@
 //! give its winds (which `flight` blows over the samples); columns the reader does not
 //! take are named in one warning.
 
-use std::fs;
+use std::fs::{self, File};
 use std::path::Path;
 
 use aerostrata::model::sounding_io::{read_csv, Options};
-use aerostrata::{OutsideTable, SoundingLevel, Tabulated};
+use aerostrata::{Error, OutsideTable, SoundingLevel, Tabulated};
+
+use crate::input::lines::read_text;
 
 use crate::input::winds::{warn_ignored, Winds};
-
 /// Whether `path` names a JSON sounding (by its extension).
 pub fn is_json(path: &Path) -> bool {
     path.extension().is_some_and(|extension| extension.eq_ignore_ascii_case("json"))
@@ -29,8 +30,21 @@ pub fn load(
     blend_m: Option<f64>,
 ) -> Result<(Tabulated<Vec<SoundingLevel>>, Option<Winds>), String> {
     let name = path.display();
-    let text = fs::read_to_string(path).map_err(|e| format!("cannot read sounding {name}: {e}"))?;
-    let (table, winds) = if is_json(path) {
+    let json = is_json(path);
+    // A CSV sounding's header is checked before the rest of the file is read: the header
+    // alone reads as a table of no rows, so any other error there is the header's.
+    // (JSON is read as it is, whose one line may be long, and whose errors give columns.)
+    let header_only = |text: &str| match read_csv(text, &Options::default()) {
+        Err(e) if !matches!(e.model_error(), Some(Error::TooFewRows { .. })) => Err(e.to_string()),
+        _ => Ok(()),
+    };
+    let cannot = |e: std::io::Error| format!("cannot read sounding {name}: {e}");
+    let text = if json {
+        fs::read_to_string(path).map_err(cannot)?
+    } else {
+        read_text(File::open(path).map_err(cannot)?, header_only).map_err(|e| format!("{name}: {e}"))?
+    };
+    let (table, winds) = if json {
         (
             serde_json::from_str::<Tabulated<Vec<SoundingLevel>>>(&text)
                 .map_err(|e| format!("{name}: {e}"))?,

@@ -14,7 +14,7 @@ use aerostrata::units::Unit;
 use aerostrata::Quantity;
 
 use crate::failure::Failure;
-use crate::input::lines::DataLines;
+use crate::input::lines::{quoted, DataLines};
 use crate::units::UnitSystem;
 
 /// A header's check: `Err` with what the command misses.
@@ -46,6 +46,8 @@ pub struct TableReader<R> {
     implicit: bool,
     values: Vec<Option<f64>>,
     line: usize,
+    /// The last line's text (a buffer reused from line to line).
+    text: String,
 }
 
 impl<R: BufRead> TableReader<R> {
@@ -62,6 +64,7 @@ impl<R: BufRead> TableReader<R> {
             implicit: false,
             values: Vec::new(),
             line: 0,
+            text: String::new(),
         }
     }
 
@@ -108,15 +111,22 @@ impl<R: BufRead> TableReader<R> {
     /// of the wrong width, a cell that is not a number of its column's quantity.
     pub fn next_row(&mut self) -> Result<Option<Row<'_>>, Failure> {
         loop {
-            let Some((number, text)) = self.lines.next_line()? else { return Ok(None) };
+            let source = &self.source;
+            let Some((number, line)) = self.lines.next_line().map_err(|e| e.within(source))? else {
+                return Ok(None);
+            };
+            // Copied into a buffer reused from line to line (the borrow of `lines` ends here).
+            let mut text = std::mem::take(&mut self.text);
+            text.clear();
+            text.push_str(line);
             self.line = number;
-            let text = text.to_owned();
             if self.header.is_none() {
                 // `NaN` and `inf` start like words, but mean to be numbers: a row.
                 let numbers = table::cells(&text, table::delimiter_of(table::clean(&text)))
                     .all(|c| c.parse::<f64>().is_ok());
                 if table::is_header(&text) && !numbers {
                     self.read_header(&text)?;
+                    self.text = text;
                     continue;
                 }
                 self.implicit_header(&text)?;
@@ -124,9 +134,12 @@ impl<R: BufRead> TableReader<R> {
             let Some(header) = &self.header else { return Ok(None) };
             self.values.clear();
             self.values.resize(header.count(), None);
-            if let Err(error) = header.read_row(&text, &mut self.values) {
-                return Err(self.cell_error(&error));
+            let failure = header.read_row(&text, &mut self.values).err().map(|e| self.cell_error(&e));
+            self.text = text;
+            if let Some(failure) = failure {
+                return Err(failure);
             }
+            let Some(header) = &self.header else { return Ok(None) };
             return Ok(Some(Row { header, values: &self.values }));
         }
     }
@@ -140,8 +153,8 @@ impl<R: BufRead> TableReader<R> {
         if header.ignored().count() == header.count() {
             let names: Vec<&str> = accepts.iter().map(|q| q.name()).collect();
             return Err(self.at_line(format!(
-                "'{}' is neither a row of numbers nor a header naming {}",
-                aerostrata::units::shorten(text, 40).0,
+                "{} is neither a row of numbers nor a header naming {}",
+                quoted(text),
                 names.join(", ")
             )));
         }
@@ -249,7 +262,10 @@ pub fn needs(header: &Header, groups: &[&[Quantity]]) -> Result<(), String> {
                     names[0]
                 ))
             }
-            _ => return Err(format!("the header has columns {}: keep one", names.join(" and "))),
+            _ => {
+                let present: Vec<&str> = present.iter().map(|q| q.name()).collect();
+                return Err(format!("the header has columns {}: keep one", present.join(" and ")));
+            }
         }
     }
     Ok(())

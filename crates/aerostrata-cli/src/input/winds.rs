@@ -5,7 +5,7 @@
 //! the end levels held beyond the profile). A CSV sounding's own wind columns are read
 //! with the sounding (input/sounding.rs).
 
-use std::fs;
+use std::fs::File;
 use std::path::Path;
 
 use aerostrata::model::sounding_io::{read_winds_csv, Options};
@@ -13,6 +13,7 @@ use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::Quantity;
 
 use crate::failure::Failure;
+use crate::input::lines::read_text;
 use crate::units::UnitSystem;
 
 /// A profile as the flight scan takes it.
@@ -39,8 +40,8 @@ pub fn warn_ignored(what: &str, ignored: &[(usize, String)]) {
 /// column and the value.
 pub fn load_file(path: &Path, units: UnitSystem) -> Result<Winds, Failure> {
     let name = path.display();
-    let text =
-        fs::read_to_string(path).map_err(|e| Failure::Input(format!("--winds: cannot read {name}: {e}")))?;
+    let file = File::open(path).map_err(|e| Failure::Input(format!("--winds: cannot read {name}: {e}")))?;
+    let text = read_text(file, |_| Ok(())).map_err(|e| Failure::Input(format!("--winds {name}: {e}")))?;
     let default_unit = match units {
         UnitSystem::Si => Quantity::si,
         UnitSystem::Us => Quantity::us,

@@ -13,7 +13,7 @@ use aerostrata::units::Unit;
 use aerostrata::Quantity;
 use clap::ValueEnum;
 
-use crate::format::{exact, readable};
+use crate::format::{exact, readable, write_exact};
 use crate::units::{column, UnitSystem};
 
 /// Output format of a tabular command.
@@ -44,6 +44,8 @@ pub struct Column {
     pub rounding: Rounding,
     /// Holds text (aligned left in the tables) rather than numbers.
     pub text: bool,
+    /// The key as a JSON string, quoted and escaped once.
+    pub json_key: String,
 }
 
 impl Column {
@@ -55,8 +57,10 @@ impl Column {
     /// The column of `quantity` in `unit` (a unit the user picked, such as `--unit kt`).
     pub fn in_unit(quantity: Quantity, unit: &'static Unit) -> Self {
         let info = quantity.info();
+        let key = column(quantity, unit);
         Column {
-            key: column(quantity, unit),
+            json_key: serde_json::Value::from(key.as_str()).to_string(),
+            key,
             heading: info.symbol,
             unit: unit.symbol(),
             shown: info.primary,
@@ -69,6 +73,7 @@ impl Column {
     pub fn text(key: &'static str) -> Self {
         Column {
             key: key.to_owned(),
+            json_key: serde_json::Value::from(key).to_string(),
             heading: key,
             unit: "",
             shown: true,
@@ -143,6 +148,8 @@ pub struct RowWriter<W: Write> {
     pending: Vec<Vec<String>>,
     widths: Option<Vec<usize>>,
     exact: bool,
+    /// The line being built (CSV and JSON rows of numbers).
+    line: Vec<u8>,
 }
 
 impl<W: Write> RowWriter<W> {
@@ -176,7 +183,16 @@ impl<W: Write> RowWriter<W> {
             }
             Format::Table => {}
         }
-        Ok(RowWriter { out, format, columns, rows: 0, pending: Vec::new(), widths: None, exact: false })
+        Ok(RowWriter {
+            out,
+            format,
+            columns,
+            rows: 0,
+            pending: Vec::new(),
+            widths: None,
+            exact: false,
+            line: Vec::with_capacity(1024),
+        })
     }
 
     /// With `exact`, the terminal and Markdown tables too write every number with the
@@ -191,8 +207,43 @@ impl<W: Write> RowWriter<W> {
     /// # Errors
     /// Writing fails.
     pub fn row(&mut self, values: &[Option<f64>]) -> io::Result<()> {
-        let cells: Vec<Cell> = values.iter().map(|v| Cell::Number(*v)).collect();
-        self.cells(&cells)
+        match self.format {
+            Format::Csv | Format::Json => self.data_line(values.iter().map(|v| Cell::Number(*v))),
+            Format::Table | Format::Markdown => {
+                let cells: Vec<Cell> = values.iter().map(|v| Cell::Number(*v)).collect();
+                self.cells(&cells)
+            }
+        }
+    }
+
+    /// A CSV or JSON row, built in one reused line: no allocation per row or per number
+    /// (these are the formats of large outputs).
+    fn data_line<'c>(&mut self, cells: impl Iterator<Item = Cell<'c>>) -> io::Result<()> {
+        let line = &mut self.line;
+        line.clear();
+        let json = self.format == Format::Json;
+        if json {
+            line.extend_from_slice(if self.rows == 0 { b"\n  {" } else { b",\n  {" });
+        }
+        for (i, (column, cell)) in self.columns.iter().zip(cells).enumerate() {
+            if i > 0 {
+                line.extend_from_slice(if json { b", " } else { b"," });
+            }
+            if json {
+                line.extend_from_slice(column.json_key.as_bytes());
+                line.extend_from_slice(b": ");
+            }
+            match cell {
+                Cell::Number(Some(value)) => write_exact(line, value),
+                Cell::Number(None) if json => line.extend_from_slice(b"null"),
+                Cell::Number(None) => {}
+                other => line.extend_from_slice(if json { other.json() } else { other.csv() }.as_bytes()),
+            }
+        }
+        line.extend_from_slice(if json { b"}" } else { b"\n" });
+        self.out.write_all(&self.line)?;
+        self.rows += 1;
+        Ok(())
     }
 
     /// One row, a cell per column.
@@ -202,20 +253,7 @@ impl<W: Write> RowWriter<W> {
     pub fn cells(&mut self, cells: &[Cell]) -> io::Result<()> {
         debug_assert_eq!(cells.len(), self.columns.len());
         match self.format {
-            Format::Csv => {
-                let cells: Vec<String> = cells.iter().map(Cell::csv).collect();
-                writeln!(self.out, "{}", cells.join(","))?;
-            }
-            Format::Json => {
-                let separator = if self.rows == 0 { "\n  " } else { ",\n  " };
-                let fields: Vec<String> = self
-                    .columns
-                    .iter()
-                    .zip(cells)
-                    .map(|(c, v)| format!("{}: {}", Cell::Text(&c.key).json(), v.json()))
-                    .collect();
-                write!(self.out, "{separator}{{{}}}", fields.join(", "))?;
-            }
+            Format::Csv | Format::Json => return self.data_line(cells.iter().copied()),
             Format::Markdown => {
                 let cells: Vec<String> = self.shown_cells(cells).iter().map(|c| markdown(c)).collect();
                 writeln!(self.out, "| {} |", cells.join(" | "))?;

@@ -23,8 +23,20 @@ pub fn state_columns(units: UnitSystem, species: bool) -> Vec<Column> {
 /// also stands for a quantity the model leaves undefined (the speed of sound and the
 /// viscosities above 86 km).
 pub fn state_values(state: &State, units: UnitSystem, species: Option<Option<&Species>>) -> Vec<Option<f64>> {
-    let mut values: Vec<Option<f64>> =
-        Quantity::of_group(Group::State).map(|q| state.get(q).ok().map(|v| units.from_si(q, v))).collect();
+    let mut values = Vec::new();
+    state_values_into(&mut values, state, units, species);
+    values
+}
+
+/// [`state_values`] into `values` (cleared first): a streaming command reuses one buffer.
+pub fn state_values_into(
+    values: &mut Vec<Option<f64>>,
+    state: &State,
+    units: UnitSystem,
+    species: Option<Option<&Species>>,
+) {
+    values.clear();
+    values.extend(Quantity::of_group(Group::State).map(|q| state.get(q).ok().map(|v| units.from_si(q, v))));
     if let Some(species) = species {
         // The core gives the species as an array in the catalogue's order (a test checks
         // it): it has no `get` of its own.
@@ -32,7 +44,6 @@ pub fn state_values(state: &State, units: UnitSystem, species: Option<Option<&Sp
         let quantities = Quantity::of_group(Group::Species).enumerate();
         values.extend(quantities.map(|(i, q)| densities.map(|n| units.from_si(q, n[i]))));
     }
-    values
 }
 
 #[cfg(test)]

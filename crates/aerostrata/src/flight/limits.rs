@@ -210,10 +210,13 @@ pub fn plateau(
     fraction: f64,
 ) -> Result<Option<Plateau>> {
     same_length(times_s, values)?;
+    if !fraction.is_finite() {
+        return Err(Error::NotFinite { quantity: "plateau fraction", value: fraction });
+    }
     if !(fraction > 0.0 && fraction < 1.0) {
-        return Err(Error::OutOfRange {
+        // A fraction, so no unit (an OutOfRange would print an empty one).
+        return Err(Error::RatioOutOfRange {
             quantity: "plateau fraction",
-            unit: "",
             value: fraction,
             min: 0.0,
             max: 1.0,

@@ -156,7 +156,8 @@ impl<'v, A: Atmosphere> FlightScan<'v, A> {
     fn record(&mut self, sample: (f64, f64, Motion)) -> Result<FlightPoint> {
         let index = self.samples;
         let previous = self.kept_at(index.wrapping_sub(1)).copied();
-        if let Some(last) = &previous {
+        if let Some(last) = previous.as_ref().filter(|_| sample.0.is_finite()) {
+            // (A time that is not finite is refused as such by `compute`.)
             if sample.0.partial_cmp(&last.time_s) != Some(core::cmp::Ordering::Greater) {
                 return Err(bad_sample(index, "time (s) must be after the previous sample's", sample.0));
             }

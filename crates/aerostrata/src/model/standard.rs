@@ -117,8 +117,9 @@ impl Us1976 {
     }
 
     /// Number densities of N2, O, O2, Ar, He and H, 1/m^3, from 86 km to 1000 km
-    /// geometric (hydrogen is zero below 150 km). The standard gives no species below
-    /// 86 km.
+    /// geometric (below 150 km, where the standard lists no hydrogen, n_H is the
+    /// continuation of its equation: see `model::upper::HYDROGEN_BASE_M`). The standard
+    /// gives no species below 86 km.
     ///
     /// ```
     /// use aerostrata::{Altitude, US1976};

@@ -15,7 +15,7 @@ mod read;
 mod table;
 
 pub use factors::*;
-pub use parse::{parse, shorten, Reading, UnitError, UnitList};
+pub use parse::{parse, shorten, Escaped, Quoted, Reading, UnitError, UnitList};
 pub use read::{read, Part, Plausible, ReadError, Tidy};
 pub use table::*;
 

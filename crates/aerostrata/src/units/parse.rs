@@ -71,14 +71,16 @@ pub fn shorten(text: &str, max: usize) -> (&str, bool) {
     }
 }
 
-struct Quoted<'a>(&'a str);
+/// Text as a person typed it, for a message: cut to 40 characters (`...` after a cut) and
+/// with control characters written as escapes (`\t`, `\n`, `\r`, `\u{1}`), so that an
+/// echoed cell or heading can neither flood nor garble a terminal.
+pub struct Escaped<'a>(pub &'a str);
 
-impl fmt::Display for Quoted<'_> {
+impl fmt::Display for Escaped<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         // Control characters written as escapes, the rest as typed (no `escape_debug`: its
         // Unicode tables would cost the size-budgeted WebAssembly module 4 KiB).
         let (text, cut) = shorten(self.0, 40);
-        f.write_str("'")?;
         for c in text.chars() {
             match c {
                 '\t' => f.write_str("\\t")?,
@@ -88,7 +90,16 @@ impl fmt::Display for Quoted<'_> {
                 c => f.write_char(c)?,
             }
         }
-        f.write_str(if cut { "...'" } else { "'" })
+        f.write_str(if cut { "..." } else { "" })
+    }
+}
+
+/// [`Escaped`] text in single quotes.
+pub struct Quoted<'a>(pub &'a str);
+
+impl fmt::Display for Quoted<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "'{}'", Escaped(self.0))
     }
 }
 

@@ -96,6 +96,18 @@ pub fn run(root: &Path, functions: &[Function]) -> Result<(), String> {
     let reference = bit_lines(&native);
 
     let wine_prefix = out.join("wineprefix");
+    // Wine's 32-bit part runs the stdcall DLL: it needs the i386 architecture (on a fresh
+    // machine this also brings the amd64 libraries it shares up to the same versions).
+    if crate::setup::is_root() && !crate::setup::dpkg_installed("wine32:i386") {
+        Cmd::new("dpkg").args(["--add-architecture", "i386"]).dir(root).run()?;
+        crate::setup::apt_install(root, &["wine32:i386"])?;
+        // A prefix made by 64-bit Wine alone does not start once the 32-bit part is there
+        // ("could not load kernel32.dll"): begin a new one.
+        let stale = out.join("wineprefix");
+        if stale.exists() {
+            std::fs::remove_dir_all(&stale).map_err(|e| io_error("remove", &stale, e))?;
+        }
+    }
     let wine32 = Cmd::new("dpkg-query")
         .args(["-W", "-f=${Status}", "wine32:i386"])
         .quiet()
@@ -151,9 +163,9 @@ pub fn run(root: &Path, functions: &[Function]) -> Result<(), String> {
         }
         if arch.folder == "x86" && !wine32.contains("install ok installed") {
             eprintln!(
-                "SKIPPED: running the 32-bit DLL needs Wine's 32-bit part, which this step does not install (it \
-                 adds the i386 architecture and upgrades system libraries): dpkg --add-architecture i386 && \
-                 apt-get update && apt-get install wine32:i386. Built and export-checked: {}",
+                "SKIPPED: running the 32-bit DLL needs Wine's 32-bit part, which only root can install: \
+                 dpkg --add-architecture i386 && apt-get update && apt-get install wine32:i386. Built and \
+                 export-checked: {}",
                 dll.display()
             );
             report.push(format!("{}: built, exports checked, not run (no wine32)", arch.folder));

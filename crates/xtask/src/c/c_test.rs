@@ -12,11 +12,12 @@ use crate::target_dir;
 
 /// The C tests, by subject, linked into one program (main() is in test_aerostrata.c; the
 /// helpers they share are in check.h beside them).
-const C_TESTS: [&str; 8] = [
+const C_TESTS: [&str; 9] = [
     "bindings/c/tests/test_aerostrata.c",
     "bindings/c/tests/test_vectors.c",
     "bindings/c/tests/test_status.c",
     "bindings/c/tests/test_models.c",
+    "bindings/c/tests/test_handles.c",
     "bindings/c/tests/test_aero.c",
     "bindings/c/tests/test_loads.c",
     "bindings/c/tests/test_catalogue.c",
@@ -63,6 +64,11 @@ pub fn run(root: &Path) -> Result<(), String> {
     let rpath = format!("-Wl,--disable-new-dtags,-rpath,{}", s(&lib_dir));
     let system_libs: Vec<&str> = package.native_static_libs.iter().map(String::as_str).collect();
     let mut results = Vec::new();
+
+    let header = package.prefix.join("include/aerostrata.h");
+    let text = std::fs::read_to_string(&header).map_err(|e| io_error("read", &header, e))?;
+    foreign_declarations(&text)?;
+    results.push("the header declares no function of the C library".to_owned());
 
     // The header alone, as C++17 (its C++ guards and types must compile there too).
     let cpp = work.join("header_cpp.cpp");
@@ -182,4 +188,43 @@ fn readme_example(
         ));
     }
     Ok(format!("the README's C example compiles as C99 and prints {}", printed.trim()))
+}
+
+/// The C library's functions must not be declared by the header (it once declared
+/// `malloc` and `free` from the bare-metal allocator): a call of `malloc(` or `free(`
+/// (not part of a longer name) outside a comment is refused.
+fn foreign_declarations(header: &str) -> Result<(), String> {
+    let ident = |c: char| c.is_ascii_alphanumeric() || c == '_';
+    for (number, line) in header.lines().enumerate() {
+        let code = line.trim_start();
+        if code.starts_with('*') || code.starts_with("/*") || code.starts_with("//") {
+            continue;
+        }
+        for name in ["malloc(", "free("] {
+            let found = line.match_indices(name).any(|(at, _)| !line[..at].ends_with(ident));
+            if found {
+                return Err(format!(
+                    "bindings/c/include/aerostrata.h line {}: declares the C library's {}); \
+                     exclude it in bindings/c/cbindgen.toml",
+                    number + 1,
+                    name
+                ));
+            }
+        }
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::foreign_declarations;
+
+    #[test]
+    fn the_c_librarys_allocator_is_not_declared() {
+        let old = "enum AerostrataStatus f(double x);\n\nextern void *malloc(size_t size);\n";
+        assert!(foreign_declarations(old).unwrap_err().contains("line 3"));
+        assert!(foreign_declarations("extern void free(void *pointer);").is_err());
+        let fine = "/**\n * never free( it\n */\nenum AerostrataStatus aerostrata_model_free(struct AerostrataModel *model);\n";
+        foreign_declarations(fine).unwrap();
+    }
 }

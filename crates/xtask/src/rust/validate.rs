@@ -23,13 +23,32 @@ const NOTES: &str = "\n## Known residuals\n\n\
 - 86 km: the standard quotes T = 186.8673 K, which is T_M at exactly 84.852 km'\n  \
   times M/M0 = 0.999579; 86 km geometric is 84.852 05 km', where the formulas give\n  \
   186.86720 K. Both round to the table's 186.867.\n\
-- The join at 86 km: the standard's 86 km species sum to p = 0.37338449 Pa and\n  \
-  rho = 6.9578798e-6 kg/m^3, against 0.37338046 Pa and 6.9578238e-6 kg/m^3 from its layers\n  \
-  (1.08e-5 and 8.0e-6 relative). aerostrata keeps both parts as published: 86 km itself\n  \
-  belongs to the layers, the first value above it to the species.\n\
+- The join at 86 km: the standard's five 86 km species, summed with T7 = 186.8673 K,\n  \
+  give p = 0.37338449 Pa and rho = 6.9578798e-6 kg/m^3, against 0.37338046 Pa and\n  \
+  6.9578238e-6 kg/m^3 from its layers at 86 km: 1.0789e-5 and 8.056e-6 relative (N\n  \
+  7.99e-6, M 6.6e-8; the same sums in mpmath at 30 digits agree to every digit quoted).\n  \
+  aerostrata adds hydrogen's continuation (below), 1.6727e-6 of N at 86 km, so its own\n  \
+  step there is +1.2462e-5 in p, +8.114e-6 in rho, +9.662e-6 in N and -1.548e-6 in M:\n  \
+  measured as its value at 86 km (the layers) against its first value above it (the\n  \
+  next f64 altitude, the species); the scipy self-check's integration gives the same\n  \
+  hydrogen to 7e-12. 86 km itself belongs to the layers.\n\
+- 91 to 110 km: the ellipse's constants are derived at full precision from its joins\n  \
+  (186.8673 K with zero gradient at 91 km, 240 K with 12 K/km at 110 km): Tc =\n  \
+  263.190480 K, A = -76.323180 K, a = -19.942875 km, which round to the printed 263.1905,\n  \
+  -76.3232 and -19.9429 km. The printed values end the ellipse at 239.999727 K, so with\n  \
+  them p = N k T would rise by 1.14e-6 across 110 km. Temperatures here differ from the\n  \
+  printed constants' by at most 2.7e-4 K (at 110 km), inside the table's 0.005 K.\n\
+- 150 km: the standard lists hydrogen from 150 km up only, so taken literally its\n  \
+  3.767e11 /m^3 appear at once there and p and N rise by 7.26e-6 (rho by 3.0e-7) across\n  \
+  150 km. aerostrata continues hydrogen's own equation (its flux, molecular diffusion\n  \
+  and, below 115 km, the standard's eddy diffusion) down to 86 km, and the scipy reference\n  \
+  does the same independently: n_H is continuous at 150 km and p, rho and N fall across\n  \
+  every join. A departure from the standard's totals below 150 km of at most 7.27e-6 in\n  \
+  N and p and 3.04e-7 in rho (just below 150 km), 1.67e-6 in N at 86 km; the other five\n  \
+  species are unchanged.\n\
 - Above 500 km the remembered pressures, number densities and densities lie above the\n  \
   equations' solution by a margin growing from 1.3e-4 at 500 km to 1.0e-3 at 1000 km\n  \
-  (within the 2e-3 asked for there). The crate's integration converges to 3e-11 and agrees\n  \
+  (within the 2e-3 asked for there). The crate's integration converges to 2e-13 and agrees\n  \
   with the independent scipy integration to 1e-8, so the residual lies between the printed\n  \
   table and the equations as read here (the standard's own numerical solution, or a detail\n  \
   of its helium and hydrogen treatment); it is not loosened away.\n\

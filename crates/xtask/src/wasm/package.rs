@@ -34,8 +34,11 @@ use crate::{io_error, target_dir};
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
 pub const MAX_WASM_BYTES: u64 = 261 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (125 KiB).
-pub const MAX_GZIP_BYTES: u64 = 125 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (127 KiB). Raised from 125 KiB
+/// when hydrogen's continuation below 150 km filled the upper table's hydrogen entries
+/// there (137 nodes of ln n and slope that had been zero placeholders): the same bytes
+/// raw, 1.5 KiB more compressed (124.2 to 125.7 KiB).
+pub const MAX_GZIP_BYTES: u64 = 127 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";

@@ -94,14 +94,12 @@ impl LoadError {
     }
 
     pub(super) fn in_column(mut self, index: usize, name: &str) -> Self {
-        let (name, cut) = units::shorten(name, 40);
-        self.0.column = Some((index + 1, format!("{name}{}", if cut { "..." } else { "" })));
+        self.0.column = Some((index + 1, units::Escaped(name).to_string()));
         self
     }
 
     pub(super) fn with_value(mut self, text: &str) -> Self {
-        let (text, cut) = units::shorten(text, 40);
-        self.0.value = Some(format!("{text}{}", if cut { "..." } else { "" }));
+        self.0.value = Some(units::Escaped(text).to_string());
         self
     }
 
@@ -429,8 +427,8 @@ pub(super) fn header_error(line: usize, names: &[String], error: HeaderError<'_>
         HeaderError::Unit { index, error: ColumnError::Unit { quantity, unit }, .. } => LoadError::at(
             line,
             format!(
-                "unit '{}' is not one of the {}'s: {}",
-                units::shorten(unit, 40).0,
+                "unit {} is not one of the {}'s: {}",
+                units::Quoted(unit),
                 quantity.info().label,
                 units::UnitList(quantity.si().dimension())
             ),

@@ -37,6 +37,7 @@ mod owned {
     use serde::de::{DeserializeSeed, Error as _, MapAccess, SeqAccess, Visitor};
 
     use crate::altitude::AltitudeKind;
+    use crate::units::Quoted;
 
     use super::super::interpolate::OutsideTable;
     use super::super::rows::{check_row, SoundingLevel, SoundingRow};
@@ -59,6 +60,11 @@ mod owned {
                     while let Some(row) = seq.next_element_seed(RowSeed { before: &rows })? {
                         rows.push(row);
                     }
+                    // Here, not in the table's constructor, so that the error carries the
+                    // line of the list's end.
+                    if rows.len() < 2 {
+                        return Err(A::Error::custom(crate::Error::TooFewRows { count: rows.len() }));
+                    }
                     Ok(CheckedRows(rows))
                 }
             }
@@ -76,15 +82,77 @@ mod owned {
         "relative_humidity_percent",
     ];
 
-    #[derive(serde::Deserialize)]
-    #[serde(field_identifier, rename_all = "snake_case")]
-    enum Field {
-        AltitudeM,
-        TemperatureK,
-        PressurePa,
-        DensityKgM3,
-        DewPointK,
-        RelativeHumidityPercent,
+    /// A name read as text and matched against `names` (a field, or a unit variant such as
+    /// the kind of altitude): an unknown one is refused with its text escaped and cut
+    /// (serde's own message would quote it whole and raw, control characters included).
+    struct Named<'a> {
+        names: &'a [&'static str],
+        what: &'static str,
+    }
+
+    impl<'de> DeserializeSeed<'de> for Named<'_> {
+        type Value = usize;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<usize, D::Error> {
+            deserializer.deserialize_identifier(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Named<'_> {
+        type Value = usize;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            write!(f, "a {}", self.what)
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<usize, E> {
+            self.names.iter().position(|name| *name == text).ok_or_else(|| {
+                E::custom(format_args!(
+                    "unknown {} {}, expected one of {}",
+                    self.what,
+                    Quoted(text),
+                    self.names.join(", ")
+                ))
+            })
+        }
+        fn visit_bytes<E: serde::de::Error>(self, bytes: &[u8]) -> Result<usize, E> {
+            self.visit_str(&alloc::string::String::from_utf8_lossy(bytes))
+        }
+    }
+
+    /// A number; a string where it belongs is refused with the string escaped and cut.
+    struct Number;
+
+    impl<'de> DeserializeSeed<'de> for Number {
+        type Value = Option<f64>;
+        fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<Option<f64>, D::Error> {
+            deserializer.deserialize_option(self)
+        }
+    }
+
+    impl<'de> Visitor<'de> for Number {
+        type Value = Option<f64>;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("a number or null")
+        }
+        fn visit_none<E: serde::de::Error>(self) -> Result<Option<f64>, E> {
+            Ok(None)
+        }
+        fn visit_unit<E: serde::de::Error>(self) -> Result<Option<f64>, E> {
+            Ok(None)
+        }
+        fn visit_some<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<Option<f64>, D::Error> {
+            deserializer.deserialize_f64(self)
+        }
+        fn visit_f64<E: serde::de::Error>(self, value: f64) -> Result<Option<f64>, E> {
+            Ok(Some(value))
+        }
+        fn visit_i64<E: serde::de::Error>(self, value: i64) -> Result<Option<f64>, E> {
+            Ok(Some(value as f64))
+        }
+        fn visit_u64<E: serde::de::Error>(self, value: u64) -> Result<Option<f64>, E> {
+            Ok(Some(value as f64))
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Option<f64>, E> {
+            Err(E::custom(format_args!("a string {} where a number belongs", Quoted(text))))
+        }
     }
 
     /// One row, read and checked against the rows `before` it.
@@ -107,13 +175,12 @@ mod owned {
         fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<SoundingRow, A::Error> {
             let mut values: [Option<f64>; 6] = [None; 6];
             let mut seen = [false; 6];
-            while let Some(field) = map.next_key::<Field>()? {
-                let slot = field as usize;
+            while let Some(slot) = map.next_key_seed(Named { names: &FIELDS, what: "field" })? {
                 if core::mem::replace(&mut seen[slot], true) {
                     return Err(A::Error::duplicate_field(FIELDS[slot]));
                 }
                 // `null` reads as "not given", as an absent field does.
-                values[slot] = map.next_value::<Option<f64>>()?;
+                values[slot] = map.next_value_seed(Number)?;
             }
             let [altitude, temperature, pressure, density, dew_point, relative_humidity] = values;
             let row = SoundingRow {
@@ -129,26 +196,85 @@ mod owned {
         }
     }
 
-    #[derive(serde::Deserialize)]
-    #[serde(deny_unknown_fields)]
-    struct Parts {
-        altitude: AltitudeKind,
-        rows: CheckedRows,
-        #[serde(default)]
-        below: OutsideTable,
-        #[serde(default)]
-        above: OutsideTable,
+    /// The fields of a table.
+    #[derive(Clone, Copy)]
+    enum Part {
+        Altitude,
+        Rows,
+        Below,
+        Above,
+    }
+
+    const PARTS: [&str; 4] = ["altitude", "rows", "below", "above"];
+    const KINDS: [&str; 2] = ["geometric", "geopotential"];
+
+    /// A table built as soon as its kind and rows are read, and each side set as soon
+    /// as it is read and the table is there, so that an error across rows or in a side
+    /// carries the line where it was read.
+    struct TableVisitor;
+
+    impl<'de> Visitor<'de> for TableVisitor {
+        type Value = Tabulated<Vec<SoundingLevel>>;
+        fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+            f.write_str("a sounding: altitude, rows, and optionally below and above")
+        }
+        fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Self::Value, A::Error> {
+            let mut kind: Option<AltitudeKind> = None;
+            let mut rows: Option<Vec<SoundingRow>> = None;
+            let mut sides: [Option<OutsideTable>; 2] = [None, None];
+            let mut table: Option<Tabulated<Vec<SoundingLevel>>> = None;
+            let mut seen = [false; 4];
+            while let Some(slot) = map.next_key_seed(Named { names: &PARTS, what: "field" })? {
+                let part = [Part::Altitude, Part::Rows, Part::Below, Part::Above][slot];
+                if core::mem::replace(&mut seen[slot], true) {
+                    return Err(A::Error::duplicate_field(PARTS[slot]));
+                }
+                match part {
+                    Part::Altitude => {
+                        let index = map.next_value_seed(Named { names: &KINDS, what: "kind of altitude" })?;
+                        kind = Some([AltitudeKind::Geometric, AltitudeKind::Geopotential][index]);
+                    }
+                    Part::Rows => rows = Some(map.next_value::<CheckedRows>()?.0),
+                    Part::Below => sides[0] = Some(map.next_value()?),
+                    Part::Above => sides[1] = Some(map.next_value()?),
+                }
+                if let (None, Some(kind), Some(rows)) = (&table, kind, &rows) {
+                    table = Some(Tabulated::from_rows_vec(kind, rows).map_err(A::Error::custom)?);
+                }
+                if let Some(built) = table.take() {
+                    table = Some(with_sides(built, &mut sides).map_err(A::Error::custom)?);
+                }
+            }
+            let kind = kind.ok_or_else(|| A::Error::missing_field(PARTS[0]))?;
+            let rows = rows.ok_or_else(|| A::Error::missing_field(PARTS[1]))?;
+            let built = match table {
+                Some(table) => table,
+                None => Tabulated::from_rows_vec(kind, &rows).map_err(A::Error::custom)?,
+            };
+            with_sides(built, &mut sides).map_err(A::Error::custom)
+        }
+    }
+
+    /// `table` with the sides read so far (each taken once).
+    fn with_sides(
+        table: Tabulated<Vec<SoundingLevel>>,
+        sides: &mut [Option<OutsideTable>; 2],
+    ) -> crate::Result<Tabulated<Vec<SoundingLevel>>> {
+        let table = match sides[0].take() {
+            Some(below) => table.with_below(below)?,
+            None => table,
+        };
+        match sides[1].take() {
+            Some(above) => table.with_above(above),
+            None => Ok(table),
+        }
     }
 
     /// Reads what [`Tabulated`]'s `Serialize` writes, through the constructors'
     /// checks.
     impl<'de> serde::Deserialize<'de> for Tabulated<Vec<SoundingLevel>> {
         fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
-            let parts = Parts::deserialize(deserializer)?;
-            Tabulated::from_rows_vec(parts.altitude, &parts.rows.0)
-                .and_then(|table| table.with_below(parts.below))
-                .and_then(|table| table.with_above(parts.above))
-                .map_err(D::Error::custom)
+            deserializer.deserialize_struct("Tabulated", &PARTS, TableVisitor)
         }
     }
 }

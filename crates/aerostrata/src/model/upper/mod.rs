@@ -8,7 +8,8 @@
 //! stored as ln n and d(ln n)/dZ at nodes; here each ln n is a piecewise cubic Hermite
 //! interpolant through those values and slopes, within 1e-6 relative of the generator's
 //! own integration everywhere (proved by a test of the generator). No integration at run
-//! time.
+//! time. One departure from the standard: hydrogen, which it gives from 150 km up only,
+//! is continued below by its own equation ([`HYDROGEN_BASE_M`]).
 
 mod segment;
 mod upper_table;
@@ -33,18 +34,31 @@ pub const RANGE: AltitudeRange = AltitudeRange::from_geometric(BASE_M, TOP_M);
 /// Molecular weights of N2, O, O2, Ar, He, H, kg/kmol (the standard's values).
 pub const MOLAR_MASS_KG_KMOL: [f64; 6] = [28.0134, 15.9994, 31.9988, 39.948, 4.0026, 1.00797];
 
-/// Hydrogen is part of the standard from 150 km up; below it is taken as zero.
+/// Hydrogen is part of the standard from 150 km up. Below, the standard lists none;
+/// aerostrata carries the continuation of the standard's hydrogen equation down to 86 km
+/// (at most 7.3e-6 of N, just below 150 km; 1.7e-6 at 86 km), so that n_H, and with it
+/// p, rho and N, are continuous at 150 km.
 pub const HYDROGEN_BASE_M: f64 = 150_000.0;
 
 // Temperature segments (the standard's constants, Part 1).
 const T7_K: f64 = 186.8673;
 const Z8_M: f64 = 91_000.0;
-const ELLIPSE_TC_K: f64 = 263.1905;
-const ELLIPSE_A_K: f64 = -76.3232;
-const ELLIPSE_A_M: f64 = -19_942.9;
 const Z9_M: f64 = 110_000.0;
 const T9_K: f64 = 240.0;
 const LAPSE_9_K_M: f64 = 0.012;
+// The ellipse from (Z8, T7) with zero gradient to (Z9, T9) with gradient L9, temperature
+// and gradient continuous at both ends; its constants follow from those five values:
+//   r = (T9 - T7) / (L9 (Z9 - Z8)),  A = -(T9 - T7)(1 - r) / (1 - 2r),  Tc = T7 - A,
+//   1 / a^2 = (1 - 2r) / ((Z9 - Z8)(1 - r))^2.
+// They round to the standard's printed Tc = 263.1905 K, A = -76.3232 K, a = -19.9429 km
+// (a unit test below checks it). The printed values themselves are not used: the ellipse
+// they describe ends at 239.99973 K, 2.7e-4 K short of T9, so p = N k T would step up by
+// 1.1e-6 at 110 km, where the number densities are continuous.
+const ELLIPSE_R: f64 = (T9_K - T7_K) / (LAPSE_9_K_M * (Z9_M - Z8_M));
+const ELLIPSE_A_K: f64 = -(T9_K - T7_K) * (1.0 - ELLIPSE_R) / (1.0 - 2.0 * ELLIPSE_R);
+const ELLIPSE_TC_K: f64 = T7_K - ELLIPSE_A_K;
+const ELLIPSE_INV_A2_PER_M2: f64 =
+    (1.0 - 2.0 * ELLIPSE_R) / ((Z9_M - Z8_M) * (1.0 - ELLIPSE_R) * (Z9_M - Z8_M) * (1.0 - ELLIPSE_R));
 const Z10_M: f64 = 120_000.0;
 const T10_K: f64 = 360.0;
 const T_INF_K: f64 = 1000.0;
@@ -64,7 +78,8 @@ pub struct Species {
     pub ar_m3: f64,
     /// Helium.
     pub he_m3: f64,
-    /// Atomic hydrogen (zero below 150 km).
+    /// Atomic hydrogen (below 150 km, where the standard lists none, the continuation
+    /// of its equation; see [`HYDROGEN_BASE_M`]).
     pub h_m3: f64,
 }
 
@@ -115,22 +130,36 @@ impl Species {
 }
 
 /// Kinetic temperature (K) and its gradient dT/dZ (K/m) at geometric altitude `z_m`,
-/// for 86 km <= Z <= 1000 km (the caller checks).
+/// 86 km <= Z <= 1000 km.
 ///
 /// ```text
 /// 86-91 km     T = 186.8673
-/// 91-110 km    T = Tc + A sqrt(1 - ((Z - 91 km) / a)^2)      Tc = 263.1905, A = -76.3232, a = -19.9429 km
+/// 91-110 km    T = Tc + A sqrt(1 - ((Z - 91 km) / a)^2)      Tc = 263.190480, A = -76.323180, a = -19.942875 km
 /// 110-120 km   T = 240 + 12 (Z - 110 km)                     (K, km)
 /// 120-1000 km  T = Tinf - (Tinf - 360) exp(-lambda xi)       Tinf = 1000, lambda = 0.01875 /km,
 ///              xi = (Z - 120 km)(r0 + 120 km) / (r0 + Z)
 /// ```
-pub fn temperature(z_m: f64) -> (f64, f64) {
+///
+/// The ellipse's constants are those that make T and dT/dZ continuous at 91 and 110 km,
+/// at full precision; the standard prints them rounded (263.1905, -76.3232, -19.9429 km),
+/// which would leave T 2.7e-4 K short of 240 K at 110 km. T and dT/dZ are continuous at
+/// every join.
+///
+/// # Errors
+/// [`Error::NotFinite`] or [`Error::OutOfRange`] for an altitude outside [`BASE_M`] to
+/// [`TOP_M`].
+pub fn temperature(z_m: f64) -> Result<(f64, f64)> {
+    Ok(temperature_within(crate::error::within("geometric altitude", "m", z_m, BASE_M, TOP_M)?))
+}
+
+/// [`temperature`] at an altitude the caller has checked.
+pub(crate) fn temperature_within(z_m: f64) -> (f64, f64) {
     if z_m <= Z8_M {
         (T7_K, 0.0)
     } else if z_m <= Z9_M {
-        let x = (z_m - Z8_M) / ELLIPSE_A_M;
-        let root = sqrt(1.0 - x * x);
-        (ELLIPSE_TC_K + ELLIPSE_A_K * root, -ELLIPSE_A_K / ELLIPSE_A_M * x / root)
+        let dz = z_m - Z8_M;
+        let root = sqrt(1.0 - dz * dz * ELLIPSE_INV_A2_PER_M2);
+        (ELLIPSE_TC_K + ELLIPSE_A_K * root, -ELLIPSE_A_K * ELLIPSE_INV_A2_PER_M2 * dz / root)
     } else if z_m <= Z10_M {
         (T9_K + LAPSE_9_K_M * (z_m - Z9_M), LAPSE_9_K_M)
     } else {
@@ -170,20 +199,19 @@ pub(crate) fn species(z_m: f64) -> Species {
     let step = segment.step_m;
     let ln_n =
         |i: usize| h00 * y0[i] + h01 * y1[i] + step * (h10 * f64::from(d0[i]) + h11 * f64::from(d1[i]));
-    let hydrogen = if z_m >= HYDROGEN_BASE_M { exp(ln_n(5)) } else { 0.0 };
     Species {
         n2_m3: exp(ln_n(0)),
         o_m3: exp(ln_n(1)),
         o2_m3: exp(ln_n(2)),
         ar_m3: exp(ln_n(3)),
         he_m3: exp(ln_n(4)),
-        h_m3: hydrogen,
+        h_m3: exp(ln_n(5)),
     }
 }
 
 /// The air at `z_m`, 86 km < Z <= 1000 km (the caller checks).
 pub(crate) fn air(z_m: f64) -> Result<Air> {
-    let (temperature_k, _) = temperature(z_m);
+    let (temperature_k, _) = temperature_within(z_m);
     let species = species(z_m);
     Air::from_number_density(temperature_k, species.total_m3(), species.density_kg_m3())
 }
@@ -208,6 +236,20 @@ pub(crate) fn species_checked(z_m: f64) -> Result<Species> {
 mod tests {
     use super::*;
     use crate::quantity::Group;
+
+    /// The ellipse's constants, derived from the joins' conditions, round to the ones the
+    /// U.S. Standard Atmosphere 1976 (Part 1) prints: Tc = 263.1905 K, A = -76.3232 K,
+    /// a = -19.9429 km. So the derivation is the standard's own, only unrounded.
+    #[test]
+    fn ellipse_constants_round_to_the_printed_ones() {
+        let at_4_decimals = |x: f64| (x * 1e4).round() as i64;
+        assert_eq!(at_4_decimals(ELLIPSE_TC_K), 2_631_905);
+        assert_eq!(at_4_decimals(ELLIPSE_A_K), -763_232);
+        let semi_axis_km = -1.0 / sqrt(ELLIPSE_INV_A2_PER_M2) / 1000.0;
+        assert_eq!(at_4_decimals(semi_axis_km), -199_429);
+        // And they are not the printed ones: those miss T9 by 2.7e-4 K.
+        assert!((ELLIPSE_TC_K - 263.1905).abs() > 1e-5 && (ELLIPSE_A_K + 76.3232).abs() > 1e-5);
+    }
 
     /// The catalogue's species are those of `as_array`, in its order, and `get` gives
     /// each one's value (the doors read them by quantity).

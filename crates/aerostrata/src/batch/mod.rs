@@ -1,0 +1,270 @@
+//! Many altitudes at once: the state quantities a caller asks for, written into columns
+//! the caller provides, with no allocation and the very bits of `state(alt).get(q)`.
+//!
+//! The work is done a block of altitudes at a time: first the air (T, p, M) of every
+//! altitude of the block, then each requested column over the whole block, each by the
+//! same expression [`State::new`](crate::State::new) uses, so that only what is asked is
+//! computed. For the 1976 standard ([`Us1976::batch`](crate::Us1976::batch)) the layer
+//! holding an altitude is found from the previous one's (a cursor, as a sorted flight
+//! profile wants), falling back to the search only when it leaves the layer.
+//!
+//! Errors, decided: the first failing element (in input order) stops the batch, and its
+//! index comes back with the core's own error ([`BatchError::Element`]); every column holds
+//! the values of the elements before it, and the elements from it on are left as they
+//! were. An element fails exactly where the scalar path fails: an altitude out of range
+//! or not finite, or a continuum property (speed of sound, viscosity, conductivity)
+//! asked where the model does not define it (above 86 km), with the error
+//! `state(alt).get(q)` gives. Method: common practice, no source.
+
+mod standard;
+
+#[cfg(feature = "rayon")]
+pub mod parallel;
+
+use crate::altitude::{Altitude, AltitudeKind};
+use crate::constants::{SEA_LEVEL_DENSITY_KG_M3, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
+use crate::error::Error;
+use crate::gas::{Air, COLLISION_CROSS_SECTION_M2};
+use crate::model::Atmosphere;
+use crate::quantity::{Group, Quantity};
+use crate::state::State;
+
+/// Altitudes per block: the block's altitudes and airs (64 bytes each, 4 KiB in all) live
+/// on the stack, small enough for a microcontroller's, and stay in the first-level cache.
+pub(crate) const BLOCK: usize = 64;
+
+/// Why a batch stopped.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum BatchError {
+    /// The numbers of quantities and of output columns differ.
+    ColumnCount {
+        /// Quantities asked.
+        quantities: usize,
+        /// Output columns given.
+        columns: usize,
+    },
+    /// An output column is not exactly as long as the altitudes.
+    ColumnLength {
+        /// Which column (0 is the first).
+        column: usize,
+        /// Its length.
+        len: usize,
+        /// The number of altitudes.
+        altitudes: usize,
+    },
+    /// A quantity asked is not a property of the atmosphere's state
+    /// ([`Error::NotCarried`], as [`State::get`](crate::State::get) reports it).
+    Quantity {
+        /// Which column (0 is the first).
+        column: usize,
+        /// The core's error.
+        error: Error,
+    },
+    /// The element at `index` failed as `state(alt).get(q)` fails there; the columns hold
+    /// every element before it.
+    Element {
+        /// Which altitude (0 is the first).
+        index: usize,
+        /// The core's error, as the scalar path gives it.
+        error: Error,
+    },
+}
+
+impl BatchError {
+    /// The core's error behind this one, where there is one.
+    pub fn error(&self) -> Option<Error> {
+        match *self {
+            Self::Quantity { error, .. } | Self::Element { error, .. } => Some(error),
+            Self::ColumnCount { .. } | Self::ColumnLength { .. } => None,
+        }
+    }
+}
+
+impl core::fmt::Display for BatchError {
+    fn fmt(&self, f: &mut core::fmt::Formatter<'_>) -> core::fmt::Result {
+        match self {
+            Self::ColumnCount { quantities, columns } => write!(
+                f,
+                "a batch needs one output column per quantity: {quantities} quantities, {columns} columns; \
+                 give as many columns as quantities"
+            ),
+            Self::ColumnLength { column, len, altitudes } => write!(
+                f,
+                "batch output column {column} holds {len} values for {altitudes} altitudes; give every column \
+                 exactly one value per altitude"
+            ),
+            Self::Quantity { column, error } => write!(f, "batch quantity {column}: {error}"),
+            Self::Element { index, error } => write!(f, "batch altitude {index}: {error}"),
+        }
+    }
+}
+
+impl core::error::Error for BatchError {}
+
+/// The request checked: as many columns as quantities, each as long as the altitudes,
+/// every quantity one the state carries.
+pub(crate) fn check_request(
+    count: usize,
+    quantities: &[Quantity],
+    outputs: &[&mut [f64]],
+) -> Result<(), BatchError> {
+    if quantities.len() != outputs.len() {
+        return Err(BatchError::ColumnCount { quantities: quantities.len(), columns: outputs.len() });
+    }
+    for (column, (quantity, output)) in quantities.iter().zip(outputs).enumerate() {
+        if quantity.info().group != Group::State {
+            let error = Error::NotCarried { quantity: quantity.name(), result: "an atmosphere state" };
+            return Err(BatchError::Quantity { column, error });
+        }
+        if output.len() != count {
+            return Err(BatchError::ColumnLength { column, len: output.len(), altitudes: count });
+        }
+    }
+    Ok(())
+}
+
+/// The state quantities of any model at `altitudes_m` (each of the kind `kind`), one
+/// column per quantity of `quantities`, written into `outputs` (column `c` gets
+/// quantity `c`), every value bit for bit `model.state(alt)?.get(q)?`.
+///
+/// For the 1976 standard [`Us1976::batch`](crate::Us1976::batch) is faster (its layer
+/// cursor); this one asks `model.air` for every altitude.
+///
+/// ```
+/// use aerostrata::batch;
+/// use aerostrata::{AltitudeKind, Atmosphere, Isothermal, Quantity};
+/// let model = Isothermal::new(250.0, 100_000.0)?;
+/// let altitudes = [0.0, 1_000.0, 2_000.0];
+/// let (mut t, mut p) = ([0.0; 3], [0.0; 3]);
+/// batch::evaluate(&model, AltitudeKind::Geometric, &altitudes, &[Quantity::Temperature, Quantity::Pressure],
+///     &mut [&mut t, &mut p]).unwrap();
+/// assert_eq!(t, [250.0; 3]);
+/// assert_eq!(p[0], 100_000.0);
+/// # Ok::<(), aerostrata::Error>(())
+/// ```
+///
+/// # Errors
+/// [`BatchError::ColumnCount`], [`BatchError::ColumnLength`] or
+/// [`BatchError::Quantity`] for a malformed request (nothing written);
+/// [`BatchError::Element`] for the first altitude where the scalar path fails (the
+/// columns hold every element before it).
+pub fn evaluate<A: Atmosphere + ?Sized>(
+    model: &A,
+    kind: AltitudeKind,
+    altitudes_m: &[f64],
+    quantities: &[Quantity],
+    outputs: &mut [&mut [f64]],
+) -> Result<(), BatchError> {
+    check_request(altitudes_m.len(), quantities, outputs)?;
+    run(altitudes_m, quantities, outputs, 0, |meters, slot| {
+        let altitude = kind.altitude(meters)?;
+        *slot = (altitude, model.air(altitude)?);
+        Ok(())
+    })
+}
+
+/// The block loop behind every batch, on a checked request: `air` writes the altitude and
+/// air of one input into its slot (or gives the scalar path's error); `offset` is the index of the first
+/// input in the caller's whole batch (the parallel chunks), for the error's index.
+pub(crate) fn run(
+    altitudes_m: &[f64],
+    quantities: &[Quantity],
+    outputs: &mut [&mut [f64]],
+    offset: usize,
+    mut air: impl FnMut(f64, &mut (Altitude, Air)) -> Result<(), Error>,
+) -> Result<(), BatchError> {
+    // Sea level is a valid altitude, so the `else` never runs; it keeps the function
+    // free of any panic.
+    let Ok(sea_level) = Altitude::geometric_m(0.0) else { return Ok(()) };
+    // Overwritten before it is read: `run` reads only the elements it has just filled.
+    let mut block = [(sea_level, Air::trusted(1.0, 1.0, 1.0)); BLOCK];
+    let continuum_asked = quantities.iter().any(|q| q.info().may_be_undefined);
+    for (number, inputs) in altitudes_m.chunks(BLOCK).enumerate() {
+        let start = number * BLOCK;
+        let mut failure = None;
+        let mut filled = inputs.len();
+        for (j, (&meters, slot)) in inputs.iter().zip(block.iter_mut()).enumerate() {
+            // Written in place: the pair is 64 bytes, the error beside it more.
+            if let Err(error) = air(meters, slot) {
+                failure = Some((j, error));
+                filled = j;
+                break;
+            }
+        }
+        // A continuum property asked of rarefied air fails before any air error after it.
+        if continuum_asked {
+            if let Some(j) = block[..filled].iter().position(|(_, air)| !air.is_continuum()) {
+                let (altitude, air) = block[j];
+                let state = State::new(altitude, air);
+                if let Some(error) = quantities.iter().find_map(|&q| state.get(q).err()) {
+                    failure = Some((j, error));
+                    filled = j;
+                }
+            }
+        }
+        let pieces = &block[..filled];
+        for (&quantity, output) in quantities.iter().zip(outputs.iter_mut()) {
+            let end = start + filled;
+            if let Some(column) = output.get_mut(start..end) {
+                fill(quantity, pieces, column);
+            }
+        }
+        if let Some((j, error)) = failure {
+            return Err(BatchError::Element { index: offset + start + j, error });
+        }
+    }
+    Ok(())
+}
+
+/// Writes `column[j] = f(altitude_j, air_j)` over a block: one loop per quantity, so that
+/// the choice of the quantity is made once per block, not once per element.
+#[inline(always)]
+fn each(pieces: &[(Altitude, Air)], column: &mut [f64], f: impl Fn(Altitude, &Air) -> Option<f64>) {
+    for ((altitude, air), slot) in pieces.iter().zip(column.iter_mut()) {
+        // `None` is a continuum property of rarefied air, which `run` has stopped before.
+        if let Some(value) = f(*altitude, air) {
+            *slot = value;
+        }
+    }
+}
+
+/// Column `quantity` of a block, each value by the expression of [`State::new`] (a test
+/// checks every quantity against [`State::get`] bit for bit).
+fn fill(quantity: Quantity, pieces: &[(Altitude, Air)], column: &mut [f64]) {
+    use Quantity as Q;
+    match quantity {
+        Q::GeometricAltitude => each(pieces, column, |h, _| Some(h.geometric().meters())),
+        Q::GeopotentialAltitude => each(pieces, column, |h, _| Some(h.geopotential().meters())),
+        Q::Temperature => each(pieces, column, |_, air| Some(air.temperature_k())),
+        Q::MolecularTemperature => each(pieces, column, |_, air| Some(air.molecular_temperature_k())),
+        Q::Pressure => each(pieces, column, |_, air| Some(air.pressure_pa())),
+        Q::Density => each(pieces, column, |_, air| Some(air.density_kg_m3())),
+        Q::SpeedOfSound => each(pieces, column, |_, air| air.speed_of_sound_m_s()),
+        Q::DynamicViscosity => each(pieces, column, |_, air| air.dynamic_viscosity_pa_s()),
+        Q::KinematicViscosity => {
+            each(pieces, column, |_, air| air.dynamic_viscosity_pa_s().map(|mu| mu / air.density_kg_m3()))
+        }
+        Q::ThermalConductivity => each(pieces, column, |_, air| air.thermal_conductivity_w_m_k()),
+        Q::Gravity => each(pieces, column, |h, _| Some(h.geometric().gravity_m_s2())),
+        Q::PressureScaleHeight => {
+            each(pieces, column, |h, air| Some(air.pressure_scale_height_m(h.geometric().gravity_m_s2())))
+        }
+        Q::NumberDensity => each(pieces, column, |_, air| Some(air.number_density_m3())),
+        Q::MeanParticleSpeed => each(pieces, column, |_, air| Some(air.mean_particle_speed_m_s())),
+        Q::MeanFreePath => {
+            each(pieces, column, |_, air| Some(crate::gas::mean_free_path(air.number_density_m3())))
+        }
+        Q::CollisionFrequency => each(pieces, column, |_, air| {
+            Some(air.mean_particle_speed_m_s() * air.number_density_m3() * COLLISION_CROSS_SECTION_M2)
+        }),
+        Q::MeanMolarMass => each(pieces, column, |_, air| Some(air.molar_mass_kg_kmol())),
+        Q::TemperatureRatio => {
+            each(pieces, column, |_, air| Some(air.temperature_k() / SEA_LEVEL_TEMPERATURE_K))
+        }
+        Q::PressureRatio => each(pieces, column, |_, air| Some(air.pressure_pa() / SEA_LEVEL_PRESSURE_PA)),
+        Q::DensityRatio => each(pieces, column, |_, air| Some(air.density_kg_m3() / SEA_LEVEL_DENSITY_KG_M3)),
+        // `check_request` lets only the state's quantities through.
+        _ => {}
+    }
+}
