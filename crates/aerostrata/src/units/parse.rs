@@ -79,18 +79,49 @@ pub struct Escaped<'a>(pub &'a str);
 impl fmt::Display for Escaped<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         // Control characters written as escapes, the rest as typed (no `escape_debug`: its
-        // Unicode tables would cost the size-budgeted WebAssembly module 4 KiB).
-        let (text, cut) = shorten(self.0, 40);
-        for c in text.chars() {
-            match c {
-                '\t' => f.write_str("\\t")?,
-                '\n' => f.write_str("\\n")?,
-                '\r' => f.write_str("\\r")?,
-                c if c.is_control() => write!(f, "\\u{{{:x}}}", u32::from(c))?,
-                c => f.write_char(c)?,
+        // Unicode tables would cost the size-budgeted WebAssembly module 4 KiB). The cut
+        // counts what is written, escapes included, so that a run of control characters
+        // cannot make the echo seven times longer.
+        const SHOWN: usize = 40;
+        let mut written = 0;
+        let mut buffer = [0u8; 12];
+        for c in self.0.chars() {
+            let piece: &str = match c {
+                '\t' => "\\t",
+                '\n' => "\\n",
+                '\r' => "\\r",
+                c if c.is_control() => {
+                    let mut out = Cursor { buffer: &mut buffer, len: 0 };
+                    write!(out, "\\u{{{:x}}}", u32::from(c))?;
+                    let len = out.len;
+                    core::str::from_utf8(&buffer[..len]).unwrap_or("?")
+                }
+                c => c.encode_utf8(&mut buffer),
+            };
+            let width = piece.chars().count();
+            if written + width > SHOWN {
+                return f.write_str("...");
             }
+            f.write_str(piece)?;
+            written += width;
         }
-        f.write_str(if cut { "..." } else { "" })
+        Ok(())
+    }
+}
+
+/// A small buffer to format an escape into.
+struct Cursor<'a> {
+    buffer: &'a mut [u8],
+    len: usize,
+}
+
+impl fmt::Write for Cursor<'_> {
+    fn write_str(&mut self, text: &str) -> fmt::Result {
+        let end = self.len + text.len();
+        let slot = self.buffer.get_mut(self.len..end).ok_or(fmt::Error)?;
+        slot.copy_from_slice(text.as_bytes());
+        self.len = end;
+        Ok(())
     }
 }
 
