@@ -283,9 +283,16 @@ fn json_errors_name_the_line_of_the_row_and_the_value() {
     let long = "a".repeat(500);
     let cases = [
         format!(r#"{{"altitude": "geometric", "{long}": 1}}"#),
-        r#"{"altitude": "geometric", "rows": 1}"#.to_owned(),
-        r#"{"altitude": "geo[31m", "rows": []}"#.to_owned(),
-        format!(r#"{{"altitude": "geometric", "rows": [{{"altitude_m": "1{long}", "temperature_k": 1}}]}}"#),
+        r#"{"altitude": "geometric", "ro\u0001ws": 1}"#.to_owned(),
+        r#"{"altitude": "geo\u001b[31m", "rows": []}"#.to_owned(),
+        format!(
+            r#"{{"altitude": "geometric", "rows": [{{"altitude_m": "1\u0007{long}", "temperature_k": 1}}]}}"#
+        ),
+        format!(r#"{{"altitude": "geometric", "rows": "\u0001{long}"}}"#),
+        format!(r#"{{"altitude": "geometric", "rows": ["\u0001{long}"]}}"#),
+        format!(r#""\u0001{long}""#),
+        format!(r#"{{"below": {{"blend_into_us1976": "\u0001{long}"}}}}"#),
+        format!(r#"{{"below": "\u0001{long}"}}"#),
     ];
     for text in cases {
         let message = serde_json::from_str::<Tabulated<Vec<SoundingLevel>>>(&text).unwrap_err().to_string();

@@ -55,6 +55,9 @@ mod owned {
                 fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
                     f.write_str("a list of sounding rows")
                 }
+                fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Self::Value, E> {
+                    Err(a_string(text, "a list of sounding rows"))
+                }
                 fn visit_seq<A: SeqAccess<'de>>(self, mut seq: A) -> Result<CheckedRows, A::Error> {
                     let mut rows = Vec::with_capacity(seq.size_hint().unwrap_or(0).min(4096));
                     while let Some(row) = seq.next_element_seed(RowSeed { before: &rows })? {
@@ -68,7 +71,7 @@ mod owned {
                     Ok(CheckedRows(rows))
                 }
             }
-            deserializer.deserialize_seq(RowsVisitor)
+            deserializer.deserialize_any(RowsVisitor)
         }
     }
 
@@ -81,6 +84,12 @@ mod owned {
         "dew_point_k",
         "relative_humidity_percent",
     ];
+
+    /// A string where something else belongs, refused with the string escaped and cut
+    /// (serde's own message would quote it whole and raw).
+    fn a_string<E: serde::de::Error>(text: &str, expected: &str) -> E {
+        E::custom(format_args!("a string {} where {expected} belongs", Quoted(text)))
+    }
 
     /// A name read as text and matched against `names` (a field, or a unit variant such as
     /// the kind of altitude): an unknown one is refused with its text escaped and cut
@@ -139,7 +148,10 @@ mod owned {
             Ok(None)
         }
         fn visit_some<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<Option<f64>, D::Error> {
-            deserializer.deserialize_f64(self)
+            // `any`, not `f64`: a format asked for a number refuses a string itself, quoting
+            // it raw; asked for anything it hands the string here. Numbers arrive as the
+            // f64, i64 or u64 the format parsed, as `f64`'s own deserialisation takes them.
+            deserializer.deserialize_any(self)
         }
         fn visit_f64<E: serde::de::Error>(self, value: f64) -> Result<Option<f64>, E> {
             Ok(Some(value))
@@ -163,7 +175,7 @@ mod owned {
     impl<'de> DeserializeSeed<'de> for RowSeed<'_> {
         type Value = SoundingRow;
         fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<SoundingRow, D::Error> {
-            deserializer.deserialize_struct("SoundingRow", &FIELDS, self)
+            deserializer.deserialize_any(self)
         }
     }
 
@@ -171,6 +183,9 @@ mod owned {
         type Value = SoundingRow;
         fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
             f.write_str("a sounding row")
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Self::Value, E> {
+            Err(a_string(text, "a sounding row"))
         }
         fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<SoundingRow, A::Error> {
             let mut values: [Option<f64>; 6] = [None; 6];
@@ -239,7 +254,7 @@ mod owned {
     impl<'de> DeserializeSeed<'de> for Depth {
         type Value = f64;
         fn deserialize<D: serde::Deserializer<'de>>(self, deserializer: D) -> Result<f64, D::Error> {
-            deserializer.deserialize_map(self)
+            deserializer.deserialize_any(self)
         }
     }
 
@@ -247,6 +262,9 @@ mod owned {
         type Value = f64;
         fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
             f.write_str("{\"depth_m\": D}")
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Self::Value, E> {
+            Err(a_string(text, "{\"depth_m\": D}"))
         }
         fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<f64, A::Error> {
             let mut depth = None;
@@ -282,6 +300,9 @@ mod owned {
         type Value = Tabulated<Vec<SoundingLevel>>;
         fn expecting(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
             f.write_str("a sounding: altitude, rows, and optionally below and above")
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<Self::Value, E> {
+            Err(a_string(text, "a sounding"))
         }
         fn visit_map<A: MapAccess<'de>>(self, mut map: A) -> Result<Self::Value, A::Error> {
             let mut kind: Option<AltitudeKind> = None;
@@ -335,11 +356,13 @@ mod owned {
         }
     }
 
-    /// Reads what [`Tabulated`]'s `Serialize` writes, through the constructors'
+    /// Reads what [`Tabulated`]'s `Serialize` writes (from a self-describing format such as
+    /// JSON: every part is read with `deserialize_any`, so that a string where it does not
+    /// belong reaches the visitor and is echoed escaped), through the constructors'
     /// checks.
     impl<'de> serde::Deserialize<'de> for Tabulated<Vec<SoundingLevel>> {
         fn deserialize<D: serde::Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
-            deserializer.deserialize_struct("Tabulated", &PARTS, TableVisitor)
+            deserializer.deserialize_any(TableVisitor)
         }
     }
 }
