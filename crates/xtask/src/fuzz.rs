@@ -15,9 +15,16 @@ pub const TARGETS: [&str; 8] =
 /// cargo-fuzz, pinned like the other tools under target/tools.
 const CARGO_FUZZ_VERSION: &str = "0.13.2";
 
-/// Seconds per target in `cargo xtask test`: eight targets stay within about two
-/// minutes after the first build. `cargo xtask fuzz` alone defaults to a minute each.
+/// Seconds per target in `cargo xtask test` (with [`TEST_RUNS`], four times this is the
+/// cap): eight targets stay within about two minutes after the first build. `cargo xtask
+/// fuzz` alone defaults to a minute each.
 pub const TEST_SECONDS: u32 = 15;
+
+/// In `cargo xtask test` each target runs at most this many inputs from a fixed seed, so
+/// that the test command explores the same inputs on every machine (a time bound alone
+/// would explore more on a faster one, and a finding would come and go with the load);
+/// exploring further is `cargo xtask fuzz`'s job.
+pub const TEST_RUNS: u32 = 20_000;
 pub const DEFAULT_SECONDS: u32 = 60;
 
 /// Reads `--seconds N` from the arguments after `fuzz`.
@@ -47,7 +54,7 @@ pub fn run(root: &Path, seconds: u32) -> Result<(), String> {
             return Ok(());
         }
     };
-    fuzz_all(root, &cargo_fuzz, seconds)
+    fuzz_all(root, &cargo_fuzz, seconds, (seconds == TEST_SECONDS).then_some(TEST_RUNS))
 }
 
 /// fuzz/ linted (rustfmt, clippy: the main workspace's checks do not reach it), then
@@ -92,7 +99,7 @@ fn fuzzer(root: &Path) -> Result<PathBuf, String> {
 /// Each target for `seconds` under libFuzzer with AddressSanitizer, growing a working
 /// corpus under target/fuzz (the committed one is only read); a crash's input is kept
 /// under target/fuzz/artifacts and named in the error.
-fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32) -> Result<(), String> {
+fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32, runs: Option<u32>) -> Result<(), String> {
     let work = crate::target_dir(root).join("fuzz");
     let tools = cargo_fuzz.parent().map(Path::to_path_buf).unwrap_or_default();
     let path = std::env::var_os("PATH").unwrap_or_default();
@@ -121,8 +128,10 @@ fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32) -> Result<(), String> 
         let before = listing(&artifacts);
         let seeds = root.join("fuzz").join("corpus").join(target);
         let (corpus, seeds) = (corpus.to_string_lossy(), seeds.to_string_lossy());
-        let time = format!("-max_total_time={seconds}");
+        // With a count of runs, the time is only a cap (a slow machine still stops).
+        let time = format!("-max_total_time={}", if runs.is_some() { 4 * seconds } else { seconds });
         let prefix = format!("-artifact_prefix={}/", artifacts.to_string_lossy());
+        let repeatable = runs.map(|n| [format!("-runs={n}"), "-seed=1".to_owned()]);
         let args = [
             "run",
             target,
@@ -138,7 +147,10 @@ fn fuzz_all(root: &Path, cargo_fuzz: &Path, seconds: u32) -> Result<(), String> 
             "-rss_limit_mb=2048",
             "-print_final_stats=1",
         ];
-        let output = cargo(&args).envs([("AEROSTRATA_FUZZ_OPEN", &open)]).output()?;
+        let output = cargo(&args)
+            .args(repeatable.iter().flatten())
+            .envs([("AEROSTRATA_FUZZ_OPEN", &open)])
+            .output()?;
         let stderr = output.stderr_text();
         let done = stderr.lines().rev().find(|l| l.starts_with("Done ")).unwrap_or("no final line");
         let executions = stderr
