@@ -143,22 +143,23 @@ fn an_exceedance_interval_matches_a_hand_made_series() {
     let (q, summary) = sea_level(&[100.0, 200.0, 300.0, 250.0, 150.0, 260.0], &["--q-limit", "30kPa"]);
     // Linear interpolation of q between the samples either side of each crossing.
     let cross = |i: usize| i as f64 + (30_000.0 - q[i]) / (q[i + 1] - q[i]);
-    let found = summary["dynamic_pressure_limit"]["exceedances"].as_array().unwrap();
+    let found = summary["q_limit_exceedances"].as_array().unwrap();
     assert_eq!(found.len(), 2, "{summary}");
     let first = &found[0];
     assert!(close(first["start_time_s"].as_f64().unwrap(), cross(1), 1e-12));
     assert!(close(first["end_time_s"].as_f64().unwrap(), cross(3), 1e-12));
-    assert_eq!(first["peak"]["dynamic_pressure_Pa"].as_f64().unwrap(), q[2]);
+    assert_eq!(first["peak_pa"].as_f64().unwrap(), q[2]);
     assert_eq!((first["open_start"].as_bool(), first["open_end"].as_bool()), (Some(false), Some(false)));
     // The series ends above the limit: the second interval is open at its end.
     let second = &found[1];
     assert!(close(second["start_time_s"].as_f64().unwrap(), cross(4), 1e-12));
     assert_eq!(second["end_time_s"].as_f64(), Some(5.0));
     assert_eq!(second["open_end"].as_bool(), Some(true));
-    assert_eq!(summary["dynamic_pressure_limit"]["limit"]["dynamic_pressure_Pa"].as_f64(), Some(30_000.0));
+    assert_eq!(summary["q_limit"]["dynamic_pressure_Pa"].as_f64(), Some(30_000.0));
     // In US units the limit is read with its unit and written in psf.
     let (_, us) = sea_level(&[100.0, 300.0, 100.0], &["--q-limit", "600psf", "--units", "us"]);
-    let limit = us["dynamic_pressure_limit"]["limit"]["dynamic_pressure_psf"].as_f64().unwrap();
+    let limit = us["q_limit"]["dynamic_pressure_psf"].as_f64().unwrap();
+    assert!(us["q_limit_exceedances"][0]["peak_psf"].as_f64().is_some(), "{us}");
     assert!(close(limit, 600.0, 1e-12), "{us}");
 }
 

@@ -280,28 +280,32 @@ fn one_json(report: &Report, units: UnitSystem) -> Value {
     map.insert("model".to_owned(), json!(report.label));
     for exceeded in &report.limits {
         let q = exceeded.quantity;
+        // The loads review's names: `q_limit_exceedances` with `peak_pa` (`peak_psf`),
+        // `q_alpha_limit_exceedances` with `peak_pa_deg` (`peak_psf_deg`).
+        let short = if q == Quantity::DynamicPressure { "q" } else { q.name() };
+        let column = units.column(q);
+        let unit = column.strip_prefix(q.name()).unwrap_or(&column).trim_start_matches('_').to_lowercase();
+        let peak_key = format!("peak_{unit}");
         let intervals: Vec<Value> = exceeded
             .intervals
             .iter()
             .map(|e| {
-                json!({
-                    "start_time_s": e.start_time_s,
-                    "end_time_s": e.end_time_s,
-                    "peak": of(q, e.peak),
-                    "peak_time_s": e.peak_time_s,
-                    "open_start": e.open_start,
-                    "open_end": e.open_end,
-                })
+                let mut interval = serde_json::Map::new();
+                interval.insert("start_time_s".to_owned(), json!(e.start_time_s));
+                interval.insert("end_time_s".to_owned(), json!(e.end_time_s));
+                interval.insert(peak_key.clone(), json!(units.from_si(q, e.peak)));
+                interval.insert("peak_time_s".to_owned(), json!(e.peak_time_s));
+                interval.insert("open_start".to_owned(), json!(e.open_start));
+                interval.insert("open_end".to_owned(), json!(e.open_end));
+                Value::Object(interval)
             })
             .collect();
-        map.insert(
-            format!("{}_limit", q.name()),
-            json!({ "limit": of(q, exceeded.limit), "exceedances": intervals }),
-        );
+        map.insert(format!("{short}_limit"), of(q, exceeded.limit));
+        map.insert(format!("{short}_limit_exceedances"), Value::Array(intervals));
     }
     if let Some(p) = &report.plateau {
         map.insert(
-            "plateau".to_owned(),
+            "q_plateau".to_owned(),
             json!({
                 "start_time_s": p.start_time_s,
                 "end_time_s": p.end_time_s,
