@@ -203,18 +203,7 @@ pub fn read_flight_csv(
     use Quantity as Q;
     let text = js::long_text("text", &text)?;
     let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-    let readable = [
-        Q::Time,
-        Q::Altitude,
-        Q::Velocity,
-        Q::VelocityEast,
-        Q::VelocityNorth,
-        Q::VelocityUp,
-        Q::FlightPathAngle,
-        Q::Heading,
-        Q::AxisElevation,
-        Q::AxisAzimuth,
-    ];
+    let readable = aerostrata::flight::SAMPLE_COLUMNS;
     let default_unit = if us { Quantity::us } else { Quantity::si };
     let mut lines = text
         .lines()
@@ -230,9 +219,7 @@ pub fn read_flight_csv(
         .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
     let has = |q: Quantity| header.position(q).is_some();
     let all_or_none = |group: &[Quantity]| group.iter().all(|q| has(*q)) || !group.iter().any(|q| has(*q));
-    let components = [Q::VelocityEast, Q::VelocityNorth, Q::VelocityUp];
-    let path = [Q::FlightPathAngle, Q::Heading];
-    let axis = [Q::AxisElevation, Q::AxisAzimuth];
+    use aerostrata::flight::{AXIS_ANGLES as axis, PATH_ANGLES as path, VELOCITY_COMPONENTS as components};
     let problem = if !(has(Q::Time) && has(Q::Altitude)) {
         Some("the header needs a time and an altitude column, each with or without its unit")
     } else if !all_or_none(&components) {

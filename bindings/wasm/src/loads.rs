@@ -406,18 +406,7 @@ mod tests {
     fn the_options_are_the_catalogues_keys() {
         use Quantity as Q;
         let keys: Vec<&str> = OPTION_KEYS.split(',').collect();
-        for q in [
-            Q::Time,
-            Q::Altitude,
-            Q::Velocity,
-            Q::VelocityEast,
-            Q::VelocityNorth,
-            Q::VelocityUp,
-            Q::FlightPathAngle,
-            Q::Heading,
-            Q::AxisElevation,
-            Q::AxisAzimuth,
-        ] {
+        for q in aerostrata::flight::SAMPLE_COLUMNS {
             assert!(keys.contains(&crate::quantity::key(q).as_str()), "{q:?}");
         }
         for (q, key) in [

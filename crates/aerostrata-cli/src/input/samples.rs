@@ -35,9 +35,7 @@ const ACCEPTED: [Quantity; 11] = [
 ];
 /// The columns of a file without a header.
 const IMPLICIT: [Quantity; 3] = [Quantity::Time, Quantity::Altitude, Quantity::Velocity];
-const COMPONENTS: [Quantity; 3] = [Quantity::VelocityEast, Quantity::VelocityNorth, Quantity::VelocityUp];
-const PATH: [Quantity; 2] = [Quantity::FlightPathAngle, Quantity::Heading];
-const AXIS: [Quantity; 2] = [Quantity::AxisElevation, Quantity::AxisAzimuth];
+use aerostrata::flight::{AXIS_ANGLES as AXIS, PATH_ANGLES as PATH, VELOCITY_COMPONENTS as COMPONENTS};
 
 /// What a flight file gives of each sample's velocity.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

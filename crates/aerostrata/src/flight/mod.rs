@@ -18,6 +18,8 @@ mod point;
 mod scan;
 mod summary;
 
+use crate::quantity::Quantity;
+
 pub use limits::{exceedances, plateau, Exceedance, LimitWatch, Plateau, PLATEAU_FRACTION};
 pub use motion::{Axis, BoundaryLayer, VectorSample};
 pub use peak::{RESOLVED_FRACTION, SAFETY_FACTOR};
@@ -28,3 +30,26 @@ pub use summary::{Crossings, Extreme, FlightSummary, Peak};
 /// Largest |time| a sample may carry, s (about 31 700 years): keeps every difference of
 /// two times finite.
 pub const MAX_TIME_S: f64 = 1.0e12;
+
+/// The columns a flight file's samples may have, for the doors' readers: time, altitude
+/// and a speed, or the velocity's components, or a speed with its path angles, and the
+/// vehicle's axis.
+pub const SAMPLE_COLUMNS: [Quantity; 10] = [
+    Quantity::Time,
+    Quantity::Altitude,
+    Quantity::Velocity,
+    Quantity::VelocityEast,
+    Quantity::VelocityNorth,
+    Quantity::VelocityUp,
+    Quantity::FlightPathAngle,
+    Quantity::Heading,
+    Quantity::AxisElevation,
+    Quantity::AxisAzimuth,
+];
+/// The ground-relative velocity's components ([`VectorSample`]), all or none.
+pub const VELOCITY_COMPONENTS: [Quantity; 3] =
+    [Quantity::VelocityEast, Quantity::VelocityNorth, Quantity::VelocityUp];
+/// The path angles that go with a speed ([`VectorSample::from_path`]), both or none.
+pub const PATH_ANGLES: [Quantity; 2] = [Quantity::FlightPathAngle, Quantity::Heading];
+/// The vehicle's axis ([`Axis`]), both or none.
+pub const AXIS_ANGLES: [Quantity; 2] = [Quantity::AxisElevation, Quantity::AxisAzimuth];
