@@ -7,6 +7,7 @@
 use alloc::string::{String, ToString};
 use alloc::vec::Vec;
 
+use aerostrata::flight::{FileLayout, SampleError, EMPTY_CELL, FILE_COLUMNS, IMPLICIT_COLUMNS};
 use aerostrata::model::{spec, ModelSpec, SpecError};
 use aerostrata::table::{self, CellError, Header};
 use aerostrata::units::{self, Part, ReadError, Unit};
@@ -179,106 +180,96 @@ impl AtmosphereModel {
     }
 }
 
-/// The samples of a flight file, read as the command line reads them: a header naming
-/// `time` and `altitude` (geometric) and the velocity, in any spelling, with or without
-/// units (`time (s),altitude (ft),velocity (ft/s)`); columns without a unit read in SI, or
-/// in US units when `defaultUnits` is `"us"`; a cell's own unit wins; other columns are
-/// kept out and listed in `ignored`. At most 16 777 216 samples.
+/// The samples of a flight file, read by the rules the command line reads it by (the
+/// core's [`FileLayout`]): a header naming `time` and `altitude` (geometric; or
+/// `geometric_altitude`) and the velocity, in any spelling, with or without units
+/// (`time (s),altitude (ft),speed (kt)`); columns without a unit read in SI, or in US units
+/// when `defaultUnits` is `"us"`; a cell's own unit wins; other columns are kept out and
+/// listed in `ignored`. Without a header the columns are time, altitude and velocity, in
+/// order. At most 16 777 216 samples.
 ///
-/// The velocity is a `velocity` column (the speed), or `velocity_east`, `velocity_north`
-/// and `velocity_up` (the ground-relative velocity; a `velocity` column beside them is
-/// kept out), or `velocity` with `flight_path_angle` and `heading`; `axis_elevation` and
-/// `axis_azimuth` give the vehicle's axis. The result has the columns the file gives, so
-/// that `{ignored, ...samples}` is what `scanFlight(options)` takes.
+/// The velocity is a `velocity` (or `speed`) column, or `velocity_east`, `velocity_north`
+/// and `velocity_up` (the ground-relative velocity), or `velocity` with
+/// `flight_path_angle` and `heading`; `axis_elevation` and `axis_azimuth` give the
+/// vehicle's axis. A velocity given two ways is refused. The result has the columns the
+/// file gives, so that `{ignored, ...samples}` is what `scanFlight(options)` takes.
 ///
 /// Returns `{timeS, altitudeM, velocityMS?, velocityEastMS?, velocityNorthMS?,
 /// velocityUpMS?, flightPathAngleDeg?, headingDeg?, axisElevationDeg?, axisAzimuthDeg?,
 /// ignored}` (`Float64Array`s in SI, and the headings kept out). Throws an `Error` naming
-/// the line and column for a file it cannot read.
+/// the line and column for a file it cannot read (a `RangeError` for an angle out of its
+/// range).
 #[wasm_bindgen(js_name = readFlightCsv, unchecked_return_type = "FlightSamples")]
 pub fn read_flight_csv(
     #[wasm_bindgen(js_name = text, unchecked_param_type = "string")] text: JsValue,
     #[wasm_bindgen(js_name = defaultUnits, unchecked_optional_param_type = "\"si\" | \"us\"")] units: JsValue,
 ) -> Result<JsValue, JsValue> {
-    use Quantity as Q;
     let text = js::long_text("text", &text)?;
     let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-    let readable = aerostrata::flight::SAMPLE_COLUMNS;
     let default_unit = if us { Quantity::us } else { Quantity::si };
-    let mut lines = text
-        .lines()
-        .enumerate()
-        .map(|(i, line)| (i + 1, table::clean(line).trim()))
-        .filter(|(_, line)| !line.is_empty() && !line.starts_with('#'));
-    let Some((header_line, header_text)) = lines.next() else {
-        return Err(Failure::plain("the flight file is empty: it needs a header line and samples").into());
-    };
     let at =
         |line: usize, message: &str| Failure::plain(Text::new("line ").u(line).s(": ").s(message).done());
-    let header = Header::read(header_text, |q| readable.contains(&q), default_unit)
-        .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
-    let has = |q: Quantity| header.position(q).is_some();
-    let all_or_none = |group: &[Quantity]| group.iter().all(|q| has(*q)) || !group.iter().any(|q| has(*q));
-    use aerostrata::flight::{AXIS_ANGLES as axis, PATH_ANGLES as path, VELOCITY_COMPONENTS as components};
-    let problem = if !(has(Q::Time) && has(Q::Altitude)) {
-        Some("the header needs a time and an altitude column, each with or without its unit")
-    } else if !all_or_none(&components) {
-        Some(
-            "the velocity's components need all three columns: velocity_east, velocity_north and velocity_up",
-        )
-    } else if !all_or_none(&path) || (has(Q::Heading) && (has(Q::VelocityEast) || !has(Q::Velocity))) {
-        Some(
-            "a flight path needs velocity (the speed), flight_path_angle and heading, without the components",
-        )
-    } else if !(has(Q::Velocity) || has(Q::VelocityEast)) {
-        Some("the header needs a velocity column, or velocity_east, velocity_north and velocity_up")
-    } else if !all_or_none(&axis) || (has(Q::AxisElevation) && !(has(Q::VelocityEast) || has(Q::Heading))) {
-        Some("the vehicle's axis needs axis_elevation and axis_azimuth, and the velocity's direction")
-    } else {
-        None
+    let mut lines =
+        table::data_lines(&text).map(|line| line.map_err(|e| JsValue::from(at(e.line, &e.to_string()))));
+    let Some((header_line, header_text)) = lines.next().transpose()? else {
+        return Err(Failure::plain("the flight file is empty: it needs a header line and samples").into());
     };
-    if let Some(problem) = problem {
-        return Err(at(header_line, problem).into());
-    }
-    // The components win over a speed beside them, which is kept out.
-    let speed_kept_out = has(Q::VelocityEast) && has(Q::Velocity);
-    let given: Vec<(usize, Quantity)> = readable
-        .iter()
-        .filter(|q| !(speed_kept_out && **q == Q::Velocity))
-        .filter_map(|&q| header.position(q).map(|p| (p, q)))
-        .collect();
+    let mut names: Vec<&str> = table::cells(header_text, table::delimiter_of(header_text)).collect();
+    let (header, first_row) = if table::is_header(header_text) {
+        let header = Header::read(header_text, |q| FILE_COLUMNS.contains(&q), default_unit)
+            .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
+        (header, None)
+    } else {
+        names = IMPLICIT_COLUMNS.iter().map(|q| q.name()).collect();
+        let header = Header::read("time,altitude,velocity", |_| true, default_unit)
+            .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
+        (header, Some((header_line, header_text)))
+    };
+    let layout = FileLayout::of(&header).map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
+    let given: Vec<(Quantity, usize)> = layout.columns().collect();
     let mut columns: Vec<Vec<f64>> = given.iter().map(|_| Vec::new()).collect();
     let mut values = [None; table::MAX_COLUMNS];
-    for (line, row) in lines {
+    for next in first_row.map(Ok).into_iter().chain(lines) {
+        let (line, row) = next?;
         header.read_row(row, &mut values).map_err(|e| {
             JsValue::from(match e {
                 CellError::Value { .. } | CellError::Count { .. } => at(line, &e.to_string()),
                 _ => at(line, "not a row of the table"),
             })
         })?;
-        for (column, &(index, q)) in columns.iter_mut().zip(&given) {
-            let value = values.get(index).copied().flatten().ok_or_else(|| {
-                let mut message = Text::new("column ");
-                let mut number = String::new();
-                push_count(&mut number, index + 1);
-                message = message.s(&number).s(" (").s(q.name()).s("): a value is required on every row");
-                JsValue::from(at(line, &message.done()))
-            })?;
+        layout.sample(&values).map_err(|e| {
+            let index = e.index();
+            let mut message = Text::new("line ").u(line).s(", column ");
+            let mut number = String::new();
+            push_count(&mut number, index + 1);
+            message = message.s(&number).s(" (").s(names.get(index).copied().unwrap_or("")).s("): ");
+            // The core's words, its numbers without Rust's float formatting (the size budget).
+            JsValue::from(match e {
+                SampleError::Value { error, .. } => {
+                    let failure = Failure::from(error);
+                    Failure { message: message.s(&failure.message).done(), ..failure }
+                }
+                _ => Failure::plain(message.s(EMPTY_CELL).done()),
+            })
+        })?;
+        for (column, &(_, index)) in columns.iter_mut().zip(&given) {
             if column.len() >= crate::args::MAX_ELEMENTS {
                 return Err(Failure::range("the flight file has more than 16777216 samples").into());
             }
-            column.push(value);
+            column.push(values.get(index).copied().flatten().unwrap_or(0.0));
         }
     }
-    let names: Vec<&str> = table::cells(header_text, header.delimiter()).collect();
     let mut ignored = String::new();
-    let speed_position = header.position(Q::Velocity).filter(|_| speed_kept_out);
-    for name in header.ignored().chain(speed_position).filter_map(|i| names.get(i)) {
+    for name in header.ignored().filter_map(|i| names.get(i)) {
         ignored.push_str(if ignored.is_empty() { "" } else { "\u{1f}" });
         ignored.push_str(name);
     }
     let count = columns.first().map_or(0, Vec::len);
-    let keys = crate::quantity::keys(given.iter().map(|&(_, q)| q));
+    // A flight's altitude is geometric: `geometric_altitude` gives `altitudeM`.
+    let keys = crate::quantity::keys(given.iter().map(|&(q, _)| match q {
+        Quantity::GeometricAltitude => Quantity::Altitude,
+        q => q,
+    }));
     let flat: Vec<f64> = columns.into_iter().flatten().collect();
     js::flight_samples(&keys, &flat, count, &ignored)
 }

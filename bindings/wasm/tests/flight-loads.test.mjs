@@ -156,13 +156,15 @@ test("WindProfile: components interpolated linearly, held beyond its levels", ()
 });
 
 test("readFlightCsv returns the vector columns a file has", () => {
-  const text = "time (s),altitude (m),velocity_east (m/s),velocity_north (m/s),velocity_up (m/s),velocity (m/s),note\n0,100,0,0,20,20,pad\n1,130,1,0,40,40.01,\n";
+  const text = "time (s),geometric_altitude (m),velocity_east (m/s),velocity_north (m/s),velocity_up (m/s),note\n0,100,0,0,20,pad\n1,130,1,0,40,\n";
   const samples = a.readFlightCsv(text);
   assert.deepEqual(Object.keys(samples).sort(), ["altitudeM", "ignored", "timeS", "velocityEastMS", "velocityNorthMS", "velocityUpMS"]);
-  // The components win; the speed beside them is kept out with the unknown columns.
-  assert.deepEqual(samples.ignored.sort(), ["note", "velocity (m/s)"]);
+  assert.deepEqual(samples.ignored, ["note"]);
   const { ignored, ...options } = samples;
-  assert.equal(ignored.length, 2);
+  assert.equal(ignored.length, 1);
+  // A speed beside the components gives the velocity twice: refused, as the command line
+  // refuses it (one set of rules in the core), rather than one of them dropped.
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity_east,velocity_north,velocity_up,velocity\n0,0,0,0,1,1\n"), /line 1: the header gives the velocity twice/);
   assert.deepEqual([...standard.scanFlight(options).points.velocityUpMS], [20, 40]);
   // Speed, flight-path angle, heading and the axis; US units by default.
   const path = a.readFlightCsv("time,altitude,velocity,flight_path_angle,heading,axis_elevation,axis_azimuth\n0,0,100,90,0,90,0\n1,328.084,100,85,45,84,40\n", "us");
@@ -172,9 +174,12 @@ test("readFlightCsv returns the vector columns a file has", () => {
   assert.equal(path.flightPathAngleDeg[1], 85);
   // Incomplete or mixed forms are refused at the header.
   assert.throws(() => a.readFlightCsv("time,altitude,velocity_east,velocity_up\n0,0,0,0\n"), /line 1: the velocity's components need all three columns/);
-  assert.throws(() => a.readFlightCsv("time,altitude,velocity,heading\n0,0,0,0\n"), /line 1: a flight path needs velocity/);
-  assert.throws(() => a.readFlightCsv("time,altitude,velocity,axis_elevation,axis_azimuth\n0,0,0,0,0\n"), /line 1: the vehicle's axis needs/);
-  assert.throws(() => a.readFlightCsv("time,altitude,velocity_east,velocity_north,velocity_up\n0,0,0,,0\n"), /line 2: column 4 \(velocity_north\): a value is required/);
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity,heading\n0,0,0,0\n"), /line 1: a velocity by its direction needs velocity/);
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity,axis_elevation,axis_azimuth\n0,0,0,0,0\n"), /line 1: axis_elevation, axis_azimuth need the velocity's direction/);
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity_east,velocity_north,velocity_up,axis_elevation\n0,0,0,0,0,0\n"), /line 1: the vehicle's axis needs both/);
+  // An angle out of its range names its column, a RangeError.
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity,flight_path_angle,heading\n0,0,1,95,0\n"), (e) => e instanceof RangeError && /^line 2, column 4 \(flight_path_angle\): /.test(e.message));
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity_east,velocity_north,velocity_up\n0,0,0,,0\n"), /line 2, column 4 \(velocity_north\): an empty cell; every sample needs a value/);
 });
 
 // The file's lines: `input NAME values...`, `column KEY bits...`, `defined bits...`,

@@ -102,10 +102,17 @@ test("a flight file reads in SI whatever its headings' units, other columns list
 });
 
 test("a flight file that cannot be read is refused at its line", () => {
-  assert.throws(() => a.readFlightCsv("time,altitude\n0,0\n"), /line 1: the header needs a velocity column/);
+  assert.throws(() => a.readFlightCsv("time,altitude\n0,0\n"), /line 1: the header needs the velocity/);
   assert.throws(() => a.readFlightCsv("time,altitude,velocity\n0,0,0\n1,x,2\n"), /line 3: column 2/);
   assert.throws(() => a.readFlightCsv("time,altitude,velocity\n0,0\n"), /line 2: 2 cells, but the header has 3 columns/);
-  assert.throws(() => a.readFlightCsv("time,altitude,velocity\n0,,0\n"), /line 2: column 2 \(altitude\): a value is required/);
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity\n0,,0\n"), /line 2, column 2 \(altitude\): an empty cell; every sample needs a value/);
+  // Without a header: time, altitude and velocity in order, in the default units, as the
+  // command line reads such a file; a `speed` heading is the velocity.
+  const bare = a.readFlightCsv("# t, h, v\n0,0,0\n1,100,200\n", "us");
+  assert.deepEqual([...bare.altitudeM], [0, 100 * 0.3048]);
+  assert.deepEqual([...bare.velocityMS], [0, 200 * 0.3048]);
+  assert.deepEqual([...a.readFlightCsv("time,altitude,Speed (kt)\n0,0,100\n").velocityMS], [100 * (1852 / 3600)]);
+  assert.throws(() => a.readFlightCsv("time,altitude,velocity\n" + ",".repeat(70000) + "\n"), /line 2: longer than 65536 bytes/);
   assert.throws(() => a.readFlightCsv("# nothing\n"), /empty/);
   assert.throws(() => a.readFlightCsv("time,altitude,velocity\n0,0,0\n", "metric"), RangeError);
 });

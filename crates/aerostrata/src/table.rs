@@ -13,11 +13,16 @@
 
 use core::fmt;
 
-use crate::quantity::{ColumnError, Quantity};
+use crate::quantity::{self, ColumnError, Quantity};
 use crate::units::{self, Reading, Unit, UnitError};
 
 /// The most columns a table may have.
 pub const MAX_COLUMNS: usize = 64;
+
+/// The longest line a table may have, in bytes (without its end): far beyond any header
+/// or row of numbers, and small enough that a text that is no table (one line of a
+/// binary, or of 200 MB of commas) is refused after this much rather than held whole.
+pub const MAX_LINE_BYTES: usize = 64 * 1024;
 
 /// A column the reader takes: its quantity and the unit of its bare numbers.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -90,6 +95,38 @@ pub enum CellError<'a> {
     },
 }
 
+/// A line longer than [`MAX_LINE_BYTES`] (its message leaves the line's number to the
+/// door, which names the file too).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct LineTooLong<'a> {
+    /// The line's number, from 1.
+    pub line: usize,
+    /// Its text (at least its start).
+    pub start: &'a str,
+}
+
+/// The data lines of `text`: each line that is neither blank nor a `#` comment, trimmed,
+/// with its number from 1 (as an editor counts them). The one rule of lines for every
+/// door: the command line reads its files through the same [`data_line`] and bound.
+///
+/// # Errors
+/// [`LineTooLong`] for a line longer than [`MAX_LINE_BYTES`]; read no further after it.
+pub fn data_lines(text: &str) -> impl Iterator<Item = Result<(usize, &str), LineTooLong<'_>>> {
+    text.lines().enumerate().filter_map(|(index, line)| {
+        if line.len() > MAX_LINE_BYTES {
+            return Some(Err(LineTooLong { line: index + 1, start: line }));
+        }
+        data_line(line).map(|text| Ok((index + 1, text)))
+    })
+}
+
+/// The line's text, trimmed, if it holds data: not blank and not a `#` comment (a UTF-8
+/// byte-order mark and a carriage return dropped first).
+pub fn data_line(line: &str) -> Option<&str> {
+    let text = clean(line).trim();
+    (!text.is_empty() && !text.starts_with('#')).then_some(text)
+}
+
 /// The line without a UTF-8 byte-order mark and a trailing carriage return.
 pub fn clean(line: &str) -> &str {
     line.strip_prefix('\u{feff}').unwrap_or(line).trim_end_matches(['\r', '\n'])
@@ -118,11 +155,50 @@ pub fn cells(line: &str, delimiter: char) -> impl Iterator<Item = &str> {
 }
 
 /// Whether `line` is a header rather than a row: its first cell does not start like a
-/// number (an optional sign, then a digit or a point).
+/// number (an optional sign, then a digit or a point), and not every cell is a number
+/// (`NaN` and `inf` start like words, but mean to be numbers: a row, refused as such).
 pub fn is_header(line: &str) -> bool {
-    let first = cells(line, delimiter_of(clean(line))).next().unwrap_or("");
+    let delimiter = delimiter_of(clean(line));
+    let first = cells(line, delimiter).next().unwrap_or("");
     let unsigned = first.strip_prefix(['+', '-']).unwrap_or(first);
-    !first.is_empty() && !unsigned.starts_with(|c: char| c.is_ascii_digit() || c == '.')
+    !first.is_empty()
+        && !unsigned.starts_with(|c: char| c.is_ascii_digit() || c == '.')
+        && !cells(line, delimiter).all(|cell| cell.parse::<f64>().is_ok())
+}
+
+/// A heading's quantity and unit: [`Quantity::from_column`], and a heading `speed`
+/// (`speed_m_s`, `Speed (kt)`) read as the velocity, the catalogue's name for a
+/// flight's speed, which a file giving the speed with its flight-path angle and heading
+/// may well call speed. A heading the catalogue knows (`speed_of_sound`) stays its own.
+///
+/// # Errors
+/// As [`Quantity::from_column`].
+pub fn heading(cell: &str) -> Result<quantity::Column, ColumnError<'_>> {
+    match Quantity::from_column(cell) {
+        Err(ColumnError::Unknown) => speed(cell.trim()).unwrap_or(Err(ColumnError::Unknown)),
+        read => read,
+    }
+}
+
+fn speed(cell: &str) -> Option<Result<quantity::Column, ColumnError<'_>>> {
+    let velocity = Quantity::Velocity;
+    let rest = cell.get(..5).filter(|head| head.eq_ignore_ascii_case("speed")).and(cell.get(5..))?;
+    if rest.is_empty() {
+        return Some(Ok(quantity::Column { quantity: velocity, unit: None }));
+    }
+    let unit = match rest.strip_prefix(['_', ' ']) {
+        Some(unit) if !unit.trim_start().starts_with(['(', '[']) => unit,
+        _ => {
+            let rest = rest.trim_start();
+            let inner = |open, close| rest.strip_prefix(open).and_then(|r: &str| r.strip_suffix(close));
+            inner('(', ')').or_else(|| inner('[', ']'))?
+        }
+    }
+    .trim();
+    Some(match Unit::find(unit, velocity.si().dimension()) {
+        Some(unit) => Ok(quantity::Column { quantity: velocity, unit: Some(unit) }),
+        None => Err(ColumnError::Unit { quantity: velocity, unit }),
+    })
 }
 
 impl Header {
@@ -134,7 +210,7 @@ impl Header {
     /// use aerostrata::table::Header;
     /// use aerostrata::Quantity;
     /// let flight = [Quantity::Time, Quantity::Altitude, Quantity::Velocity];
-    /// let header = Header::read("time_s;Altitude [ft];speed;velocity (kt)", |q| flight.contains(&q), |q| q.si())?;
+    /// let header = Header::read("time_s;Altitude [ft];phase;velocity (kt)", |q| flight.contains(&q), |q| q.si())?;
     /// assert_eq!(header.position(Quantity::Altitude), Some(1));
     /// assert_eq!(header.ignored().collect::<Vec<_>>(), [2]);
     /// let mut values = [None; 4];
@@ -159,7 +235,7 @@ impl Header {
                 return Err(HeaderError::TooManyColumns { count: index + 1 });
             }
             header.count = index + 1;
-            let column = match Quantity::from_column(heading) {
+            let column = match self::heading(heading) {
                 Ok(read) if accepts(read.quantity) => Column {
                     quantity: read.quantity,
                     unit: read.unit.unwrap_or_else(|| default_unit(read.quantity)),
@@ -274,6 +350,19 @@ impl fmt::Display for CellError<'_> {
     }
 }
 
+impl fmt::Display for LineTooLong<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(
+            f,
+            "longer than {MAX_LINE_BYTES} bytes, the longest line read (it starts {}); is this a table of \
+             numbers, one row per line?",
+            units::Quoted(self.start)
+        )
+    }
+}
+
+impl core::error::Error for LineTooLong<'_> {}
+
 impl core::error::Error for HeaderError<'_> {}
 
 impl core::error::Error for CellError<'_> {}
@@ -359,5 +448,44 @@ mod tests {
         assert!(!is_header("-5,3"));
         assert!(!is_header(".5"));
         assert!(!is_header(""));
+        // Words that are numbers make a row (refused as such by the cell reader).
+        assert!(!is_header("NaN,0,0"));
+        assert!(!is_header("inf;1"));
+        assert!(is_header("NaN,altitude"));
+    }
+
+    /// Common practice, no source: blank lines and `#` comments are no data but count,
+    /// so that a message names the line an editor shows; a line is bounded.
+    #[test]
+    fn data_lines_are_numbered_and_bounded() {
+        let text = "\u{feff}# made by hand\r\ntime_s,altitude_m\r\n\n  1,2  \n#\n3,4";
+        let lines: std::vec::Vec<_> = data_lines(text).collect();
+        assert_eq!(lines, [Ok((2, "time_s,altitude_m")), Ok((4, "1,2")), Ok((6, "3,4"))]);
+        let long = format!("a\n{}\nb", ",".repeat(MAX_LINE_BYTES + 1));
+        let error = data_lines(&long).find_map(Result::err).unwrap();
+        assert_eq!(error.line, 2);
+        let message = error.to_string();
+        assert!(message.starts_with("longer than 65536 bytes"), "{message}");
+        assert!(message.contains("',,,,") && message.len() < 200, "{message}");
+        // A line of exactly the bound is read.
+        let exact = "1".repeat(MAX_LINE_BYTES);
+        assert_eq!(data_lines(&exact).next(), Some(Ok((1, exact.as_str()))));
+    }
+
+    /// Common practice, no source: a flight's speed column is often headed `speed`.
+    #[test]
+    fn a_speed_heading_is_the_velocity() {
+        use crate::units::KNOT;
+        let velocity = |unit| Ok(quantity::Column { quantity: Quantity::Velocity, unit });
+        assert_eq!(heading("speed"), velocity(None));
+        assert_eq!(heading("Speed (kt)"), velocity(Some(&KNOT)));
+        assert_eq!(heading("speed[kt]"), velocity(Some(&KNOT)));
+        assert_eq!(heading("SPEED_kt"), velocity(Some(&KNOT)));
+        assert_eq!(heading("speed_of_sound").map(|c| c.quantity), Ok(Quantity::SpeedOfSound));
+        assert_eq!(heading("speed_kg"), Err(ColumnError::Unit { quantity: Quantity::Velocity, unit: "kg" }));
+        assert_eq!(heading("speedy"), Err(ColumnError::Unknown));
+        assert_eq!(heading("spee"), Err(ColumnError::Unknown));
+        let header = flight_header("time,speed (kt),altitude").unwrap();
+        assert_eq!(header.position(Quantity::Velocity), Some(1));
     }
 }

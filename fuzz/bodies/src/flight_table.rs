@@ -1,36 +1,32 @@
-//! A flight file as the command line reads it (time, altitude and speed, or velocity
-//! components), through the core's table reader, each row pushed into a flight scan of
-//! the 1976 standard with a small vehicle and the winds of a light breeze. The command
-//! line's own reader (`crates/aerostrata-cli/src/input`) is private to its crate; it
-//! reads through this same table reader and scan.
+//! A flight file as every door reads it: the core's rule of lines, its header reader
+//! with the flight files' columns, the layout that says which columns make a sample (or
+//! the columns of a file without a header), each row's sample pushed into a flight scan
+//! of the 1976 standard with a small vehicle (and, for the samples with a direction, the
+//! winds of a light breeze).
 
-use aerostrata::flight::{FlightScan, Sample, VectorSample, Vehicle};
-use aerostrata::table::Header;
+use aerostrata::flight::{FileLayout, FlightScan, Vehicle, FILE_COLUMNS};
+use aerostrata::table::{self, Header};
 use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::{DragCurve, Quantity, US1976};
 
 use crate::{all_finite, finite, message, text};
 
-/// What a flight file's header may name (the command line's flight columns).
-const FLIGHT: [Quantity; 9] = [
-    Quantity::Time,
-    Quantity::Altitude,
-    Quantity::GeometricAltitude,
-    Quantity::Velocity,
-    Quantity::VelocityEast,
-    Quantity::VelocityNorth,
-    Quantity::VelocityUp,
-    Quantity::AxisElevation,
-    Quantity::AxisAzimuth,
-];
-
 /// The target's body.
 pub fn run(data: &[u8]) {
     let text = text(data);
-    let mut lines = text.lines();
-    let Some(first) = lines.next() else { return };
-    let header = match Header::read(first, |q| FLIGHT.contains(&q), Quantity::si) {
+    let mut lines = table::data_lines(text);
+    let (first, implicit) = match lines.next() {
+        None => return,
+        Some(Err(e)) => return message(&e),
+        Some(Ok((_, first))) if table::is_header(first) => (first, None),
+        Some(Ok((_, first))) => ("time,altitude,velocity", Some(first)),
+    };
+    let header = match Header::read(first, |q| FILE_COLUMNS.contains(&q), Quantity::si) {
         Ok(header) => header,
+        Err(e) => return message(&e),
+    };
+    let layout = match FileLayout::of(&header) {
+        Ok(layout) => layout,
         Err(e) => return message(&e),
     };
     let drag = DragCurve::constant(0.45).expect("a constant drag coefficient of 0.45");
@@ -40,51 +36,36 @@ pub fn run(data: &[u8]) {
         WindLevel::new(3_000.0, 12.0, 1.0).expect("a light wind level"),
     ];
     let winds = WindProfile::new(levels).expect("a two-level wind profile");
-    let mut scalar = FlightScan::new(US1976, Some(vehicle));
-    let mut vector = FlightScan::new(US1976, Some(vehicle)).with_winds(&winds);
-
-    let at = |q: Quantity| header.position(q);
-    let altitude = at(Quantity::Altitude).or(at(Quantity::GeometricAltitude));
+    let mut scan = FlightScan::new(US1976, Some(vehicle));
+    if layout.given().has_direction() {
+        scan = scan.with_winds(&winds);
+    }
     let mut out = vec![None; header.count()];
-    for line in lines {
-        if let Err(e) = header.read_row(line, &mut out) {
+    for line in implicit.into_iter().map(|row| Ok((0, row))).chain(lines) {
+        let row = match line {
+            Ok((_, row)) => row,
+            Err(e) => return message(&e),
+        };
+        if let Err(e) = header.read_row(row, &mut out) {
             message(&e);
             continue;
         }
-        let cell = |index: Option<usize>| index.and_then(|i| out[i]);
         for value in out.iter().flatten() {
             finite("a cell", *value);
         }
-        let (Some(time_s), Some(altitude_m)) = (cell(at(Quantity::Time)), cell(altitude)) else {
-            continue;
+        let sample = match layout.sample(&out) {
+            Ok(sample) => sample,
+            Err(e) => {
+                message(&e);
+                continue;
+            }
         };
-        if let Some(velocity_m_s) = cell(at(Quantity::Velocity)) {
-            match scalar.push(Sample { time_s, altitude_m, velocity_m_s }) {
-                Ok(point) => check_point(&point),
-                Err(e) => message(&e),
-            }
-        }
-        let east = cell(at(Quantity::VelocityEast));
-        let north = cell(at(Quantity::VelocityNorth));
-        let up = cell(at(Quantity::VelocityUp));
-        if let (Some(velocity_east_m_s), Some(velocity_north_m_s), Some(velocity_up_m_s)) = (east, north, up)
-        {
-            let sample = VectorSample {
-                time_s,
-                altitude_m,
-                velocity_east_m_s,
-                velocity_north_m_s,
-                velocity_up_m_s,
-                axis: None,
-            };
-            match vector.push_vector(sample) {
-                Ok(point) => check_point(&point),
-                Err(e) => message(&e),
-            }
+        match sample.push(&mut scan) {
+            Ok(point) => check_point(&point),
+            Err(e) => message(&e),
         }
     }
-    all_finite("the scalar scan's summary", &scalar.summary());
-    all_finite("the vector scan's summary", &vector.summary());
+    all_finite("the scan's summary", &scan.summary());
 }
 
 fn check_point(point: &aerostrata::FlightPoint) {

@@ -23,10 +23,11 @@ use crate::commands::flight_watch::{Limit, PlateauTrack};
 use crate::failure::Failure;
 use crate::input::lines::{open_input, source_name};
 use crate::input::progress::{Progress, When};
-use crate::input::samples::{FlightSample, Kind, SampleReader};
+use crate::input::samples::SampleReader;
 use crate::input::winds::{self, Winds};
 use crate::output::rows::{Cell, Column, Format, RowWriter};
 use crate::units::UnitSystem;
+use aerostrata::flight::{FileSample, VelocityGiven};
 
 pub use crate::commands::flight_report::CAUTION;
 
@@ -126,11 +127,11 @@ pub enum SummaryFormat {
 /// flight point's first thirteen (up to the drag); a velocity with its direction adds its
 /// components, the wind (where there is one), airspeed, alpha, q-alpha and the total and
 /// recovery temperatures.
-fn quantities(kind: Kind, winds: bool) -> Vec<Quantity> {
+fn quantities(kind: VelocityGiven, winds: bool) -> Vec<Quantity> {
     const SPEED_ONLY: usize = 13;
     match kind {
-        Kind::Speed => FlightPoint::QUANTITIES[..SPEED_ONLY].to_vec(),
-        Kind::Components | Kind::Path => FlightPoint::QUANTITIES
+        VelocityGiven::Speed => FlightPoint::QUANTITIES[..SPEED_ONLY].to_vec(),
+        VelocityGiven::Components | VelocityGiven::Path => FlightPoint::QUANTITIES
             .iter()
             .copied()
             .filter(|q| winds || !matches!(q, Quantity::WindEast | Quantity::WindNorth))
@@ -185,7 +186,7 @@ pub fn run(args: &FlightArgs) -> Result<(), Failure> {
     let input = open_input(Some(&args.file), args.progress)?;
     let mut reader = SampleReader::new(input, source.clone(), units);
     let first = reader.next_sample()?;
-    let kind = reader.kind().unwrap_or(Kind::Speed);
+    let kind = reader.kind().unwrap_or(VelocityGiven::Speed);
     let directed = kind.has_direction();
     if !directed {
         let fix =
@@ -311,7 +312,7 @@ struct Flight<'a, 's> {
 impl Flight<'_, '_> {
     fn stream<R: BufRead, W: Write>(
         &mut self,
-        first: Option<FlightSample>,
+        first: Option<FileSample>,
         reader: &mut SampleReader<Progress<R>>,
         writer: &mut RowWriter<W>,
     ) -> Result<(), Failure> {

@@ -65,29 +65,8 @@ pub fn source_name(path: Option<&Path>) -> String {
     }
 }
 
-/// The longest line read, in bytes: far beyond any row of numbers or header, and small
-/// enough that a file that is no table (one line of a binary or of 200 MB of commas) is
-/// refused after reading this much rather than held whole.
-pub const MAX_LINE_BYTES: usize = 64 * 1024;
-
-/// At most 40 characters of `text` for a message, control characters written as escapes
-/// (`\u{0}`), `...` where it was cut, in quotes: what a line echoed in an error may show.
-pub fn quoted(text: &str) -> String {
-    let (cut_text, cut) = aerostrata::units::shorten(text, 40);
-    let mut out = String::with_capacity(cut_text.len() + 5);
-    out.push('\'');
-    for c in cut_text.chars() {
-        match c {
-            '\t' => out.push_str("\\t"),
-            '\r' => out.push_str("\\r"),
-            '\n' => out.push_str("\\n"),
-            c if c.is_control() => out.push_str(&format!("\\u{{{:x}}}", u32::from(c))),
-            c => out.push(c),
-        }
-    }
-    out.push_str(if cut { "...'" } else { "'" });
-    out
-}
+/// The longest line read, in bytes: the core's bound for every door.
+pub use aerostrata::table::MAX_LINE_BYTES;
 
 /// The data lines of a text input, one at a time (any number of lines in bounded memory,
 /// none longer than [`MAX_LINE_BYTES`]).
@@ -104,8 +83,9 @@ impl<R: BufRead> DataLines<R> {
     }
 
     /// The next line that is neither blank nor a `#` comment, trimmed, with its number
-    /// (from 1), or `None` at the end. A UTF-8 byte-order mark opening the input is
-    /// skipped, as editors write it.
+    /// (from 1), or `None` at the end, by the core's rule of lines
+    /// ([`aerostrata::table::data_line`]: a UTF-8 byte-order mark, as editors write it,
+    /// dropped).
     ///
     /// # Errors
     /// [`Failure::Input`] naming the line that cannot be read: longer than
@@ -116,21 +96,19 @@ impl<R: BufRead> DataLines<R> {
             if !self.read_line()? {
                 return Ok(None);
             }
-            let start = if self.number == 1 && self.line.starts_with(BOM) { BOM.len() } else { 0 };
-            let bytes = &self.line[start..];
+            let bytes = &self.line[..];
             let text = std::str::from_utf8(bytes).map_err(|e| {
                 Failure::Input(format!(
                     "line {}: cannot read: not UTF-8 text (byte {} of the line is 0x{:02x}); save the file as \
                      UTF-8",
                     self.number,
-                    start + e.valid_up_to() + 1,
+                    e.valid_up_to() + 1,
                     bytes.get(e.valid_up_to()).copied().unwrap_or(0)
                 ))
             })?;
-            let trimmed = text.trim();
-            if !trimmed.is_empty() && !trimmed.starts_with('#') {
+            if let Some(trimmed) = aerostrata::table::data_line(text) {
                 // Where the trimmed text lies, so that the borrow of the line ends here.
-                let from = start + (trimmed.as_ptr() as usize - text.as_ptr() as usize);
+                let from = trimmed.as_ptr() as usize - text.as_ptr() as usize;
                 let to = from + trimmed.len();
                 let text = std::str::from_utf8(&self.line[from..to]).unwrap_or_default();
                 return Ok(Some((self.number, text)));
@@ -158,15 +136,13 @@ impl<R: BufRead> DataLines<R> {
                 None => (buffer, buffer.len(), false),
             };
             if self.line.len() + chunk.len() > MAX_LINE_BYTES {
-                return Err(Failure::Input(format!(
-                    "line {number}: longer than {MAX_LINE_BYTES} bytes, the longest line read (it starts {}); \
-                     is this a table of numbers, one row per line?",
-                    quoted(&String::from_utf8_lossy(if self.line.is_empty() {
-                        &chunk[..chunk.len().min(160)]
-                    } else {
-                        &self.line[..self.line.len().min(160)]
-                    }))
-                )));
+                let start = String::from_utf8_lossy(if self.line.is_empty() {
+                    &chunk[..chunk.len().min(160)]
+                } else {
+                    &self.line[..self.line.len().min(160)]
+                });
+                let error = aerostrata::table::LineTooLong { line: number, start: &start };
+                return Err(Failure::Input(format!("line {number}: {error}")));
             }
             self.line.extend_from_slice(chunk);
             self.input.consume(used);
@@ -181,9 +157,6 @@ impl<R: BufRead> DataLines<R> {
         &mut self.input
     }
 }
-
-/// The UTF-8 byte-order mark some editors open a file with.
-const BOM: &[u8] = b"\xef\xbb\xbf";
 
 #[cfg(test)]
 mod tests {
@@ -230,17 +203,12 @@ mod tests {
 
     /// Common practice, no source: editors may open a UTF-8 file with a byte-order mark,
     /// which is no part of the first heading (before, a flight file's header with one was
-    /// refused, the mark invisible in the message); a mark later on is no mark.
+    /// refused, the mark invisible in the message). Files joined by `cat` carry one at
+    /// the start of a later line, which the core's rule of lines drops as well.
     #[test]
     fn a_byte_order_mark_is_skipped() {
         let mut lines = DataLines::new("\u{feff}time_s,altitude_m\n\u{feff}1\n".as_bytes());
         assert_eq!(lines.next_line().unwrap(), Some((1, "time_s,altitude_m")));
-        assert_eq!(lines.next_line().unwrap(), Some((2, "\u{feff}1")));
-    }
-
-    #[test]
-    fn echoed_text_is_short_and_escaped() {
-        assert_eq!(quoted("ab\0\t"), "'ab\\u{0}\\t'");
-        assert_eq!(quoted(&"x".repeat(100)), format!("'{}...'", "x".repeat(40)));
+        assert_eq!(lines.next_line().unwrap(), Some((2, "1")));
     }
 }

@@ -14,7 +14,7 @@ use aerostrata::units::Unit;
 use aerostrata::Quantity;
 
 use crate::failure::Failure;
-use crate::input::lines::{quoted, DataLines};
+use crate::input::lines::DataLines;
 use crate::units::UnitSystem;
 
 /// A header's check: `Err` with what the command misses.
@@ -73,11 +73,6 @@ impl<R: BufRead> TableReader<R> {
         self.lines.input_mut()
     }
 
-    /// The header, once the first row has been read.
-    pub fn header(&self) -> Option<&Header> {
-        self.header.as_ref()
-    }
-
     /// A bad input at the last line read.
     pub fn at_line(&self, message: impl std::fmt::Display) -> Failure {
         Failure::Input(format!("{}: line {}: {message}", self.source, self.line))
@@ -86,15 +81,20 @@ impl<R: BufRead> TableReader<R> {
     /// A bad input in the last line's cell of `quantity`.
     pub fn at_cell(&self, quantity: Quantity, message: impl std::fmt::Display) -> Failure {
         match self.header.as_ref().and_then(|h| h.position(quantity)) {
-            Some(index) => Failure::Input(format!(
-                "{}: line {}, column {} ({}): {message}",
-                self.source,
-                self.line,
-                index + 1,
-                self.headings.get(index).map_or("", String::as_str)
-            )),
+            Some(index) => self.at_column(index, message),
             None => self.at_line(message),
         }
+    }
+
+    /// A bad input in the last line's cell at `index` (from 0).
+    pub fn at_column(&self, index: usize, message: impl std::fmt::Display) -> Failure {
+        Failure::Input(format!(
+            "{}: line {}, column {} ({}): {message}",
+            self.source,
+            self.line,
+            index + 1,
+            self.headings.get(index).map_or("", String::as_str)
+        ))
     }
 
     /// The unit of the column of `quantity` (its heading's, or the default).
@@ -121,10 +121,7 @@ impl<R: BufRead> TableReader<R> {
             text.push_str(line);
             self.line = number;
             if self.header.is_none() {
-                // `NaN` and `inf` start like words, but mean to be numbers: a row.
-                let numbers = table::cells(&text, table::delimiter_of(table::clean(&text)))
-                    .all(|c| c.parse::<f64>().is_ok());
-                if table::is_header(&text) && !numbers {
+                if table::is_header(&text) {
                     self.read_header(&text)?;
                     self.text = text;
                     continue;
@@ -147,14 +144,13 @@ impl<R: BufRead> TableReader<R> {
     fn read_header(&mut self, text: &str) -> Result<(), Failure> {
         let units = self.units;
         let accepts = self.columns.accepts;
-        let renamed = speed_as_velocity(text);
-        let header = Header::read(&renamed, |q| accepts.contains(&q), |q| default_unit(units, q))
+        let header = Header::read(text, |q| accepts.contains(&q), |q| default_unit(units, q))
             .map_err(|e| self.at_line(e))?;
         if header.ignored().count() == header.count() {
             let names: Vec<&str> = accepts.iter().map(|q| q.name()).collect();
             return Err(self.at_line(format!(
                 "{} is neither a row of numbers nor a header naming {}",
-                quoted(text),
+                aerostrata::units::Quoted(text),
                 names.join(", ")
             )));
         }
@@ -212,27 +208,6 @@ impl<R: BufRead> TableReader<R> {
     }
 }
 
-/// `text` (a header) with a heading `speed` (`speed_m_s`, `Speed (kt)`) read as
-/// `velocity`: the catalogue's name for a flight's speed, which a file giving the speed
-/// with its flight-path angle and heading may well call speed. A heading the catalogue
-/// knows (`speed_of_sound`) is left as it is.
-fn speed_as_velocity(text: &str) -> String {
-    let delimiter = table::delimiter_of(table::clean(text));
-    let cells: Vec<String> = table::cells(text, delimiter)
-        .map(|cell| {
-            let lower = cell.to_ascii_lowercase();
-            let rest = lower
-                .strip_prefix("speed")
-                .filter(|rest| rest.is_empty() || rest.starts_with(['_', ' ', '(', '[']));
-            match (rest, Quantity::from_column(cell)) {
-                (Some(_), Err(_)) => format!("velocity{}", &cell["speed".len()..]),
-                _ => cell.to_owned(),
-            }
-        })
-        .collect();
-    cells.join(&delimiter.to_string())
-}
-
 /// One row of a table.
 pub struct Row<'a> {
     header: &'a Header,
@@ -243,6 +218,16 @@ impl Row<'_> {
     /// The value of `quantity`, SI; `None` for an empty cell or a quantity the table lacks.
     pub fn get(&self, quantity: Quantity) -> Option<f64> {
         self.header.position(quantity).and_then(|i| self.values.get(i).copied().flatten())
+    }
+
+    /// The table's header.
+    pub fn header(&self) -> &Header {
+        self.header
+    }
+
+    /// Each column's value, SI, by the header's column index.
+    pub fn values(&self) -> &[Option<f64>] {
+        self.values
     }
 }
 
@@ -255,12 +240,15 @@ pub fn needs(header: &Header, groups: &[&[Quantity]]) -> Result<(), String> {
         match present.len() {
             1 => {}
             0 => {
+                let si = group[0].si();
                 return Err(format!(
-                    "the header needs a column {} (a heading such as {}_m or '{} (ft)')",
+                    "the header needs a column {} (a heading such as {}_{} or '{} ({})')",
                     names.join(" or "),
                     names[0],
-                    names[0]
-                ))
+                    si.suffix(),
+                    names[0],
+                    si.symbol()
+                ));
             }
             _ => {
                 let present: Vec<&str> = present.iter().map(|q| q.name()).collect();
@@ -342,7 +330,7 @@ mod tests {
         );
         assert_eq!(
             error("time_s,alt,velocity_m_s\n"),
-            "f.csv: line 1: the header needs a column altitude (a heading such as altitude_m or 'altitude (ft)')"
+            "f.csv: line 1: the header needs a column altitude (a heading such as altitude_m or 'altitude (m)')"
         );
         assert_eq!(
             error("time_s,altitude_m,velocity_m_s\n1,2\n"),

@@ -11,6 +11,7 @@
 //! Lagrange) interpolation of the sampled q(t) around its largest sample; its
 //! uncertainty, the spread of other local fits, corners included (docs/aerodynamics.md).
 
+mod file;
 mod limits;
 mod motion;
 mod peak;
@@ -20,6 +21,10 @@ mod summary;
 
 use crate::quantity::Quantity;
 
+pub use file::{
+    FileLayout, FileSample, LayoutError, SampleError, VelocityGiven, EMPTY_CELL, FILE_COLUMNS,
+    IMPLICIT_COLUMNS,
+};
 pub use limits::{exceedances, plateau, Exceedance, LimitWatch, Plateau, PLATEAU_FRACTION};
 pub use motion::{Axis, BoundaryLayer, VectorSample};
 pub use peak::{RESOLVED_FRACTION, SAFETY_FACTOR};
@@ -31,21 +36,6 @@ pub use summary::{Crossings, Extreme, FlightSummary, Peak};
 /// two times finite.
 pub const MAX_TIME_S: f64 = 1.0e12;
 
-/// The columns a flight file's samples may have, for the doors' readers: time, altitude
-/// and a speed, or the velocity's components, or a speed with its path angles, and the
-/// vehicle's axis.
-pub const SAMPLE_COLUMNS: [Quantity; 10] = [
-    Quantity::Time,
-    Quantity::Altitude,
-    Quantity::Velocity,
-    Quantity::VelocityEast,
-    Quantity::VelocityNorth,
-    Quantity::VelocityUp,
-    Quantity::FlightPathAngle,
-    Quantity::Heading,
-    Quantity::AxisElevation,
-    Quantity::AxisAzimuth,
-];
 /// The ground-relative velocity's components ([`VectorSample`]), all or none.
 pub const VELOCITY_COMPONENTS: [Quantity; 3] =
     [Quantity::VelocityEast, Quantity::VelocityNorth, Quantity::VelocityUp];

@@ -12,7 +12,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (263 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (270 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -31,15 +31,19 @@ use crate::{io_error, target_dir};
 /// `readFlightCsv`: about 30 KiB, 11 KiB compressed, half of it the core's code the
 /// scalar scan never reached (atan2, the vector sample, the wind profile, the limit watch
 /// and the plateau), the rest the door and its messages; then from 261 KiB when handles
-/// learnt to say they were freed and echoes to cut by what they write (2 KiB).
+/// learnt to say they were freed and echoes to cut by what they write (2 KiB); from 263
+/// KiB when flight files came to be read by the core's one set of rules (the layout
+/// checks and their messages, headerless files, `speed` headings, the bound on lines):
+/// 7 KiB, 2.7 KiB compressed.
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 263 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (127 KiB). Raised from 125 KiB
+pub const MAX_WASM_BYTES: u64 = 270 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (130 KiB). Raised from 125 KiB
 /// when hydrogen's continuation below 150 km filled the upper table's hydrogen entries
 /// there (137 nodes of ln n and slope that had been zero placeholders): the same bytes
-/// raw, 1.5 KiB more compressed (124.2 to 125.7 KiB).
-pub const MAX_GZIP_BYTES: u64 = 127 * 1024;
+/// raw, 1.5 KiB more compressed (124.2 to 125.7 KiB); from 127 KiB with the flight files'
+/// rules above.
+pub const MAX_GZIP_BYTES: u64 = 130 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";

@@ -283,7 +283,7 @@ pub fn parse_csv(text: &str) -> Result<Tabulated<Vec<SoundingLevel>>, LoadError>
 /// likely unit mix-up (unless [`Options::plausibility`] is off).
 pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
     let mut content = content(text);
-    let Some((header_line, header_text)) = content.next() else {
+    let Some((header_line, header_text)) = content.next().transpose()? else {
         let last = text.lines().count().max(1);
         return Err(LoadError::at(
             last,
@@ -356,7 +356,8 @@ pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
     let mut read = Vec::new();
     let (mut wind_levels, mut wind_lines) = (Vec::new(), Vec::new());
     let mut values = [None; table::MAX_COLUMNS];
-    for (line, text) in content {
+    for next in content {
+        let (line, text) = next?;
         header
             .read_row(text, &mut values)
             .map_err(|error| winds::row_error(error, line, header_line, &names))?;
@@ -408,12 +409,10 @@ pub fn read_csv(text: &str, options: &Options) -> Result<Sounding, LoadError> {
     Ok(Sounding { table, winds, ignored })
 }
 
-/// The lines of `text` that are neither blank nor comments, as (line number from 1, text).
-pub(super) fn content(text: &str) -> impl Iterator<Item = (usize, &str)> {
-    text.lines()
-        .enumerate()
-        .map(|(index, line)| (index + 1, table::clean(line).trim()))
-        .filter(|(_, line)| !line.is_empty() && !line.starts_with('#'))
+/// The lines of `text` that are neither blank nor comments, as (line number from 1, text),
+/// by the one rule of lines ([`table::data_lines`]).
+pub(super) fn content(text: &str) -> impl Iterator<Item = Result<(usize, &str), LoadError>> {
+    table::data_lines(text).map(|line| line.map_err(|e| LoadError::at(e.line, e.to_string())))
 }
 
 pub(super) fn header_error(line: usize, names: &[String], error: HeaderError<'_>) -> LoadError {
@@ -676,5 +675,20 @@ mod tests {
         assert_eq!(error_field(&e), Some((4, Some(Field::PressureSource))));
         let e = Error::RowNotFinite { row: 1, quantity: Q_DEW_POINT, value: f64::NAN };
         assert_eq!(error_field(&e), Some((1, Some(Field::DewPoint))));
+    }
+
+    /// Common practice, no source: a text that is no table (here a header of 100 000
+    /// commas, which the C library and the web module are handed whole) is refused at
+    /// its long line, before its cells are collected.
+    #[test]
+    fn a_long_line_is_refused_with_its_number() {
+        let text =
+            alloc::format!("# wide\ngeometric_altitude_m,temperature_K,pressure_Pa{}\n", ",".repeat(100_000));
+        let e = read_csv(&text, &Options::default()).unwrap_err();
+        assert_eq!(e.line(), 2);
+        assert!(e.to_string().contains("longer than 65536 bytes"), "{e}");
+        let winds =
+            alloc::format!("altitude_m,wind_speed_kt,wind_direction_deg\n0,1,2\n{}", "9".repeat(70_000));
+        assert_eq!(read_winds_csv(&winds, &Options::default()).unwrap_err().line(), 3);
     }
 }

@@ -163,7 +163,7 @@ const WIND_COLUMNS: &str = "altitude (geometric) or geopotential_altitude, and w
 /// increasing, no row.
 pub fn read_winds_csv(text: &str, options: &Options) -> Result<WindFile, LoadError> {
     let mut lines = content(text);
-    let Some((header_line, header_text)) = lines.next() else {
+    let Some((header_line, header_text)) = lines.next().transpose()? else {
         return Err(LoadError::at(text.lines().count().max(1), "no header line: name the columns first"));
     };
     let names: Vec<String> =
@@ -207,7 +207,8 @@ pub fn read_winds_csv(text: &str, options: &Options) -> Result<WindFile, LoadErr
     let mut levels = Vec::new();
     let mut level_lines = Vec::new();
     let mut values = [None; table::MAX_COLUMNS];
-    for (line, text) in lines {
+    for next in lines {
+        let (line, text) = next?;
         let cells: Vec<&str> = table::cells(text, header.delimiter()).collect();
         header.read_row(text, &mut values).map_err(|error| row_error(error, line, header_line, &names))?;
         let Some(altitude_m) = values[altitude] else {
