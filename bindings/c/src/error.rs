@@ -162,9 +162,8 @@ impl Failure {
 
     /// A name that names nothing the function knows.
     pub fn unknown_name(name: &str, given: &str) -> Self {
-        let (shown, cut) = aerostrata_core::units::shorten(given, 40);
-        let more = if cut { "..." } else { "" };
-        Self::bare(AerostrataStatus::InvalidArgument, format!("{name}: no quantity is named '{shown}{more}'"))
+        let given = aerostrata_core::units::Quoted(given);
+        Self::bare(AerostrataStatus::InvalidArgument, format!("{name}: no quantity is named {given}"))
     }
 
     /// The same failure, naming element `index` of a batch when the core's error names

@@ -85,7 +85,7 @@ fn unit_of(argument: &str, quantity: Quantity, spelling: &str) -> Result<&'stati
     let dimension = quantity.si().dimension();
     Unit::find(spelling, dimension).ok_or_else(|| {
         let mut message =
-            Text::new(argument).s(": '").s(units::shorten(spelling, 40).0).s("' is not a unit of ");
+            Text::new(argument).s(": ").s(&units::Quoted(spelling).to_string()).s(" is not a unit of ");
         message = message.s(dimension.name()).s("; one of ");
         for (i, unit) in dimension.units().enumerate() {
             message = message.s(if i == 0 { "" } else { ", " }).s(unit.symbol());
@@ -146,9 +146,9 @@ impl AtmosphereModel {
         match AnyModel::from_spec(&parsed) {
             Some(model) => Ok(AtmosphereModel::from_model(model.js()?)),
             None => Err(Failure::range(
-                Text::new("spec: '")
-                    .s(units::shorten(&text, 40).0)
-                    .s("' names a file; give a sounding's text to AtmosphereModel.fromSoundingCsv")
+                Text::new("spec: ")
+                    .s(&units::Quoted(&text).to_string())
+                    .s(" names a file; give a sounding's text to AtmosphereModel.fromSoundingCsv")
                     .done(),
             )
             .into()),

@@ -2,7 +2,7 @@
 //! conversions (`toUs`, `fromUs`), and the comma-separated key lists the result objects
 //! are built with. Nothing here lists quantities: they come from the core's catalogue.
 
-use alloc::string::String;
+use alloc::string::{String, ToString};
 
 use aerostrata::quantity::{Group, Rounding};
 use aerostrata::Quantity;
@@ -36,12 +36,10 @@ pub(crate) fn keys(quantities: impl IntoIterator<Item = Quantity>) -> String {
 pub(crate) fn named(argument: &str, value: &JsValue) -> Result<Quantity, JsValue> {
     let text = js::text(argument, value)?;
     Quantity::ALL.iter().copied().find(|q| q.name() == text || key(*q) == text).ok_or_else(|| {
-        let (shown, cut) = aerostrata::units::shorten(&text, 40);
         Failure::range(
             Text::new(argument)
-                .s(": no quantity is named \"")
-                .s(shown)
-                .s(if cut { "...\"" } else { "\"" })
+                .s(": no quantity is named ")
+                .s(&aerostrata::units::Quoted(&text).to_string())
                 .s(" (quantities() lists them)")
                 .done(),
         )

@@ -73,5 +73,5 @@ test("bad names and values are refused with the argument named", () => {
   assert.throws(() => a.toUs(7, 1), TypeError);
   assert.throws(() => a.toUs("temperature", Number.NaN), /valueSi must be a finite number/);
   assert.throws(() => a.fromUs("temperature", "59"), TypeError);
-  assert.throws(() => a.toUs("colour", 1), /no quantity is named "colour"/);
+  assert.throws(() => a.toUs("colour", 1), /no quantity is named 'colour'/);
 });
