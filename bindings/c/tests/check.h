@@ -37,6 +37,10 @@ void test_every_status(void);
 void test_models(void);
 void test_batches(void);
 
+/* The fuzzing corpus's specs and values through the text entry points (test_corpus.c);
+ * `corpus` is fuzz/corpus. */
+void test_corpus(const char *corpus);
+
 /* Handle misuse: used after free, freed twice, of another type, no handle (test_handles.c). */
 void test_handles(void);
 

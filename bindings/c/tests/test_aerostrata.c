@@ -55,6 +55,11 @@ int main(int argc, char **argv) {
     test_species();
     test_catalogue();
     test_spreadsheet_addin();
+    {
+        char corpus[1024];
+        snprintf(corpus, sizeof corpus, "%s/../../fuzz/corpus", dir);
+        test_corpus(corpus);
+    }
     cells += check_vector_file(dir, "usa76_lower.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper.csv", MODEL_US1976);
     cells += check_vector_file(dir, "usa76_upper_high.csv", MODEL_US1976);

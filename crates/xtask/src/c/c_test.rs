@@ -12,7 +12,7 @@ use crate::target_dir;
 
 /// The C tests, by subject, linked into one program (main() is in test_aerostrata.c; the
 /// helpers they share are in check.h beside them).
-const C_TESTS: [&str; 9] = [
+const C_TESTS: [&str; 10] = [
     "bindings/c/tests/test_aerostrata.c",
     "bindings/c/tests/test_vectors.c",
     "bindings/c/tests/test_status.c",
@@ -22,6 +22,7 @@ const C_TESTS: [&str; 9] = [
     "bindings/c/tests/test_loads.c",
     "bindings/c/tests/test_catalogue.c",
     "bindings/c/tests/test_spreadsheet_addin.c",
+    "bindings/c/tests/test_corpus.c",
 ];
 const CTYPES_TEST: &str = "bindings/c/tests/test_ctypes.py";
 const C_FLAGS: [&str; 5] = ["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"];
