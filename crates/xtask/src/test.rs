@@ -77,6 +77,11 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::c::c_test::run(root),
     );
     step(
+        "C package: a consumer builds and links through pkg-config (shared, static) and CMake find_package, \
+         from a copy in a fresh directory",
+        crate::c::consumer::run(root),
+    );
+    step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
         crate::spreadsheet::run(root),
     );
