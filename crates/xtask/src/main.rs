@@ -24,6 +24,8 @@
 //! cargo xtask wasm              build the npm package (target/wasm/pkg), check its size budget
 //! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
+//! cargo xtask npm-check         `npm pack` installed into a fresh project: Node ESM and CommonJS,
+//!                               tsc --strict, a page through an import map in Chromium
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! cargo xtask icount [--against REV]  instructions per evaluation under callgrind (and
 //!                               against another revision's core); writes docs/performance.md
@@ -68,7 +70,7 @@ use std::process::ExitCode;
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
                      | header [--check] | c-package [--prefix DIR] [--target T] [--check] | c-test | spreadsheet \
                      | addin [--check] [--windows] \
-                     | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
+                     | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | npm-check | wasm-bench \
                      | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N]";
 
 fn main() -> ExitCode {
@@ -107,6 +109,7 @@ fn main() -> ExitCode {
             wasm::bits(&root, &package).map(|_| ())
         }),
         Some("browser-test") => wasm::browser(&root),
+        Some("npm-check") => wasm::build(&root).and_then(|package| wasm::npm_check(&root, &package)),
         Some("wasm-bench") => wasm::bench::run(&root),
         Some("icount") => {
             let against = args.iter().position(|a| a == "--against").and_then(|i| args.get(i + 1));

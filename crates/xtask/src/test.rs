@@ -108,6 +108,11 @@ pub fn run(root: &Path) -> Result<(), String> {
             );
             step("wasm: wasm-bindgen tests under Node", crate::wasm::rust_tests(root));
             step(
+                "npm package: npm pack installs into a fresh project; Node ESM and CommonJS, tsc --strict, \
+                 a browser page through an import map (cargo xtask npm-check)",
+                crate::wasm::npm_check(root, &package),
+            );
+            step(
                 "web calculator in headless Chromium (cargo xtask browser-test)",
                 crate::wasm::browser(root),
             );
