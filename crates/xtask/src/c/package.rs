@@ -228,14 +228,16 @@ pub fn run(root: &Path, args: &[String]) -> Result<(), String> {
         || default_prefix(root, target.as_deref()),
         |p| std::env::current_dir().unwrap_or_default().join(p),
     );
+    let check = args.iter().any(|a| a == "--check");
+    if check && target.is_some() {
+        return Err("c-package --check: the consumer is built for the host only; drop --target".to_owned());
+    }
     let package = package(root, target.as_deref(), &prefix, &[], &[])?;
-    if !args.iter().any(|a| a == "--check") {
-        return Ok(());
+    if check {
+        super::consumer::check(root, &package)
+    } else {
+        Ok(())
     }
-    if target.is_some() {
-        return Err("c-package --check: a consumer is built for the host only; drop --target".to_owned());
-    }
-    super::consumer::check(root, &package)
 }
 
 #[cfg(test)]
