@@ -1,8 +1,9 @@
 //! `cargo xtask c-package --check`: the C package used as a C project uses it, from a copy
 //! in a fresh folder outside the checkout. A small consumer (bindings/c/tests/consumer)
-//! is built through pkg-config against the shared library and, with `--static`, into a
-//! fully static program, and through CMake's `find_package` against both imported
-//! targets; each program must print the 1976 standard's sea level and pass its checks.
+//! is built through pkg-config against the shared library, with `--static` into a fully
+//! static program and into one with the archive named (aerostrata static, the C library
+//! shared), and through CMake's `find_package` against both imported targets; each
+//! program must print the 1976 standard's sea level and pass its checks.
 
 use std::path::{Path, PathBuf};
 
@@ -26,7 +27,7 @@ pub fn run(root: &Path) -> Result<(), String> {
 }
 
 /// Copies `package` and the consumer's sources to a fresh temporary folder and builds
-/// and runs the consumer there four ways; PKG_CONFIG_PATH and CMAKE_PREFIX_PATH name
+/// and runs the consumer there five ways; PKG_CONFIG_PATH and CMAKE_PREFIX_PATH name
 /// the copy only. The folder is removed afterwards.
 pub fn check(root: &Path, package: &Package) -> Result<(), String> {
     crate::setup::apt_install(root, &BUILD_PACKAGES)?;
@@ -83,6 +84,24 @@ pub fn check(root: &Path, package: &Package) -> Result<(), String> {
         ));
     }
     lines.push(format!("pkg-config --static, a fully static program: {value}"));
+
+    // Only aerostrata static, the C library shared: the archive named, as docs/c-guide.md
+    // shows (`-laerostrata` would find the shared library beside it first).
+    let mixed = src.join("sea_level_pkgconfig_archive");
+    let libdir = pkg_config(&["--variable=libdir"])?.join(" ");
+    let mut args: Vec<String> = C_FLAGS.iter().map(|f| f.to_string()).collect();
+    args.extend(pkg_config(&["--cflags"])?);
+    args.extend([SOURCE.to_owned(), format!("{libdir}/libaerostrata.a")]);
+    args.extend(pkg_config(&["--static", "--libs-only-l"])?.into_iter().filter(|l| l != "-laerostrata"));
+    args.extend(["-lm".to_owned(), "-o".to_owned(), s(&mixed)]);
+    Cmd::new("cc").args(&args).envs(envs.clone()).dir(&src).run()?;
+    let printed = Cmd::new(&mixed).dir(&src).quiet().capture()?.stdout_text();
+    let value = read_sea_level(&printed).map_err(|e| format!("{}: {e}", mixed.display()))?;
+    let needed = needed_libraries(&mixed)?;
+    if needed.iter().any(|n| n.starts_with("libaerostrata")) {
+        return Err(format!("{} needs the shared library: {}", mixed.display(), needed.join(", ")));
+    }
+    lines.push(format!("pkg-config --static with the archive named (needs {}): {value}", needed.join(", ")));
 
     // CMake's find_package, both imported targets.
     let build = src.join("build");
