@@ -6,7 +6,8 @@
 //! cargo xtask upper-table [--check] regenerate the 86-1000 km table (or fail if stale)
 //! cargo xtask flash             the upper-atmosphere table's flash cost on Cortex-M4F
 //! cargo xtask header [--check]  regenerate bindings/c/include/aerostrata.h (or fail if stale)
-//! cargo xtask c-package [--prefix DIR] [--target TRIPLE]  the C library, header, pkg-config and CMake files
+//! cargo xtask c-package [--prefix DIR] [--target TRIPLE] [--check]  the C library, header, pkg-config and
+//!                               CMake files; --check builds a consumer from a copy of them
 //! cargo xtask c-test            the C library's tests: static, shared, C++17, sanitizers, Valgrind
 //! cargo xtask spreadsheet       headless LibreOffice Calc through the shared library
 //! cargo xtask addin [--check] [--windows]  the Calc extension target/addin/aerostrata.oxt (cell
@@ -23,6 +24,8 @@
 //! cargo xtask wasm              build the npm package (target/wasm/pkg), check its size budget
 //! cargo xtask wasm-test         the package's Node tests, wasm-bindgen tests and bit identity
 //! cargo xtask browser-test      the web calculator in headless Chromium (after `wasm`)
+//! cargo xtask npm-check         `npm pack` installed into a fresh project: Node ESM and CommonJS,
+//!                               tsc --strict, a page through an import map in Chromium
 //! cargo xtask wasm-bench        one million states in Node vs natively; writes docs/performance.md
 //! cargo xtask icount [--against REV]  instructions per evaluation under callgrind (and
 //!                               against another revision's core); writes docs/performance.md
@@ -35,7 +38,8 @@
 //! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
 //! table and its flash cost; `upper.rs` and `vector_file.rs` here belong to it), `c/` and
 //! `spreadsheet.rs`, `wasm/`, `firmware/`, `bench.rs`, and `catalogue.rs` across them all. Shared by all: `process.rs` (the
-//! one way to run a program), `setup.rs` (what gets installed) and `test.rs` (the CI run).
+//! one way to run a program), `setup.rs` (what gets installed), `scratch.rs` (fresh folders
+//! outside the checkout for the packaging checks) and `test.rs` (the CI run).
 
 // The C door's catalogue generator (c/mod.rs includes bindings/c/build/catalogue.rs) names
 // the core as the C crate does.
@@ -54,6 +58,7 @@ mod machine;
 mod process;
 mod report;
 mod rust;
+mod scratch;
 mod setup;
 mod spreadsheet;
 mod test;
@@ -63,9 +68,9 @@ use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table [--check] | flash \
-                     | header [--check] | c-package [--prefix DIR] [--target T] | c-test | spreadsheet \
+                     | header [--check] | c-package [--prefix DIR] [--target T] [--check] | c-test | spreadsheet \
                      | addin [--check] [--windows] \
-                     | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | wasm-bench \
+                     | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | npm-check | wasm-bench \
                      | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N]";
 
 fn main() -> ExitCode {
@@ -104,6 +109,7 @@ fn main() -> ExitCode {
             wasm::bits(&root, &package).map(|_| ())
         }),
         Some("browser-test") => wasm::browser(&root),
+        Some("npm-check") => wasm::build(&root).and_then(|package| wasm::npm_check(&root, &package)),
         Some("wasm-bench") => wasm::bench::run(&root),
         Some("icount") => {
             let against = args.iter().position(|a| a == "--against").and_then(|i| args.get(i + 1));

@@ -77,6 +77,11 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::c::c_test::run(root),
     );
     step(
+        "C package: a consumer builds and links through pkg-config (shared, static) and CMake find_package, \
+         from a copy in a fresh directory",
+        crate::c::consumer::run(root),
+    );
+    step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
         crate::spreadsheet::run(root),
     );
@@ -102,6 +107,11 @@ pub fn run(root: &Path) -> Result<(), String> {
                 crate::wasm::bits(root, &package).map(drop),
             );
             step("wasm: wasm-bindgen tests under Node", crate::wasm::rust_tests(root));
+            step(
+                "npm package: npm pack installs into a fresh project; Node ESM and CommonJS, tsc --strict, \
+                 a browser page through an import map (cargo xtask npm-check)",
+                crate::wasm::npm_check(root, &package),
+            );
             step(
                 "web calculator in headless Chromium (cargo xtask browser-test)",
                 crate::wasm::browser(root),

@@ -111,7 +111,7 @@ pub fn package(
         None
     };
 
-    let private = native_static_libs.join(" ");
+    let private = static_link_libs(&native_static_libs).join(" ");
     let pc = format!(
         "# aerostrata {version}: pkg-config file written by `cargo xtask c-package`.\n\
          prefix=${{pcfiledir}}/../..\n\
@@ -128,8 +128,11 @@ pub fn package(
     let pc_path = pkgconfig.join("aerostrata.pc");
     fs::write(&pc_path, pc).map_err(|e| io_error("write", &pc_path, e))?;
 
-    let link_libraries: Vec<&str> =
-        native_static_libs.iter().filter_map(|l| l.strip_prefix("-l")).filter(|l| *l != "c").collect();
+    let link_libraries: Vec<&str> = static_link_libs(&native_static_libs)
+        .into_iter()
+        .filter_map(|l| l.strip_prefix("-l"))
+        .filter(|l| *l != "c")
+        .collect();
     let shared_target = if shared_lib.is_some() {
         format!(
             "  add_library(aerostrata::aerostrata SHARED IMPORTED)\n  \
@@ -179,6 +182,16 @@ pub fn package(
     Ok(Package { prefix: prefix.to_path_buf(), static_lib, shared_lib, native_static_libs })
 }
 
+/// What a program linking the static library must name besides it (the .pc's
+/// `Libs.private`, the CMake static target's link libraries): rustc's native-static-libs
+/// without `-lgcc_s`. libgcc_s is shared only (Debian ships no libgcc_s.a), so naming it
+/// breaks `cc -static $(pkg-config --static --libs aerostrata)`; the compiler driver
+/// links the unwinder the Rust standard library needs by itself, libgcc_s "as needed"
+/// in a dynamic program and libgcc_eh in a static one (gcc's and clang's `libgcc` specs).
+fn static_link_libs(native_static_libs: &[String]) -> Vec<&str> {
+    native_static_libs.iter().map(String::as_str).filter(|l| *l != "-lgcc_s").collect()
+}
+
 /// Builds the host's C package (release) at its default prefix.
 pub fn host(root: &Path) -> Result<Package, String> {
     let prefix = default_prefix(root, None);
@@ -206,7 +219,8 @@ fn symlink(original: &str, link: &Path) -> Result<(), String> {
         .map_err(|e| format!("cannot link {} -> {original}: {e}", link.display()))
 }
 
-/// `cargo xtask c-package [--prefix DIR] [--target TRIPLE]`.
+/// `cargo xtask c-package [--prefix DIR] [--target TRIPLE] [--check]`; `--check` (hosts
+/// only) then builds a consumer against a copy of the package (`super::consumer`).
 pub fn run(root: &Path, args: &[String]) -> Result<(), String> {
     let value = |flag: &str| args.iter().position(|a| a == flag).and_then(|i| args.get(i + 1)).cloned();
     let target = value("--target");
@@ -214,5 +228,28 @@ pub fn run(root: &Path, args: &[String]) -> Result<(), String> {
         || default_prefix(root, target.as_deref()),
         |p| std::env::current_dir().unwrap_or_default().join(p),
     );
-    package(root, target.as_deref(), &prefix, &[], &[]).map(|_| ())
+    let check = args.iter().any(|a| a == "--check");
+    if check && target.is_some() {
+        return Err("c-package --check: the consumer is built for the host only; drop --target".to_owned());
+    }
+    let package = package(root, target.as_deref(), &prefix, &[], &[])?;
+    if check {
+        super::consumer::check(root, &package)
+    } else {
+        Ok(())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::static_link_libs;
+
+    #[test]
+    fn a_static_link_does_not_name_the_shared_only_unwinder() {
+        // rustc 1.95's native-static-libs for x86_64-unknown-linux-gnu.
+        let native: Vec<String> =
+            "-lgcc_s -lutil -lrt -lpthread -lm -ldl -lc".split(' ').map(str::to_owned).collect();
+        assert_eq!(static_link_libs(&native), ["-lutil", "-lrt", "-lpthread", "-lm", "-ldl", "-lc"]);
+        assert!(static_link_libs(&[]).is_empty());
+    }
 }

@@ -8,19 +8,23 @@
 //! Tools, installed when missing: the `wasm32-unknown-unknown` target (rustup, or
 //! Debian's rustc), wasm-bindgen-cli at the pinned version under target/tools,
 //! `wasm-opt` from Debian's `binaryen`, Node from Debian's `nodejs`, Chromium from
-//! Debian's `chromium`, and playwright-core from npm under tests/browser.
+//! Debian's `chromium`, playwright-core from npm under tests/browser, and TypeScript (for
+//! the package's declarations) through an npm cache under target/npm-cache.
 //!
 //! `toolchain` builds for wasm32 with the pinned tools, `package` makes the npm package
 //! and the calculator's site (`table` mends a wasm-opt bug on the way), `node` runs the
-//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark.
+//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark,
+//! `pack` the `npm pack` tarball installed and used in a fresh project (`npm-check`).
 
 pub mod bench;
 mod browser;
 mod node;
+mod pack;
 mod package;
 mod table;
 mod toolchain;
 
 pub use browser::run as browser;
 pub use node::{bits, node_tests, rust_tests};
+pub use pack::check as npm_check;
 pub use package::{build, run};
