@@ -1256,6 +1256,35 @@ typedef struct AerostrataExceedance {
 } AerostrataExceedance;
 
 /**
+ * The span around the maximum of a scanned quantity where it stays within a fraction of
+ * that maximum (`aerostrata_flight_plateau`).
+ */
+typedef struct AerostrataPlateau {
+  /**
+   * When the quantity rose to within the fraction of its maximum, s (interpolated
+   * linearly between samples).
+   */
+  double start_time_s;
+  /**
+   * When it fell below it again, s (interpolated likewise).
+   */
+  double end_time_s;
+  /**
+   * The maximum it is measured from, in the quantity's SI unit.
+   */
+  double maximum;
+  /**
+   * The fraction: the plateau is where the quantity is at least (1 - fraction) times
+   * the maximum.
+   */
+  double fraction;
+  /**
+   * 1 when the plateau reaches the first or the last sample (it may go on beyond).
+   */
+  uint32_t open;
+} AerostrataPlateau;
+
+/**
  * One user layer: where it ends and its constant lapse rate.
  */
 typedef struct AerostrataLayerSpec {
@@ -1944,6 +1973,31 @@ enum AerostrataStatus aerostrata_flight_exceedances(const struct AerostrataFligh
                                                     struct AerostrataExceedance *out,
                                                     size_t capacity,
                                                     size_t *found);
+
+/**
+ * The plateau of quantity `quantity_id` (an `AEROSTRATA_QUANTITY_*` id of a flight
+ * point, such as `AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE`) of the `count` scanned
+ * `points`: the contiguous span around its largest sample where it is at least
+ * (1 - `fraction`) times `maximum` (in the quantity's SI unit: the summary's refined
+ * maximum, or NaN for the largest sample), the crossings interpolated linearly between
+ * samples. `fraction` lies strictly between 0 and 1 (0.02 is the command line's
+ * default). Writes the plateau to `*out` and 1 to `*found`, or only 0 to `*found` when
+ * there is none (no points, or a maximum not above 0).
+ *
+ * All or nothing: on failure neither `*out` nor `*found` is written. Errors:
+ * RATIO_OUT_OF_RANGE or NOT_FINITE for the fraction; OUT_OF_RANGE for a maximum below the
+ * largest sample; INVALID_POINT (index named) for a sample whose value is undefined
+ * (NaN: a Mach number above 86 km, q-alpha of a sample without its velocity's direction)
+ * or whose times do not increase; NOT_CARRIED for a quantity a flight point does not
+ * carry; INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+ */
+enum AerostrataStatus aerostrata_flight_plateau(const struct AerostrataFlightPoint *points,
+                                                size_t count,
+                                                uint32_t quantity_id,
+                                                double maximum,
+                                                double fraction,
+                                                struct AerostrataPlateau *out,
+                                                uint32_t *found);
 
 /**
  * Makes the 1976 standard atmosphere (-5 km to 1000 km geometric) with every

@@ -369,3 +369,87 @@ pub unsafe extern "C" fn aerostrata_flight_exceedances(
         Ok(())
     })
 }
+
+/// The span around the maximum of a scanned quantity where it stays within a fraction of
+/// that maximum (`aerostrata_flight_plateau`).
+#[repr(C)]
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AerostrataPlateau {
+    /// When the quantity rose to within the fraction of its maximum, s (interpolated
+    /// linearly between samples).
+    pub start_time_s: f64,
+    /// When it fell below it again, s (interpolated likewise).
+    pub end_time_s: f64,
+    /// The maximum it is measured from, in the quantity's SI unit.
+    pub maximum: f64,
+    /// The fraction: the plateau is where the quantity is at least (1 - fraction) times
+    /// the maximum.
+    pub fraction: f64,
+    /// 1 when the plateau reaches the first or the last sample (it may go on beyond).
+    pub open: u32,
+}
+
+/// The plateau of quantity `quantity_id` (an `AEROSTRATA_QUANTITY_*` id of a flight
+/// point, such as `AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE`) of the `count` scanned
+/// `points`: the contiguous span around its largest sample where it is at least
+/// (1 - `fraction`) times `maximum` (in the quantity's SI unit: the summary's refined
+/// maximum, or NaN for the largest sample), the crossings interpolated linearly between
+/// samples. `fraction` lies strictly between 0 and 1 (0.02 is the command line's
+/// default). Writes the plateau to `*out` and 1 to `*found`, or only 0 to `*found` when
+/// there is none (no points, or a maximum not above 0).
+///
+/// All or nothing: on failure neither `*out` nor `*found` is written. Errors:
+/// RATIO_OUT_OF_RANGE or NOT_FINITE for the fraction; OUT_OF_RANGE for a maximum below the
+/// largest sample; INVALID_POINT (index named) for a sample whose value is undefined
+/// (NaN: a Mach number above 86 km, q-alpha of a sample without its velocity's direction)
+/// or whose times do not increase; NOT_CARRIED for a quantity a flight point does not
+/// carry; INVALID_ARGUMENT for an unknown id; NULL_POINTER. Thread-safe.
+#[no_mangle]
+pub unsafe extern "C" fn aerostrata_flight_plateau(
+    points: *const AerostrataFlightPoint,
+    count: usize,
+    quantity_id: u32,
+    maximum: f64,
+    fraction: f64,
+    out: *mut AerostrataPlateau,
+    found: *mut u32,
+) -> AerostrataStatus {
+    guard(|| {
+        require("out", out)?;
+        require("found", found)?;
+        let q = quantity(quantity_id)?;
+        let points = slice("points", points, count)?;
+        let mut times = Vec::new();
+        let mut values = Vec::new();
+        for series in [&mut times, &mut values] {
+            series.try_reserve_exact(count).map_err(|_| {
+                Failure::invalid_argument("count", "the element count is too large for memory", count as f64)
+            })?;
+        }
+        for p in points {
+            let Some(value) = p.get(q) else {
+                return Err(Error::NotCarried { quantity: q.name(), result: "a flight point" }.into());
+            };
+            times.push(p.time_s);
+            values.push(value);
+        }
+        let maximum = if maximum.is_nan() { None } else { Some(maximum) };
+        match aerostrata_core::flight::plateau(&times, &values, maximum, fraction)? {
+            Some(p) => {
+                write(
+                    out,
+                    AerostrataPlateau {
+                        start_time_s: p.start_time_s,
+                        end_time_s: p.end_time_s,
+                        maximum: p.maximum,
+                        fraction: p.fraction,
+                        open: u32::from(p.open),
+                    },
+                );
+                write(found, 1);
+            }
+            None => write(found, 0),
+        }
+        Ok(())
+    })
+}

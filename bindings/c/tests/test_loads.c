@@ -351,6 +351,64 @@ static void test_exceedances(AerostrataModel *model) {
     CHECK(found == 0);
 }
 
+/* The plateau of q around its maximum: where the straight line between two samples meets
+ * (1 - fraction) times the maximum (linear interpolation, common practice, no source).
+ * Speeds rising and falling symmetrically about 2 s make a symmetric plateau. */
+static void test_plateau(AerostrataModel *model) {
+    double t[5] = {0.0, 1.0, 2.0, 3.0, 4.0};
+    double z[5] = {0.0, 0.0, 0.0, 0.0, 0.0};
+    double v[5] = {50.0, 240.0, 250.0, 240.0, 50.0};
+    AerostrataFlightPoint p[5];
+    AerostrataFlightSummary s;
+    AerostrataPlateau out;
+    AerostrataPlateau sentinel;
+    uint32_t found = 99;
+    double floor, start;
+
+    STATUS(aerostrata_flight_scan(model, NULL, 0.0, 0.0, t, z, v, 5, p, &s), AEROSTRATA_STATUS_OK);
+    /* Within 10 % of the largest sample: the floor lies between samples 0 and 1. */
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE, NAN, 0.1, &out, &found),
+           AEROSTRATA_STATUS_OK);
+    floor = 0.9 * p[2].dynamic_pressure_pa;
+    start = 0.0 + (floor - p[0].dynamic_pressure_pa) / (p[1].dynamic_pressure_pa - p[0].dynamic_pressure_pa);
+    CHECK(found == 1 && out.maximum == p[2].dynamic_pressure_pa && out.fraction == 0.1 && out.open == 0);
+    CHECK(fabs(out.start_time_s - start) < 1e-15 && fabs(out.end_time_s - (4.0 - start)) < 1e-12);
+    /* Within 2 % of the summary's refined maximum (above the largest sample). */
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE, s.max_q_pa, 0.02, &out, &found),
+           AEROSTRATA_STATUS_OK);
+    CHECK(found == 1 && out.maximum == s.max_q_pa && out.start_time_s > 1.0 && out.end_time_s < 3.0);
+
+    /* Misuse: nothing written. */
+    memset(&sentinel, 0x5a, sizeof sentinel);
+    memcpy(&out, &sentinel, sizeof out);
+    found = 99;
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE, NAN, 1.0, &out, &found),
+           AEROSTRATA_STATUS_RATIO_OUT_OF_RANGE);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE, NAN, NAN, &out, &found),
+           AEROSTRATA_STATUS_NOT_FINITE);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_DYNAMIC_PRESSURE, 1.0, 0.02, &out, &found),
+           AEROSTRATA_STATUS_OUT_OF_RANGE);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_GRAVITY, NAN, 0.02, &out, &found),
+           AEROSTRATA_STATUS_NOT_CARRIED);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_Q_ALPHA, NAN, 0.02, &out, &found),
+           AEROSTRATA_STATUS_INVALID_POINT);
+    STATUS(aerostrata_flight_plateau(NULL, 5, AEROSTRATA_QUANTITY_MACH, NAN, 0.02, &out, &found),
+           AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_MACH, NAN, 0.02, NULL, &found),
+           AEROSTRATA_STATUS_NULL_POINTER);
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_MACH, NAN, 0.02, &out, NULL),
+           AEROSTRATA_STATUS_NULL_POINTER);
+    /* Times that do not increase (points made by hand, not by a scan). */
+    p[3].time_s = 1.0;
+    STATUS(aerostrata_flight_plateau(p, 5, AEROSTRATA_QUANTITY_MACH, NAN, 0.02, &out, &found),
+           AEROSTRATA_STATUS_INVALID_POINT);
+    CHECK(found == 99 && memcmp(&out, &sentinel, sizeof out) == 0);
+    /* No samples: no plateau. */
+    STATUS(aerostrata_flight_plateau(NULL, 0, AEROSTRATA_QUANTITY_MACH, NAN, 0.02, &out, &found),
+           AEROSTRATA_STATUS_OK);
+    CHECK(found == 0 && memcmp(&out, &sentinel, sizeof out) == 0);
+}
+
 void test_loads(void) {
     AerostrataModel *model = NULL;
     STATUS(aerostrata_model_new_us1976(0.0, &model), AEROSTRATA_STATUS_OK);
@@ -359,5 +417,6 @@ void test_loads(void) {
     test_summary_fields(model);
     test_vector_scan_misuse(model);
     test_exceedances(model);
+    test_plateau(model);
     aerostrata_model_free(model);
 }

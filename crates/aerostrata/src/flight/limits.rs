@@ -200,9 +200,9 @@ pub const PLATEAU_FRACTION: f64 = 0.02;
 /// ```
 ///
 /// # Errors
-/// [`Error::InvalidPoint`] when the slices differ in length or a value is not finite;
-/// [`Error::OutOfRange`] for a fraction outside (0, 1) or a maximum below the largest
-/// sample.
+/// [`Error::InvalidPoint`] when the slices differ in length, a value is not finite or
+/// the times are not finite and increasing; [`Error::RatioOutOfRange`] for a fraction
+/// outside (0, 1); [`Error::OutOfRange`] for a maximum below the largest sample.
 pub fn plateau(
     times_s: &[f64],
     values: &[f64],
@@ -221,6 +221,17 @@ pub fn plateau(
             min: 0.0,
             max: 1.0,
         });
+    }
+    for (index, &t) in times_s.iter().enumerate() {
+        let previous = index.checked_sub(1).and_then(|i| times_s.get(i));
+        if !t.is_finite() || previous.is_some_and(|&p| t <= p) {
+            return Err(Error::InvalidPoint {
+                table: "series",
+                index,
+                problem: "times must be finite and increase",
+                value: t,
+            });
+        }
     }
     let mut peak: Option<(usize, f64)> = None;
     for (index, &v) in values.iter().enumerate() {
@@ -355,6 +366,10 @@ mod tests {
         assert!(plateau(&[0.0, 1.0], &[1.0, 2.0], None, 1.5).is_err());
         assert!(plateau(&[0.0, 1.0], &[1.0, 2.0], Some(1.0), 0.02).is_err());
         assert_eq!(plateau(&[], &[], None, 0.02).unwrap(), None);
+        // Times that do not increase, or are not finite, are refused: a crossing between
+        // them would be no time at all (before, an Ok with a NaN time).
+        assert!(plateau(&[0.0, 0.0], &[1.0, 2.0], None, 0.02).is_err());
+        assert!(plateau(&[f64::NAN, 1.0], &[2.0, 1.0], None, 0.5).is_err());
     }
 
     #[test]
