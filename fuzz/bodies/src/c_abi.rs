@@ -1,7 +1,7 @@
 //! The C library's entry points (`aerostrata-c`, linked as an rlib) driven by arbitrary
 //! bytes: each step picks a call (model constructors with parameters and tables, the
 //! spreadsheet functions with spec strings, states one at a time and in batches, drag
-//! curves, winds, flight scans and their exceedances, frees) and its arguments. Pointers
+//! curves, winds, flight scans and their exceedances and plateaus, frees) and its arguments. Pointers
 //! are always valid or NULL (a dangling pointer is the caller's undefined behaviour, not
 //! something the library can detect); lengths always match the arrays. Every status is
 //! checked: OK with finite outputs, or an error status whose detail message is
@@ -336,6 +336,25 @@ impl World {
                     for e in out.iter().take(found.min(capacity)) {
                         finite("an exceedance's peak", e.peak);
                         no_infinity("an exceedance", e);
+                    }
+                }
+                let (maximum, fraction) = (bytes.f64(), bytes.f64());
+                let mut plateau: AerostrataPlateau = zeroed();
+                let mut has = 0u32;
+                let s = unsafe {
+                    aerostrata_flight_plateau(
+                        self.points.as_ptr(),
+                        count,
+                        id,
+                        maximum,
+                        fraction,
+                        &mut plateau,
+                        &mut has,
+                    )
+                };
+                if status("flight_plateau", s) && has == 1 {
+                    for v in [plateau.start_time_s, plateau.end_time_s, plateau.maximum, plateau.fraction] {
+                        finite("a plateau", v);
                     }
                 }
             }
