@@ -12,7 +12,8 @@
 //!
 //! `toolchain` builds for wasm32 with the pinned tools, `package` makes the npm package
 //! and the calculator's site (`table` mends a wasm-opt bug on the way), `node` runs the
-//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark.
+//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark
+//! over the builds of `variant`.
 
 pub mod bench;
 mod browser;
@@ -20,6 +21,7 @@ mod node;
 mod package;
 mod table;
 mod toolchain;
+mod variant;
 
 pub use browser::run as browser;
 pub use node::{bits, node_tests, rust_tests};
