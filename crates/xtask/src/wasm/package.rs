@@ -13,7 +13,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (271 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (300 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -36,15 +36,19 @@ use crate::{io_error, target_dir};
 /// and 127 KiB when `batch` and `batchInto` moved onto the core's own batch (the 1976
 /// standard's layer cursor and its column-at-a-time fill, `aerostrata::batch`) with
 /// `batchInto`'s buffer in the module's memory: 8.5 KiB, 3 KiB compressed, for about
-/// twice the speed of a batch (docs/performance.md, `cargo xtask wasm-bench`).
+/// twice the speed of a batch (docs/performance.md, `cargo xtask wasm-bench`); from 271
+/// and 130 KiB when the core crate was built at opt-level 2 rather than "z" (root
+/// Cargo.toml): 29 KiB, 8 KiB compressed, for a batch about 1.4 times as fast, which
+/// holds the wasm/native goal of 1.5x where "z" straddled it (1.41x to 1.84x over three
+/// runs of the bench on a loaded machine).
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 271 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (130 KiB; see above). Raised from 125 KiB
+pub const MAX_WASM_BYTES: u64 = 300 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (138 KiB; see above). Raised from 125 KiB
 /// when hydrogen's continuation below 150 km filled the upper table's hydrogen entries
 /// there (137 nodes of ln n and slope that had been zero placeholders): the same bytes
 /// raw, 1.5 KiB more compressed (124.2 to 125.7 KiB).
-pub const MAX_GZIP_BYTES: u64 = 130 * 1024;
+pub const MAX_GZIP_BYTES: u64 = 138 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";

@@ -19,10 +19,10 @@ pub struct Variant {
 }
 
 /// The module as `cargo xtask wasm` builds it: the root Cargo.toml's profile as it
-/// stands, wasm-opt `-Oz`, SIMD on.
+/// stands (the core crate at opt-level 2, the rest at "z"), wasm-opt `-Oz`, SIMD on.
 pub const SHIPPED: Variant = Variant {
     name: "shipped",
-    description: "the package: the profile of the root Cargo.toml, wasm-opt -Oz, simd128",
+    description: "the package: the core crate at opt-level 2, the rest at \"z\", wasm-opt -Oz, simd128",
     profile: &[],
     wasm_opt: "-Oz",
     simd: true,
@@ -30,18 +30,32 @@ pub const SHIPPED: Variant = Variant {
 
 /// The others, each one change or two from [`SHIPPED`], in the order they are built
 /// (the one without SIMD last: its different flags rebuild every crate).
-pub const OTHERS: [Variant; 4] = [
+pub const OTHERS: [Variant; 6] = [
     Variant {
-        name: "core-3-Oz",
+        name: "core-z",
+        description: "the core crate at opt-level \"z\" (as the rest of the module), wasm-opt -Oz, simd128",
+        profile: &["profile.wasm-release.package.aerostrata.opt-level=\"z\""],
+        wasm_opt: "-Oz",
+        simd: true,
+    },
+    Variant {
+        name: "core-s",
+        description: "the core crate at opt-level \"s\", wasm-opt -Oz, simd128",
+        profile: &["profile.wasm-release.package.aerostrata.opt-level=\"s\""],
+        wasm_opt: "-Oz",
+        simd: true,
+    },
+    Variant {
+        name: "core-3",
         description: "the core crate at opt-level 3, wasm-opt -Oz, simd128",
         profile: &["profile.wasm-release.package.aerostrata.opt-level=3"],
         wasm_opt: "-Oz",
         simd: true,
     },
     Variant {
-        name: "core-3-O3",
-        description: "the core crate at opt-level 3, wasm-opt -O3, simd128",
-        profile: &["profile.wasm-release.package.aerostrata.opt-level=3"],
+        name: "core-2-O3",
+        description: "the package's build with wasm-opt -O3",
+        profile: &[],
         wasm_opt: "-O3",
         simd: true,
     },
