@@ -38,8 +38,8 @@ use crate::{io_error, target_dir};
 /// `batchInto`'s buffer in the module's memory: 8.5 KiB, 3 KiB compressed, for about
 /// twice the speed of a batch (docs/performance.md, `cargo xtask wasm-bench`); from 271
 /// and 130 KiB when the core crate was built at opt-level 2 rather than "z" (root
-/// Cargo.toml): 29 KiB, 8 KiB compressed, for a batch about 1.4 times as fast, which
-/// holds the wasm/native goal of 1.5x where "z" straddled it (1.41x to 1.84x over three
+/// Cargo.toml): 29 KiB, 8 KiB compressed, for a batch 1.2 to 1.7 times as fast, which
+/// holds the wasm/native goal of 1.5x where "z" straddled it (1.28x to 1.84x over four
 /// runs of the bench on a loaded machine).
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
