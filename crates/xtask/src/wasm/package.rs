@@ -38,9 +38,10 @@ use crate::{io_error, target_dir};
 /// `batchInto`'s buffer in the module's memory: 8.5 KiB, 3 KiB compressed, for about
 /// twice the speed of a batch (docs/performance.md, `cargo xtask wasm-bench`); from 271
 /// and 130 KiB when the core crate was built at opt-level 2 rather than "z" (root
-/// Cargo.toml): 29 KiB, 8 KiB compressed, for a batch 1.2 to 1.7 times as fast, which
-/// holds the wasm/native goal of 1.5x where "z" straddled it (1.28x to 1.84x over four
-/// runs of the bench on a loaded machine).
+/// Cargo.toml): 29 KiB, 8 KiB compressed, for a batch whose fastest runs are 1.2 to 1.35
+/// times as fast in each of five runs of the bench, which holds the wasm/native goal of
+/// 1.5x where "z" straddled it (medians 1.28x to 1.84x, fastest runs up to 2.26x, on a
+/// loaded machine).
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
 pub const MAX_WASM_BYTES: u64 = 300 * 1024;
