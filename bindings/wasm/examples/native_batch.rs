@@ -1,7 +1,8 @@
 //! The native side of `cargo xtask wasm-bench`: the same batch the wasm module's
-//! `AtmosphereModel.batch` computes (the full state of the 1976 standard at every
-//! altitude, five quantities kept, column after column), on the same altitudes, timed
-//! the same way, so that the ratio of the two is the cost of running in wasm.
+//! `AtmosphereModel.batchInto` computes (five quantities of the 1976 standard at every
+//! altitude, column after column), through the core's own batch (`US1976.batch`) into
+//! columns made once, on the same altitudes, timed the same way, so that the ratio of
+//! the two is the cost of running in wasm.
 //!
 //! Usage: native_batch ALTITUDES_FILE RUNS
 //! ALTITUDES_FILE holds little-endian f64 geometric altitudes (m); prints one JSON line:
@@ -9,27 +10,22 @@
 
 use std::time::Instant;
 
-use aerostrata::{Altitude, Atmosphere, State, US1976};
+use aerostrata::batch::BatchError;
+use aerostrata::{AltitudeKind, Quantity, US1976};
 
 /// The quantities of the benchmark, in the order of bench.mjs's `QUANTITIES`.
-const QUANTITIES: [fn(&State) -> f64; 5] = [
-    |s| s.temperature_k,
-    |s| s.pressure_pa,
-    |s| s.density_kg_m3,
-    |s| s.speed_of_sound_m_s.unwrap_or(f64::NAN),
-    |s| s.dynamic_viscosity_pa_s.unwrap_or(f64::NAN),
+const QUANTITIES: [Quantity; 5] = [
+    Quantity::Temperature,
+    Quantity::Pressure,
+    Quantity::Density,
+    Quantity::SpeedOfSound,
+    Quantity::DynamicViscosity,
 ];
 
-fn batch(altitudes: &[f64]) -> Result<Vec<f64>, aerostrata::Error> {
-    let n = altitudes.len();
-    let mut out = vec![0.0; QUANTITIES.len() * n];
-    for (i, &z) in altitudes.iter().enumerate() {
-        let state = US1976.state(Altitude::geometric_m(z)?)?;
-        for (c, read) in QUANTITIES.iter().enumerate() {
-            out[c * n + i] = read(&state);
-        }
-    }
-    Ok(out)
+/// The batch into `out` (the five columns one after the other).
+fn batch(altitudes: &[f64], out: &mut [f64]) -> Result<(), BatchError> {
+    let mut columns: Vec<&mut [f64]> = out.chunks_mut(altitudes.len().max(1)).collect();
+    US1976.batch(AltitudeKind::Geometric, altitudes, &QUANTITIES, &mut columns)
 }
 
 /// FNV-1a (32 bits) over the little-endian bytes of `values`, as bench.mjs computes it.
@@ -54,18 +50,22 @@ fn main() -> Result<(), String> {
         bytes.chunks_exact(8).map(|c| f64::from_le_bytes(c.try_into().unwrap_or([0; 8]))).collect();
     // Warm-up as criterion's (and bench.mjs's): batches until 3 s have passed; the first
     // batch's time is reported on its own.
+    let mut out = vec![0.0; QUANTITIES.len() * altitudes.len()];
     let cold_start = Instant::now();
-    let warm = batch(&altitudes).map_err(|e| e.to_string())?;
+    batch(&altitudes, &mut out).map_err(|e| e.to_string())?;
     let first_ms = cold_start.elapsed().as_secs_f64() * 1e3;
+    let warm = out.clone();
     while cold_start.elapsed().as_secs_f64() < 3.0 {
-        drop(std::hint::black_box(batch(std::hint::black_box(&altitudes)).map_err(|e| e.to_string())?));
+        batch(std::hint::black_box(&altitudes), std::hint::black_box(&mut out)).map_err(|e| e.to_string())?;
     }
     let mut times = Vec::with_capacity(runs);
     for _ in 0..runs {
         let started = Instant::now();
-        let out = std::hint::black_box(batch(std::hint::black_box(&altitudes)).map_err(|e| e.to_string())?);
+        batch(std::hint::black_box(&altitudes), std::hint::black_box(&mut out)).map_err(|e| e.to_string())?;
         times.push(started.elapsed().as_secs_f64() * 1e3);
-        drop(out);
+    }
+    if out.iter().zip(&warm).any(|(a, b)| a.to_bits() != b.to_bits()) {
+        return Err("a later batch differs from the first".to_owned());
     }
     let runs_ms: Vec<String> = times.iter().map(|t| format!("{t:.3}")).collect();
     println!(

@@ -356,15 +356,26 @@ export function guardFreed(instance, className, what, stateKeys) {
   instance.free();
 }
 
-// Altitudes per chunk of `batchInto`: the module then holds 128 KiB of altitudes and at
-// most 20 x 128 KiB of values at once, whatever the batch's length.
+// Altitudes per chunk of `batchInto` (batch.rs's MAX_CHUNK): the module then holds 128 KiB
+// of altitudes and at most 20 x 128 KiB of values at once, whatever the batch's length.
 const CHUNK = 16384;
 
-// `AtmosphereModel.batchInto(altitudesM, outputs, altitudeKind?)`: `batch` chunk by
-// chunk, each chunk's columns copied into the caller's Float64Arrays (`outputs`, keys
-// among the comma-separated `stateKeys`). Every number comes from `batch`; this only
-// checks the arrays, cuts the altitudes and moves the columns. An error of a chunk names
-// the altitude's index in the whole array.
+// The module's WebAssembly.Memory, for `batchInto`'s views into its buffer (set once, at
+// start).
+let wasmMemory = null;
+
+export function useMemory(memory) {
+  wasmMemory = memory;
+}
+
+// `AtmosphereModel.batchInto(altitudesM, outputs, altitudeKind?)`: the core's batch chunk
+// by chunk, through one buffer in the module's memory that the model keeps
+// (`__batchPrepare`, batch.rs): each chunk's altitudes are copied in through a
+// Float64Array view, `__batchRun` writes the columns after them, and each column is
+// copied into the caller's Float64Array (`outputs`, keys among the comma-separated
+// `stateKeys`). No array is made per chunk or per element. Altitudes given as a plain
+// array go through `batch` a chunk at a time (its checks name a non-number element). An
+// error names the altitude's index in the whole array.
 function batchInto(stateKeys) {
   return function batchInto(altitudesM, outputs, altitudeKind) {
     if (!(altitudesM instanceof Float64Array) && !Array.isArray(altitudesM)) {
@@ -387,12 +398,23 @@ function batchInto(stateKeys) {
       }
       return array;
     });
+    if (altitudesM instanceof Float64Array && wasmMemory !== null) {
+      const address = this.__batchPrepare(keys, altitudeKind, Math.min(n, CHUNK));
+      for (let start = 0; start < n; start += CHUNK) {
+        const count = Math.min(n, start + CHUNK) - start;
+        new Float64Array(wasmMemory.buffer, address, count).set(altitudesM.subarray(start, start + count));
+        this.__batchRun(count, start);
+        // A fresh view: the memory's buffer changes when the module's memory grows.
+        const values = new Float64Array(wasmMemory.buffer, address, count * (1 + keys.length));
+        for (let j = 0; j < keys.length; j++) arrays[j].set(values.subarray(count * (1 + j), count * (2 + j)), start);
+      }
+      return outputs;
+    }
     for (let start = 0; start < n; start += CHUNK) {
       const end = Math.min(n, start + CHUNK);
-      const chunk = altitudesM instanceof Float64Array ? altitudesM.subarray(start, end) : altitudesM.slice(start, end);
       let columns;
       try {
-        columns = this.batch(chunk, keys, altitudeKind);
+        columns = this.batch(altitudesM.slice(start, end), keys, altitudeKind);
       } catch (e) {
         const place = /^altitudesM\[(\d+)\]/.exec(e.message);
         if (place === null || start === 0) throw e;

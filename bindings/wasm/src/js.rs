@@ -130,6 +130,11 @@ extern "C" {
     #[wasm_bindgen(js_name = guardFreed)]
     pub fn guard_freed(instance: JsValue, class_name: &str, what: &str, state_keys: &str);
 
+    /// Hands glue.js the module's `WebAssembly.Memory`, for `batchInto`'s views into the
+    /// buffer of batch.rs.
+    #[wasm_bindgen(js_name = useMemory)]
+    pub fn use_memory(memory: JsValue);
+
     /// `JSON.parse(text)` of text this module wrote.
     #[wasm_bindgen(catch, js_name = parseJson)]
     pub fn parse_json(text: &str) -> Result<JsValue, JsValue>;

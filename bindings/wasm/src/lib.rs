@@ -41,6 +41,7 @@ mod standalone {
 
 mod aero;
 mod args;
+mod batch;
 mod error;
 mod flight;
 mod input;
@@ -69,10 +70,11 @@ pub fn version() -> alloc::string::String {
 /// Runs once when the module is instantiated: makes the methods of a freed
 /// `AtmosphereModel` or `WindProfile` throw an `Error` that says it was freed, and adds
 /// `AtmosphereModel.batchInto` (see `guardFreed` in glue.js), by reaching each class's
-/// prototype through a throwaway object. `batchInto` lives in glue.js because it is only
-/// `batch` called chunk by chunk, and the module has a size budget.
+/// prototype through a throwaway object, and hands glue.js the module's memory, where
+/// `batchInto` reads and writes its chunks through views (batch.rs).
 #[wasm_bindgen(start, skip_typescript, js_name = __aerostrataStart)]
 fn start() {
+    js::use_memory(wasm_bindgen::memory());
     let keys = quantity::keys(aerostrata::Quantity::of_group(aerostrata::quantity::Group::State));
     let model = AtmosphereModel::from_model(model::Model::Us1976);
     js::guard_freed(JsValue::from(model), "AtmosphereModel", "model", &keys);
@@ -164,11 +166,13 @@ export interface AtmosphereModel {
    * `outputs[name][i]`. `outputs` maps names of `AtmosphereState` to `Float64Array`s of
    * `altitudesM.length` elements each; returns `outputs`.
    *
-   * Memory: the caller's arrays (8 bytes per value) and, inside the module, one chunk of
-   * 16 384 altitudes at a time (2.6 MiB of data with all 20 quantities), where `batch`
-   * holds every value twice. Not all or nothing: the first bad altitude throws as in
-   * `batch` (naming its index in the whole array), and elements before it may already
-   * have been written.
+   * Memory: the caller's arrays (8 bytes per value) and, inside the module, one buffer
+   * the model keeps for a chunk of 16 384 altitudes and its columns (2.6 MiB with all 20
+   * quantities), reused by every later call: no arrays are made per call, so a page
+   * redrawing a chart from the same arrays makes no garbage. A `Float64Array` of
+   * altitudes is the fast path; an array of numbers is checked element by element as in
+   * `batch`. Not all or nothing: the first bad altitude throws as in `batch` (naming its
+   * index in the whole array), and elements before it may already have been written.
    */
   batchInto(
     altitudesM: Float64Array | number[],

@@ -59,11 +59,13 @@ fn species_object(n: &Species) -> JsValue {
 pub struct AtmosphereModel {
     pub(crate) model: Model,
     kind: &'static str,
+    /// `batchInto`'s chunk buffer in the module's memory, kept between calls.
+    pub(crate) scratch: crate::batch::Scratch,
 }
 
 impl AtmosphereModel {
     fn new(model: Model, kind: &'static str) -> Self {
-        Self { model, kind }
+        Self { model, kind, scratch: crate::batch::Scratch::default() }
     }
 
     /// A handle for `model`, its kind read from the model itself.
@@ -363,29 +365,6 @@ impl AtmosphereModel {
         Ok(state_object(&state))
     }
 
-    /// Batch evaluation: the requested quantities of the state at every altitude of
-    /// `altitudesM` (metres of `altitudeKind`), one `Float64Array` per quantity, keyed by
-    /// its name (`quantities` lists names of `AtmosphereState`, such as
-    /// `["temperatureK", "pressurePa", "densityKgM3"]`). At most 16 777 216 altitudes.
-    ///
-    /// All or nothing: the first bad altitude throws (a `RangeError` naming its index), as
-    /// does a continuum quantity asked for where the model does not define it (an `Error`
-    /// naming the altitude).
-    #[wasm_bindgen(js_name = batch, unchecked_return_type = "Record<StateQuantity, Float64Array>")]
-    pub fn batch(
-        &self,
-        #[wasm_bindgen(js_name = altitudesM, unchecked_param_type = "Float64Array | number[]")]
-        altitudes: JsValue,
-        #[wasm_bindgen(js_name = quantities, unchecked_param_type = "StateQuantity[]")] quantities: JsValue,
-        #[wasm_bindgen(js_name = altitudeKind, unchecked_optional_param_type = "AltitudeKind")] kind: JsValue,
-    ) -> Result<JsValue, JsValue> {
-        let kind = args::altitude_kind("altitudeKind", &kind, true)?;
-        let columns = state_quantities(&quantities)?;
-        let altitudes = js::numbers("altitudesM", &altitudes)?;
-        let values = batch_columns(&self.model, kind, &altitudes, &columns).js()?;
-        js::columns(&quantity::keys(columns.iter().copied()), &values, altitudes.len())
-    }
-
     /// The geometric altitude (m) where `property` (`"pressure"` in Pa, `"density"` in
     /// kg/m^3 or `"numberDensity"` in 1/m^3) of this model equals `value`, searched over
     /// the model's whole range.
@@ -434,71 +413,6 @@ impl AtmosphereModel {
     }
 }
 
-/// The state quantities named (by JS key) in `quantities`: at least one, none twice.
-fn state_quantities(quantities: &JsValue) -> Result<Vec<Quantity>, JsValue> {
-    let state: Vec<Quantity> = Quantity::of_group(Group::State).collect();
-    let indices = js::choices("quantities", quantities, &quantity::keys(state.iter().copied()))?;
-    if indices.is_empty() || indices.len() > state.len() {
-        return Err(Failure::range(
-            Text::new("quantities lists ")
-                .u(indices.len())
-                .s(" names; the allowed range is 1 to ")
-                .u(state.len())
-                .done(),
-        )
-        .into());
-    }
-    let mut out: Vec<Quantity> = Vec::with_capacity(indices.len());
-    for (i, &index) in indices.iter().enumerate() {
-        let Some(&q) = state.get(index as usize) else { continue };
-        if out.contains(&q) {
-            return Err(Failure::plain(
-                Text::new(&args::place("quantities", i))
-                    .s(": ")
-                    .s(&quantity::key(q))
-                    .s(" is listed twice")
-                    .done(),
-            )
-            .into());
-        }
-        out.push(q);
-    }
-    Ok(out)
-}
-
-/// The batch itself, without JS: for every altitude the state, and from it each column,
-/// column after column in one vector (`columns.len()` times `altitudes.len()` values).
-pub(crate) fn batch_columns(
-    model: &Model,
-    kind: AltitudeKind,
-    altitudes: &[f64],
-    columns: &[Quantity],
-) -> Result<Vec<f64>, Failure> {
-    let count = altitudes.len();
-    let mut out = args::zeroed(columns.len() * count)?;
-    if count == 0 {
-        return Ok(out);
-    }
-    let mut outputs: Vec<(Quantity, &mut [f64])> =
-        columns.iter().copied().zip(out.chunks_mut(count)).collect();
-    for (i, &meters) in altitudes.iter().enumerate() {
-        let state = kind
-            .altitude(meters)
-            .and_then(|altitude| model.state(altitude))
-            .map_err(|e| Failure::from(e).at(&args::place("altitudesM", i)))?;
-        for (column, values) in &mut outputs {
-            // The core's own error (naming the quantity and the altitude) where the model
-            // does not define a value.
-            let value = state.get(*column).map_err(|e| Failure::from(e).at(&args::place("altitudesM", i)))?;
-            if let Some(slot) = values.get_mut(i) {
-                *slot = value;
-            }
-        }
-    }
-    drop(outputs);
-    Ok(out)
-}
-
 /// The full state of the 1976 standard with temperature offset `offsetK` (K, default 0)
 /// at `altitudeM` metres of `altitudeKind`, without making a model.
 ///
@@ -532,7 +446,6 @@ pub fn standard_species(
 #[cfg(test)]
 mod tests {
     extern crate std;
-    use aerostrata::Altitude;
     use std::vec::Vec;
 
     use super::*;
@@ -543,33 +456,6 @@ mod tests {
     fn species_follow_the_catalogue_order() {
         let names: Vec<&str> = Quantity::of_group(Group::Species).map(|q| q.name()).collect();
         assert_eq!(names, ["n_N2", "n_O", "n_O2", "n_Ar", "n_He", "n_H"], "the order of Species::as_array");
-    }
-
-    #[test]
-    fn the_batch_gives_the_bits_of_single_states_and_names_a_bad_element() {
-        let model = standard(0.0).unwrap();
-        let altitudes = [0.0, 5_000.5, 86_000.0, 300_000.0];
-        let columns = [Quantity::Temperature, Quantity::Density, Quantity::NumberDensity];
-        let values = batch_columns(&model, AltitudeKind::Geometric, &altitudes, &columns).unwrap();
-        let n = altitudes.len();
-        for (i, &z) in altitudes.iter().enumerate() {
-            let state = US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();
-            assert_eq!(values[i].to_bits(), state.temperature_k.to_bits());
-            assert_eq!(values[n + i].to_bits(), state.density_kg_m3.to_bits());
-            assert_eq!(values[2 * n + i].to_bits(), state.number_density_m3.to_bits());
-        }
-        let bad = batch_columns(&model, AltitudeKind::Geometric, &[0.0, f64::NAN], &[Quantity::Temperature])
-            .unwrap_err();
-        assert!(
-            bad.message.starts_with("altitudesM[1]: geometric altitude must be a finite number"),
-            "{}",
-            bad.message
-        );
-        let undefined =
-            batch_columns(&model, AltitudeKind::Geometric, &[0.0, 100_000.0], &[Quantity::SpeedOfSound])
-                .unwrap_err();
-        assert_eq!(undefined.class, crate::error::Class::Plain);
-        assert!(undefined.message.contains("speed of sound is not defined"), "{}", undefined.message);
     }
 
     #[test]

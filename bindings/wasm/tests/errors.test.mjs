@@ -257,6 +257,9 @@ const METHODS = {
   terminalVelocityMS: [1000, 1, 1, 1.5, "geometric"],
   scanFlight: [[0, 1, 2], [0, 100, 300], [0, 150, 250], { drag: 0.5, referenceAreaM2: 0.01, referenceLengthM: 1 }],
   range: [],
+  // batchInto's two steps (batch.rs): not for users, but callable, so garbage must not trap.
+  __batchPrepare: [["temperatureK"], "geometric", 2],
+  __batchRun: [0, 0],
 };
 
 function call(fn, args) {

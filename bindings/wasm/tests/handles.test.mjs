@@ -118,6 +118,44 @@ test("batchInto writes the bits of batch into the caller's arrays, across chunks
   assert.deepEqual(m.batchInto([], { pressurePa: new Float64Array(0) }).pressurePa.length, 0);
 });
 
+// The Float64Array path of batchInto (batch.rs's buffer in the module's memory) in the
+// cases the tests above give as arrays of numbers; the layer temperatures are the 1976
+// standard's (Table 4: 288.15 K at sea level, 216.65 K from 11 km geopotential).
+test("batchInto through the module's buffer: views, kinds, models side by side, reuse after an error", () => {
+  const m = AtmosphereModel.standard();
+  const hot = AtmosphereModel.standard(15);
+  // Altitudes and outputs that are views into larger buffers (byteOffset not 0).
+  const store = new Float64Array([-1, 0, 11000, 20000, -1]);
+  const big = new Float64Array(10).fill(-1);
+  m.batchInto(store.subarray(1, 4), { temperatureK: big.subarray(4, 7) }, "geopotential");
+  assert.deepEqual(Array.from(big), [-1, -1, -1, -1, 288.15, 216.65, 216.65, -1, -1, -1]);
+  // Two models with their own buffers and quantities, called in turn.
+  const z = Float64Array.from({ length: 20_000 }, (_, i) => i * 4.0);
+  const a = { pressurePa: new Float64Array(z.length) };
+  const b = { densityKgM3: new Float64Array(z.length), temperatureK: new Float64Array(z.length) };
+  m.batchInto(z, a);
+  hot.batchInto(z, b);
+  m.batchInto(z.subarray(0, 3), { pressurePa: a.pressurePa.subarray(0, 3) });
+  for (const i of [0, 16_383, 16_384, 19_999]) {
+    assert.ok(Object.is(a.pressurePa[i], m.state(z[i]).pressurePa), `standard p at ${z[i]}`);
+    assert.ok(Object.is(b.densityKgM3[i], hot.state(z[i]).densityKgM3), `ISA+15 rho at ${z[i]}`);
+    assert.ok(Object.is(b.temperatureK[i], hot.state(z[i]).temperatureK), `ISA+15 T at ${z[i]}`);
+  }
+  // The errors of the arrays-of-numbers path, and the buffer still usable after each.
+  throwsWith(() => m.batchInto(new Float64Array([0, 90000]), { speedOfSoundMS: new Float64Array(2) }), Error, /^altitudesM\[1\]: speed of sound is not defined/);
+  throwsWith(() => m.batchInto(new Float64Array([0, NaN]), { pressurePa: new Float64Array(2) }), RangeError, /^altitudesM\[1\]: geometric altitude must be a finite number/);
+  throwsWith(() => m.batchInto(new Float64Array(1), { pressurePa: new Float64Array(1) }, "sideways"), RangeError, /altitudeKind must be one of/);
+  throwsWith(() => m.batchInto(new Float64Array(0), { pressurePa: new Float64Array(0) }, "sideways"), RangeError, /altitudeKind must be one of/);
+  const after = { speedOfSoundMS: new Float64Array(1) };
+  m.batchInto(new Float64Array([0]), after);
+  assert.equal(after.speedOfSoundMS[0], m.state(0).speedOfSoundMS);
+  assert.equal(m.batchInto(new Float64Array(0), { pressurePa: new Float64Array(0) }).pressurePa.length, 0);
+  // A step called out of turn is an Error, not a trap.
+  throwsWith(() => AtmosphereModel.standard().__batchRun(5, 0), Error, /^batchInto: a chunk larger than its buffer/);
+  m.free();
+  hot.free();
+});
+
 test("batchInto's errors name the argument and the global index", () => {
   const m = AtmosphereModel.standard();
   const n = 20_000;

@@ -58,3 +58,37 @@ test("the web build gives the Node build's bits for every vector", async () => {
   const web = await loadWeb();
   assert.deepEqual(bitLines(web, files), bitLines(aerostrata, files));
 });
+
+// The batch path (the core's `US1976.batch` and `batch::evaluate`, batch.rs) against the
+// scalar path, bit for bit, at every altitude of the state vector files, in every
+// quantity the state defines there: the vector bits check (bits.mjs) goes through
+// `state`, so this carries it over to `batch` and `batchInto`. Common practice, no source.
+test("batch and batchInto give state's bits at every altitude of the state vectors", () => {
+  const models = [
+    aerostrata.AtmosphereModel.standard(),
+    aerostrata.AtmosphereModel.standard(15),
+    aerostrata.AtmosphereModel.hydrostaticOffset(-25, 98000),
+  ];
+  let compared = 0;
+  for (const file of files.filter((f) => f.input === "geometric_altitude_m" && /^(us1976|hydrostatic_offset)/.test(f.model))) {
+    const all = file.rows.map(({ cells }) => Number(cells[0]));
+    for (const model of models) {
+      const { geometricMinM, geometricMaxM } = model.range();
+      const altitudes = new Float64Array(all.filter((z) => z >= geometricMinM && z <= geometricMaxM));
+      if (altitudes.length === 0) continue;
+      const states = Array.from(altitudes, (z) => model.state(z));
+      const keys = Object.keys(states[0]).filter((k) => states.every((s) => s[k] !== null));
+      const outputs = Object.fromEntries(keys.map((k) => [k, new Float64Array(altitudes.length)]));
+      model.batchInto(altitudes, outputs);
+      const columns = model.batch(altitudes, keys);
+      for (const k of keys) {
+        states.forEach((s, i) => {
+          assert.ok(Object.is(outputs[k][i], s[k]), `${file.stem} ${model.kind} ${k} at ${altitudes[i]}: batchInto ${outputs[k][i]}, state ${s[k]}`);
+          assert.ok(Object.is(columns[k][i], s[k]), `${file.stem} ${model.kind} ${k} at ${altitudes[i]}: batch ${columns[k][i]}, state ${s[k]}`);
+          compared++;
+        });
+      }
+    }
+  }
+  assert.ok(compared > 1000, `only ${compared} values compared`);
+});

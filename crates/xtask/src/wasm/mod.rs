@@ -13,8 +13,9 @@
 //!
 //! `toolchain` builds for wasm32 with the pinned tools, `package` makes the npm package
 //! and the calculator's site (`table` mends a wasm-opt bug on the way), `node` runs the
-//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark,
-//! `pack` the `npm pack` tarball installed and used in a fresh project (`npm-check`).
+//! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark
+//! over the builds of `variant`, `pack` the `npm pack` tarball installed and used in a
+//! fresh project (`npm-check`).
 
 pub mod bench;
 mod browser;
@@ -23,6 +24,7 @@ mod pack;
 mod package;
 mod table;
 mod toolchain;
+mod variant;
 
 pub use browser::run as browser;
 pub use node::{bits, node_tests, rust_tests};
