@@ -201,6 +201,15 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
             .run()?;
     }
     snippets_to_commonjs(&pkg.join("node"))?;
+    // wasm-bindgen's classes declare `[Symbol.dispose]`, which `tsc --strict` knows only
+    // with the `esnext.disposable` library: the declarations ask for it themselves, so
+    // that a consumer's `lib` need not name it.
+    for dir in ["web", "node"] {
+        let types = pkg.join(dir).join(format!("{OUT_NAME}.d.ts"));
+        let text = fs::read_to_string(&types).map_err(|e| io_error("read", &types, e))?;
+        fs::write(&types, format!("/// <reference lib=\"esnext.disposable\" />\n{text}"))
+            .map_err(|e| io_error("write", &types, e))?;
+    }
     // The two builds' modules are the same file; optimise one and copy it over the other.
     let web_wasm = pkg.join("web").join(format!("{OUT_NAME}_bg.wasm"));
     let node_wasm = pkg.join("node").join(format!("{OUT_NAME}_bg.wasm"));
