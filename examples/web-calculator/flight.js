@@ -33,13 +33,24 @@ function stale() {
 }
 
 /**
- * The wind typed: `{wind: {speedMS, directionDeg}}`, `{wind: null}` when both fields are
- * blank, or `{error}` (its message beside the field at fault) when one is bad or missing.
+ * The wind: `{wind: {speedMS, directionDeg}}` typed, `{windsFile}` uploaded,
+ * `{wind: null}` when the fields and the file are blank, or `{error}` (its message beside
+ * the field at fault) when one is bad or missing, or both ways are given.
  */
 function readWind() {
   const speed = takeField("flight-wind-speed");
   const direction = takeField("flight-wind-direction");
+  const windsFile = $("flight-winds-file").files[0];
+  setMessage("flight-winds-file", "");
   if (speed.error || direction.error) return { error: true };
+  if (windsFile) {
+    const refusal = tooLarge(windsFile);
+    if (refusal || !(speed.empty && direction.empty)) {
+      setMessage("flight-winds-file", refusal ?? "Give the wind one way: clear the typed speed and direction, or the file.");
+      return { error: true };
+    }
+    return { windsFile };
+  }
   if (speed.empty && direction.empty) return { wind: null };
   if (direction.empty) {
     setMessage("flight-wind-direction", "Enter the direction the wind blows from (270 for a west wind), or clear the speed.");
@@ -83,7 +94,8 @@ export async function requestFlight() {
     model,
     cd: cd.si,
     areaM2: area.si,
-    wind: wind.wind,
+    wind: wind.wind ?? null,
+    windsFile: wind.windsFile ?? null,
     qLimitPa: qLimit.empty ? null : qLimit.si,
     columns: flightColumns($("flight-chart")),
   });
@@ -245,6 +257,7 @@ export function setupFlight(model) {
   for (const id of ["flight-cd", "flight-area", "flight-units", "flight-wind-speed", "flight-wind-direction", "flight-q-limit"]) {
     $(id).addEventListener("input", requestFlight);
   }
+  $("flight-winds-file").addEventListener("change", requestFlight);
   $("flight-demo").addEventListener("click", async () => {
     const response = await fetch("demo-flight.csv");
     $("flight-csv").value = await response.text();

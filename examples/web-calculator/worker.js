@@ -94,7 +94,7 @@ function scanField(message) {
   return "flight";
 }
 
-async function flight({ source, units, model: described, cd, areaM2, wind, qLimitPa, columns }) {
+async function flight({ source, units, model: described, cd, areaM2, wind, windsFile, qLimitPa, columns }) {
   let samples;
   try {
     samples = readFlight(await textOf(source), units);
@@ -103,9 +103,9 @@ async function flight({ source, units, model: described, cd, areaM2, wind, qLimi
   }
   const { ignored, ...given } = samples;
   const directed = hasDirection(given);
-  if (wind && !directed) {
+  if ((wind || windsFile) && !directed) {
     return failure(
-      "flight-wind-speed",
+      windsFile ? "flight-winds-file" : "flight-wind-speed",
       new Error("a wind needs the velocity's direction: the file gives only the speed; give velocity_east, velocity_north and velocity_up, or velocity with flight_path_angle and heading, or clear the wind"),
     );
   }
@@ -124,8 +124,20 @@ async function flight({ source, units, model: described, cd, areaM2, wind, qLimi
   // One options object for every file: the speed form gives exactly the positional
   // call's numbers (the module's own test), and the limit applies to both.
   const options = { ...given, vehicle: { drag: cd, referenceAreaM2: areaM2 } };
-  // A wind the same at every altitude: one level, held above and below it.
+  // A wind the same at every altitude: one level, held above and below it; or the file's
+  // winds, read as the command line reads `--winds` (headings without a unit in the
+  // flight's units).
   if (wind) options.winds = { altitudeM: [0], windSpeedMS: [wind.speedMS], windDirectionDeg: [wind.directionDeg] };
+  let winds = null;
+  if (windsFile) {
+    try {
+      winds = api.WindProfile.fromCsv(await textOf(windsFile), units);
+    } catch (e) {
+      if (owned) model.free();
+      return failure("flight-winds-file", e);
+    }
+    options.winds = winds;
+  }
   if (qLimitPa !== null && qLimitPa !== undefined) options.qLimitPa = qLimitPa;
   let scan;
   try {
@@ -134,6 +146,7 @@ async function flight({ source, units, model: described, cd, areaM2, wind, qLimi
     return failure(scanField(e.message), e);
   } finally {
     if (owned) model.free();
+    winds?.free();
   }
   const { points, summary } = scan;
   const times = points.timeS;

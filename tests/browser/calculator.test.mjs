@@ -290,6 +290,28 @@ try {
   await page.screenshot({ path: join(shots, "web-calculator-phone-flight-loads.png"), fullPage: true });
   await page.setViewportSize({ width: 1180, height: 1500 });
 
+  // 10b'. The same crosswind from a wind file (one level, held above and below it, as the
+  // typed wind is): the page gives the module's q-alpha to the bit. A file the module
+  // refuses is named beside the file input with its line; a typed wind beside a file is
+  // refused (one way or the other).
+  await page.fill("#flight-q-limit", "");
+  await page.fill("#flight-wind-speed", "");
+  await page.fill("#flight-wind-direction", "");
+  await page.setInputFiles("#flight-winds-file", upload("north-wind.csv", Buffer.from("# invented\naltitude_m,wind_speed_m_s,wind_direction_deg\n0,15,0\n")));
+  await flightDone();
+  check(Object.is(await flightValue("maxQAlphaPaDeg"), moduleQAlpha.value), `max q-alpha through the wind file: ${await flightValue("maxQAlphaPaDeg")}`);
+  await page.setInputFiles("#flight-winds-file", upload("bad-wind.csv", Buffer.from("altitude_m,wind_speed_m_s,wind_direction_deg\n0,15,0\n100,x,0\n")));
+  await flightDone();
+  check(/^line 3\b/.test(await message("flight-winds-file")), `a bad wind file: "${await message("flight-winds-file")}"`);
+  check((await page.getAttribute("#flight-winds-file", "aria-invalid")) === "true", "the refused wind file's input is marked invalid");
+  await page.fill("#flight-wind-speed", "15");
+  await page.fill("#flight-wind-direction", "0");
+  await flightDone();
+  check(/one way/.test(await message("flight-winds-file")), `a typed wind beside a file: "${await message("flight-winds-file")}"`);
+  await page.setInputFiles("#flight-winds-file", []);
+  await flightDone();
+  check((await message("flight-winds-file")) === "", "the wind file's message goes with the file");
+
   // 10c. A wind for a file without the velocity's direction is refused beside the wind.
   await page.fill("#flight-q-limit", "");
   await page.fill("#flight-csv", csv.slice(0, 20).map((r) => r.join(",")).join("\n"));

@@ -39,7 +39,7 @@ fn read_error(error: &ReadError<'_>) -> String {
 
 /// A sounding's refusal: its place (line, column, cell) and why, numbers as in
 /// [`read_error`].
-fn load_error(error: &aerostrata::model::sounding_io::LoadError) -> String {
+pub(crate) fn load_error(error: &aerostrata::model::sounding_io::LoadError) -> String {
     let mut out = String::from("line ");
     push_count(&mut out, error.line());
     if let Some((index, name)) = error.column() {

@@ -123,6 +123,31 @@ impl WindProfile {
         Ok(Self { profile: profile_from(true, &z, &speed, &direction).js()? })
     }
 
+    /// A profile from a wind file's CSV text, read as the command line reads `--winds`:
+    /// a header naming the altitude (`altitude` is geometric, or `geometric_altitude`,
+    /// `geopotential_altitude`) and `wind_speed` with `wind_direction` (the direction it
+    /// blows from) or `wind_east` with `wind_north`, each with or without its unit
+    /// (`altitude_ft,wind_speed_kt,wind_direction_deg`); columns without a unit read in
+    /// SI, or in US units when `defaultUnits` is `"us"`; other columns are kept out.
+    ///
+    /// Throws an `Error` naming the line, column and cell for a file it cannot read.
+    #[wasm_bindgen(js_name = fromCsv)]
+    pub fn from_csv(
+        #[wasm_bindgen(js_name = text, unchecked_param_type = "string")] text: JsValue,
+        #[wasm_bindgen(js_name = defaultUnits, unchecked_optional_param_type = "\"si\" | \"us\"")]
+        units: JsValue,
+    ) -> Result<WindProfile, JsValue> {
+        let text = js::long_text("text", &text)?;
+        let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
+        let options = aerostrata::model::sounding_io::Options {
+            default_unit: if us { Quantity::us } else { Quantity::si },
+            ..Default::default()
+        };
+        let file = aerostrata::model::sounding_io::read_winds_csv(&text, &options)
+            .map_err(|e| JsValue::from(Failure::plain(crate::input::load_error(&e))))?;
+        Ok(Self { profile: file.winds })
+    }
+
     /// The wind at geometric altitude `altitudeM`: `{windEastMS, windNorthMS, windSpeedMS,
     /// windDirectionDeg, held}` (`held` where the altitude lies beyond the profile's
     /// levels and the nearest level's wind is held).

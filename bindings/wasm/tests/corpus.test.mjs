@@ -1,7 +1,7 @@
 // Every input of the fuzzing corpus (fuzz/corpus) and the same fourteen deterministic
 // mutations the command line's replay makes (crates/aerostrata-cli/tests/corpus_replay.rs),
-// through the module's readers: soundings in CSV and JSON, flight files then their scan,
-// tables as flight files, model specs, values with units. What every call must show
+// through the module's readers: soundings in CSV and JSON, wind files, flight files then
+// their scan, tables as flight files, model specs, values with units. What every call must show
 // (docs/robustness.md): a result, or a thrown Error, RangeError or TypeError with a short
 // message, never a trap (WebAssembly.RuntimeError) or another exception; and every
 // number a result carries finite.
@@ -14,7 +14,7 @@ import { join } from "node:path";
 import { loadNode, repoRoot } from "./load.mjs";
 
 const a = loadNode();
-const { AtmosphereModel } = a;
+const { AtmosphereModel, WindProfile } = a;
 const corpus = join(repoRoot, "fuzz", "corpus");
 
 function inputs(dir) {
@@ -102,7 +102,7 @@ function probe(model, where) {
   model.free();
 }
 
-test("soundings in CSV and JSON", () => {
+test("soundings in CSV and JSON, and wind files", () => {
   const before = calls;
   each("sounding_csv", (text, where) => {
     for (const units of ["si", "us"]) {
@@ -113,6 +113,12 @@ test("soundings in CSV and JSON", () => {
   each("sounding_json", (text, where) => {
     const model = attempt(where, () => AtmosphereModel.fromSoundingJson(text));
     if (model) probe(model, where);
+  });
+  each("winds_csv", (text, where) => {
+    const winds = attempt(where, () => WindProfile.fromCsv(text));
+    if (!winds) return;
+    for (const altitude of [-100, 0, 5000, 50000]) assertFinite(winds.at(altitude), `${where} at ${altitude} m`);
+    winds.free();
   });
   assert.ok(calls - before >= 300, `${calls - before} calls`);
 });

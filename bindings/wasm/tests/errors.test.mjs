@@ -343,7 +343,7 @@ test("garbage at every export throws Errors and never traps", () => {
 test("garbage at WindProfile and in every option of scanFlight throws Errors and never traps", () => {
   const { WindProfile } = a;
   const statics = Object.getOwnPropertyNames(WindProfile).filter((k) => typeof WindProfile[k] === "function");
-  assert.deepEqual(statics.filter((k) => !["fromSpeedDirection", "__wrap"].includes(k)), []);
+  assert.deepEqual(statics.filter((k) => !["fromSpeedDirection", "fromCsv", "__wrap"].includes(k)), []);
   const methods = Object.getOwnPropertyNames(WindProfile.prototype).filter(
     (k) => typeof Object.getOwnPropertyDescriptor(WindProfile.prototype, k).value === "function" && !["constructor", "free", "__destroy_into_raw"].includes(k),
   );
@@ -374,6 +374,8 @@ test("garbage at WindProfile and in every option of scanFlight throws Errors and
       outcomes.add(call(() => new WindProfile(...args), []));
       outcomes.add(call(() => WindProfile.fromSpeedDirection(...args), []));
     }
+    outcomes.add(call(() => WindProfile.fromCsv(g), []));
+    outcomes.add(call(() => WindProfile.fromCsv("altitude_m,wind_east_m_s,wind_north_m_s\n0,1,2\n", g), []));
     outcomes.add(call(() => winds.at(g), []));
     for (const key of Object.keys(options)) {
       outcomes.add(call(() => standard.scanFlight({ ...options, [key]: g }), []));

@@ -307,3 +307,26 @@ test("wrong JS types are TypeErrors naming the option", () => {
   assert.throws(() => standard.scanFlight({ ...climb, winds: 12 }), { name: "TypeError", message: /^winds must be a WindProfile or/ });
   assert.throws(() => new WindProfile("0", [1], [0]), TypeError);
 });
+
+test("WindProfile.fromCsv reads a wind file as the command line's --winds does", () => {
+  // A west wind (from 270 deg) blows toward the east (common practice, no source):
+  // 10 kt at 0 m and 20 kt at 1000 m, linear in components between (hand-worked).
+  const kt = 1852 / 3600;
+  const text = "# invented\naltitude (m),wind_speed (kt),wind_direction (deg),remark\n0,10,270,calm\n1000,20,270,\n";
+  const winds = WindProfile.fromCsv(text);
+  const mid = winds.at(500);
+  assert.ok(close(mid.windEastMS, 15 * kt, 1e-12) && Math.abs(mid.windNorthMS) < 1e-12, JSON.stringify(mid));
+  assert.equal(mid.held, false);
+  assert.equal(winds.at(2000).held, true);
+  // The example wind file loads, and scans a flight as the options' wind.
+  const file = readFileSync(join(here, "..", "..", "..", "examples", "data", "vessaro_key_winds.csv"), "utf8");
+  const example = WindProfile.fromCsv(file);
+  assert.ok(Number.isFinite(example.at(12000).windSpeedMS));
+  example.free();
+  // Refusals name the line and column, as the command line's do.
+  assert.throws(() => WindProfile.fromCsv("altitude_m,wind_speed_kt\n0,10\n"), /line 1/);
+  assert.throws(() => WindProfile.fromCsv("altitude_m,wind_speed_kt,wind_direction_deg\n0,10,270\n1000,x,270\n"), /line 3/);
+  assert.throws(() => WindProfile.fromCsv("altitude_m,wind_speed_kt,wind_direction_deg\n" + "9".repeat(70000) + "\n"), /line 2: longer than 65536 bytes/);
+  assert.throws(() => WindProfile.fromCsv("altitude_m,wind_speed_kt,wind_direction_deg\n0,10,270\n", "metric"), RangeError);
+  winds.free();
+});

@@ -13,7 +13,7 @@ use crate::process::Cmd;
 use crate::setup::{self, WASM_TARGET};
 use crate::{io_error, target_dir};
 
-/// The size budget of the optimised `.wasm`, bytes (309 KiB) ...
+/// The size budget of the optimised `.wasm`, bytes (319 KiB) ...
 ///
 /// Raised from 150 KiB and 60 KiB when the module took in the quantity catalogue (the
 /// names, symbols, labels, descriptions and units a page builds its tables from, and the
@@ -43,15 +43,17 @@ use crate::{io_error, target_dir};
 /// 1.5x where "z" straddled it (medians 1.28x to 1.84x, fastest runs up to 2.26x, on a
 /// loaded machine); and from 300 and 138 KiB when flight files came to be read by the
 /// core's one set of rules (the layout checks and their messages, headerless files,
-/// `speed` headings, the bound on lines): 9 KiB, 4 KiB compressed.
+/// `speed` headings, the bound on lines): 9 KiB, 4 KiB compressed; from 309 and 142 KiB
+/// when `WindProfile.fromCsv` took in the core's wind-file reader (the page's wind
+/// files): 9 KiB, 4 KiB compressed.
 /// Splitting the upper atmosphere's tables and the file readers into a module of their
 /// own is what brings the default module down again (docs/performance.md).
-pub const MAX_WASM_BYTES: u64 = 309 * 1024;
-/// ... and of the same file compressed with `gzip -9`, bytes (142 KiB; see above).
+pub const MAX_WASM_BYTES: u64 = 319 * 1024;
+/// ... and of the same file compressed with `gzip -9`, bytes (146 KiB; see above).
 /// Raised from 125 KiB when hydrogen's continuation below 150 km filled the upper
 /// table's hydrogen entries there (137 nodes of ln n and slope that had been zero
 /// placeholders): the same bytes raw, 1.5 KiB more compressed (124.2 to 125.7 KiB).
-pub const MAX_GZIP_BYTES: u64 = 142 * 1024;
+pub const MAX_GZIP_BYTES: u64 = 146 * 1024;
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";
