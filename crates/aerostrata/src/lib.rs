@@ -77,7 +77,8 @@ pub use flight::{FlightPoint, FlightScan, FlightSummary, Sample, Vehicle};
 pub use flow::{MachBranch, NormalShock, PerfectGas};
 pub use inverse::{BarometricReference, SolverSettings};
 
-/// The README's Rust example, compiled and run as a doctest.
+/// The README's Rust example, compiled and run as a doctest. Found through the manifest's
+/// `readme`, which `cargo package` rewrites, so that the .crate's own copy is tested too.
 #[cfg(doctest)]
-#[doc = include_str!("../../../README.md")]
+#[doc = include_str!(concat!(env!("CARGO_MANIFEST_DIR"), "/", env!("CARGO_PKG_README")))]
 struct ReadmeExample;

@@ -28,7 +28,8 @@ use super::rows::{SoundingLevel, SoundingRow};
 /// ([`Tabulated::from_rows`]), a borrowed slice filled in place
 /// ([`Tabulated::from_rows_in`]; neither allocates, so a sounding can live in a static
 /// array on a flight computer), or with the `alloc` feature a `Vec`
-/// ([`Tabulated::from_rows_vec`]).
+#[cfg_attr(feature = "alloc", doc = "([`Tabulated::from_rows_vec`]).")]
+#[cfg_attr(not(feature = "alloc"), doc = "(`Tabulated::from_rows_vec`).")]
 ///
 /// # Formula
 /// At each row, from its vapour pressure e (see [`crate::humidity`]: e = f(p) e_w(T_d)
