@@ -33,6 +33,11 @@
 //!                               (after `wasm` and with the C package)
 //! cargo xtask fuzz [--seconds N] the fuzz targets over their corpus on stable; then N s each
 //!                               under libFuzzer where nightly and cargo-fuzz can be had
+//! cargo xtask package [--check] the core, the CLI and the C binding as .crate files; --check
+//!                               builds, tests and documents each from its unpacked form
+//! cargo xtask msrv              the core and the CLI built with the declared rust-version
+//! cargo xtask versions          one version in the crates, C header, npm package, add-in and
+//!                               docs; CHANGELOG.md in the Keep a Changelog shape
 //! ```
 //!
 //! The source is laid out by door: `rust/` (the core's vectors, validation report, upper
@@ -55,6 +60,7 @@ mod firmware;
 mod fuzz;
 mod icount;
 mod machine;
+mod package;
 mod process;
 mod report;
 mod rust;
@@ -71,7 +77,8 @@ const USAGE: &str = "usage: cargo xtask test | validate [--check] | upper-table 
                      | header [--check] | c-package [--prefix DIR] [--target T] [--check] | c-test | spreadsheet \
                      | addin [--check] [--windows] \
                      | bench | batch-bench | bits [--compare FILE] | firmware | wasm | wasm-test | browser-test | npm-check | wasm-bench \
-                     | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N]";
+                     | icount [--against REV] | catalogue | cli-bench | fuzz [--seconds N] \
+                     | package [--check] | msrv | versions";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -118,6 +125,9 @@ fn main() -> ExitCode {
         Some("catalogue") => catalogue::check(&root, &target_dir(&root).join("wasm").join("pkg"))
             .map(|line| eprintln!("{line}")),
         Some("fuzz") => fuzz::seconds(&args[1..]).and_then(|seconds| fuzz::run(&root, seconds)),
+        Some("package") => package::run(&root, &args[1..]),
+        Some("msrv") => package::msrv::run(&root),
+        Some("versions") => package::versions::run(&root),
         _ => Err(USAGE.to_owned()),
     };
     match result {
