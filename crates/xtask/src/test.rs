@@ -82,6 +82,20 @@ pub fn run(root: &Path) -> Result<(), String> {
         crate::c::consumer::run(root),
     );
     step(
+        "packages: the core, the CLI and the C binding build and document from their .crate files in a \
+         fresh directory (cargo xtask package --check)",
+        crate::package::crates::run(root, true),
+    );
+    step(
+        "MSRV 1.85 build of the core and the CLI (skipped with a message when the toolchain cannot be \
+         downloaded; cargo xtask msrv)",
+        crate::package::msrv::run(root),
+    );
+    step(
+        "versions in step: crates, C header, npm package, add-in, CHANGELOG (cargo xtask versions)",
+        crate::package::versions::run(root),
+    );
+    step(
         "spreadsheet host: headless LibreOffice Calc through the shared library",
         crate::spreadsheet::run(root),
     );
