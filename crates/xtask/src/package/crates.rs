@@ -250,6 +250,8 @@ fn verify(
     target: &Path,
     version: &Version,
 ) -> Result<(), String> {
+    // A second earlier, for file systems that keep whole seconds.
+    let started = std::time::SystemTime::now() - std::time::Duration::from_secs(1);
     let patch = if krate.uses_core {
         let lock_path = dir.join("Cargo.lock");
         let lock = fs::read_to_string(&lock_path).map_err(|e| io_error("read", &lock_path, e))?;
@@ -294,8 +296,57 @@ fn verify(
     }
     if krate.name == "aerostrata-c" {
         check_soname(&target.join("debug").join("libaerostrata_c.so"), version)?;
+        check_build_script_inputs(&target.join("debug").join("build"), dir, started)?;
     }
     Ok(())
+}
+
+/// The C binding's build script declares (`rerun-if-changed`) only files inside the
+/// unpacked crate: it reads nothing of the repository's. Its outputs from this check's
+/// builds (those written since `since`) are read.
+fn check_build_script_inputs(build: &Path, dir: &Path, since: std::time::SystemTime) -> Result<(), String> {
+    let mut outputs = 0;
+    for entry in fs::read_dir(build).map_err(|e| io_error("list", build, e))?.filter_map(Result::ok) {
+        let output = entry.path().join("output");
+        let fresh = fs::metadata(&output).and_then(|m| m.modified()).is_ok_and(|t| t >= since);
+        if !entry.file_name().to_string_lossy().starts_with("aerostrata-c-") || !fresh {
+            continue;
+        }
+        outputs += 1;
+        let text = fs::read_to_string(&output).map_err(|e| io_error("read", &output, e))?;
+        for input in build_script_inputs(&text) {
+            if !inside(Path::new(input), dir) {
+                return Err(format!(
+                    "the C binding's build script reads {input}, outside its .crate ({}): it would fail for \
+                     a user",
+                    output.display()
+                ));
+            }
+        }
+    }
+    if outputs == 0 {
+        return Err(format!("no output of the C binding's build script under {}", build.display()));
+    }
+    eprintln!("  aerostrata-c: its build script declares only files inside the .crate ({outputs} runs)");
+    Ok(())
+}
+
+/// Whether a path a build script declares (relative to its crate, or absolute) lies
+/// inside the crate's folder `dir`.
+fn inside(path: &Path, dir: &Path) -> bool {
+    let escapes = path.components().any(|c| c == std::path::Component::ParentDir);
+    !escapes && (path.is_relative() || path.starts_with(dir))
+}
+
+/// The paths a build script's output declares with `cargo:rerun-if-changed=` (or the
+/// `cargo::` form of Rust 1.77 and later).
+pub fn build_script_inputs(output: &str) -> Vec<&str> {
+    output
+        .lines()
+        .filter_map(|l| {
+            l.strip_prefix("cargo:rerun-if-changed=").or_else(|| l.strip_prefix("cargo::rerun-if-changed="))
+        })
+        .collect()
 }
 
 /// The `cargo doc` arguments and the rustdoc flags of `[package.metadata.docs.rs]`, from
@@ -402,6 +453,19 @@ mod tests {
         // A crate whose name only starts the same keeps its source.
         let other = lock.replace("name = \"aerostrata\"", "name = \"aerostrata-extra\"");
         assert_eq!(lock_with_local_core(&other), other);
+    }
+
+    #[test]
+    fn a_build_script_declares_its_inputs() {
+        // The Cargo book, "Build scripts": both prefixes.
+        let output = "cargo:rustc-cdylib-link-arg=-Wl,-soname,x\ncargo:rerun-if-changed=build\n\
+                      cargo::rerun-if-changed=/abs/file\ncargo:rerun-if-env-changed=CC\n";
+        assert_eq!(build_script_inputs(output), ["build", "/abs/file"]);
+        let dir = Path::new("/tmp/unpacked/aerostrata-c-0.1.0");
+        assert!(inside(Path::new("build"), dir) && inside(&dir.join("build/main.rs"), dir));
+        assert!(!inside(Path::new("../../README.md"), dir));
+        assert!(!inside(Path::new("/work/repo/bindings/c/build"), dir));
+        assert!(!inside(&dir.join("../aerostrata-0.1.0/src/lib.rs"), dir));
     }
 
     #[test]

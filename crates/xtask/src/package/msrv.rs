@@ -47,10 +47,12 @@ pub fn run(root: &Path) -> Result<(), String> {
             .quiet()
             .output()?;
         if !install.success || !have() {
+            // rustup's first error line says why (the rest is its cause chain and backtrace).
+            let stderr = install.stderr_text();
+            let why = stderr.lines().find(|l| l.starts_with("error")).unwrap_or("no error message");
             eprintln!(
                 "SKIPPED: MSRV {version} build: `rustup toolchain install {version} --profile minimal` failed \
-                 (no network?):\n{}",
-                install.last_lines()
+                 (no network?): {why}"
             );
             return Ok(());
         }
