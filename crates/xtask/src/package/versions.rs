@@ -1,7 +1,8 @@
 //! One version everywhere: the crates' (the workspace's `version`), the C header's
 //! `AEROSTRATA_VERSION_*` macros (and cbindgen.toml, which writes them), the npm
 //! package's, the add-in's, the shared library's file names and every dependency line
-//! the documentation shows; and CHANGELOG.md in the Keep a Changelog 1.1.0 shape with
+//! the documentation shows; one `rust-version` in the published crates and the README;
+//! and CHANGELOG.md in the Keep a Changelog 1.1.0 shape with
 //! Semantic Versioning 2.0.0 headings. The checks are functions of the texts, so that a
 //! mismatched copy is tested without touching a file.
 
@@ -98,6 +99,9 @@ pub struct Copies {
     /// Documentation and sources that name the library's files or show a dependency
     /// line: (path, text).
     pub texts: Vec<(String, String)>,
+    /// The published crates' `rust-version`: (package, rust-version or "" when unset).
+    pub rust_versions: Vec<(String, String)>,
+    pub readme: String,
 }
 
 /// The workspace's version: `version` in `[workspace.package]` of the root Cargo.toml.
@@ -171,6 +175,7 @@ pub fn problems(copies: &Copies) -> Result<Vec<String>, String> {
         }
     }
     problems.extend(changelog_problems(&copies.changelog, &version));
+    problems.extend(rust_version_problems(copies));
     Ok(problems)
 }
 
@@ -264,6 +269,39 @@ fn dependency_line_problems(path: &str, text: &str, version: &Version) -> Vec<St
                         version.text
                     ));
                 }
+            }
+        }
+    }
+    problems
+}
+
+/// The published crates declare the workspace's `rust-version`, and the README's
+/// "Minimum supported Rust version" section names it.
+fn rust_version_problems(copies: &Copies) -> Vec<String> {
+    let Some(rust) = toml_string(&copies.workspace_manifest, "workspace.package", "rust-version") else {
+        return vec!["Cargo.toml has no rust-version in [workspace.package]".to_owned()];
+    };
+    let mut problems = Vec::new();
+    for (package, found) in &copies.rust_versions {
+        if *found != rust {
+            problems.push(format!("crate {package} declares rust-version \"{found}\", the workspace {rust}"));
+        }
+    }
+    const HEADING: &str = "## Minimum supported Rust version";
+    match copies.readme.split_once(HEADING) {
+        None => problems.push(format!("README.md has no `{HEADING}` section")),
+        Some((_, rest)) => {
+            let section = rest.split("\n## ").next().unwrap_or(rest);
+            let named = section.split("Rust ").skip(1).filter_map(|t| {
+                let end = t.find(|c: char| !c.is_ascii_digit() && c != '.').unwrap_or(t.len());
+                Some(t[..end].trim_end_matches('.')).filter(|v| !v.is_empty())
+            });
+            let named: Vec<&str> = named.collect();
+            if named.is_empty() || named.iter().any(|v| *v != rust) {
+                problems.push(format!(
+                    "README.md's `{HEADING}` names Rust {}, the crates' rust-version is {rust}",
+                    if named.is_empty() { "no version".to_owned() } else { named.join(", ") }
+                ));
             }
         }
     }
@@ -424,9 +462,14 @@ fn gather(root: &Path) -> Result<Copies, String> {
         serde_json::from_str(&metadata).map_err(|e| format!("cargo metadata gave no JSON: {e}"))?;
     let mut members = Vec::new();
     let mut core_requirements = Vec::new();
+    let mut rust_versions = Vec::new();
     for package in metadata["packages"].as_array().into_iter().flatten() {
         let name = package["name"].as_str().unwrap_or_default().to_owned();
         members.push((name.clone(), package["version"].as_str().unwrap_or_default().to_owned()));
+        if crate::package::crates::CRATES.iter().any(|c| c.name == name) {
+            let rust = package["rust_version"].as_str().unwrap_or_default().to_owned();
+            rust_versions.push((name.clone(), rust));
+        }
         for dependency in package["dependencies"].as_array().into_iter().flatten() {
             if dependency["name"] == "aerostrata" {
                 core_requirements
@@ -450,6 +493,8 @@ fn gather(root: &Path) -> Result<Copies, String> {
         addin_description: read("addin/description.xml")?,
         changelog: read("CHANGELOG.md")?,
         texts,
+        rust_versions,
+        readme: read("README.md")?,
     })
 }
 
@@ -483,11 +528,13 @@ pub fn run(root: &Path) -> Result<(), String> {
     if problems.is_empty() {
         eprintln!(
             "  versions in step: {} in {} crates, the C header, cbindgen.toml, package.json and the \
-             add-in; SONAME {}; {} files scanned; CHANGELOG.md in shape",
+             add-in; SONAME {}; {} files scanned; CHANGELOG.md in shape; rust-version {} in the published \
+             crates and the README",
             version.text,
             copies.members.len(),
             version.soname(),
-            copies.texts.len()
+            copies.texts.len(),
+            toml_string(&copies.workspace_manifest, "workspace.package", "rust-version").unwrap_or_default()
         );
         Ok(())
     } else {

@@ -20,7 +20,8 @@ fn copies(version: &str) -> Copies {
     );
     Copies {
         workspace_manifest: format!(
-            "[workspace]\nresolver = \"2\"\n\n[workspace.package]\nversion = \"{version}\"\nedition = \"2021\"\n"
+            "[workspace]\nresolver = \"2\"\n\n[workspace.package]\nversion = \"{version}\"\nedition = \"2021\"\n\
+             rust-version = \"1.85\"\n"
         ),
         members: vec![("aerostrata".into(), version.into()), ("aerostrata-cli".into(), version.into())],
         core_requirements: vec![("aerostrata-cli".into(), format!("^{version}"))],
@@ -36,6 +37,9 @@ fn copies(version: &str) -> Copies {
             ),
             ("README.md".into(), format!("`aerostrata = {{ version = \"{major}.{minor}\" }}`\n")),
         ],
+        rust_versions: vec![("aerostrata".into(), "1.85".into()), ("aerostrata-cli".into(), "1.85".into())],
+        readme: "# x\n\n## Minimum supported Rust version\n\nBuilds with Rust 1.85 and later.\n\n## Next\n\nRust 1.99.\n"
+            .into(),
     }
 }
 
@@ -202,4 +206,17 @@ fn the_workspace_version_is_read_from_its_section() {
     assert_eq!(workspace_version(manifest).unwrap().text, "0.1.0");
     assert!(workspace_version("[workspace]\nmembers = []\n").unwrap_err().contains("[workspace.package]"));
     assert_eq!(toml_string(manifest, "package", "version").as_deref(), Some("9.9.9"));
+}
+
+#[test]
+fn the_rust_version_is_one_in_manifests_and_readme() {
+    let mut c = copies("0.1.0");
+    c.rust_versions[1].1 = "1.88".into();
+    refused(&c, &["aerostrata-cli", "1.88", "1.85"]);
+    let mut c = copies("0.1.0");
+    c.readme = c.readme.replace("Rust 1.85 and", "Rust 1.80 and");
+    refused(&c, &["README.md", "names Rust 1.80", "1.85"]);
+    let mut c = copies("0.1.0");
+    c.readme = c.readme.replace("## Minimum supported Rust version", "## Toolchains");
+    refused(&c, &["README.md has no `## Minimum supported Rust version`"]);
 }
