@@ -35,7 +35,8 @@
 //!                               under libFuzzer where nightly and cargo-fuzz can be had
 //! cargo xtask package [--check] the core, the CLI and the C binding as .crate files; --check
 //!                               builds, tests and documents each from its unpacked form
-//! cargo xtask msrv              the core and the CLI built with the declared rust-version
+//! cargo xtask msrv              the core, the CLI and the C binding built with the declared
+//!                               rust-version (SKIPPED when rustup cannot download it)
 //! cargo xtask versions          one version in the crates, C header, npm package, add-in and
 //!                               docs; CHANGELOG.md in the Keep a Changelog shape
 //! ```

@@ -14,6 +14,7 @@ use std::time::Instant;
 use crate::io_error;
 use crate::package::versions::{workspace_version, Version};
 use crate::process::Cmd;
+use crate::scratch::Scratch;
 
 /// A crate that is published, and how its .crate is checked.
 #[derive(Debug)]
@@ -78,12 +79,15 @@ pub fn run(root: &Path, check: bool) -> Result<(), String> {
     if !check {
         return Ok(());
     }
-    let scratch = Scratch::new()?;
+    let scratch = Scratch::new(root, "crates")?;
     let mut dirs = Vec::new();
     for (krate, file) in CRATES.iter().zip(&files) {
-        let place = scratch.path.to_string_lossy();
-        Cmd::new("tar").args(["-xzf"]).arg(file).args(["-C", &place]).quiet().run()?;
-        let dir = scratch.path.join(format!("{}-{}", krate.name, version.text));
+        let place = scratch.path().to_string_lossy();
+        // -m: the files dated now. cargo packs every file dated 2006-07-24 (for
+        // reproducible .crate files), so with those dates a rebuild in the shared target
+        // directory would find last run's outputs newer than the sources and keep them.
+        Cmd::new("tar").args(["-xzmf"]).arg(file).args(["-C", &place]).quiet().run()?;
+        let dir = scratch.path().join(format!("{}-{}", krate.name, version.text));
         inspect(&dir)?;
         dirs.push(dir);
     }
@@ -150,6 +154,14 @@ fn inspect(dir: &Path) -> Result<(), String> {
     let mut files = Vec::new();
     walk(dir, &mut files)?;
     for file in files {
+        let source = fs::read_to_string(&file).unwrap_or_default();
+        if file.extension().is_some_and(|e| e == "rs") && reaches_out(&source) {
+            return Err(format!(
+                "{} reads the repository (a path through ../..), which a user of the .crate does not have: \
+                 exclude it in the crate's Cargo.toml or give it its data inside the crate",
+                file.display()
+            ));
+        }
         let bytes = fs::metadata(&file).map_err(|e| io_error("read", &file, e))?.len();
         if bytes > LARGEST_FILE_BYTES {
             return Err(format!(
@@ -162,6 +174,15 @@ fn inspect(dir: &Path) -> Result<(), String> {
         }
     }
     Ok(())
+}
+
+/// Whether Rust source names a path that climbs out of its crate to the repository's
+/// folders (`"../../examples/..."`, `.join("../..")`), outside comments.
+fn reaches_out(source: &str) -> bool {
+    source
+        .lines()
+        .map(|l| l.split("//").next().unwrap_or(l))
+        .any(|code| code.contains("\"../../") || code.contains("\"/../../") || code.contains("(\"../..\")"))
 }
 
 /// Every file under `dir`, sorted.
@@ -409,29 +430,6 @@ fn check_soname(library: &Path, version: &Version) -> Result<(), String> {
     }
 }
 
-/// A fresh folder under the system's temporary directory, removed when dropped.
-struct Scratch {
-    path: PathBuf,
-}
-
-impl Scratch {
-    fn new() -> Result<Self, String> {
-        let nanos = std::time::SystemTime::now()
-            .duration_since(std::time::UNIX_EPOCH)
-            .map(|d| d.subsec_nanos())
-            .unwrap_or_default();
-        let path = std::env::temp_dir().join(format!("aerostrata-package-{}-{nanos}", std::process::id()));
-        fs::create_dir(&path).map_err(|e| io_error("create", &path, e))?;
-        Ok(Self { path })
-    }
-}
-
-impl Drop for Scratch {
-    fn drop(&mut self) {
-        let _ = fs::remove_dir_all(&self.path);
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -469,6 +467,17 @@ mod tests {
     }
 
     #[test]
+    fn a_source_that_reaches_into_the_repository_is_found() {
+        // Lines from this workspace's CLI tests and core (common practice, no source).
+        assert!(reaches_out(r#"let p = concat!(env!("CARGO_MANIFEST_DIR"), "/../../examples/data/x.csv");"#));
+        assert!(reaches_out(r#"let root = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../..");"#));
+        assert!(reaches_out(r#"#[doc = include_str!("../../../README.md")]"#));
+        assert!(!reaches_out(r#"let config = include_str!("../cbindgen.toml");"#));
+        assert!(!reaches_out("// as in ../../tests/vectors/usa76_lower.csv\nlet x = 1;"));
+        assert!(!reaches_out(r#"symlink("sub/../sub/new.csv", dir.join("hop.csv"))"#));
+    }
+
+    #[test]
     fn docs_rs_metadata_becomes_cargo_doc_arguments() {
         // docs.rs's documented keys (docs.rs/about/metadata): all-features,
         // no-default-features, features, rustdoc-args.
@@ -486,8 +495,8 @@ mod tests {
 
     #[test]
     fn the_fingerprint_follows_content_not_the_commit() {
-        let scratch = Scratch::new().unwrap();
-        let tree = scratch.path.join("crate-0.1.0");
+        let scratch = Scratch::new(Path::new(env!("CARGO_MANIFEST_DIR")), "unit").unwrap();
+        let tree = scratch.path().join("crate-0.1.0");
         fs::create_dir_all(tree.join("src")).unwrap();
         fs::write(tree.join("src/lib.rs"), "pub fn f() {}\n").unwrap();
         fs::write(tree.join(".cargo_vcs_info.json"), "{\"sha1\": \"1\"}").unwrap();
@@ -497,8 +506,5 @@ mod tests {
         assert_ne!(fingerprint(&[&tree], "other").unwrap(), first);
         fs::write(tree.join("src/lib.rs"), "pub fn g() {}\n").unwrap();
         assert_ne!(fingerprint(&[&tree], "salt").unwrap(), first);
-        let path = scratch.path.clone();
-        drop(scratch);
-        assert!(!path.exists(), "the scratch folder is removed");
     }
 }
