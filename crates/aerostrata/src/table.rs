@@ -192,7 +192,9 @@ impl Header {
 
     /// Where `quantity` is, if a column names it.
     pub fn position(&self, quantity: Quantity) -> Option<usize> {
-        self.columns.iter().position(|c| c.is_some_and(|c| c.quantity == quantity))
+        // Only the line's columns (a reader asks for every row: not all MAX_COLUMNS slots).
+        let columns = self.columns.get(..self.count).unwrap_or(&self.columns);
+        columns.iter().position(|c| c.is_some_and(|c| c.quantity == quantity))
     }
 
     /// The indexes of the columns the reader does not take, for a warning.
