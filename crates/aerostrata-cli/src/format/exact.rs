@@ -21,15 +21,15 @@ pub fn write_exact(out: &mut Vec<u8>, value: f64) {
     if value < 0.0 {
         out.push(b'-');
     }
-    // A whole number is its integer's digits in std's text (no `.0`).
-    let whole = magnitude as u64;
-    if whole as f64 == magnitude {
-        out.extend_from_slice(itoa::Buffer::new().format(whole).as_bytes());
+    let twos = Twos::of(magnitude);
+    if twos.v >= 0 {
+        // A whole number is its integer's digits in std's text (no `.0`).
+        out.extend_from_slice(itoa::Buffer::new().format(magnitude as u64).as_bytes());
         return;
     }
     let mut buffer = zmij::Buffer::new();
     let text = buffer.format_finite(magnitude).as_bytes();
-    if may_tie(magnitude, text) {
+    if twos.may_tie(text) {
         return write_digits(out, magnitude, text, true);
     }
     // zmij writes 1e-5 to 1e16 plainly, as std does, and a fraction never ends in `.0`.
@@ -50,33 +50,42 @@ fn write_outside(out: &mut Vec<u8>, value: f64) {
     }
     let mut buffer = zmij::Buffer::new();
     let text = buffer.format_finite(magnitude).as_bytes();
-    if may_tie(magnitude, text) {
+    if Twos::of(magnitude).may_tie(text) {
         return write_digits(out, magnitude, text, false);
     }
     exponent_form(out, text);
 }
 
-/// Whether zmij's `text` of positive `value` may be a tie between two shortest candidates
-/// (see [`is_midpoint`]); most values cannot be, which their bits show. A tie needs 16 or
-/// 17 digits (shorter candidates are too far apart to both read back), and the midpoint
-/// DIGITS5 x 10^j is an odd number times 10^j, so that value = odd x 2^j: j is the value's
-/// count of factors 2, v, and j = E - digits with E its decimal exponent. E lies within
-/// the decimal exponents of 2^(q+52) and 2^(q+53) that bound the value; one more each
-/// way for safety.
-fn may_tie(value: f64, text: &[u8]) -> bool {
-    let bits = value.to_bits();
-    let exponent_bits = ((bits >> 52) & 0x7ff) as i32;
-    if text.len() <= 16 || exponent_bits == 0 {
-        // Fewer than 16 digits; or a subnormal, far below any tie (j >= -25).
-        return false;
+/// A positive, finite value as odd x 2^v, read from its bits, with the q of its
+/// significand m x 2^q (m of 53 bits); `normal` is false for a subnormal.
+struct Twos {
+    v: i32,
+    q: i32,
+    normal: bool,
+}
+
+impl Twos {
+    fn of(value: f64) -> Self {
+        let bits = value.to_bits();
+        let exponent_bits = ((bits >> 52) & 0x7ff) as i32;
+        let significand = (bits & ((1 << 52) - 1)) | 1 << 52;
+        let q = exponent_bits - 1075;
+        Twos { v: q + significand.trailing_zeros() as i32, q, normal: exponent_bits != 0 }
     }
-    let significand = (bits & ((1 << 52) - 1)) | 1 << 52;
-    let q = exponent_bits - 1075;
-    let v = q + significand.trailing_zeros() as i32;
-    // floor(n log10 2) as (n 78913) >> 18, exact for |n| < 1650 (from memory of Ryu's
-    // log10Pow2).
-    let (e_low, e_high) = (((q + 52) * 78_913) >> 18, ((q + 53) * 78_913) >> 18);
-    (e_low - 18..=e_high - 15).contains(&v)
+
+    /// Whether zmij's `text` of the value may be a tie between two shortest candidates
+    /// (see [`is_midpoint`]); most values cannot be, which their bits show. A tie needs 16
+    /// or 17 digits (shorter candidates are too far apart to both read back), and the
+    /// midpoint DIGITS5 x 10^j is an odd number times 10^j, so that value = odd x 2^j: j
+    /// is v, and j = E - digits with E the decimal exponent. E lies within the decimal
+    /// exponents of 2^(q+52) and 2^(q+53) that bound the value; one more each way for
+    /// safety. A subnormal is far below any tie (j >= -25).
+    fn may_tie(&self, text: &[u8]) -> bool {
+        // floor(n log10 2) as (n 78913) >> 18, exact for |n| < 1650 (from memory of Ryu's
+        // log10Pow2).
+        let (e_low, e_high) = (((self.q + 52) * 78_913) >> 18, ((self.q + 53) * 78_913) >> 18);
+        text.len() > 16 && self.normal && (e_low - 18..=e_high - 15).contains(&self.v)
+    }
 }
 
 /// zmij's text of a magnitude below 1e-3 or from 1e7 (`0.0000123`, `12345678.9`,
