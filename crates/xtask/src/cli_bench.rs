@@ -9,7 +9,9 @@
 //! turns for [`RUNS`] rounds in one run of the command, so that all see the same machine;
 //! the section of docs/performance.md between its markers gives the median and the
 //! fastest round of each, rows per second and the ratios, with the load before and
-//! after. No figure is asserted (the machine is shared), as the project's benchmarks do.
+//! after; and, where valgrind is installed, the instructions a row of each command over
+//! the first [`COUNTED_ROWS`] rows (callgrind), a figure that a loaded machine does not
+//! change. No figure is asserted (the machine is shared), as the project's benchmarks do.
 
 use std::fmt::Write as _;
 use std::fs::{self, File};
@@ -29,6 +31,8 @@ use crate::{io_error, target_dir};
 
 const ROWS: usize = 1_000_000;
 const RUNS: usize = 5;
+/// Rows of the instruction count (callgrind runs some fifty times slower).
+const COUNTED_ROWS: usize = 100_000;
 const REPORT: &str = "docs/performance.md";
 
 /// The invented samples of the streaming test: one a millisecond, 0 to 80 km again and
@@ -89,6 +93,22 @@ pub fn run(root: &Path) -> Result<(), String> {
         .args(["build", "--quiet", "-p", "xtask", "--config", "profile.dev.package.aerostrata.opt-level=3"])
         .dir(root)
         .run()?;
+    let counted = [(&altitudes, "altitudes-100k.txt"), (&flight, "flight-100k.csv")].map(|(whole, name)| {
+        let path = dir.join(name);
+        (whole.clone(), path)
+    });
+    for (whole, part) in &counted {
+        let text = fs::read_to_string(whole).map_err(|e| io_error("read", whole, e))?;
+        let lines: String = text.split_inclusive('\n').take(COUNTED_ROWS).collect();
+        fs::write(part, lines).map_err(|e| io_error("write", part, e))?;
+    }
+    let instructions = [
+        instructions_per_row(&exe, &["eval".as_ref(), counted[0].1.as_os_str()]),
+        instructions_per_row(
+            &exe,
+            &["flight".as_ref(), counted[1].1.as_os_str(), "--summary".as_ref(), "none".as_ref()],
+        ),
+    ];
     let load_before = load_average();
     // cat altitudes, eval, core batch, core states, cat flight, flight, core scan.
     let mut times: [Times; 7] = Default::default();
@@ -153,17 +173,28 @@ pub fn run(root: &Path) -> Result<(), String> {
         let (median, fastest) = (side.median(), side.fastest());
         let _ = writeln!(
             text,
-            "| {name} | {median:.3} | {fastest:.3} | {} | {} | {:.1} | {:.1} |",
+            "| {name} | {median:.3} | {fastest:.3} | {} | {} | {} | {} |",
             rate(median),
             rate(fastest),
-            median / cat,
-            median / core
+            ratio(median / cat),
+            ratio(median / core)
         );
     }
+    let counted_text = |count: &Option<u64>| {
+        count.map_or_else(|| "not counted (no valgrind)".to_owned(), |n| format!("{n} instructions a row"))
+    };
     let _ = writeln!(
         text,
-        "\nThe core column divides by the core's batch for `eval` (by the scan for `flight`). Every round's \
-         seconds: {}.\n",
+        "\nInstructions (valgrind's callgrind, the first {COUNTED_ROWS} rows, the whole run divided by the \
+         rows; a count that other work on the machine does not change): `aerostrata eval` {}, `aerostrata \
+         flight --summary none` {}.",
+        counted_text(&instructions[0]),
+        counted_text(&instructions[1])
+    );
+    let _ = writeln!(
+        text,
+        "\nThe core column divides by the core's batch for `eval` (by the scan for `flight`); `cat` reads the \
+         file (its writes to /dev/null cost nothing), the floor of any reader. Every round's seconds: {}.\n",
         names
             .iter()
             .zip(&times)
@@ -228,6 +259,37 @@ pub fn core(args: &[String]) -> Result<(), String> {
     println!("{batch} {states} {scanned}");
     eprintln!("checksum {sum}");
     Ok(())
+}
+
+/// A ratio with two significant digits at least (a small one is not written as 0.0).
+fn ratio(x: f64) -> String {
+    if x >= 10.0 {
+        format!("{x:.0}")
+    } else if x >= 0.1 {
+        format!("{x:.2}")
+    } else {
+        format!("{x:.4}")
+    }
+}
+
+/// Instructions a row of `exe args` under callgrind (the whole run over [`COUNTED_ROWS`]),
+/// or `None` when valgrind is missing or fails.
+fn instructions_per_row(exe: &Path, args: &[&std::ffi::OsStr]) -> Option<u64> {
+    let output = Command::new("valgrind")
+        .args(["--tool=callgrind", "--callgrind-out-file=/dev/null"])
+        .arg(exe)
+        .args(args)
+        .stdout(Stdio::null())
+        .output()
+        .ok()?;
+    if !output.status.success() {
+        return None;
+    }
+    // `==PID== Collected : 815878373`
+    let text = String::from_utf8_lossy(&output.stderr);
+    let line = text.lines().find(|l| l.contains("Collected :"))?;
+    let total: u64 = line.rsplit(':').next()?.trim().parse().ok()?;
+    Some(total / COUNTED_ROWS as u64)
 }
 
 /// `ROWS` lines written by `line` into `path`.
