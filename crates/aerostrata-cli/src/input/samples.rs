@@ -143,9 +143,6 @@ fn kind_of(header: &Header) -> Result<Kind, String> {
 pub struct SampleReader<R> {
     table: TableReader<R>,
     kind: Option<Kind>,
-    /// The column of each of [`ACCEPTED`], once the header is known (looked up once, not
-    /// for every sample).
-    positions: Option<[Option<usize>; ACCEPTED.len()]>,
 }
 
 impl<R: BufRead> SampleReader<R> {
@@ -157,11 +154,7 @@ impl<R: BufRead> SampleReader<R> {
             implicit: &IMPLICIT,
             check: Box::new(|header| kind_of(header).map(|_| ())),
         };
-        SampleReader {
-            table: TableReader::new(input, source, columns, Some(units)),
-            kind: None,
-            positions: None,
-        }
+        SampleReader { table: TableReader::new(input, source, columns, Some(units)), kind: None }
     }
 
     /// The table underneath, for messages about the last line.
@@ -187,8 +180,7 @@ impl<R: BufRead> SampleReader<R> {
     pub fn next_sample(&mut self) -> Result<Option<FlightSample>, Failure> {
         let altitude_quantity = self.altitude_quantity();
         let Some(row) = self.table.next_row()? else { return Ok(None) };
-        let positions = *self.positions.get_or_insert_with(|| ACCEPTED.map(|q| row.header().position(q)));
-        let values = positions.map(|p| p.and_then(|i| row.at(i)));
+        let values = ACCEPTED.map(|q| row.get(q));
         let kind = match self.kind {
             Some(kind) => kind,
             None => {
@@ -237,11 +229,6 @@ impl<R: BufRead> SampleReader<R> {
 
     /// The altitude's quantity in this file (`altitude` or `geometric_altitude`).
     pub fn altitude_quantity(&self) -> Quantity {
-        if let Some(positions) = &self.positions {
-            let geometric =
-                ACCEPTED.iter().zip(positions).any(|(q, p)| *q == Quantity::GeometricAltitude && p.is_some());
-            return if geometric { Quantity::GeometricAltitude } else { Quantity::Altitude };
-        }
         match self.table.header() {
             Some(h) if h.position(Quantity::GeometricAltitude).is_some() => Quantity::GeometricAltitude,
             _ => Quantity::Altitude,

@@ -239,21 +239,10 @@ pub struct Row<'a> {
     values: &'a [Option<f64>],
 }
 
-impl<'a> Row<'a> {
+impl Row<'_> {
     /// The value of `quantity`, SI; `None` for an empty cell or a quantity the table lacks.
     pub fn get(&self, quantity: Quantity) -> Option<f64> {
-        self.header.position(quantity).and_then(|i| self.at(i))
-    }
-
-    /// The value in column `index` (a position the header gave), SI; `None` for an empty
-    /// cell or a column the reader does not take.
-    pub fn at(&self, index: usize) -> Option<f64> {
-        self.values.get(index).copied().flatten()
-    }
-
-    /// The table's header.
-    pub fn header(&self) -> &'a Header {
-        self.header
+        self.header.position(quantity).and_then(|i| self.values.get(i).copied().flatten())
     }
 }
 
