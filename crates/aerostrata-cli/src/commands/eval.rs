@@ -15,7 +15,7 @@ use crate::input::lines::{open_input, source_name};
 use crate::input::progress::When;
 use crate::input::table::{needs, Columns, TableReader};
 use crate::output::rows::{Format, RowWriter};
-use crate::output::state::{state_columns, state_values_into};
+use crate::output::state::{state_columns, StateUnits};
 
 #[derive(Args)]
 #[command(after_help = "Examples:\n  printf '0\\n11000\\n' | aerostrata eval --offset -10K\n  \
@@ -86,6 +86,7 @@ pub fn run(args: &EvalArgs) -> Result<(), Failure> {
     let mut writer = RowWriter::new(destination, args.format, state_columns(units, args.species))?;
     let range = model.atmosphere.range();
     let mut values = Vec::new();
+    let state_units = StateUnits::new(units);
     let mut write_rows = || -> Result<(), Failure> {
         while let Some(row) = reader.next_row()? {
             let (quantity, value) = ALTITUDES
@@ -98,7 +99,7 @@ pub fn run(args: &EvalArgs) -> Result<(), Failure> {
                 .and_then(|a| model.atmosphere.state(a).map_err(|e| e.to_string()))
                 .map_err(|m| reader.at_cell(quantity, m))?;
             let species = if args.species { species_at(&state) } else { None };
-            state_values_into(&mut values, &state, units, args.species.then_some(species.as_ref()));
+            state_units.values_into(&mut values, &state, args.species.then_some(species.as_ref()));
             writer.row(&values)?;
         }
         Ok(())

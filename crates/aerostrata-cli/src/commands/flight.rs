@@ -10,7 +10,7 @@ use std::io::{self, BufRead, Write};
 use std::path::PathBuf;
 
 use aerostrata::flight::{BoundaryLayer, FlightPoint, FlightScan, PLATEAU_FRACTION};
-use aerostrata::units::Plausible;
+use aerostrata::units::{Plausible, Unit};
 use aerostrata::{AltitudeRange, AnyModel, Quantity};
 use clap::{Args, ValueEnum};
 
@@ -318,7 +318,10 @@ impl Flight<'_, '_> {
     ) -> Result<(), Failure> {
         let several = self.models.len() > 1;
         let mut next = first;
+        // Each column's unit, looked up once.
+        let units: Vec<&Unit> = self.quantities.iter().map(|q| self.units.unit(*q)).collect();
         let mut values = Vec::with_capacity(self.quantities.len());
+        let mut cells = Vec::with_capacity(self.quantities.len() + 1);
         while let Some(sample) = next {
             let altitude = reader.altitude_quantity();
             let table = reader.table();
@@ -346,12 +349,17 @@ impl Flight<'_, '_> {
                 values.extend(
                     self.quantities
                         .iter()
-                        .map(|q| Cell::Number(point.get(*q).ok().map(|v| self.units.from_si(*q, v) + 0.0))),
+                        .zip(&units)
+                        .map(|(q, unit)| point.get(*q).ok().map(|v| unit.from_si(v) + 0.0)),
                 );
                 if several {
-                    values.insert(0, Cell::Text(&model.label));
+                    cells.clear();
+                    cells.push(Cell::Text(&model.label));
+                    cells.extend(values.iter().map(|v| Cell::Number(*v)));
+                    writer.cells(&cells)?;
+                } else {
+                    writer.row(&values)?;
                 }
-                writer.cells(&values)?;
             }
             next = reader.next_sample()?;
         }

@@ -50,7 +50,10 @@ impl Destination {
     /// created.
     pub fn open(path: Option<&Path>) -> Result<Self, Failure> {
         let Some(path) = path else {
-            return Ok(Destination { writer: BufWriter::new(Box::new(io::stdout().lock())), file: None });
+            // 64 KiB as for a file: a million rows of CSV are some 360 MB, written in eight
+            // times fewer system calls than through the default 8 KiB.
+            let writer = BufWriter::with_capacity(1 << 16, Box::new(io::stdout().lock()) as Box<dyn Write>);
+            return Ok(Destination { writer, file: None });
         };
         let cannot = |why: &dyn std::fmt::Display| {
             Failure::Input(format!("--output: cannot create {}: {why}", path.display()))

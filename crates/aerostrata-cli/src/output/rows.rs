@@ -208,7 +208,24 @@ impl<W: Write> RowWriter<W> {
     /// Writing fails.
     pub fn row(&mut self, values: &[Option<f64>]) -> io::Result<()> {
         match self.format {
-            Format::Csv | Format::Json => self.data_line(values.iter().map(|v| Cell::Number(*v))),
+            Format::Csv => {
+                // The format of the largest outputs: numbers straight into the line.
+                let line = &mut self.line;
+                line.clear();
+                for (i, value) in values.iter().enumerate() {
+                    if i > 0 {
+                        line.push(b',');
+                    }
+                    if let Some(value) = value {
+                        write_exact(line, *value);
+                    }
+                }
+                line.push(b'\n');
+                self.out.write_all(line)?;
+                self.rows += 1;
+                Ok(())
+            }
+            Format::Json => self.data_line(values.iter().map(|v| Cell::Number(*v))),
             Format::Table | Format::Markdown => {
                 let cells: Vec<Cell> = values.iter().map(|v| Cell::Number(*v)).collect();
                 self.cells(&cells)

@@ -4,6 +4,7 @@
 
 use aerostrata::model::upper::Species;
 use aerostrata::quantity::Group;
+use aerostrata::units::Unit;
 use aerostrata::{Quantity, State};
 
 use crate::output::rows::Column;
@@ -24,25 +25,44 @@ pub fn state_columns(units: UnitSystem, species: bool) -> Vec<Column> {
 /// viscosities above 86 km).
 pub fn state_values(state: &State, units: UnitSystem, species: Option<Option<&Species>>) -> Vec<Option<f64>> {
     let mut values = Vec::new();
-    state_values_into(&mut values, state, units, species);
+    StateUnits::new(units).values_into(&mut values, state, species);
     values
 }
 
-/// [`state_values`] into `values` (cleared first): a streaming command reuses one buffer.
-pub fn state_values_into(
-    values: &mut Vec<Option<f64>>,
-    state: &State,
-    units: UnitSystem,
-    species: Option<Option<&Species>>,
-) {
-    values.clear();
-    values.extend(Quantity::of_group(Group::State).map(|q| state.get(q).ok().map(|v| units.from_si(q, v))));
-    if let Some(species) = species {
-        // The core gives the species as an array in the catalogue's order (a test checks
-        // it): it has no `get` of its own.
-        let densities = species.map(Species::as_array);
-        let quantities = Quantity::of_group(Group::Species).enumerate();
-        values.extend(quantities.map(|(i, q)| densities.map(|n| units.from_si(q, n[i]))));
+/// The state's quantities (and the species') with the unit each is written in, looked up
+/// once for a stream of rows rather than for every value.
+pub struct StateUnits {
+    state: Vec<(Quantity, &'static Unit)>,
+    species: Vec<(Quantity, &'static Unit)>,
+}
+
+impl StateUnits {
+    /// The units of `units` for every state and species quantity.
+    pub fn new(units: UnitSystem) -> Self {
+        let with_unit = |q: Quantity| (q, units.unit(q));
+        StateUnits {
+            state: Quantity::of_group(Group::State).map(with_unit).collect(),
+            species: Quantity::of_group(Group::Species).map(with_unit).collect(),
+        }
+    }
+
+    /// [`state_values`] into `values` (cleared first): a streaming command reuses one
+    /// buffer.
+    pub fn values_into(
+        &self,
+        values: &mut Vec<Option<f64>>,
+        state: &State,
+        species: Option<Option<&Species>>,
+    ) {
+        values.clear();
+        values.extend(self.state.iter().map(|(q, unit)| state.get(*q).ok().map(|v| unit.from_si(v))));
+        if let Some(species) = species {
+            // The core gives the species as an array in the catalogue's order (a test checks
+            // it): it has no `get` of its own.
+            let densities = species.map(Species::as_array);
+            let units = self.species.iter().enumerate();
+            values.extend(units.map(|(i, (_, unit))| densities.map(|n| unit.from_si(n[i]))));
+        }
     }
 }
 

@@ -245,6 +245,34 @@ pub fn parse<'a>(
     dimension: Dimension,
     default: &'static Unit,
 ) -> Result<Reading, UnitError<'a>> {
+    match plain_number(text) {
+        Some(value) => Ok(Reading { value, unit: default, explicit: false }),
+        None => parse_in_full(text, dimension, default),
+    }
+}
+
+/// The value of `text` when it is nothing but a finite decimal number (`-12.5`, `3e4`,
+/// `.5`, `7.`): the cell of a table in its column's unit, read for every row, so without
+/// the trimming and the search for a unit that [`parse_in_full`] does. The same value:
+/// `str::parse` accepts exactly [`number_length`]'s numbers plus `inf`, `infinity` and
+/// `nan` (Rust's `f64::from_str` grammar), which end in a letter and are left out here,
+/// and a number not finite goes the full way to its error.
+fn plain_number(text: &str) -> Option<f64> {
+    let bytes = text.as_bytes();
+    let starts = matches!(bytes.first(), Some(b'0'..=b'9' | b'.' | b'+' | b'-'));
+    let ends = matches!(bytes.last(), Some(b'0'..=b'9' | b'.'));
+    if !(starts && ends) {
+        return None;
+    }
+    text.parse::<f64>().ok().filter(|value| value.is_finite())
+}
+
+/// [`parse`] the full way: trimmed, the number's extent found, a unit after it looked up.
+fn parse_in_full<'a>(
+    text: &'a str,
+    dimension: Dimension,
+    default: &'static Unit,
+) -> Result<Reading, UnitError<'a>> {
     let text = text.trim();
     if text.is_empty() {
         return Err(UnitError::Empty);
@@ -277,3 +305,106 @@ pub fn parse<'a>(
 }
 
 impl core::error::Error for UnitError<'_> {}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::units::{FOOT, METRE};
+    use proptest::prelude::*;
+
+    /// The fast path and the full way agree on every text, value and error alike; and
+    /// where `str::parse` reads a finite number from a text of digits, signs, points and
+    /// exponents, `parse` reads the same bits (common practice, no source: Rust's float
+    /// parser is correctly rounded, and the fast path must not change a result).
+    fn agrees(text: &str) {
+        let fast = parse(text, Dimension::Length, &FOOT);
+        let full = parse_in_full(text, Dimension::Length, &FOOT);
+        match (fast, full) {
+            (Ok(a), Ok(b)) => {
+                assert_eq!(a.value.to_bits(), b.value.to_bits(), "{text:?}");
+                assert_eq!((a.unit, a.explicit), (b.unit, b.explicit), "{text:?}");
+            }
+            (a, b) => assert_eq!(a, b, "{text:?}"),
+        }
+        if let Ok(value) = text.parse::<f64>() {
+            if value.is_finite() && text.bytes().all(|b| b"0123456789+-.eE".contains(&b)) {
+                let read = parse(text, Dimension::Length, &METRE).unwrap();
+                assert_eq!(read.value.to_bits(), value.to_bits(), "{text:?}");
+            }
+        }
+    }
+
+    #[test]
+    fn the_fast_path_reads_what_the_full_way_reads() {
+        for text in [
+            "0",
+            "-0",
+            "+0",
+            "12",
+            "-12.5",
+            "3e4",
+            "3E-4",
+            ".5",
+            "7.",
+            "+.5",
+            "-.5e+3",
+            "1e308",
+            "1e309",
+            "-1e309",
+            "1e-400",
+            "4.9e-324",
+            "2.2250738585072011e-308",
+            "9007199254740993",
+            "0.1000000000000000055511151231257827",
+            "1.7976931348623157e308",
+            "inf",
+            "-inf",
+            "NaN",
+            "infinity",
+            "+nan",
+            ".",
+            "-",
+            "+",
+            "e5",
+            "1e",
+            "1e+",
+            "1.2.3",
+            "1..2",
+            "--1",
+            "1-",
+            " 12",
+            "12 ",
+            "12ft",
+            "12 ft",
+            "1,5",
+            "1_000",
+            "0x10",
+            "١٢",
+            "",
+        ] {
+            agrees(text);
+        }
+    }
+
+    proptest! {
+        #[test]
+        fn the_fast_path_agrees_on_number_like_text(text in "[-+]?[0-9]{0,20}[.]?[0-9]{0,20}([eE][-+]?[0-9]{1,4})?") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn the_fast_path_agrees_on_any_short_text(text in "[-+.eE0-9 a-z,]{0,12}") {
+            agrees(&text);
+        }
+
+        #[test]
+        fn every_finite_f64_written_by_std_reads_back(bits in any::<u64>()) {
+            let value = f64::from_bits(bits);
+            prop_assume!(value.is_finite());
+            for text in [format!("{value}"), format!("{value:e}"), format!("{value:E}")] {
+                agrees(&text);
+                prop_assert_eq!(parse(&text, Dimension::Length, &METRE).unwrap().value.to_bits(), bits);
+            }
+        }
+    }
+}
