@@ -244,6 +244,9 @@ function pasted() {
   const text = $("flight-csv").value;
   source = text.trim() === "" ? null : { text };
   $("flight-file").value = "";
+  // The answer to older input must not come in while this waits to be sent, standing as
+  // the answer to what was typed.
+  if (runner.busy) runner.restart();
   status("busy", "");
   clearTimeout(typing);
   typing = setTimeout(requestFlight, 150);
