@@ -62,6 +62,16 @@ pub(crate) fn load_error(error: &aerostrata::model::sounding_io::LoadError) -> S
     out
 }
 
+/// The reader's options of a table whose headings without a unit read in SI, or in US
+/// units when `defaultUnits` is `"us"`.
+pub(crate) fn table_options(units: &JsValue) -> Result<aerostrata::model::sounding_io::Options, JsValue> {
+    let us = crate::args::choice("defaultUnits", units, "si,us", &[false, true], Some(0))?;
+    Ok(aerostrata::model::sounding_io::Options {
+        default_unit: if us { Quantity::us } else { Quantity::si },
+        ..Default::default()
+    })
+}
+
 /// A spec's refusal, worded as the core's `Display` words it.
 fn spec_error(error: &SpecError<'_>) -> String {
     // What a person typed, escaped and cut, as the core writes it.
@@ -169,11 +179,7 @@ impl AtmosphereModel {
         units: JsValue,
     ) -> Result<AtmosphereModel, JsValue> {
         let text = js::long_text("text", &text)?;
-        let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-        let options = aerostrata::model::sounding_io::Options {
-            default_unit: if us { Quantity::us } else { Quantity::si },
-            ..Default::default()
-        };
+        let options = table_options(&units)?;
         let sounding = aerostrata::model::sounding_io::read_csv(&text, &options)
             .map_err(|e| JsValue::from(Failure::plain(load_error(&e))))?;
         Ok(AtmosphereModel::from_model(AnyModel::Sounding(sounding.table)))
@@ -205,8 +211,7 @@ pub fn read_flight_csv(
     #[wasm_bindgen(js_name = defaultUnits, unchecked_optional_param_type = "\"si\" | \"us\"")] units: JsValue,
 ) -> Result<JsValue, JsValue> {
     let text = js::long_text("text", &text)?;
-    let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-    let default_unit = if us { Quantity::us } else { Quantity::si };
+    let default_unit = table_options(&units)?.default_unit;
     let at =
         |line: usize, message: &str| Failure::plain(Text::new("line ").u(line).s(": ").s(message).done());
     let mut lines =

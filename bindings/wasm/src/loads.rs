@@ -138,11 +138,7 @@ impl WindProfile {
         units: JsValue,
     ) -> Result<WindProfile, JsValue> {
         let text = js::long_text("text", &text)?;
-        let us = crate::args::choice("defaultUnits", &units, "si,us", &[false, true], Some(0))?;
-        let options = aerostrata::model::sounding_io::Options {
-            default_unit: if us { Quantity::us } else { Quantity::si },
-            ..Default::default()
-        };
+        let options = crate::input::table_options(&units)?;
         let file = aerostrata::model::sounding_io::read_winds_csv(&text, &options)
             .map_err(|e| JsValue::from(Failure::plain(crate::input::load_error(&e))))?;
         Ok(Self { profile: file.winds })

@@ -37,8 +37,6 @@ const TSC_FLAGS: [&str; 10] = [
 ];
 const GOOD_TYPES: &str = "types.mts";
 const WRONG_TYPES: &str = "types_wrong.mts";
-/// Where `cargo xtask browser-test` installs playwright-core (tests/browser/package.json).
-const PLAYWRIGHT_DIR: &str = "tests/browser";
 
 /// Packs `package`, installs the tarball into a fresh project and runs every consumer
 /// there; prints a line per consumer and the seconds each stage took.
@@ -154,43 +152,19 @@ fn reported_errors(output: &str) -> Vec<(usize, u32)> {
         .collect()
 }
 
-/// Serves the project on 127.0.0.1 with `python3 -m http.server` and opens page.html in
-/// Debian's Chromium through playwright-core (installed under tests/browser as
-/// `cargo xtask browser-test` does); the server is stopped by its own PID.
+/// Serves the project on 127.0.0.1 and opens page.html in Debian's Chromium through
+/// playwright-core, as `cargo xtask browser-test` does.
 fn browser(root: &Path, project: &Path) -> Result<String, String> {
-    setup::apt_install(root, &["chromium"])?;
-    let playwright = root.join(PLAYWRIGHT_DIR);
-    if !playwright.join("node_modules").join("playwright-core").exists() {
-        Cmd::new("npm").args(["ci", "--no-audit", "--no-fund"]).dir(&playwright).run()?;
-    }
-    let port = {
-        let listener =
-            std::net::TcpListener::bind("127.0.0.1:0").map_err(|e| format!("no free port: {e}"))?;
-        listener.local_addr().map_err(|e| format!("no free port: {e}"))?.port()
-    };
-    let mut server = Cmd::new("python3")
-        .args(["-m", "http.server", &port.to_string(), "--bind", "127.0.0.1", "--directory"])
-        .arg(project)
-        .spawn()?;
-    let ready = (0..100).any(|_| {
-        std::thread::sleep(std::time::Duration::from_millis(100));
-        std::net::TcpStream::connect(("127.0.0.1", port)).is_ok()
-    });
-    let result = if ready {
+    super::browser::serve(root, project, |port, playwright| {
         Cmd::new("node")
             .arg("browser.mjs")
             .arg(format!("http://127.0.0.1:{port}/page.html"))
-            .arg(playwright.join("node_modules").join("playwright-core"))
+            .arg(playwright)
             .dir(project)
             .timeout(180)
             .capture()
             .map(|o| o.stdout_text().trim().to_owned())
-    } else {
-        Err(format!("the static server on 127.0.0.1:{port} did not start"))
-    };
-    let _ = server.kill();
-    let _ = server.wait();
-    result
+    })
 }
 
 #[cfg(test)]
