@@ -1,11 +1,10 @@
 //! The samples of a flight, read one line at a time through the tool's table reader, in
 //! the columns and units a header names (any other column is kept out with a warning),
 //! or time, geometric altitude and velocity in that order in the `--units` system
-//! without one. Three kinds of file: a speed relative to the air (`velocity`); a
-//! ground-relative velocity by components (`velocity_east`, `velocity_north`,
-//! `velocity_up`); or by its speed and direction (`velocity` or `speed`,
-//! `flight_path_angle`, `heading`). The two with a direction may give the vehicle's axis
-//! (`axis_elevation`, `axis_azimuth`).
+//! without one. Which columns make a sample, and the sample a row makes, are the core's
+//! rules (`aerostrata::flight::FileLayout`), the same in every door: a speed relative to
+//! the air, a ground-relative velocity by components, or by its speed and direction,
+//! with the vehicle's axis where the velocity has a direction.
 
 use std::io::BufRead;
 
