@@ -1,7 +1,7 @@
 //! Drag-coefficient curves as opaque handles, and the flight scan over arrays.
 
 use aerostrata_core::aero::terminal_velocity_m_s;
-use aerostrata_core::flight::{samples_from_slices, FlightPoint, FlightScan, FlightSummary};
+use aerostrata_core::flight::{FlightPoint, FlightScan, FlightSummary, Sample};
 use aerostrata_core::{Atmosphere, DragCurve, Interpolation, Vehicle};
 use alloc::vec::Vec;
 
@@ -375,6 +375,33 @@ impl From<&FlightSummary> for AerostrataFlightSummary {
 
 /// The vehicle of a scan: none without a curve; with one, its reference area and, above
 /// 0, its reference length.
+/// The points of `count` samples, `next(i)` recording sample i in a scan: copied to
+/// `points` (of `count` elements) when it is not NULL, only once every sample has been
+/// recorded, so that a failure writes nothing.
+pub(crate) fn scan_points(
+    count: usize,
+    points: *mut AerostrataFlightPoint,
+    mut next: impl FnMut(usize) -> Result<FlightPoint, Failure>,
+) -> Result<(), Failure> {
+    let mut computed = Vec::new();
+    if !points.is_null() {
+        slice_mut("points", points, count)?;
+        computed.try_reserve_exact(count).map_err(|_| {
+            Failure::invalid_argument("count", "the element count is too large for memory", count as f64)
+        })?;
+    }
+    for i in 0..count {
+        let point = next(i)?;
+        if !points.is_null() {
+            computed.push(AerostrataFlightPoint::from(&point));
+        }
+    }
+    if !points.is_null() {
+        slice_mut("points", points, count)?.copy_from_slice(&computed);
+    }
+    Ok(())
+}
+
 pub(crate) fn vehicle<'a>(
     drag: *const AerostrataDragCurve,
     reference_area_m2: f64,
@@ -427,16 +454,10 @@ pub unsafe extern "C" fn aerostrata_flight_scan(
         let v = slice("velocity_m_s", velocity_m_s, count)?;
         let vehicle = vehicle(drag, reference_area_m2, reference_length_m)?;
         let mut scan = FlightScan::new(m, vehicle);
-        let mut computed = Vec::with_capacity(if points.is_null() { 0 } else { count });
-        for (i, sample) in samples_from_slices(t, z, v)?.enumerate() {
-            let point = scan.push(sample).map_err(|e| Failure::from(e).at_element(i))?;
-            if !points.is_null() {
-                computed.push(AerostrataFlightPoint::from(&point));
-            }
-        }
-        if !points.is_null() {
-            slice_mut("points", points, count)?.copy_from_slice(&computed);
-        }
+        scan_points(count, points, |i| {
+            let sample = Sample { time_s: t[i], altitude_m: z[i], velocity_m_s: v[i] };
+            scan.push(sample).map_err(|e| Failure::from(e).at_element(i))
+        })?;
         write(summary, AerostrataFlightSummary::from(&scan.summary()));
         Ok(())
     })

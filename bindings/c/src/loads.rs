@@ -11,7 +11,7 @@ use alloc::vec::Vec;
 
 use crate::catalogue::AerostrataFlightPoint;
 use crate::error::{guard, require, AerostrataStatus, Failure};
-use crate::flight::{vehicle, AerostrataDragCurve, AerostrataFlightSummary};
+use crate::flight::{scan_points, vehicle, AerostrataDragCurve, AerostrataFlightSummary};
 use crate::model::model_ref;
 use crate::quantity::quantity;
 use crate::{free_handle, handle_ref, into_handle, output, slice, slice_mut, write, AerostrataModel};
@@ -278,14 +278,7 @@ pub unsafe extern "C" fn aerostrata_flight_scan_vector(
         if let Some(layer) = layer {
             scan = scan.with_recovery(layer);
         }
-        let mut computed = Vec::new();
-        if !points.is_null() {
-            slice_mut("points", points, count)?;
-            computed.try_reserve_exact(count).map_err(|_| {
-                Failure::invalid_argument("count", "the element count is too large for memory", count as f64)
-            })?;
-        }
-        for i in 0..count {
+        scan_points(count, points, |i| {
             let at = |e: Error| Failure::from(e).at_element(i);
             let axis = match axes {
                 Some((elevation, azimuth)) => Some(Axis::new(elevation[i], azimuth[i]).map_err(at)?),
@@ -299,14 +292,8 @@ pub unsafe extern "C" fn aerostrata_flight_scan_vector(
                 velocity_up_m_s: up[i],
                 axis,
             };
-            let point = scan.push_vector(sample).map_err(at)?;
-            if !points.is_null() {
-                computed.push(AerostrataFlightPoint::from(&point));
-            }
-        }
-        if !points.is_null() {
-            slice_mut("points", points, count)?.copy_from_slice(&computed);
-        }
+            scan.push_vector(sample).map_err(at)
+        })?;
         write(summary, AerostrataFlightSummary::from(&scan.summary()));
         Ok(())
     })

@@ -6,25 +6,13 @@
 import { test } from "node:test";
 import assert from "node:assert/strict";
 
+import { throwsWith } from "./expect.mjs";
 import { loadNode } from "./load.mjs";
 
 const a = loadNode();
 const { AtmosphereModel } = a;
 const standard = AtmosphereModel.standard();
 
-function throwsWith(fn, Class, pattern) {
-  let caught;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  assert.ok(caught !== undefined, "expected a throw");
-  assert.ok(!(caught instanceof WebAssembly.RuntimeError), `a trap: ${caught}`);
-  assert.equal(caught.constructor, Class, `${caught.constructor.name}: ${caught.message}`);
-  assert.match(caught.message, pattern);
-  return caught;
-}
 
 test("numbers must be JS numbers: a TypeError naming the argument and what it got", () => {
   throwsWith(() => standard.state("1000"), TypeError, /^altitudeM must be a number, got the string "1000"$/);

@@ -12,6 +12,7 @@ import { readFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 
+import { throwsWith } from "./expect.mjs";
 import { loadNode } from "./load.mjs";
 
 const a = loadNode();
@@ -250,55 +251,44 @@ test("a small vector flight gives the native build's bits, every value", () => {
   assert.deepEqual(extras.map(bits), c.extras);
 });
 
-function refused(fn, pattern) {
-  let caught;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  assert.ok(caught !== undefined, "expected a throw");
-  assert.equal(caught.constructor, RangeError, `${caught.constructor.name}: ${caught.message}`);
-  assert.match(caught.message, pattern);
-}
 
 test("every misuse is a RangeError that names the value and the fix", () => {
   const winds = { altitudeM: [0, 5000], windEastMS: [10, 10], windNorthMS: [0, 0] };
   // Samples: a NaN, a short array, a time going back, an altitude out of range.
-  refused(() => standard.scanFlight({ ...climb, velocityNorthMS: [0, NaN, 0] }), /^flight sample 1: .*velocity north/);
-  refused(() => standard.scanFlight({ ...climb, velocityUpMS: [100, 100] }), /^velocityUpMS has 2 elements and timeS 3: every sample array must have the same length/);
-  refused(() => standard.scanFlight({ ...climb, timeS: [0, 1, 1] }), /^flight sample point 2: time \(s\) must be after the previous sample's/);
-  refused(() => standard.scanFlight({ ...climb, altitudeM: [0, 2e6, 0] }), /^flight sample 1: geometric altitude 2000000 m is outside the allowed range/);
+  throwsWith(() => standard.scanFlight({ ...climb, velocityNorthMS: [0, NaN, 0] }), RangeError, /^flight sample 1: .*velocity north/);
+  throwsWith(() => standard.scanFlight({ ...climb, velocityUpMS: [100, 100] }), RangeError, /^velocityUpMS has 2 elements and timeS 3: every sample array must have the same length/);
+  throwsWith(() => standard.scanFlight({ ...climb, timeS: [0, 1, 1] }), RangeError, /^flight sample point 2: time \(s\) must be after the previous sample's/);
+  throwsWith(() => standard.scanFlight({ ...climb, altitudeM: [0, 2e6, 0] }), RangeError, /^flight sample 1: geometric altitude 2000000 m is outside the allowed range/);
   // The velocity's forms: none, mixed, incomplete.
-  refused(() => standard.scanFlight({ timeS: [0], altitudeM: [0] }), /no velocity; give velocityMS/);
-  refused(() => standard.scanFlight({ ...climb, velocityMS: [1, 2, 3] }), /more than one form/);
-  refused(() => standard.scanFlight({ ...climb, flightPathAngleDeg: [1, 2, 3] }), /more than one form/);
-  refused(() => standard.scanFlight({ timeS: [0], altitudeM: [0], velocityMS: [1], headingDeg: [0] }), /incomplete/);
-  refused(() => standard.scanFlight({ timeS: [0], altitudeM: [0], velocityMS: [1], flightPathAngleDeg: [95], headingDeg: [0] }), /^flight sample 0: flight-path angle 95 deg is outside the allowed range/);
+  throwsWith(() => standard.scanFlight({ timeS: [0], altitudeM: [0] }), RangeError, /no velocity; give velocityMS/);
+  throwsWith(() => standard.scanFlight({ ...climb, velocityMS: [1, 2, 3] }), RangeError, /more than one form/);
+  throwsWith(() => standard.scanFlight({ ...climb, flightPathAngleDeg: [1, 2, 3] }), RangeError, /more than one form/);
+  throwsWith(() => standard.scanFlight({ timeS: [0], altitudeM: [0], velocityMS: [1], headingDeg: [0] }), RangeError, /incomplete/);
+  throwsWith(() => standard.scanFlight({ timeS: [0], altitudeM: [0], velocityMS: [1], flightPathAngleDeg: [95], headingDeg: [0] }), RangeError, /^flight sample 0: flight-path angle 95 deg is outside the allowed range/);
   // What needs the velocity's direction.
   const speeds = { timeS: [0, 1], altitudeM: [0, 10], velocityMS: [0, 20] };
-  refused(() => standard.scanFlight({ ...speeds, winds }), /winds needs the velocity's direction/);
-  refused(() => standard.scanFlight({ ...speeds, qAlphaLimitPaDeg: 100 }), /qAlphaLimitPaDeg needs the velocity's direction/);
-  refused(() => standard.scanFlight({ ...speeds, axisElevationDeg: [0, 0], axisAzimuthDeg: [0, 0] }), /axis needs the velocity's direction/);
+  throwsWith(() => standard.scanFlight({ ...speeds, winds }), RangeError, /winds needs the velocity's direction/);
+  throwsWith(() => standard.scanFlight({ ...speeds, qAlphaLimitPaDeg: 100 }), RangeError, /qAlphaLimitPaDeg needs the velocity's direction/);
+  throwsWith(() => standard.scanFlight({ ...speeds, axisElevationDeg: [0, 0], axisAzimuthDeg: [0, 0] }), RangeError, /axis needs the velocity's direction/);
   // The axis: one array alone, an angle out of range.
-  refused(() => standard.scanFlight({ ...climb, axisElevationDeg: [90, 90, 90] }), /give both axisElevationDeg and axisAzimuthDeg/);
-  refused(() => standard.scanFlight({ ...climb, axisElevationDeg: [90, 90, 95], axisAzimuthDeg: [0, 0, 0] }), /^flight sample 2: axis elevation 95 deg is outside the allowed range -90 to 90/);
+  throwsWith(() => standard.scanFlight({ ...climb, axisElevationDeg: [90, 90, 90] }), RangeError, /give both axisElevationDeg and axisAzimuthDeg/);
+  throwsWith(() => standard.scanFlight({ ...climb, axisElevationDeg: [90, 90, 95], axisAzimuthDeg: [0, 0, 0] }), RangeError, /^flight sample 2: axis elevation 95 deg is outside the allowed range -90 to 90/);
   // Options: an unknown boundary layer, limits and fractions out of range, extra arguments.
-  refused(() => standard.scanFlight({ ...climb, boundaryLayer: "wavy" }), /boundaryLayer must be one of "laminar", "turbulent"/);
-  refused(() => standard.scanFlight({ ...climb, qLimitPa: NaN }), /qLimitPa/);
-  refused(() => standard.scanFlight({ ...climb, plateauFraction: 1.5 }), /plateau fraction 1.5/);
-  refused(() => standard.scanFlight({ ...climb }, [0]), /takes one argument/);
+  throwsWith(() => standard.scanFlight({ ...climb, boundaryLayer: "wavy" }), RangeError, /boundaryLayer must be one of "laminar", "turbulent"/);
+  throwsWith(() => standard.scanFlight({ ...climb, qLimitPa: NaN }), RangeError, /qLimitPa/);
+  throwsWith(() => standard.scanFlight({ ...climb, plateauFraction: 1.5 }), RangeError, /plateau fraction 1.5/);
+  throwsWith(() => standard.scanFlight({ ...climb }, [0]), RangeError, /takes one argument/);
   // At rest in a wind with no axis, q-alpha is unknown: a limit on it names the sample.
-  refused(() => standard.scanFlight({ ...climb, velocityUpMS: [0, 100, 100], winds, qAlphaLimitPaDeg: 10 }), /^flight sample 0: q-alpha is undefined .* give axisElevationDeg and axisAzimuthDeg/);
+  throwsWith(() => standard.scanFlight({ ...climb, velocityUpMS: [0, 100, 100], winds, qAlphaLimitPaDeg: 10 }), RangeError, /^flight sample 0: q-alpha is undefined .* give axisElevationDeg and axisAzimuthDeg/);
   // Winds: a NaN, out of order, too strong, too short, of different lengths, no levels.
-  refused(() => new WindProfile([0, NaN], [1, 1], [0, 0]), /^winds level 1: /);
-  refused(() => new WindProfile([0, 0], [1, 1], [0, 0]), /altitudes \(m\) must increase/);
-  refused(() => new WindProfile([0, 10], [1, 300], [0, 0]), /^winds level 1: eastward wind 300 m\/s is outside the allowed range/);
-  refused(() => WindProfile.fromSpeedDirection([0], [10], [400]), /^winds level 0: wind direction 400 deg/);
-  refused(() => new WindProfile([0, 10], [1], [0, 0]), /same length/);
-  refused(() => new WindProfile([], [], []), /.+/);
-  refused(() => standard.scanFlight({ ...climb, winds: { altitudeM: [0, 10], windEastMS: [1], windNorthMS: [0, 0] } }), /same length/);
-  refused(() => new WindProfile([0], [1], [0]).at(NaN), /altitude/);
+  throwsWith(() => new WindProfile([0, NaN], [1, 1], [0, 0]), RangeError, /^winds level 1: /);
+  throwsWith(() => new WindProfile([0, 0], [1, 1], [0, 0]), RangeError, /altitudes \(m\) must increase/);
+  throwsWith(() => new WindProfile([0, 10], [1, 300], [0, 0]), RangeError, /^winds level 1: eastward wind 300 m\/s is outside the allowed range/);
+  throwsWith(() => WindProfile.fromSpeedDirection([0], [10], [400]), RangeError, /^winds level 0: wind direction 400 deg/);
+  throwsWith(() => new WindProfile([0, 10], [1], [0, 0]), RangeError, /same length/);
+  throwsWith(() => new WindProfile([], [], []), RangeError, /.+/);
+  throwsWith(() => standard.scanFlight({ ...climb, winds: { altitudeM: [0, 10], windEastMS: [1], windNorthMS: [0, 0] } }), RangeError, /same length/);
+  throwsWith(() => new WindProfile([0], [1], [0]).at(NaN), RangeError, /altitude/);
 });
 
 test("wrong JS types are TypeErrors naming the option", () => {

@@ -10,23 +10,12 @@ import assert from "node:assert/strict";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 
+import { throwsWith } from "./expect.mjs";
 import { loadNode, packageDir } from "./load.mjs";
 
 const a = loadNode();
 const { AtmosphereModel, WindProfile } = a;
 
-function throwsWith(fn, Class, pattern) {
-  let caught;
-  try {
-    fn();
-  } catch (e) {
-    caught = e;
-  }
-  assert.ok(caught !== undefined, "expected a throw");
-  assert.equal(caught.constructor, Class, `${caught.constructor.name}: ${caught.message}`);
-  assert.match(caught.message, pattern);
-  return caught;
-}
 
 /** The methods and getters of a class's prototype, but free and the constructor. */
 function members(Class) {

@@ -382,6 +382,26 @@ impl fmt::Display for CellError<'_> {
     }
 }
 
+/// A header without a column of any of `.0` (alternatives, the usual first), for a
+/// message: "the header needs a column altitude or geometric_altitude (a heading such as
+/// altitude_m or 'altitude (m)')".
+pub struct MissingColumn<'a>(pub &'a [Quantity]);
+
+impl fmt::Display for MissingColumn<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str("the header needs a column ")?;
+        for (i, q) in self.0.iter().enumerate() {
+            f.write_str(if i == 0 { "" } else { " or " })?;
+            f.write_str(q.name())?;
+        }
+        if let Some(q) = self.0.first() {
+            let (name, si) = (q.name(), q.si());
+            write!(f, " (a heading such as {name}_{} or '{name} ({})')", si.suffix(), si.symbol())?;
+        }
+        Ok(())
+    }
+}
+
 impl fmt::Display for LineTooLong<'_> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         write!(

@@ -236,20 +236,9 @@ impl Row<'_> {
 pub fn needs(header: &Header, groups: &[&[Quantity]]) -> Result<(), String> {
     for group in groups {
         let present: Vec<&Quantity> = group.iter().filter(|q| header.position(**q).is_some()).collect();
-        let names: Vec<&str> = group.iter().map(|q| q.name()).collect();
         match present.len() {
             1 => {}
-            0 => {
-                let si = group[0].si();
-                return Err(format!(
-                    "the header needs a column {} (a heading such as {}_{} or '{} ({})')",
-                    names.join(" or "),
-                    names[0],
-                    si.suffix(),
-                    names[0],
-                    si.symbol()
-                ));
-            }
+            0 => return Err(table::MissingColumn(group).to_string()),
             _ => {
                 let present: Vec<&str> = present.iter().map(|q| q.name()).collect();
                 return Err(format!("the header has columns {}: keep one", present.join(" and ")));

@@ -16,7 +16,7 @@ use crate::error::Error;
 use crate::flight::{Axis, FlightPoint, FlightScan, Sample, VectorSample};
 use crate::model::Atmosphere;
 use crate::quantity::Quantity;
-use crate::table::Header;
+use crate::table::{Header, MissingColumn};
 
 use super::{AXIS_ANGLES, PATH_ANGLES, VELOCITY_COMPONENTS};
 
@@ -315,11 +315,11 @@ impl fmt::Display for LayoutError {
         let (components, path, axis) =
             (Names(&VELOCITY_COMPONENTS), Names(&PATH_ANGLES), Names(&AXIS_ANGLES));
         match self {
-            LayoutError::Missing(q) => {
-                let (name, si) = (q.name(), q.si());
-                let (suffix, symbol) = (si.suffix(), si.symbol());
-                write!(f, "the header needs a column {name} (a heading such as {name}_{suffix} or '{name} ({symbol})')")
+            // The altitude may be headed either way.
+            LayoutError::Missing(Quantity::Altitude) => {
+                write!(f, "{}", MissingColumn(&[Quantity::Altitude, Quantity::GeometricAltitude]))
             }
+            LayoutError::Missing(q) => write!(f, "{}", MissingColumn(core::slice::from_ref(q))),
             LayoutError::TwoAltitudes => f.write_str("the header has columns altitude and geometric_altitude: keep one"),
             LayoutError::NoVelocity => write!(
                 f,
@@ -410,6 +410,10 @@ mod tests {
         assert_eq!(
             E::Missing(Quantity::Time).to_string(),
             "the header needs a column time (a heading such as time_s or 'time (s)')"
+        );
+        assert_eq!(
+            E::Missing(Quantity::Altitude).to_string(),
+            "the header needs a column altitude or geometric_altitude (a heading such as altitude_m or 'altitude (m)')"
         );
     }
 
