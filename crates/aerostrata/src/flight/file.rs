@@ -270,14 +270,6 @@ pub enum FileSample {
 }
 
 impl FileSample {
-    /// The sample's time, s.
-    pub fn time_s(&self) -> f64 {
-        match self {
-            FileSample::Speed(s) => s.time_s,
-            FileSample::Vector(s) => s.time_s,
-        }
-    }
-
     /// The sample's geometric altitude, m.
     pub fn altitude_m(&self) -> f64 {
         match self {

@@ -157,12 +157,6 @@ fn snippets_to_commonjs(node_dir: &Path) -> Result<(), String> {
     Ok(())
 }
 
-/// The `"version"` of bindings/wasm/package.json.
-fn package_version(manifest: &str) -> Option<String> {
-    let value: serde_json::Value = serde_json::from_str(manifest).ok()?;
-    value.get("version")?.as_str().map(str::to_owned)
-}
-
 fn gzip_size(path: &Path) -> Result<u64, String> {
     let output = Cmd::new("gzip").args(["-9", "-c", "-n"]).arg(path).quiet().capture()?;
     Ok(output.stdout.len() as u64)
@@ -243,14 +237,7 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
     let crate_dir = root.join(CRATE_DIR);
     let manifest_path = crate_dir.join("package.json");
     let manifest = fs::read_to_string(&manifest_path).map_err(|e| io_error("read", &manifest_path, e))?;
-    let version = package_version(&manifest).ok_or(format!("{}: no \"version\"", manifest_path.display()))?;
-    if version != env!("CARGO_PKG_VERSION") {
-        return Err(format!(
-            "{} has version {version}, the crates {}: make them equal",
-            manifest_path.display(),
-            env!("CARGO_PKG_VERSION")
-        ));
-    }
+    // Its version is the crates' (`cargo xtask versions` checks every copy).
     fs::write(pkg.join("package.json"), &manifest).map_err(|e| io_error("write", &pkg, e))?;
     // The root package is "type": "module" (the web build); the Node build is CommonJS.
     fs::write(pkg.join("node").join("package.json"), "{ \"type\": \"commonjs\" }\n")
@@ -285,18 +272,4 @@ pub fn run(root: &Path) -> Result<(), String> {
     eprintln!("built {}", package.dir.display());
     eprintln!("{}", package.size_line());
     package.check_budget()
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn the_package_version_is_read_from_package_json() {
-        assert_eq!(
-            package_version(r#"{"name": "aerostrata", "version": "1.2.3"}"#).as_deref(),
-            Some("1.2.3")
-        );
-        assert_eq!(package_version("{}"), None);
-    }
 }
