@@ -226,9 +226,7 @@ pub fn read_flight_csv(
         (header, None)
     } else {
         names = IMPLICIT_COLUMNS.iter().map(|q| q.name()).collect();
-        let header = Header::read("time,altitude,velocity", |_| true, default_unit)
-            .map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
-        (header, Some((header_line, header_text)))
+        (Header::implicit(&IMPLICIT_COLUMNS, header_text, default_unit), Some((header_line, header_text)))
     };
     let layout = FileLayout::of(&header).map_err(|e| JsValue::from(at(header_line, &e.to_string())))?;
     let given: Vec<(Quantity, usize)> = layout.columns().collect();

@@ -286,6 +286,23 @@ impl Header {
         Ok(header)
     }
 
+    /// The header of a table without one: `quantities` in order (at most
+    /// [`MAX_COLUMNS`]), each in `default_unit(quantity)`, cells separated as in
+    /// `first_row`.
+    pub fn implicit(
+        quantities: &[Quantity],
+        first_row: &str,
+        default_unit: impl Fn(Quantity) -> &'static Unit,
+    ) -> Header {
+        let mut header =
+            Header { delimiter: delimiter_of(clean(first_row)), columns: [None; MAX_COLUMNS], count: 0 };
+        for (slot, &quantity) in header.columns.iter_mut().zip(quantities) {
+            *slot = Some(Column { quantity, unit: default_unit(quantity), explicit: false });
+            header.count += 1;
+        }
+        header
+    }
+
     /// How many columns the header line has (taken or not).
     pub fn count(&self) -> usize {
         self.count
@@ -502,6 +519,21 @@ mod tests {
                 assert_eq!(ours, std, "{line:?} by {delimiter:?}");
             }
         }
+    }
+
+    /// A table without a header reads as one naming its columns would.
+    #[test]
+    fn an_implicit_header_reads_as_a_written_one() {
+        let implicit =
+            Header::implicit(&FLIGHT, "1;2;3", |q| if q == Quantity::Altitude { &FOOT } else { q.si() });
+        assert_eq!(implicit.delimiter(), ';');
+        let written = Header::read("time;altitude (ft);velocity", |_| true, |q| q.si()).unwrap();
+        let (mut a, mut b) = ([None; 3], [None; 3]);
+        implicit.read_row("1;1000;3", &mut a).unwrap();
+        written.read_row("1;1000;3", &mut b).unwrap();
+        assert_eq!(a, b);
+        assert_eq!(implicit.count(), 3);
+        assert!(!implicit.column(1).unwrap().explicit);
     }
 
     #[test]

@@ -4,7 +4,7 @@
 //! of the 1976 standard with a small vehicle (and, for the samples with a direction, the
 //! winds of a light breeze).
 
-use aerostrata::flight::{FileLayout, FlightScan, Vehicle, FILE_COLUMNS};
+use aerostrata::flight::{FileLayout, FlightScan, Vehicle, FILE_COLUMNS, IMPLICIT_COLUMNS};
 use aerostrata::table::{self, Header};
 use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::{DragCurve, Quantity, US1976};
@@ -15,15 +15,16 @@ use crate::{all_finite, finite, message, text};
 pub fn run(data: &[u8]) {
     let text = text(data);
     let mut lines = table::data_lines(text);
-    let (first, implicit) = match lines.next() {
+    let (header, implicit) = match lines.next() {
         None => return,
         Some(Err(e)) => return message(&e),
-        Some(Ok((_, first))) if table::is_header(first) => (first, None),
-        Some(Ok((_, first))) => ("time,altitude,velocity", Some(first)),
-    };
-    let header = match Header::read(first, |q| FILE_COLUMNS.contains(&q), Quantity::si) {
-        Ok(header) => header,
-        Err(e) => return message(&e),
+        Some(Ok((_, first))) if table::is_header(first) => {
+            match Header::read(first, |q| FILE_COLUMNS.contains(&q), Quantity::si) {
+                Ok(header) => (header, None),
+                Err(e) => return message(&e),
+            }
+        }
+        Some(Ok((_, first))) => (Header::implicit(&IMPLICIT_COLUMNS, first, Quantity::si), Some(first)),
     };
     let layout = match FileLayout::of(&header) {
         Ok(layout) => layout,

@@ -177,11 +177,8 @@ impl<R: BufRead> TableReader<R> {
 
     /// A table without a header: the command's own columns, in order.
     fn implicit_header(&mut self, first_row: &str) -> Result<(), Failure> {
-        let delimiter = table::delimiter_of(table::clean(first_row)).to_string();
-        let names: Vec<&str> = self.columns.implicit.iter().map(|q| q.name()).collect();
         let units = self.units;
-        let header = Header::read(&names.join(&delimiter), |_| true, |q| default_unit(units, q))
-            .map_err(|e| self.at_line(e))?;
+        let header = Header::implicit(self.columns.implicit, first_row, |q| default_unit(units, q));
         self.headings =
             self.columns.implicit.iter().map(|q| crate::units::column(*q, default_unit(units, *q))).collect();
         self.header = Some(header);
