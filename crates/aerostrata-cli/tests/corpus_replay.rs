@@ -17,6 +17,8 @@ use std::path::{Path, PathBuf};
 
 mod common;
 
+use common::TempFile;
+
 /// The corpus, from this crate's directory.
 fn corpus() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join("../../fuzz/corpus")
@@ -117,27 +119,6 @@ fn check(args: &[&str], stdin: &[u8], names: &[&str], case: &str) {
     }
 }
 
-/// A file in the temporary directory, removed when dropped.
-struct TempFile(PathBuf);
-
-impl TempFile {
-    fn new(name: &str, bytes: &[u8]) -> Self {
-        let path = std::env::temp_dir().join(format!("aerostrata-replay-{}-{name}", std::process::id()));
-        fs::write(&path, bytes).unwrap();
-        TempFile(path)
-    }
-
-    fn path(&self) -> &str {
-        self.0.to_str().unwrap()
-    }
-}
-
-impl Drop for TempFile {
-    fn drop(&mut self) {
-        let _ = fs::remove_file(&self.0);
-    }
-}
-
 /// Each input of `dir` and its mutations, written to a file named with `extension`, run
 /// through each of `commands` (`FILE` stands for the file's path).
 fn replay_files(dir: &str, extension: &str, commands: &[&[&str]], stdin: &[u8]) -> usize {
@@ -147,9 +128,9 @@ fn replay_files(dir: &str, extension: &str, commands: &[&[&str]], stdin: &[u8]) 
             let file = TempFile::new(&format!("{dir}{extension}"), &bytes);
             for command in commands {
                 let args: Vec<&str> =
-                    command.iter().map(|a| if *a == "FILE" { file.path() } else { a }).collect();
+                    command.iter().map(|a| if *a == "FILE" { file.arg() } else { a }).collect();
                 let option = args.iter().copied().filter(|a| a.starts_with("--")).collect::<Vec<_>>();
-                let mut names = vec![file.path()];
+                let mut names = vec![file.arg()];
                 names.extend(option);
                 check(&args, stdin, &names, &format!("{dir}/{name} ({mutation})"));
                 runs += 1;
@@ -201,7 +182,7 @@ fn flight_files_and_wind_files() {
         ".csv",
         &[&["flight", "FILE"], &["flight", "FILE", "--units", "us"]],
         b"",
-    ) + replay_files("winds_csv", ".csv", &[&["flight", flight.path(), "--winds", "FILE"]], b"");
+    ) + replay_files("winds_csv", ".csv", &[&["flight", flight.arg(), "--winds", "FILE"]], b"");
     assert!(runs >= 150, "{runs}");
 }
 

@@ -13,28 +13,21 @@
 
 #![cfg(target_os = "linux")]
 
+mod common;
+
 use std::fs::File;
 use std::io::{BufWriter, Read, Write};
-use std::path::PathBuf;
 use std::process::{Command, Stdio};
+
+use common::TempFile;
 
 const SIZE: usize = 200_000_000;
 const BOUND_KIB: i64 = 64 * 1024;
 
-/// A file in the temporary directory, removed when dropped (also when a check fails).
-struct TempFile(PathBuf);
-
-impl Drop for TempFile {
-    fn drop(&mut self) {
-        let _ = std::fs::remove_file(&self.0);
-    }
-}
-
 /// `head` then `SIZE` bytes of `fill`, then `tail`, written in 1 MiB blocks.
 fn write_file(name: &str, head: &[u8], fill: u8, tail: &[u8]) -> TempFile {
-    let path = std::env::temp_dir().join(format!("aerostrata-long-{}-{name}", std::process::id()));
-    let file = TempFile(path);
-    let mut out = BufWriter::new(File::create(&file.0).unwrap());
+    let file = TempFile::at(&format!("long-{name}"));
+    let mut out = BufWriter::new(File::create(file.path()).unwrap());
     out.write_all(head).unwrap();
     let block = vec![fill; 1 << 20];
     let mut left = SIZE;
@@ -53,7 +46,7 @@ fn write_file(name: &str, head: &[u8], fill: u8, tail: &[u8]) -> TempFile {
 #[allow(clippy::zombie_processes)]
 fn run(args: &[&str], stdin: Option<&TempFile>) -> (i32, String, i64) {
     let input = match stdin {
-        Some(file) => Stdio::from(File::open(&file.0).unwrap()),
+        Some(file) => Stdio::from(File::open(file.path()).unwrap()),
         None => Stdio::null(),
     };
     let mut child = Command::new(env!("CARGO_BIN_EXE_aerostrata"))
@@ -90,7 +83,7 @@ fn refused(args: &[&str], stdin: Option<&TempFile>, what: &str) {
 #[test]
 fn two_hundred_megabytes_of_commas_into_flight() {
     let file = write_file("commas.csv", b"", b',', b"\n");
-    let path = file.0.to_str().unwrap();
+    let path = file.arg();
     refused(&["flight", path], None, "line 1: longer than 65536 bytes");
 }
 
@@ -106,13 +99,13 @@ fn two_hundred_megabytes_of_nul_bytes_into_eval() {
 #[test]
 fn a_two_hundred_megabyte_number_into_eval() {
     let file = write_file("digits.csv", b"geometric_altitude_m\n0\n", b'1', b"\n");
-    let path = file.0.to_str().unwrap();
+    let path = file.arg();
     refused(&["eval", path], None, "line 3: longer than 65536 bytes");
 }
 
 #[test]
 fn a_sounding_with_a_wrong_header_is_refused_before_its_rows_are_read() {
     let file = write_file("sounding.csv", b"geometric_altitude_m,temperature_K,pressure_P\n", b'\n', b"");
-    let spec = format!("--sounding={}", file.0.to_str().unwrap());
+    let spec = format!("--sounding={}", file.arg());
     refused(&["table", "--from", "0", "--to", "1", "--step", "1", &spec], None, "unit 'P'");
 }

@@ -4,7 +4,7 @@
 // Each test file uses a part of these.
 #![allow(dead_code)]
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 use assert_cmd::Command;
 
@@ -70,4 +70,37 @@ pub fn scratch(name: &str) -> PathBuf {
     let dir = std::env::temp_dir().join(format!("aerostrata-cli-tests-{}-{name}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     dir
+}
+
+/// A file in the temporary directory, named for this process and `name`, removed when
+/// dropped (also when a check fails).
+pub struct TempFile(PathBuf);
+
+impl TempFile {
+    /// The path, nothing written yet.
+    pub fn at(name: &str) -> Self {
+        TempFile(std::env::temp_dir().join(format!("aerostrata-test-{}-{name}", std::process::id())))
+    }
+
+    /// A file holding `bytes`.
+    pub fn new(name: &str, bytes: &[u8]) -> Self {
+        let file = Self::at(name);
+        std::fs::write(&file.0, bytes).unwrap();
+        file
+    }
+
+    pub fn path(&self) -> &Path {
+        &self.0
+    }
+
+    /// The path as text, for an argument.
+    pub fn arg(&self) -> &str {
+        self.0.to_str().unwrap()
+    }
+}
+
+impl Drop for TempFile {
+    fn drop(&mut self) {
+        let _ = std::fs::remove_file(&self.0);
+    }
 }
