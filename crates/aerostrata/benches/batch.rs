@@ -15,7 +15,7 @@
 //! ```
 //!
 //! The altitudes: 1 000 000 pseudo-random geometric altitudes uniform in [0, 86 000) m
-//! (xorshift64, fixed seed), in random order, the cursor's least favourable case;
+//! (xorshift64, fixed seed), in random order (no two neighbours need share a layer);
 //! `write` stores them as little-endian f64 for the numpy side to read the same ones.
 
 use std::hint::black_box;

@@ -18,7 +18,7 @@ pub const MIN_GEOPOTENTIAL_M: f64 = geopotential_of(MIN_GEOMETRIC_M);
 /// The geopotential image of [`MAX_GEOMETRIC_M`], m.
 pub const MAX_GEOPOTENTIAL_M: f64 = geopotential_of(MAX_GEOMETRIC_M);
 
-const fn geopotential_of(z: f64) -> f64 {
+pub(crate) const fn geopotential_of(z: f64) -> f64 {
     EARTH_RADIUS_M * z / (EARTH_RADIUS_M + z)
 }
 

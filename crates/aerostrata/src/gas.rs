@@ -248,7 +248,14 @@ impl Air {
     /// ```
     #[inline]
     pub fn speed_of_sound_m_s(&self) -> Option<f64> {
-        self.continuum.then(|| SQRT_GAMMA_R * self.root_t_over_m())
+        self.continuum.then(|| self.continuum_speed_of_sound_m_s())
+    }
+
+    /// The speed of sound's formula, for callers that know the air is a continuum (the
+    /// batch path, whose loops run lane-wise without the `Option`).
+    #[inline]
+    pub(crate) fn continuum_speed_of_sound_m_s(&self) -> f64 {
+        SQRT_GAMMA_R * self.root_t_over_m()
     }
 
     /// Dynamic viscosity by Sutherland's law, Pa s, or `None` for rarefied air.

@@ -4,9 +4,10 @@
 //! The work is done a block of altitudes at a time: first the air (T, p, M) of every
 //! altitude of the block, then each requested column over the whole block, each by the
 //! same expression [`State::new`](crate::State::new) uses, so that only what is asked is
-//! computed. For the 1976 standard ([`Us1976::batch`](crate::Us1976::batch)) the layer
-//! holding an altitude is found from the previous one's (a cursor, as a sorted flight
-//! profile wants), falling back to the search only when it leaves the layer.
+//! computed. For the 1976 standard ([`Us1976::batch`](crate::Us1976::batch)) the air of a
+//! block up to 86 km is computed a step at a time over all its altitudes, without
+//! branches, so that the compiler runs the steps on several altitudes at once (SSE2 on
+//! x86-64, simd128 in the web module), with the scalar path's very operations.
 //!
 //! Errors, decided: the first failing element (in input order) stops the batch, and its
 //! index comes back with the core's own error ([`BatchError::Element`]); every column holds
@@ -24,7 +25,7 @@ pub mod parallel;
 use crate::altitude::{Altitude, AltitudeKind};
 use crate::constants::{SEA_LEVEL_DENSITY_KG_M3, SEA_LEVEL_PRESSURE_PA, SEA_LEVEL_TEMPERATURE_K};
 use crate::error::Error;
-use crate::gas::{Air, COLLISION_CROSS_SECTION_M2};
+use crate::gas::{conductivity, sutherland, Air, COLLISION_CROSS_SECTION_M2};
 use crate::model::Atmosphere;
 use crate::quantity::{Group, Quantity};
 use crate::state::State;
@@ -157,22 +158,38 @@ pub fn evaluate<A: Atmosphere + ?Sized>(
     outputs: &mut [&mut [f64]],
 ) -> Result<(), BatchError> {
     check_request(altitudes_m.len(), quantities, outputs)?;
-    run(altitudes_m, quantities, outputs, 0, |meters, slot| {
-        let altitude = kind.altitude(meters)?;
-        *slot = (altitude, model.air(altitude)?);
-        Ok(())
+    run(altitudes_m, quantities, outputs, 0, |inputs, block| {
+        each_alone(inputs, block, |meters| {
+            let altitude = kind.altitude(meters)?;
+            Ok((altitude, model.air(altitude)?))
+        })
     })
 }
 
-/// The block loop behind every batch, on a checked request: `air` writes the altitude and
-/// air of one input into its slot (or gives the scalar path's error); `offset` is the index of the first
-/// input in the caller's whole batch (the parallel chunks), for the error's index.
+/// Fills `block` from `inputs` one altitude at a time by `air`, stopping at the first
+/// failure with its index (the slots from it on are left as they were).
+pub(crate) fn each_alone(
+    inputs: &[f64],
+    block: &mut [(Altitude, Air)],
+    mut air: impl FnMut(f64) -> Result<(Altitude, Air), Error>,
+) -> Result<(), (usize, Error)> {
+    for (j, (&meters, slot)) in inputs.iter().zip(block.iter_mut()).enumerate() {
+        *slot = air(meters).map_err(|error| (j, error))?;
+    }
+    Ok(())
+}
+
+/// The block loop behind every batch, on a checked request: `airs` writes the altitude
+/// and air of each input of a block into its slot, or stops at the first input where the
+/// scalar path fails and gives its index in the block and the error; `offset` is the
+/// index of the first input in the caller's whole batch (the parallel chunks), for the
+/// error's index.
 pub(crate) fn run(
     altitudes_m: &[f64],
     quantities: &[Quantity],
     outputs: &mut [&mut [f64]],
     offset: usize,
-    mut air: impl FnMut(f64, &mut (Altitude, Air)) -> Result<(), Error>,
+    mut airs: impl FnMut(&[f64], &mut [(Altitude, Air)]) -> Result<(), (usize, Error)>,
 ) -> Result<(), BatchError> {
     // Sea level is a valid altitude, so the `else` never runs; it keeps the function
     // free of any panic.
@@ -182,16 +199,10 @@ pub(crate) fn run(
     let continuum_asked = quantities.iter().any(|q| q.info().may_be_undefined);
     for (number, inputs) in altitudes_m.chunks(BLOCK).enumerate() {
         let start = number * BLOCK;
-        let mut failure = None;
-        let mut filled = inputs.len();
-        for (j, (&meters, slot)) in inputs.iter().zip(block.iter_mut()).enumerate() {
-            // Written in place: the pair is 64 bytes, the error beside it more.
-            if let Err(error) = air(meters, slot) {
-                failure = Some((j, error));
-                filled = j;
-                break;
-            }
-        }
+        let (mut failure, mut filled) = match airs(inputs, &mut block[..inputs.len()]) {
+            Ok(()) => (None, inputs.len()),
+            Err((j, error)) => (Some((j, error)), j),
+        };
         // A continuum property asked of rarefied air fails before any air error after it.
         if continuum_asked {
             if let Some(j) = block[..filled].iter().position(|(_, air)| !air.is_continuum()) {
@@ -220,50 +231,44 @@ pub(crate) fn run(
 /// Writes `column[j] = f(altitude_j, air_j)` over a block: one loop per quantity, so that
 /// the choice of the quantity is made once per block, not once per element.
 #[inline(always)]
-fn each(pieces: &[(Altitude, Air)], column: &mut [f64], f: impl Fn(Altitude, &Air) -> Option<f64>) {
+fn each(pieces: &[(Altitude, Air)], column: &mut [f64], f: impl Fn(Altitude, &Air) -> f64) {
     for ((altitude, air), slot) in pieces.iter().zip(column.iter_mut()) {
-        // `None` is a continuum property of rarefied air, which `run` has stopped before.
-        if let Some(value) = f(*altitude, air) {
-            *slot = value;
-        }
+        *slot = f(*altitude, air);
     }
 }
 
 /// Column `quantity` of a block, each value by the expression of [`State::new`] (a test
-/// checks every quantity against [`State::get`] bit for bit).
+/// checks every quantity against [`State::get`] bit for bit). The continuum properties
+/// by their formulas alone: `run` has stopped before any rarefied air.
 fn fill(quantity: Quantity, pieces: &[(Altitude, Air)], column: &mut [f64]) {
     use Quantity as Q;
     match quantity {
-        Q::GeometricAltitude => each(pieces, column, |h, _| Some(h.geometric().meters())),
-        Q::GeopotentialAltitude => each(pieces, column, |h, _| Some(h.geopotential().meters())),
-        Q::Temperature => each(pieces, column, |_, air| Some(air.temperature_k())),
-        Q::MolecularTemperature => each(pieces, column, |_, air| Some(air.molecular_temperature_k())),
-        Q::Pressure => each(pieces, column, |_, air| Some(air.pressure_pa())),
-        Q::Density => each(pieces, column, |_, air| Some(air.density_kg_m3())),
-        Q::SpeedOfSound => each(pieces, column, |_, air| air.speed_of_sound_m_s()),
-        Q::DynamicViscosity => each(pieces, column, |_, air| air.dynamic_viscosity_pa_s()),
+        Q::GeometricAltitude => each(pieces, column, |h, _| h.geometric().meters()),
+        Q::GeopotentialAltitude => each(pieces, column, |h, _| h.geopotential().meters()),
+        Q::Temperature => each(pieces, column, |_, air| air.temperature_k()),
+        Q::MolecularTemperature => each(pieces, column, |_, air| air.molecular_temperature_k()),
+        Q::Pressure => each(pieces, column, |_, air| air.pressure_pa()),
+        Q::Density => each(pieces, column, |_, air| air.density_kg_m3()),
+        Q::SpeedOfSound => each(pieces, column, |_, air| air.continuum_speed_of_sound_m_s()),
+        Q::DynamicViscosity => each(pieces, column, |_, air| sutherland(air.temperature_k())),
         Q::KinematicViscosity => {
-            each(pieces, column, |_, air| air.dynamic_viscosity_pa_s().map(|mu| mu / air.density_kg_m3()))
+            each(pieces, column, |_, air| sutherland(air.temperature_k()) / air.density_kg_m3())
         }
-        Q::ThermalConductivity => each(pieces, column, |_, air| air.thermal_conductivity_w_m_k()),
-        Q::Gravity => each(pieces, column, |h, _| Some(h.geometric().gravity_m_s2())),
+        Q::ThermalConductivity => each(pieces, column, |_, air| conductivity(air.temperature_k())),
+        Q::Gravity => each(pieces, column, |h, _| h.geometric().gravity_m_s2()),
         Q::PressureScaleHeight => {
-            each(pieces, column, |h, air| Some(air.pressure_scale_height_m(h.geometric().gravity_m_s2())))
+            each(pieces, column, |h, air| air.pressure_scale_height_m(h.geometric().gravity_m_s2()))
         }
-        Q::NumberDensity => each(pieces, column, |_, air| Some(air.number_density_m3())),
-        Q::MeanParticleSpeed => each(pieces, column, |_, air| Some(air.mean_particle_speed_m_s())),
-        Q::MeanFreePath => {
-            each(pieces, column, |_, air| Some(crate::gas::mean_free_path(air.number_density_m3())))
-        }
+        Q::NumberDensity => each(pieces, column, |_, air| air.number_density_m3()),
+        Q::MeanParticleSpeed => each(pieces, column, |_, air| air.mean_particle_speed_m_s()),
+        Q::MeanFreePath => each(pieces, column, |_, air| crate::gas::mean_free_path(air.number_density_m3())),
         Q::CollisionFrequency => each(pieces, column, |_, air| {
-            Some(air.mean_particle_speed_m_s() * air.number_density_m3() * COLLISION_CROSS_SECTION_M2)
+            air.mean_particle_speed_m_s() * air.number_density_m3() * COLLISION_CROSS_SECTION_M2
         }),
-        Q::MeanMolarMass => each(pieces, column, |_, air| Some(air.molar_mass_kg_kmol())),
-        Q::TemperatureRatio => {
-            each(pieces, column, |_, air| Some(air.temperature_k() / SEA_LEVEL_TEMPERATURE_K))
-        }
-        Q::PressureRatio => each(pieces, column, |_, air| Some(air.pressure_pa() / SEA_LEVEL_PRESSURE_PA)),
-        Q::DensityRatio => each(pieces, column, |_, air| Some(air.density_kg_m3() / SEA_LEVEL_DENSITY_KG_M3)),
+        Q::MeanMolarMass => each(pieces, column, |_, air| air.molar_mass_kg_kmol()),
+        Q::TemperatureRatio => each(pieces, column, |_, air| air.temperature_k() / SEA_LEVEL_TEMPERATURE_K),
+        Q::PressureRatio => each(pieces, column, |_, air| air.pressure_pa() / SEA_LEVEL_PRESSURE_PA),
+        Q::DensityRatio => each(pieces, column, |_, air| air.density_kg_m3() / SEA_LEVEL_DENSITY_KG_M3),
         // `check_request` lets only the state's quantities through.
         _ => {}
     }

@@ -1,63 +1,18 @@
-//! The 1976 standard's batch: the layers answer from -5 km up to 80 km geometric through
-//! a cursor on the layer of the previous altitude; the rest of the range (the standard's
-//! M/M0 table from 80 km, the upper part above 86 km) and every failing input go through
-//! the model's own [`Atmosphere::air`], so every bit is the scalar path's.
+//! The 1976 standard's batch: from -5 km up to 86 km the layers answer a block of
+//! altitudes at a time, lane-wise ([`LayerLanes`]: the layer of each altitude by counting
+//! bases, the logarithm and exponential by the math module's lane kernels, all without
+//! branches, so the compiler runs several altitudes at once), then the standard's M/M0
+//! from 80 km ([`lower_air`], as the scalar path); the upper part above 86 km and every
+//! failing input go through the model's own [`Atmosphere::air`], so every bit is the
+//! scalar path's.
 
-use crate::altitude::{Altitude, AltitudeKind, AltitudeRange};
-use crate::constants::SEA_LEVEL_MOLAR_MASS_KG_KMOL;
+use crate::altitude::{geopotential_of, Altitude, AltitudeKind};
 use crate::error::Error;
 use crate::gas::Air;
-use crate::model::{Atmosphere, Layer, Us1976, US1976};
+use crate::model::{lower_air, Atmosphere, LayerLanes, Us1976, LOWER_RANGE, US1976};
 use crate::quantity::Quantity;
 
-use super::{check_request, run, BatchError};
-
-/// The geopotential altitude of 80 km geometric: at and below it the standard's mean
-/// molecular weight is M0 (its Table 8 starts at 80 km), so the layers alone answer.
-const LAYERS_ALONE_TOP_GEOPOTENTIAL_M: f64 =
-    AltitudeRange::from_geometric(80_000.0, 80_000.0).geopotential_min_m;
-
-/// The layer holding the last altitude asked, with the band where it stays the layer the
-/// scalar path's search would pick: `below <= h < above` (unbounded below for the first
-/// layer, which also serves under its base; unbounded above for the last).
-#[derive(Clone, Copy)]
-struct Cursor {
-    layers: &'static [Layer],
-    layer: Layer,
-    below: f64,
-    above: f64,
-}
-
-impl Cursor {
-    fn new(layers: &'static [Layer]) -> Option<Self> {
-        // An empty band: the first altitude always searches.
-        Some(Self { layers, layer: *layers.first()?, below: f64::INFINITY, above: f64::NEG_INFINITY })
-    }
-
-    /// Temperature (K) and pressure (Pa) at geopotential altitude `h_m`, from the same
-    /// layer the scalar path's search picks (the last whose base is at or below `h_m`).
-    #[inline]
-    fn temperature_pressure(&mut self, h_m: f64) -> (f64, f64) {
-        if !(self.below <= h_m && h_m < self.above) {
-            self.seek(h_m);
-        }
-        self.layer.temperature_pressure(h_m)
-    }
-
-    #[inline]
-    fn seek(&mut self, h_m: f64) {
-        // The number of bases above the first at or below h: the scalar path's
-        // `partition_point(base <= h) - 1` (or 0) for strictly increasing bases, without
-        // the search's branches, which random altitudes mispredict.
-        let index: usize =
-            self.layers.iter().skip(1).map(|layer| usize::from(layer.base_geopotential_m <= h_m)).sum();
-        if let Some(layer) = self.layers.get(index) {
-            self.layer = *layer;
-        }
-        self.below = if index == 0 { f64::NEG_INFINITY } else { self.layer.base_geopotential_m };
-        self.above = self.layers.get(index + 1).map_or(f64::INFINITY, |next| next.base_geopotential_m);
-    }
-}
+use super::{check_request, each_alone, run, BatchError, BLOCK};
 
 /// The batch over a checked request, `offset` the index of the first altitude in the
 /// caller's whole batch.
@@ -68,26 +23,46 @@ pub(crate) fn run_standard(
     outputs: &mut [&mut [f64]],
     offset: usize,
 ) -> Result<(), BatchError> {
-    let range = US1976.range();
-    let Some(mut cursor) = Cursor::new(US1976.layers()) else {
+    let Some(lanes) = LayerLanes::new(US1976.layers()) else {
         return super::evaluate(&US1976, kind, altitudes_m, quantities, outputs);
     };
-    run(altitudes_m, quantities, outputs, offset, |meters, slot: &mut (Altitude, Air)| -> Result<(), Error> {
-        let altitude = kind.altitude(meters)?;
-        let h = altitude.geopotential().meters();
-        // In the standard's range (checked in the kind the caller gave, as the scalar
-        // path checks it) and at or below 80 km.
-        let above_bottom = match altitude {
-            Altitude::Geometric(z) => z.meters() >= range.geometric_min_m,
-            Altitude::Geopotential(_) => h >= range.geopotential_min_m,
-        };
-        if above_bottom && h <= LAYERS_ALONE_TOP_GEOPOTENTIAL_M {
-            let (temperature_k, pressure_pa) = cursor.temperature_pressure(h);
-            *slot = (altitude, Air::trusted(temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL));
-        } else {
-            *slot = (altitude, US1976.air(altitude)?);
+    run(altitudes_m, quantities, outputs, offset, |inputs, block| airs(&lanes, kind, inputs, block))
+}
+
+/// The altitudes and airs of one block (at most [`BLOCK`] inputs), or the first input's
+/// failure, as [`super::run`] asks.
+fn airs(
+    lanes: &LayerLanes,
+    kind: AltitudeKind,
+    inputs: &[f64],
+    block: &mut [(Altitude, Air)],
+) -> Result<(), (usize, Error)> {
+    // The lower standard's range in the kind the caller gave, as the scalar path checks it.
+    let ((bottom, top), geometric) = match kind {
+        AltitudeKind::Geometric => ((LOWER_RANGE.geometric_min_m, LOWER_RANGE.geometric_max_m), true),
+        AltitudeKind::Geopotential => {
+            ((LOWER_RANGE.geopotential_min_m, LOWER_RANGE.geopotential_max_m), false)
         }
-        Ok(())
+    };
+    let n = inputs.len().min(BLOCK);
+    let (mut h_m, mut lower) = ([0.0; BLOCK], [false; BLOCK]);
+    for ((&meters, h), lower) in inputs.iter().zip(h_m.iter_mut()).zip(lower.iter_mut()) {
+        *h = if geometric { geopotential_of(meters) } else { meters };
+        // NaN fails both.
+        *lower = (meters >= bottom) & (meters <= top);
+    }
+    let (mut temperature_k, mut pressure_pa) = ([0.0; BLOCK], [0.0; BLOCK]);
+    lanes.temperature_pressure(&h_m[..n], &mut temperature_k[..n], &mut pressure_pa[..n]);
+    let mut j = 0;
+    each_alone(inputs, block, |meters| {
+        let k = j % BLOCK;
+        j += 1;
+        let altitude = kind.altitude(meters)?;
+        if lower[k] {
+            Ok((altitude, lower_air(altitude, h_m[k], temperature_k[k], pressure_pa[k])))
+        } else {
+            Ok((altitude, US1976.air(altitude)?))
+        }
     })
 }
 
@@ -97,9 +72,9 @@ impl Us1976 {
     /// for bit `US1976.state(alt)?.get(q)?`; no allocation, `no_std`.
     ///
     /// Only the quantities asked are computed (density needs temperature and pressure,
-    /// not the viscosity), and the layer search is skipped while successive altitudes
-    /// stay in one layer, which sorted or nearly sorted altitudes (a flight) do. With the
-    /// `rayon` feature, `Us1976::batch_parallel` shares a large batch among threads.
+    /// not the viscosity), and up to 86 km the layers' temperature and pressure are
+    /// computed lane-wise over blocks of altitudes, in any order. With the `rayon`
+    /// feature, `Us1976::batch_parallel` shares a large batch among threads.
     ///
     /// ```
     /// use aerostrata::{AltitudeKind, Altitude, Atmosphere, Quantity, US1976};
@@ -130,39 +105,5 @@ impl Us1976 {
     ) -> Result<(), BatchError> {
         check_request(altitudes_m.len(), quantities, outputs)?;
         run_standard(kind, altitudes_m, quantities, outputs, 0)
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    /// The cursor picks the layer the scalar search picks at every base, just below and
-    /// just above it, and below the first base (hand-worked: the bases are Table 4's).
-    #[test]
-    fn the_cursor_picks_the_searched_layer_in_any_order() {
-        let layers = US1976.layers();
-        let mut points = std::vec::Vec::new();
-        for layer in layers {
-            let b = layer.base_geopotential_m;
-            points.extend([b, b - 1e-6, b + 1e-6, b - 1.0, b + 1.0]);
-        }
-        points.extend([-5_000.0, 84_852.0]);
-        let forward = points.clone();
-        let mut backward = points.clone();
-        backward.reverse();
-        for order in [forward, backward] {
-            let mut cursor = Cursor::new(layers).unwrap();
-            for &h in &order {
-                let index = layers.partition_point(|l| l.base_geopotential_m <= h).saturating_sub(1);
-                let expected = layers[index].temperature_pressure(h);
-                let got = cursor.temperature_pressure(h);
-                assert_eq!(
-                    (got.0.to_bits(), got.1.to_bits()),
-                    (expected.0.to_bits(), expected.1.to_bits()),
-                    "{h}"
-                );
-            }
-        }
     }
 }

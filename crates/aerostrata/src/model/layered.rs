@@ -10,7 +10,7 @@ use crate::altitude::{Altitude, AltitudeRange, MAX_GEOPOTENTIAL_M, MIN_GEOPOTENT
 use crate::constants::{GMR_K_M, SEA_LEVEL_MOLAR_MASS_KG_KMOL};
 use crate::error::{Error, Result};
 use crate::gas::Air;
-use crate::math::{exp, ln_1p};
+use crate::math::{exp, exp_each, ln_1p, ln_1p_each, pick};
 
 use super::atmosphere::Atmosphere;
 
@@ -80,6 +80,106 @@ impl Layer {
             let p = self.base_pressure_pa
                 * exp(-(GMR_K_M / self.lapse_rate_k_m) * ln_1p(rise / self.base_temperature_k));
             (t, p)
+        }
+    }
+}
+
+/// Up to eight layers as columns, for the temperature and pressure of many altitudes at
+/// once ([`LayerLanes::temperature_pressure`]); the batch path's form of the standard's
+/// lower layers.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct LayerLanes {
+    /// Base geopotential altitudes, m; +inf past the last layer, which no altitude picks.
+    base_m: [f64; LANE_LAYERS],
+    base_temperature_k: [f64; LANE_LAYERS],
+    base_pressure_pa: [f64; LANE_LAYERS],
+    lapse_rate_k_m: [f64; LANE_LAYERS],
+    /// -(g0 M0 / (R* L)), the power of T / Tb (unused where L = 0).
+    exponent: [f64; LANE_LAYERS],
+}
+
+/// The most layers [`LayerLanes`] holds: a power of two, so a layer index is masked, not
+/// bounds-checked, and the standard's seven fit.
+const LANE_LAYERS: usize = 8;
+
+/// Altitudes a call of [`LayerLanes::temperature_pressure`] works through at a time (its
+/// scratch columns live on the stack).
+const LANE_CHUNK: usize = 64;
+
+impl LayerLanes {
+    /// The columns of `layers`, or `None` for none or more than eight.
+    pub(crate) fn new(layers: &[Layer]) -> Option<Self> {
+        if layers.is_empty() || layers.len() > LANE_LAYERS {
+            return None;
+        }
+        let mut lanes = Self {
+            base_m: [f64::INFINITY; LANE_LAYERS],
+            base_temperature_k: [1.0; LANE_LAYERS],
+            base_pressure_pa: [1.0; LANE_LAYERS],
+            lapse_rate_k_m: [0.0; LANE_LAYERS],
+            exponent: [0.0; LANE_LAYERS],
+        };
+        for (i, layer) in layers.iter().enumerate() {
+            lanes.base_m[i] = layer.base_geopotential_m;
+            lanes.base_temperature_k[i] = layer.base_temperature_k;
+            lanes.base_pressure_pa[i] = layer.base_pressure_pa;
+            lanes.lapse_rate_k_m[i] = layer.lapse_rate_k_m;
+            if layer.lapse_rate_k_m != 0.0 {
+                lanes.exponent[i] = -(GMR_K_M / layer.lapse_rate_k_m);
+            }
+        }
+        Some(lanes)
+    }
+
+    /// Molecular-scale temperature (K) and pressure (Pa) at each geopotential altitude of
+    /// `h_m`, into `temperature_k` and `pressure_pa` (as long; extra length is left alone),
+    /// bit for bit [`Layer::temperature_pressure`] of the layer [`Layered`]'s search picks
+    /// (the last whose base is at or below h; the first below every base). The same
+    /// expressions, a step at a time over all the altitudes, without branches: the layer
+    /// by counting the bases at or below h, both of the layer's pressure laws computed and
+    /// one chosen, the logarithm and the exponential through `math`'s lane kernels.
+    pub(crate) fn temperature_pressure(
+        &self,
+        h_m: &[f64],
+        temperature_k: &mut [f64],
+        pressure_pa: &mut [f64],
+    ) {
+        let chunks = h_m.chunks(LANE_CHUNK).zip(temperature_k.chunks_mut(LANE_CHUNK));
+        for ((h_m, temperature_k), pressure_pa) in chunks.zip(pressure_pa.chunks_mut(LANE_CHUNK)) {
+            let n = h_m.len().min(temperature_k.len()).min(pressure_pa.len());
+            let (h_m, temperature_k, pressure_pa) =
+                (&h_m[..n], &mut temperature_k[..n], &mut pressure_pa[..n]);
+            // Each step a loop of its own: the gathers of the layers' values (loads by
+            // index, which no baseline vector unit has) stay apart from the arithmetic,
+            // which then runs lane-wise.
+            let mut base = [[0.0; LANE_CHUNK]; 5];
+            for (j, &h) in h_m.iter().enumerate() {
+                let i = self.base_m[1..].iter().map(|&b| usize::from(b <= h)).sum::<usize>() % LANE_LAYERS;
+                base[0][j] = self.base_m[i];
+                base[1][j] = self.base_temperature_k[i];
+                base[2][j] = self.lapse_rate_k_m[i];
+                base[3][j] = self.exponent[i];
+                base[4][j] = self.base_pressure_pa[i];
+            }
+            let [base_m, base_t, lapse, exponent, base_p] = &base;
+            let (mut ratio, mut isothermal) = ([0.0; LANE_CHUNK], [0.0; LANE_CHUNK]);
+            for j in 0..n {
+                let (dh, tb) = (h_m[j] - base_m[j], base_t[j]);
+                let rise = lapse[j] * dh;
+                temperature_k[j] = pick(lapse[j] == 0.0, tb, tb + rise);
+                ratio[j] = rise / tb;
+                isothermal[j] = -GMR_K_M * dh / tb;
+            }
+            let mut logarithm = [0.0; LANE_CHUNK];
+            ln_1p_each(&ratio[..n], &mut logarithm[..n]);
+            // `ratio` now holds the exponential's argument.
+            for j in 0..n {
+                ratio[j] = pick(lapse[j] == 0.0, isothermal[j], exponent[j] * logarithm[j]);
+            }
+            exp_each(&ratio[..n], pressure_pa);
+            for (p, &pb) in pressure_pa.iter_mut().zip(base_p) {
+                *p *= pb;
+            }
         }
     }
 }

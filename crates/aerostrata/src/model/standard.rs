@@ -43,7 +43,7 @@ pub struct Us1976;
 pub const US1976: Us1976 = Us1976;
 
 /// Geometric range of the lower standard, m.
-pub(super) const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
+pub(crate) const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
 
 /// Geometric range of the whole model, m.
 #[cfg(feature = "upper")]
@@ -161,14 +161,23 @@ impl Atmosphere for Us1976 {
         }
         let h = altitude.geopotential().meters();
         let (molecular_temperature_k, pressure_pa) = LOWER.temperature_pressure(h);
-        // The lower standard's (T, p) lie well inside Air's bands everywhere in its range
-        // (a property test checks every state is finite), so they need no checks here.
-        if h <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {
-            return Ok(Air::trusted(molecular_temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL));
-        }
-        let ratio = molar_mass_ratio(altitude.geometric().meters());
-        Ok(Air::trusted(molecular_temperature_k * ratio, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL * ratio))
+        Ok(lower_air(altitude, h, molecular_temperature_k, pressure_pa))
     }
+}
+
+/// The lower standard's air at `altitude` (within [`LOWER_RANGE`]; `h_m` its geopotential
+/// altitude) from its layers' molecular-scale temperature and pressure there: M = M0 up
+/// to 80 km, then the standard's M/M0 (shared by [`Us1976::air`] and the batch path,
+/// which computes the layers' values lane-wise).
+#[inline]
+pub(crate) fn lower_air(altitude: Altitude, h_m: f64, molecular_temperature_k: f64, pressure_pa: f64) -> Air {
+    // The lower standard's (T, p) lie well inside Air's bands everywhere in its range
+    // (a property test checks every state is finite), so they need no checks here.
+    if h_m <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {
+        return Air::trusted(molecular_temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL);
+    }
+    let ratio = molar_mass_ratio(altitude.geometric().meters());
+    Air::trusted(molecular_temperature_k * ratio, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL * ratio)
 }
 
 #[cfg(test)]
