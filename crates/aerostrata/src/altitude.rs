@@ -230,6 +230,16 @@ impl AltitudeKind {
         }
     }
 
+    /// `meters` of this kind as an [`Altitude`], for a caller that has checked it lies in
+    /// a model's range (always within the band [`AltitudeKind::altitude`] checks).
+    #[inline]
+    pub(crate) const fn checked_by_caller(self, meters: f64) -> Altitude {
+        match self {
+            Self::Geometric => Altitude::Geometric(GeometricAltitude(meters)),
+            Self::Geopotential => Altitude::Geopotential(GeopotentialAltitude(meters)),
+        }
+    }
+
     /// The kind's name, as error messages give it.
     pub(crate) fn quantity(self) -> &'static str {
         match self {

@@ -59,9 +59,13 @@ pub(crate) fn exp_each(x: &[f64], out: &mut [f64]) {
     for (&x, out) in x.iter().zip(out.iter_mut()) {
         *out = exp_kernel(x);
     }
-    for (&x, out) in x.iter().zip(out.iter_mut()) {
-        if x.is_nan() || magnitude(x) > EXP_KERNEL_MAX {
-            *out = exp(x);
+    // Whether any element needs it first: a test of all the lanes at once.
+    let outside = |x: f64| x.is_nan() | (magnitude(x) > EXP_KERNEL_MAX);
+    if x.iter().fold(false, |any, &x| any | outside(x)) {
+        for (&x, out) in x.iter().zip(out.iter_mut()) {
+            if outside(x) {
+                *out = exp(x);
+            }
         }
     }
 }
@@ -74,9 +78,11 @@ pub(crate) fn ln_1p_each(x: &[f64], out: &mut [f64]) {
     for (&x, out) in x.iter().zip(out.iter_mut()) {
         *out = ln_1p_kernel(x);
     }
-    for (&x, out) in x.iter().zip(out.iter_mut()) {
-        if !ln_1p_kernel_holds(x) {
-            *out = ln_1p(x);
+    if !x.iter().fold(true, |all, &x| all & ln_1p_kernel_holds(x)) {
+        for (&x, out) in x.iter().zip(out.iter_mut()) {
+            if !ln_1p_kernel_holds(x) {
+                *out = ln_1p(x);
+            }
         }
     }
 }
@@ -163,7 +169,7 @@ fn exp_kernel(x: f64) -> f64 {
 /// case, by its high-word tests), NaN excluded.
 #[inline(always)]
 fn ln_1p_kernel_holds(x: f64) -> bool {
-    x < high_word_float(0x3fda_827a) && -x < high_word_float(0x3fd2_bec5)
+    (x < high_word_float(0x3fda_827a)) & (-x < high_word_float(0x3fd2_bec5))
 }
 
 /// libm's `log1p` where [`ln_1p_kernel_holds`]: f = x, k = 0, c = 0, written operation

@@ -191,22 +191,47 @@ pub(crate) fn run(
     offset: usize,
     mut airs: impl FnMut(&[f64], &mut [(Altitude, Air)]) -> Result<(), (usize, Error)>,
 ) -> Result<(), BatchError> {
-    // Sea level is a valid altitude, so the `else` never runs; it keeps the function
-    // free of any panic.
-    let Ok(sea_level) = Altitude::geometric_m(0.0) else { return Ok(()) };
-    // Overwritten before it is read: `run` reads only the elements it has just filled.
-    let mut block = [(sea_level, Air::trusted(1.0, 1.0, 1.0)); BLOCK];
-    let continuum_asked = quantities.iter().any(|q| q.info().may_be_undefined);
+    let mut block = Block::new();
     for (number, inputs) in altitudes_m.chunks(BLOCK).enumerate() {
-        let start = number * BLOCK;
-        let (mut failure, mut filled) = match airs(inputs, &mut block[..inputs.len()]) {
-            Ok(()) => (None, inputs.len()),
+        block.columns(inputs, number * BLOCK, offset, quantities, outputs, &mut airs)?;
+    }
+    Ok(())
+}
+
+/// The altitudes and airs of one block of inputs, and the columns written from them.
+pub(crate) struct Block {
+    slots: [(Altitude, Air); BLOCK],
+}
+
+impl Block {
+    pub(crate) fn new() -> Self {
+        // Overwritten before it is read: `columns` reads only the slots it has just
+        // filled. (Sea level and unit air are valid: the placeholder needs no check.)
+        let placeholder = (AltitudeKind::Geometric.checked_by_caller(0.0), Air::trusted(1.0, 1.0, 1.0));
+        Self { slots: [placeholder; BLOCK] }
+    }
+
+    /// Fills the slots from `inputs` (at most [`BLOCK`], the first at index `start` of
+    /// the caller's columns and `offset + start` of the whole batch) by `airs`, then
+    /// writes the quantities' columns up to the first failure, which it returns.
+    pub(crate) fn columns(
+        &mut self,
+        inputs: &[f64],
+        start: usize,
+        offset: usize,
+        quantities: &[Quantity],
+        outputs: &mut [&mut [f64]],
+        airs: &mut impl FnMut(&[f64], &mut [(Altitude, Air)]) -> Result<(), (usize, Error)>,
+    ) -> Result<(), BatchError> {
+        let count = inputs.len().min(BLOCK);
+        let (mut failure, mut filled) = match airs(inputs, &mut self.slots[..count]) {
+            Ok(()) => (None, count),
             Err((j, error)) => (Some((j, error)), j),
         };
         // A continuum property asked of rarefied air fails before any air error after it.
-        if continuum_asked {
-            if let Some(j) = block[..filled].iter().position(|(_, air)| !air.is_continuum()) {
-                let (altitude, air) = block[j];
+        if quantities.iter().any(|q| q.info().may_be_undefined) {
+            if let Some(j) = self.slots[..filled].iter().position(|(_, air)| !air.is_continuum()) {
+                let (altitude, air) = self.slots[j];
                 let state = State::new(altitude, air);
                 if let Some(error) = quantities.iter().find_map(|&q| state.get(q).err()) {
                     failure = Some((j, error));
@@ -214,61 +239,63 @@ pub(crate) fn run(
                 }
             }
         }
-        let pieces = &block[..filled];
+        let slots = &self.slots;
         for (&quantity, output) in quantities.iter().zip(outputs.iter_mut()) {
-            let end = start + filled;
-            if let Some(column) = output.get_mut(start..end) {
-                fill(quantity, pieces, column);
+            if let Some(column) = output.get_mut(start..start + filled) {
+                fill(quantity, column, |j| slots[j % BLOCK]);
             }
         }
-        if let Some((j, error)) = failure {
-            return Err(BatchError::Element { index: offset + start + j, error });
+        match failure {
+            Some((j, error)) => Err(BatchError::Element { index: offset + start + j, error }),
+            None => Ok(()),
         }
     }
-    Ok(())
 }
-
-/// Writes `column[j] = f(altitude_j, air_j)` over a block: one loop per quantity, so that
-/// the choice of the quantity is made once per block, not once per element.
+/// Writes `column[j] = f(altitude_j, air_j)` over a block, `piece(j)` giving the
+/// altitude and air of element j: one loop per quantity, so that the choice of the
+/// quantity is made once per block, not once per element.
 #[inline(always)]
-fn each(pieces: &[(Altitude, Air)], column: &mut [f64], f: impl Fn(Altitude, &Air) -> f64) {
-    for ((altitude, air), slot) in pieces.iter().zip(column.iter_mut()) {
-        *slot = f(*altitude, air);
+fn each(column: &mut [f64], piece: &impl Fn(usize) -> (Altitude, Air), f: impl Fn(Altitude, &Air) -> f64) {
+    for (j, slot) in column.iter_mut().enumerate() {
+        let (altitude, air) = piece(j);
+        *slot = f(altitude, &air);
     }
 }
 
-/// Column `quantity` of a block, each value by the expression of [`State::new`] (a test
-/// checks every quantity against [`State::get`] bit for bit). The continuum properties
-/// by their formulas alone: `run` has stopped before any rarefied air.
-fn fill(quantity: Quantity, pieces: &[(Altitude, Air)], column: &mut [f64]) {
+/// Column `quantity` of a block (`piece(j)` the altitude and air of element j), each
+/// value by the expression of [`State::new`] (a test checks every quantity against
+/// [`State::get`] bit for bit). The continuum properties by their formulas alone: the
+/// callers stop before any rarefied air.
+#[inline(always)]
+pub(crate) fn fill(quantity: Quantity, column: &mut [f64], piece: impl Fn(usize) -> (Altitude, Air)) {
     use Quantity as Q;
     match quantity {
-        Q::GeometricAltitude => each(pieces, column, |h, _| h.geometric().meters()),
-        Q::GeopotentialAltitude => each(pieces, column, |h, _| h.geopotential().meters()),
-        Q::Temperature => each(pieces, column, |_, air| air.temperature_k()),
-        Q::MolecularTemperature => each(pieces, column, |_, air| air.molecular_temperature_k()),
-        Q::Pressure => each(pieces, column, |_, air| air.pressure_pa()),
-        Q::Density => each(pieces, column, |_, air| air.density_kg_m3()),
-        Q::SpeedOfSound => each(pieces, column, |_, air| air.continuum_speed_of_sound_m_s()),
-        Q::DynamicViscosity => each(pieces, column, |_, air| sutherland(air.temperature_k())),
+        Q::GeometricAltitude => each(column, &piece, |h, _| h.geometric().meters()),
+        Q::GeopotentialAltitude => each(column, &piece, |h, _| h.geopotential().meters()),
+        Q::Temperature => each(column, &piece, |_, air| air.temperature_k()),
+        Q::MolecularTemperature => each(column, &piece, |_, air| air.molecular_temperature_k()),
+        Q::Pressure => each(column, &piece, |_, air| air.pressure_pa()),
+        Q::Density => each(column, &piece, |_, air| air.density_kg_m3()),
+        Q::SpeedOfSound => each(column, &piece, |_, air| air.continuum_speed_of_sound_m_s()),
+        Q::DynamicViscosity => each(column, &piece, |_, air| sutherland(air.temperature_k())),
         Q::KinematicViscosity => {
-            each(pieces, column, |_, air| sutherland(air.temperature_k()) / air.density_kg_m3())
+            each(column, &piece, |_, air| sutherland(air.temperature_k()) / air.density_kg_m3())
         }
-        Q::ThermalConductivity => each(pieces, column, |_, air| conductivity(air.temperature_k())),
-        Q::Gravity => each(pieces, column, |h, _| h.geometric().gravity_m_s2()),
+        Q::ThermalConductivity => each(column, &piece, |_, air| conductivity(air.temperature_k())),
+        Q::Gravity => each(column, &piece, |h, _| h.geometric().gravity_m_s2()),
         Q::PressureScaleHeight => {
-            each(pieces, column, |h, air| air.pressure_scale_height_m(h.geometric().gravity_m_s2()))
+            each(column, &piece, |h, air| air.pressure_scale_height_m(h.geometric().gravity_m_s2()))
         }
-        Q::NumberDensity => each(pieces, column, |_, air| air.number_density_m3()),
-        Q::MeanParticleSpeed => each(pieces, column, |_, air| air.mean_particle_speed_m_s()),
-        Q::MeanFreePath => each(pieces, column, |_, air| crate::gas::mean_free_path(air.number_density_m3())),
-        Q::CollisionFrequency => each(pieces, column, |_, air| {
+        Q::NumberDensity => each(column, &piece, |_, air| air.number_density_m3()),
+        Q::MeanParticleSpeed => each(column, &piece, |_, air| air.mean_particle_speed_m_s()),
+        Q::MeanFreePath => each(column, &piece, |_, air| crate::gas::mean_free_path(air.number_density_m3())),
+        Q::CollisionFrequency => each(column, &piece, |_, air| {
             air.mean_particle_speed_m_s() * air.number_density_m3() * COLLISION_CROSS_SECTION_M2
         }),
-        Q::MeanMolarMass => each(pieces, column, |_, air| air.molar_mass_kg_kmol()),
-        Q::TemperatureRatio => each(pieces, column, |_, air| air.temperature_k() / SEA_LEVEL_TEMPERATURE_K),
-        Q::PressureRatio => each(pieces, column, |_, air| air.pressure_pa() / SEA_LEVEL_PRESSURE_PA),
-        Q::DensityRatio => each(pieces, column, |_, air| air.density_kg_m3() / SEA_LEVEL_DENSITY_KG_M3),
+        Q::MeanMolarMass => each(column, &piece, |_, air| air.molar_mass_kg_kmol()),
+        Q::TemperatureRatio => each(column, &piece, |_, air| air.temperature_k() / SEA_LEVEL_TEMPERATURE_K),
+        Q::PressureRatio => each(column, &piece, |_, air| air.pressure_pa() / SEA_LEVEL_PRESSURE_PA),
+        Q::DensityRatio => each(column, &piece, |_, air| air.density_kg_m3() / SEA_LEVEL_DENSITY_KG_M3),
         // `check_request` lets only the state's quantities through.
         _ => {}
     }

@@ -2,17 +2,18 @@
 //! altitudes at a time, lane-wise ([`LayerLanes`]: the layer of each altitude by counting
 //! bases, the logarithm and exponential by the math module's lane kernels, all without
 //! branches, so the compiler runs several altitudes at once), then the standard's M/M0
-//! from 80 km ([`lower_air`], as the scalar path); the upper part above 86 km and every
+//! from 80 km (as the scalar path, [`lower_air_by_ratio`]); the upper part above 86 km and every
 //! failing input go through the model's own [`Atmosphere::air`], so every bit is the
 //! scalar path's.
 
 use crate::altitude::{geopotential_of, Altitude, AltitudeKind};
-use crate::error::Error;
 use crate::gas::Air;
-use crate::model::{lower_air, Atmosphere, LayerLanes, Us1976, LOWER_RANGE, US1976};
+use crate::model::{
+    lower_air_by_ratio, lower_molar_mass_ratio, Atmosphere, LayerLanes, Us1976, LOWER_RANGE, US1976,
+};
 use crate::quantity::Quantity;
 
-use super::{check_request, each_alone, run, BatchError, BLOCK};
+use super::{check_request, each_alone, fill, BatchError, Block, BLOCK};
 
 /// The batch over a checked request, `offset` the index of the first altitude in the
 /// caller's whole batch.
@@ -26,44 +27,101 @@ pub(crate) fn run_standard(
     let Some(lanes) = LayerLanes::new(US1976.layers()) else {
         return super::evaluate(&US1976, kind, altitudes_m, quantities, outputs);
     };
-    run(altitudes_m, quantities, outputs, offset, |inputs, block| airs(&lanes, kind, inputs, block))
+    let mut block = Block::new();
+    for (number, inputs) in altitudes_m.chunks(BLOCK).enumerate() {
+        let start = number * BLOCK;
+        let lower = LowerLanes::new(&lanes, kind, inputs);
+        if lower.all {
+            // Every input in the lower standard: no error, no rarefied air, so each column
+            // straight from the lanes, each value's air built where it is used (the
+            // compiler keeps only what the quantity reads of it).
+            for (&quantity, output) in quantities.iter().zip(outputs.iter_mut()) {
+                if let Some(column) = output.get_mut(start..start + lower.count) {
+                    fill(quantity, column, |j| lower.piece(kind, j));
+                }
+            }
+        } else {
+            let mut airs = |inputs: &[f64], slots: &mut [(Altitude, Air)]| {
+                let mut j = 0;
+                each_alone(inputs, slots, |meters| {
+                    let k = j;
+                    j += 1;
+                    if lower.within[k % BLOCK] {
+                        Ok(lower.piece(kind, k))
+                    } else {
+                        let altitude = kind.altitude(meters)?;
+                        Ok((altitude, US1976.air(altitude)?))
+                    }
+                })
+            };
+            block.columns(inputs, start, offset, quantities, outputs, &mut airs)?;
+        }
+    }
+    Ok(())
 }
 
-/// The altitudes and airs of one block (at most [`BLOCK`] inputs), or the first input's
-/// failure, as [`super::run`] asks.
-fn airs(
-    lanes: &LayerLanes,
-    kind: AltitudeKind,
-    inputs: &[f64],
-    block: &mut [(Altitude, Air)],
-) -> Result<(), (usize, Error)> {
-    // The lower standard's range in the kind the caller gave, as the scalar path checks it.
-    let ((bottom, top), geometric) = match kind {
-        AltitudeKind::Geometric => ((LOWER_RANGE.geometric_min_m, LOWER_RANGE.geometric_max_m), true),
-        AltitudeKind::Geopotential => {
-            ((LOWER_RANGE.geopotential_min_m, LOWER_RANGE.geopotential_max_m), false)
+/// One block's inputs as the lower standard sees them, computed lane-wise.
+struct LowerLanes {
+    /// The inputs (at most [`BLOCK`]).
+    meters: [f64; BLOCK],
+    count: usize,
+    /// Whether each input lies in the lower standard's range (checked in the kind the
+    /// caller gave, as the scalar path checks it), and whether all do.
+    within: [bool; BLOCK],
+    all: bool,
+    /// The layers' molecular-scale temperature (K) and pressure (Pa), and M/M0.
+    temperature_k: [f64; BLOCK],
+    pressure_pa: [f64; BLOCK],
+    ratio: [f64; BLOCK],
+}
+
+impl LowerLanes {
+    fn new(lanes: &LayerLanes, kind: AltitudeKind, inputs: &[f64]) -> Self {
+        let ((bottom, top), geometric) = match kind {
+            AltitudeKind::Geometric => ((LOWER_RANGE.geometric_min_m, LOWER_RANGE.geometric_max_m), true),
+            AltitudeKind::Geopotential => {
+                ((LOWER_RANGE.geopotential_min_m, LOWER_RANGE.geopotential_max_m), false)
+            }
+        };
+        let count = inputs.len().min(BLOCK);
+        let mut this = Self {
+            meters: [0.0; BLOCK],
+            count,
+            within: [false; BLOCK],
+            all: false,
+            temperature_k: [0.0; BLOCK],
+            pressure_pa: [0.0; BLOCK],
+            ratio: [1.0; BLOCK],
+        };
+        let mut h_m = [0.0; BLOCK];
+        for (j, &meters) in inputs.iter().enumerate().take(count) {
+            this.meters[j] = meters;
+            h_m[j] = if geometric { geopotential_of(meters) } else { meters };
+            // NaN fails both.
+            this.within[j] = (meters >= bottom) & (meters <= top);
         }
-    };
-    let n = inputs.len().min(BLOCK);
-    let (mut h_m, mut lower) = ([0.0; BLOCK], [false; BLOCK]);
-    for ((&meters, h), lower) in inputs.iter().zip(h_m.iter_mut()).zip(lower.iter_mut()) {
-        *h = if geometric { geopotential_of(meters) } else { meters };
-        // NaN fails both.
-        *lower = (meters >= bottom) & (meters <= top);
+        this.all = this.within[..count].iter().fold(true, |all, &within| all & within);
+        lanes.temperature_pressure(
+            &h_m[..count],
+            &mut this.temperature_k[..count],
+            &mut this.pressure_pa[..count],
+        );
+        let ratios = this.ratio.iter_mut().zip(&this.within).zip(&this.meters).zip(&h_m).take(count);
+        for (((ratio, &within), &meters), &h) in ratios {
+            if within {
+                *ratio = lower_molar_mass_ratio(kind.checked_by_caller(meters), h);
+            }
+        }
+        this
     }
-    let (mut temperature_k, mut pressure_pa) = ([0.0; BLOCK], [0.0; BLOCK]);
-    lanes.temperature_pressure(&h_m[..n], &mut temperature_k[..n], &mut pressure_pa[..n]);
-    let mut j = 0;
-    each_alone(inputs, block, |meters| {
+
+    /// The altitude and air of input `j`, which must lie [`within`](Self::within).
+    #[inline(always)]
+    fn piece(&self, kind: AltitudeKind, j: usize) -> (Altitude, Air) {
         let k = j % BLOCK;
-        j += 1;
-        let altitude = kind.altitude(meters)?;
-        if lower[k] {
-            Ok((altitude, lower_air(altitude, h_m[k], temperature_k[k], pressure_pa[k])))
-        } else {
-            Ok((altitude, US1976.air(altitude)?))
-        }
-    })
+        let air = lower_air_by_ratio(self.temperature_k[k], self.pressure_pa[k], self.ratio[k]);
+        (kind.checked_by_caller(self.meters[k]), air)
+    }
 }
 
 impl Us1976 {

@@ -162,19 +162,22 @@ impl LayerLanes {
                 base[4][j] = self.base_pressure_pa[i];
             }
             let [base_m, base_t, lapse, exponent, base_p] = &base;
-            let (mut ratio, mut isothermal) = ([0.0; LANE_CHUNK], [0.0; LANE_CHUNK]);
+            // One division a lane: by Tb, of -g0 M0 dH / R* in an isothermal layer (the
+            // exponential's argument) and of L dH in the others (the logarithm's, which
+            // the isothermal lanes take as 0, inside its kernel).
+            let (mut quotient, mut ratio) = ([0.0; LANE_CHUNK], [0.0; LANE_CHUNK]);
             for j in 0..n {
-                let (dh, tb) = (h_m[j] - base_m[j], base_t[j]);
+                let (dh, tb, isothermal) = (h_m[j] - base_m[j], base_t[j], lapse[j] == 0.0);
                 let rise = lapse[j] * dh;
-                temperature_k[j] = pick(lapse[j] == 0.0, tb, tb + rise);
-                ratio[j] = rise / tb;
-                isothermal[j] = -GMR_K_M * dh / tb;
+                temperature_k[j] = pick(isothermal, tb, tb + rise);
+                quotient[j] = pick(isothermal, -GMR_K_M * dh, rise) / tb;
+                ratio[j] = pick(isothermal, 0.0, quotient[j]);
             }
             let mut logarithm = [0.0; LANE_CHUNK];
             ln_1p_each(&ratio[..n], &mut logarithm[..n]);
             // `ratio` now holds the exponential's argument.
             for j in 0..n {
-                ratio[j] = pick(lapse[j] == 0.0, isothermal[j], exponent[j] * logarithm[j]);
+                ratio[j] = pick(lapse[j] == 0.0, quotient[j], exponent[j] * logarithm[j]);
             }
             exp_each(&ratio[..n], pressure_pa);
             for (p, &pb) in pressure_pa.iter_mut().zip(base_p) {

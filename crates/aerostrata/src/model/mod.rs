@@ -27,7 +27,7 @@ pub(crate) use layered::LayerLanes;
 pub use layered::{Layer, LayerSpec, Layered, MAX_LAPSE_RATE_K_M, MIN_LAYER_THICKNESS_M};
 pub use offset::TemperatureOffset;
 pub use spec::{ModelSpec, SpecError};
-pub(crate) use standard::{lower_air, LOWER_RANGE};
+pub(crate) use standard::{lower_air_by_ratio, lower_molar_mass_ratio, LOWER_RANGE};
 pub use standard::{Us1976, US1976};
 // `AltitudeKind` lives in `crate::altitude`; `aerostrata::model::AltitudeKind` stays a
 // public path.

@@ -166,17 +166,30 @@ impl Atmosphere for Us1976 {
 }
 
 /// The lower standard's air at `altitude` (within [`LOWER_RANGE`]; `h_m` its geopotential
-/// altitude) from its layers' molecular-scale temperature and pressure there: M = M0 up
-/// to 80 km, then the standard's M/M0 (shared by [`Us1976::air`] and the batch path,
-/// which computes the layers' values lane-wise).
+/// altitude) from its layers' molecular-scale temperature and pressure there.
 #[inline]
 pub(crate) fn lower_air(altitude: Altitude, h_m: f64, molecular_temperature_k: f64, pressure_pa: f64) -> Air {
+    lower_air_by_ratio(molecular_temperature_k, pressure_pa, lower_molar_mass_ratio(altitude, h_m))
+}
+
+/// M/M0 of the lower standard at `altitude` (`h_m` its geopotential altitude): 1 up to
+/// 80 km, then the standard's table.
+#[inline]
+pub(crate) fn lower_molar_mass_ratio(altitude: Altitude, h_m: f64) -> f64 {
+    if h_m <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {
+        1.0
+    } else {
+        molar_mass_ratio(altitude.geometric().meters())
+    }
+}
+
+/// The lower standard's air from T_M, p and M/M0: T = T_M M/M0 and M = M0 M/M0 (exactly
+/// T_M and M0 where the ratio is 1). Shared by [`lower_air`] and the batch path, which
+/// computes the ratios of a block first.
+#[inline(always)]
+pub(crate) fn lower_air_by_ratio(molecular_temperature_k: f64, pressure_pa: f64, ratio: f64) -> Air {
     // The lower standard's (T, p) lie well inside Air's bands everywhere in its range
     // (a property test checks every state is finite), so they need no checks here.
-    if h_m <= MOLAR_MASS_RATIO_START_GEOPOTENTIAL_M {
-        return Air::trusted(molecular_temperature_k, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL);
-    }
-    let ratio = molar_mass_ratio(altitude.geometric().meters());
     Air::trusted(molecular_temperature_k * ratio, pressure_pa, SEA_LEVEL_MOLAR_MASS_KG_KMOL * ratio)
 }
 
