@@ -24,13 +24,14 @@ pub(crate) fn run_standard(
     outputs: &mut [&mut [f64]],
     offset: usize,
 ) -> Result<(), BatchError> {
-    let Some(lanes) = LayerLanes::new(US1976.layers()) else {
+    let Some(mut lanes) = LayerLanes::new(US1976.layers()) else {
         return super::evaluate(&US1976, kind, altitudes_m, quantities, outputs);
     };
     let mut block = Block::new();
+    let mut lower = LowerLanes::new();
     for (number, inputs) in altitudes_m.chunks(BLOCK).enumerate() {
         let start = number * BLOCK;
-        let lower = LowerLanes::new(&lanes, kind, inputs);
+        lower.compute(&mut lanes, kind, inputs);
         if lower.all {
             // Every input in the lower standard: no error, no rarefied air, so each column
             // straight from the lanes, each value's air built where it is used (the
@@ -62,8 +63,9 @@ pub(crate) fn run_standard(
 
 /// One block's inputs as the lower standard sees them, computed lane-wise.
 struct LowerLanes {
-    /// The inputs (at most [`BLOCK`]).
+    /// The inputs (at most [`BLOCK`]) and their geopotential altitudes.
     meters: [f64; BLOCK],
+    h_m: [f64; BLOCK],
     count: usize,
     /// Whether each input lies in the lower standard's range (checked in the kind the
     /// caller gave, as the scalar path checks it), and whether all do.
@@ -76,7 +78,22 @@ struct LowerLanes {
 }
 
 impl LowerLanes {
-    fn new(lanes: &LayerLanes, kind: AltitudeKind, inputs: &[f64]) -> Self {
+    /// Room for a block, filled by [`LowerLanes::compute`] (made once a batch).
+    fn new() -> Self {
+        Self {
+            meters: [0.0; BLOCK],
+            h_m: [0.0; BLOCK],
+            count: 0,
+            within: [false; BLOCK],
+            all: false,
+            temperature_k: [0.0; BLOCK],
+            pressure_pa: [0.0; BLOCK],
+            ratio: [1.0; BLOCK],
+        }
+    }
+
+    /// The lanes of the block `inputs` (at most [`BLOCK`]).
+    fn compute(&mut self, lanes: &mut LayerLanes, kind: AltitudeKind, inputs: &[f64]) {
         let ((bottom, top), geometric) = match kind {
             AltitudeKind::Geometric => ((LOWER_RANGE.geometric_min_m, LOWER_RANGE.geometric_max_m), true),
             AltitudeKind::Geopotential => {
@@ -84,35 +101,23 @@ impl LowerLanes {
             }
         };
         let count = inputs.len().min(BLOCK);
-        let mut this = Self {
-            meters: [0.0; BLOCK],
-            count,
-            within: [false; BLOCK],
-            all: false,
-            temperature_k: [0.0; BLOCK],
-            pressure_pa: [0.0; BLOCK],
-            ratio: [1.0; BLOCK],
-        };
-        let mut h_m = [0.0; BLOCK];
+        self.count = count;
         for (j, &meters) in inputs.iter().enumerate().take(count) {
-            this.meters[j] = meters;
-            h_m[j] = if geometric { geopotential_of(meters) } else { meters };
+            self.meters[j] = meters;
+            self.h_m[j] = if geometric { geopotential_of(meters) } else { meters };
             // NaN fails both.
-            this.within[j] = (meters >= bottom) & (meters <= top);
+            self.within[j] = (meters >= bottom) & (meters <= top);
         }
-        this.all = this.within[..count].iter().fold(true, |all, &within| all & within);
+        self.all = self.within[..count].iter().fold(true, |all, &within| all & within);
         lanes.temperature_pressure(
-            &h_m[..count],
-            &mut this.temperature_k[..count],
-            &mut this.pressure_pa[..count],
+            &self.h_m[..count],
+            &mut self.temperature_k[..count],
+            &mut self.pressure_pa[..count],
         );
-        let ratios = this.ratio.iter_mut().zip(&this.within).zip(&this.meters).zip(&h_m).take(count);
+        let ratios = self.ratio.iter_mut().zip(&self.within).zip(&self.meters).zip(&self.h_m).take(count);
         for (((ratio, &within), &meters), &h) in ratios {
-            if within {
-                *ratio = lower_molar_mass_ratio(kind.checked_by_caller(meters), h);
-            }
+            *ratio = if within { lower_molar_mass_ratio(kind.checked_by_caller(meters), h) } else { 1.0 };
         }
-        this
     }
 
     /// The altitude and air of input `j`, which must lie [`within`](Self::within).

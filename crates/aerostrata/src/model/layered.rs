@@ -87,7 +87,7 @@ impl Layer {
 /// Up to eight layers as columns, for the temperature and pressure of many altitudes at
 /// once ([`LayerLanes::temperature_pressure`]); the batch path's form of the standard's
 /// lower layers.
-#[derive(Debug, Clone, Copy)]
+#[derive(Debug)]
 pub(crate) struct LayerLanes {
     /// Base geopotential altitudes, m; +inf past the last layer, which no altitude picks.
     base_m: [f64; LANE_LAYERS],
@@ -96,14 +96,16 @@ pub(crate) struct LayerLanes {
     lapse_rate_k_m: [f64; LANE_LAYERS],
     /// -(g0 M0 / (R* L)), the power of T / Tb (unused where L = 0).
     exponent: [f64; LANE_LAYERS],
+    /// Room for the steps of [`LayerLanes::temperature_pressure`], made once and reused
+    /// (zeroing it at every call was a tenth of a batch's time).
+    scratch: [[f64; LANE_CHUNK]; 7],
 }
 
 /// The most layers [`LayerLanes`] holds: a power of two, so a layer index is masked, not
 /// bounds-checked, and the standard's seven fit.
 const LANE_LAYERS: usize = 8;
 
-/// Altitudes a call of [`LayerLanes::temperature_pressure`] works through at a time (its
-/// scratch columns live on the stack).
+/// Altitudes [`LayerLanes::temperature_pressure`] works through at a time.
 const LANE_CHUNK: usize = 64;
 
 impl LayerLanes {
@@ -118,6 +120,7 @@ impl LayerLanes {
             base_pressure_pa: [1.0; LANE_LAYERS],
             lapse_rate_k_m: [0.0; LANE_LAYERS],
             exponent: [0.0; LANE_LAYERS],
+            scratch: [[0.0; LANE_CHUNK]; 7],
         };
         for (i, layer) in layers.iter().enumerate() {
             lanes.base_m[i] = layer.base_geopotential_m;
@@ -139,7 +142,7 @@ impl LayerLanes {
     /// by counting the bases at or below h, both of the layer's pressure laws computed and
     /// one chosen, the logarithm and the exponential through `math`'s lane kernels.
     pub(crate) fn temperature_pressure(
-        &self,
+        &mut self,
         h_m: &[f64],
         temperature_k: &mut [f64],
         pressure_pa: &mut [f64],
@@ -149,38 +152,36 @@ impl LayerLanes {
             let n = h_m.len().min(temperature_k.len()).min(pressure_pa.len());
             let (h_m, temperature_k, pressure_pa) =
                 (&h_m[..n], &mut temperature_k[..n], &mut pressure_pa[..n]);
+            let [dh, base_t, lapse, exponent, base_p, quotient, ratio] = &mut self.scratch;
             // Each step a loop of its own: the gathers of the layers' values (loads by
             // index, which no baseline vector unit has) stay apart from the arithmetic,
             // which then runs lane-wise.
-            let mut base = [[0.0; LANE_CHUNK]; 5];
             for (j, &h) in h_m.iter().enumerate() {
                 let i = self.base_m[1..].iter().map(|&b| usize::from(b <= h)).sum::<usize>() % LANE_LAYERS;
-                base[0][j] = self.base_m[i];
-                base[1][j] = self.base_temperature_k[i];
-                base[2][j] = self.lapse_rate_k_m[i];
-                base[3][j] = self.exponent[i];
-                base[4][j] = self.base_pressure_pa[i];
+                dh[j] = h - self.base_m[i];
+                base_t[j] = self.base_temperature_k[i];
+                lapse[j] = self.lapse_rate_k_m[i];
+                exponent[j] = self.exponent[i];
+                base_p[j] = self.base_pressure_pa[i];
             }
-            let [base_m, base_t, lapse, exponent, base_p] = &base;
             // One division a lane: by Tb, of -g0 M0 dH / R* in an isothermal layer (the
             // exponential's argument) and of L dH in the others (the logarithm's, which
             // the isothermal lanes take as 0, inside its kernel).
-            let (mut quotient, mut ratio) = ([0.0; LANE_CHUNK], [0.0; LANE_CHUNK]);
             for j in 0..n {
-                let (dh, tb, isothermal) = (h_m[j] - base_m[j], base_t[j], lapse[j] == 0.0);
+                let (dh, tb, isothermal) = (dh[j], base_t[j], lapse[j] == 0.0);
                 let rise = lapse[j] * dh;
                 temperature_k[j] = pick(isothermal, tb, tb + rise);
                 quotient[j] = pick(isothermal, -GMR_K_M * dh, rise) / tb;
                 ratio[j] = pick(isothermal, 0.0, quotient[j]);
             }
-            let mut logarithm = [0.0; LANE_CHUNK];
-            ln_1p_each(&ratio[..n], &mut logarithm[..n]);
-            // `ratio` now holds the exponential's argument.
+            // The pressures' room holds the logarithms, then `ratio` the exponential's
+            // argument, then the pressures' room the exponentials.
+            ln_1p_each(&ratio[..n], pressure_pa);
             for j in 0..n {
-                ratio[j] = pick(lapse[j] == 0.0, quotient[j], exponent[j] * logarithm[j]);
+                ratio[j] = pick(lapse[j] == 0.0, quotient[j], exponent[j] * pressure_pa[j]);
             }
             exp_each(&ratio[..n], pressure_pa);
-            for (p, &pb) in pressure_pa.iter_mut().zip(base_p) {
+            for (p, &pb) in pressure_pa.iter_mut().zip(base_p.iter()) {
                 *p *= pb;
             }
         }
