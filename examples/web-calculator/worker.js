@@ -8,7 +8,7 @@
 // or {id, ok: false, field, message}, `field` naming the page's field at fault.
 
 import init, * as api from "./aerostrata/aerostrata.js";
-import { computePoint } from "./point.js";
+import { computePoint, reachesUpper, UPPER_BASE_M } from "./point.js";
 import { largest, thin } from "./thin.js";
 
 const ready = init();
@@ -75,6 +75,13 @@ async function point({ described, inputs }) {
   } catch (e) {
     return failure("sounding-file", e);
   }
+  if (reachesUpper(inputs.altitudeM)) {
+    try {
+      await api.loadUpper();
+    } catch (e) {
+      return failure("altitude", e);
+    }
+  }
   return computePoint(api, model, inputs);
 }
 
@@ -92,6 +99,14 @@ function scanField(message) {
   if (/wind direction/.test(message)) return "flight-wind-direction";
   if (/qLimitPa/.test(message)) return "flight-q-limit";
   return "flight";
+}
+
+/** The largest of `values` (Infinity when there are none: the scan then says why). */
+function highest(values) {
+  if (!values || values.length === 0) return Infinity;
+  let top = -Infinity;
+  for (const v of values) top = Math.max(top, v);
+  return top;
 }
 
 async function flight({ source, units, model: described, cd, areaM2, wind, windsFile, qLimitPa, columns }) {
@@ -139,6 +154,17 @@ async function flight({ source, units, model: described, cd, areaM2, wind, winds
     options.winds = winds;
   }
   if (qLimitPa !== null && qLimitPa !== undefined) options.qLimitPa = qLimitPa;
+  // A flight that climbs above 86 km (its altitudes are geometric) needs the upper
+  // atmosphere's tables, fetched on first need.
+  if (highest(given.altitudeM) > UPPER_BASE_M) {
+    try {
+      await api.loadUpper();
+    } catch (e) {
+      if (owned) model.free();
+      winds?.free();
+      return failure("flight", e);
+    }
+  }
   let scan;
   try {
     scan = model.scanFlight(options);

@@ -26,9 +26,15 @@ test("package.json names the package and points at both builds", () => {
     "node/aerostrata.js",
     "node/aerostrata.d.ts",
     "node/aerostrata_bg.wasm",
+    "web/aerostrata_upper.bin",
+    "node/aerostrata_upper.bin",
   ]) {
     assert.ok(existsSync(join(dir, file)), file);
   }
+  // The upper part: one file, the same in both builds, and an export of its own for
+  // bundlers and pages that serve it themselves.
+  assert.deepEqual(readFileSync(join(dir, "web/aerostrata_upper.bin")), readFileSync(join(dir, "node/aerostrata_upper.bin")));
+  assert.equal(manifest.exports["./aerostrata_upper.bin"], "./web/aerostrata_upper.bin");
   assert.equal(manifest.exports["."].node.default, "./node/aerostrata.js");
   assert.equal(manifest.exports["."].default.default, "./web/aerostrata.js");
 });
@@ -63,6 +69,8 @@ test("the types name every export in camelCase with units in the names and docs"
     "export interface AtmosphereState {",
     "  /** Pressure p, Pa: static pressure of the air. */",
     "export function quantities(): QuantityInfo[];",
+    "export function loadUpper(source?: string | URL | Response | Uint8Array | ArrayBuffer): Promise<void>;",
+    "export function upperLoaded(): boolean;",
     "  speedOfSoundMS: number | null;",
   ]) {
     assert.ok(dts.includes(declaration), `missing: ${declaration}`);
