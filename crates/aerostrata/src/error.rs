@@ -233,7 +233,7 @@ pub enum Error {
     },
     /// An altitude above 86 km needs the upper atmosphere's tables, which this build loads
     /// at run time (the `upper-loadable` feature without `upper`) and which have not been
-    /// loaded: call [`load_tables`](crate::model::upper::load_tables) first.
+    /// loaded: call `model::upper::load_tables` first.
     UpperNotLoaded {
         /// The altitude that needed them, geometric m.
         altitude_m: f64,

@@ -19,7 +19,7 @@ use super::layered::{Layer, Layered};
 /// The U.S. Standard Atmosphere, 1976, -5 km to 1000 km geometric (86 km without the
 /// `upper` or `upper-loadable` feature; with `upper-loadable` alone, altitudes above
 /// 86 km are [`Error::UpperNotLoaded`](crate::Error::UpperNotLoaded) until
-/// [`load_tables`](super::upper::load_tables) has run).
+/// `model::upper::load_tables` has run).
 ///
 /// At and below 86 km the layered lower part answers, above it the upper part; the two
 /// meet at 86 km within the standard's own small discontinuity (pressure 1.05e-5 and

@@ -58,7 +58,7 @@ fn check(bytes: &[u8]) -> Result<()> {
 }
 
 /// Loads the upper atmosphere's tables from their file (the one `cargo xtask wasm` ships
-/// as `aerostrata_upper.bin`, or [`tables_file`] writes), so that altitudes above 86 km
+/// as `aerostrata_upper.bin`, or `tables_file` writes with `upper` and `alloc`), so that altitudes above 86 km
 /// can be answered in a build with the `upper-loadable` feature and without `upper`.
 /// Loading twice is harmless; with `upper` the tables are compiled in and a good file
 /// changes nothing.
