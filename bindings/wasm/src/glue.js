@@ -287,7 +287,8 @@ async function upperBytes(source) {
   if (source !== undefined && typeof source !== "string" && !(source instanceof URL)) {
     throw typeError("loadUpper's source", "a URL, a string, a Response, a Uint8Array or an ArrayBuffer", source);
   }
-  const where = source === undefined ? new URL("../../../" + UPPER_FILE, import.meta.url) : source;
+  // A literal URL beside `import.meta.url`, which bundlers recognise as an asset to ship.
+  const where = source === undefined ? new URL("../../../aerostrata_upper.bin", import.meta.url) : source;
   const text = String(where);
   if (isNode() && !/^https?:/i.test(text)) return readLocal(text.startsWith("file:") ? new URL(text) : text);
   let response;

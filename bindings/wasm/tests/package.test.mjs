@@ -90,6 +90,10 @@ test("the Node build's glue snippet is CommonJS", () => {
   assert.ok(snippet, "no snippet required");
   const text = readFileSync(join(dir, "node", snippet[1]), "utf8");
   assert.doesNotMatch(text, /^export /m);
+  // `import.meta` is a syntax error in CommonJS: the file's URL comes from its path.
+  const code = text.split("\n").filter((line) => !line.trim().startsWith("//")).join("\n");
+  assert.doesNotMatch(code, /import\.meta/);
+  assert.match(code, /pathToFileURL\(__filename\)/);
   assert.match(text, /^module\.exports = \{ .*record.* \};$/m);
 });
 

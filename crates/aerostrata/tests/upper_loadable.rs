@@ -110,6 +110,23 @@ fn the_tables_are_refused_when_wrong_and_answer_once_loaded() {
     let n = US1976.species(at(100_000.0)).unwrap();
     assert_eq!(n.n2_m3.to_bits(), libm::exp(generated::LN_DENSITY[49][0]).to_bits());
     assert_eq!(n.he_m3.to_bits(), libm::exp(generated::LN_DENSITY[49][4]).to_bits());
+    // Between nodes the slopes count: at 212 345 m, in the run from 200 km by 5 km whose
+    // first node is index 179 (upper_layout.rs), the cubic Hermite interpolant of the
+    // loaded values and slopes, written out here as the core evaluates it (interval 2,
+    // u = 0.469; hand-worked), is what the model gives, to the bit.
+    let (z, start, step, first) = (212_345.0, 200_000.0, 5_000.0, 179);
+    let position: f64 = (z - start) / step;
+    let interval = position as usize;
+    let u = position - interval as f64;
+    let (u2, u3) = (u * u, u * u * u);
+    let (h00, h10, h01, h11) = (2.0 * u3 - 3.0 * u2 + 1.0, u3 - 2.0 * u2 + u, -2.0 * u3 + 3.0 * u2, u3 - u2);
+    let (y0, y1) = (generated::LN_DENSITY[first + interval], generated::LN_DENSITY[first + interval + 1]);
+    let (d0, d1) = (generated::SLOPE[first + interval], generated::SLOPE[first + interval + 1]);
+    let n = US1976.species(at(z)).unwrap().as_array();
+    for i in 0..6 {
+        let ln_n = h00 * y0[i] + h01 * y1[i] + step * (h10 * f64::from(d0[i]) + h11 * f64::from(d1[i]));
+        assert_eq!(n[i].to_bits(), libm::exp(ln_n).to_bits(), "species {i}");
+    }
     // And the standard's values (U.S. Standard Atmosphere 1976, Table I, as
     // tests/vectors/usa76_upper.csv gives them): 120 km 360.00 K, 2.5382E-03 Pa;
     // 200 km 8.4736E-05 Pa, 2.541E-10 kg/m^3.

@@ -171,8 +171,12 @@ fn snippets_to_commonjs(node_dir: &Path) -> Result<(), String> {
         let mut names = Vec::new();
         let mut out = String::new();
         for line in text.lines() {
-            // The file's own URL, which CommonJS knows by its path.
-            let line = line.replace("import.meta.url", "require(\"url\").pathToFileURL(__filename)");
+            // The file's own URL, which CommonJS knows by its path (in code, not comments).
+            let line = if line.trim_start().starts_with("//") {
+                line.to_owned()
+            } else {
+                line.replace("import.meta.url", "require(\"url\").pathToFileURL(__filename)")
+            };
             let line = line.as_str();
             if let Some(rest) = line.strip_prefix("export function ") {
                 let name: String = rest.chars().take_while(|c| c.is_alphanumeric() || *c == '_').collect();
