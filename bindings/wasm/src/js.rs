@@ -130,16 +130,6 @@ extern "C" {
     #[wasm_bindgen(js_name = guardFreed)]
     pub fn guard_freed(instance: JsValue, class_name: &str, what: &str, state_keys: &str);
 
-    /// Hands glue.js an object of the class whose static `__loadUpper` takes the upper
-    /// atmosphere's tables (upper.rs).
-    #[wasm_bindgen(js_name = useUpperLoader)]
-    pub fn use_upper_loader(instance: &JsValue);
-
-    /// A promise of the upper atmosphere's tables loaded from `source` (or the file beside
-    /// the module); resolved at once when `loaded`.
-    #[wasm_bindgen(js_name = loadUpper)]
-    pub fn load_upper(source: &JsValue, loaded: bool) -> JsValue;
-
     /// A `Uint8Array` or an `ArrayBuffer`, copied; a `TypeError` naming `name` otherwise.
     #[wasm_bindgen(catch)]
     pub fn bytes(name: &str, value: &JsValue) -> Result<Vec<u8>, JsValue>;

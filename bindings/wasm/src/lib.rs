@@ -73,14 +73,14 @@ pub fn version() -> alloc::string::String {
 /// `AtmosphereModel` or `WindProfile` throw an `Error` that says it was freed, and adds
 /// `AtmosphereModel.batchInto` (see `guardFreed` in glue.js), by reaching each class's
 /// prototype through a throwaway object (through which `loadUpper` also reaches the hidden
-/// `__loadUpper`, upper.rs), and hands glue.js the module's memory, where `batchInto`
+/// `__loadUpper`, upper.rs and upper.js), and hands glue.js the module's memory, where `batchInto`
 /// reads and writes its chunks through views (batch.rs).
 #[wasm_bindgen(start, skip_typescript, js_name = __aerostrataStart)]
 fn start() {
     js::use_memory(wasm_bindgen::memory());
     let keys = quantity::keys(aerostrata::Quantity::of_group(aerostrata::quantity::Group::State));
     let model = JsValue::from(AtmosphereModel::from_model(model::Model::Us1976));
-    js::use_upper_loader(&model);
+    upper::use_upper_loader(&model);
     js::guard_freed(model, "AtmosphereModel", "model", &keys);
     if let Some(calm) = WindProfile::calm() {
         js::guard_freed(JsValue::from(calm), "WindProfile", "wind profile", "");

@@ -84,17 +84,21 @@ test("the types name every export in camelCase with units in the names and docs"
   assert.deepEqual(params.filter((p) => p.includes("_")), []);
 });
 
-test("the Node build's glue snippet is CommonJS", () => {
+test("the Node build's glue snippets are CommonJS", () => {
   const node = readFileSync(join(dir, "node", "aerostrata.js"), "utf8");
-  const snippet = node.match(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/);
-  assert.ok(snippet, "no snippet required");
-  const text = readFileSync(join(dir, "node", snippet[1]), "utf8");
-  assert.doesNotMatch(text, /^export /m);
-  // `import.meta` is a syntax error in CommonJS: the file's URL comes from its path.
-  const code = text.split("\n").filter((line) => !line.trim().startsWith("//")).join("\n");
-  assert.doesNotMatch(code, /import\.meta/);
-  assert.match(code, /pathToFileURL\(__filename\)/);
-  assert.match(text, /^module\.exports = \{ .*record.* \};$/m);
+  const snippets = [...new Set([...node.matchAll(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/g)].map((m) => m[1]))];
+  const texts = Object.fromEntries(snippets.map((s) => [s.split("/").pop(), readFileSync(join(dir, "node", s), "utf8")]));
+  assert.deepEqual(Object.keys(texts).sort(), ["glue.js", "upper.js"]);
+  for (const [name, text] of Object.entries(texts)) {
+    assert.doesNotMatch(text, /^export /m, name);
+    assert.match(text, /^module\.exports = \{ .* \};$/m, name);
+    // `import.meta` is a syntax error in CommonJS: the file's URL comes from its path.
+    const code = text.split("\n").filter((line) => !line.trim().startsWith("//")).join("\n");
+    assert.doesNotMatch(code, /import\.meta/, name);
+  }
+  assert.match(texts["glue.js"], /^module\.exports = \{ .*record.* \};$/m);
+  assert.match(texts["upper.js"], /^module\.exports = \{ .*loadUpper.* \};$/m);
+  assert.match(texts["upper.js"], /new URL\("\.\.\/\.\.\/\.\.\/aerostrata_upper\.bin", require\("url"\)\.pathToFileURL\(__filename\)\)/);
 });
 
 test("the README's JavaScript example runs against the package and prints the standard's numbers", () => {
