@@ -196,6 +196,9 @@ function updatePoint() {
       () => request === pointRequest && updatePoint(),
       (e) => {
         if (request !== pointRequest) return;
+        // A model that does not need the tables still answers; the standard says why not.
+        const result = computePoint(api, specModel(model.spec).model, inputs);
+        if (result.ok || !/loadUpper/.test(result.message)) return showPoint(result);
         setMessage("altitude", `The upper atmosphere's tables (above 86 km) could not be loaded: ${e.message}`);
         failedPoint();
       },

@@ -549,6 +549,26 @@ try {
   await page.screenshot({ path: join(shots, "web-calculator-phone.png"), fullPage: true });
 
   check(errors.length === 0, `errors in the page: ${errors.join("; ")}`);
+
+  // 20. Served without the upper part (a 404): at 120 km the standard says its tables
+  // could not be loaded, and a model that does not need them (isothermal) still answers.
+  const bare = await context.newPage();
+  await bare.route("**/aerostrata_upper.bin", (route) => route.fulfill({ status: 404, body: "not here" }));
+  await bare.goto(url);
+  await bare.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
+  await bare.fill("#altitude", "120000");
+  await bare.waitForFunction(() => document.body.dataset.point === "failed", null, { timeout: 60000 });
+  const missing = await bare.textContent("#altitude-msg");
+  check(/upper atmosphere's tables \(above 86 km\) could not be loaded: loadUpper: fetching .*aerostrata_upper\.bin gave HTTP status 404/.test(missing), `message without the upper part: "${missing}"`);
+  await bare.selectOption("#model-kind", "isothermal");
+  await bare.fill("#iso-t", "250");
+  await bare.fill("#iso-p0", "29.5inHg");
+  await bare.waitForFunction(() => document.body.dataset.point === "done", null, { timeout: 60000 });
+  const isothermal = aerostrata.AtmosphereModel.fromSpec("isothermal=250K,p0=29.5inHg").state(120000);
+  const bareTemperature = await bare.getAttribute('#view-point [data-quantity="temperatureK"]', "data-value");
+  check(Number(bareTemperature) === isothermal.temperatureK, `isothermal at 120 km without the upper part: ${bareTemperature}`);
+  check((await bare.textContent("#altitude-msg")) === "", "no message for a model that does not need the upper part");
+  await bare.close();
 } finally {
   await context.close();
   rmSync(profile, { recursive: true, force: true });
