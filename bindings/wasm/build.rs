@@ -1,6 +1,7 @@
 //! Writes the TypeScript types of the catalogue's quantities (the state, the species, a
 //! flight's columns, the airspeeds, the quantity names) from the core's quantity
-//! catalogue, so that the `.d.ts` names exactly the keys the module gives.
+//! catalogue, so that the `.d.ts` names exactly the keys the module gives; and the upper
+//! atmosphere's tables file, which the crate's tests load (`OUT_DIR/aerostrata_upper.bin`).
 
 extern crate alloc;
 
@@ -116,6 +117,10 @@ fn main() {
     let path =
         std::path::Path::new(&std::env::var("OUT_DIR").expect("cargo sets OUT_DIR")).join("catalogue.d.ts");
     std::fs::write(&path, out).expect("OUT_DIR is writable");
+    // The upper atmosphere's tables as the file `loadUpper` reads, for the tests (the
+    // package's copy is written by `cargo xtask wasm` from the same function).
+    let tables = path.with_file_name("aerostrata_upper.bin");
+    std::fs::write(tables, aerostrata::model::upper::tables_file()).expect("OUT_DIR is writable");
     println!("cargo:rerun-if-changed=src/naming.rs");
     println!("cargo:rerun-if-changed=build.rs");
 }

@@ -10,7 +10,7 @@ import { drawProfile } from "./charts.js";
 import { renderFlight, requestFlight, setupFlight } from "./flight.js";
 import { Runner, sizeText, tooLarge } from "./jobs.js";
 import { $, allQuantities, convertFields, fill, quantity, setFieldUnits, setMessage, show, shownValue, takeField, unitOf, units, pretty } from "./page.js";
-import { computePoint } from "./point.js";
+import { computePoint, reachesUpper, UPPER_BASE_M } from "./point.js";
 
 try {
   await init();
@@ -186,7 +186,25 @@ function updatePoint() {
     areaM2: read.area.si,
     lengthM: read.length.si,
   };
-  if (model.spec !== undefined) return showPoint(computePoint(api, specModel(model.spec).model, inputs));
+  if (model.spec !== undefined) {
+    if (api.upperLoaded() || !reachesUpper(inputs.altitudeM)) return showPoint(computePoint(api, specModel(model.spec).model, inputs));
+    // The upper atmosphere's tables are fetched on first need. Up to 86 km the numbers
+    // show at once (the profile chart follows); above, the point waits for them.
+    if (inputs.altitudeM > UPPER_BASE_M) document.body.dataset.point = "busy";
+    else showPoint(computePoint(api, specModel(model.spec).model, inputs));
+    api.loadUpper().then(
+      () => request === pointRequest && updatePoint(),
+      (e) => {
+        if (request !== pointRequest) return;
+        // A model that does not need the tables still answers; the standard says why not.
+        const result = computePoint(api, specModel(model.spec).model, inputs);
+        if (result.ok || !/loadUpper/.test(result.message)) return showPoint(result);
+        setMessage("altitude", `The upper atmosphere's tables (above 86 km) could not be loaded: ${e.message}`);
+        failedPoint();
+      },
+    );
+    return;
+  }
   // A sounding's model lives in the worker: the point is computed there.
   document.body.dataset.point = "busy";
   soundingRunner.run({ job: "point", described: model.sounding, inputs }).then((answer) => {

@@ -4,6 +4,18 @@
 // spec names, and its worker, which runs it for an uploaded sounding (whose model lives
 // off the page's thread), so that both give the same numbers the same way.
 
+/**
+ * Whether the point at geometric `altitudeM`, or its profile (up to 1.3 times as high),
+ * needs the upper atmosphere (above 86 km), whose tables the module loads on first need
+ * (`loadUpper`): the page and its worker fetch them before computing such a point.
+ */
+export function reachesUpper(altitudeM) {
+  return Math.max(altitudeM, 1.3 * altitudeM) > UPPER_BASE_M;
+}
+
+/** Where the upper atmosphere begins, geometric m (the 1976 standard's 86 km). */
+export const UPPER_BASE_M = 86000;
+
 /** The state quantities of the profile chart, by the module's keys, and its altitudes. */
 export const PROFILE_KEYS = ["temperatureK", "pressurePa", "densityKgM3"];
 const PROFILE_POINTS = 241;

@@ -8,7 +8,7 @@
 // or {id, ok: false, field, message}, `field` naming the page's field at fault.
 
 import init, * as api from "./aerostrata/aerostrata.js";
-import { computePoint } from "./point.js";
+import { computePoint, reachesUpper, UPPER_BASE_M } from "./point.js";
 import { largest, thin } from "./thin.js";
 
 const ready = init();
@@ -75,7 +75,10 @@ async function point({ described, inputs }) {
   } catch (e) {
     return failure("sounding-file", e);
   }
-  return computePoint(api, model, inputs);
+  const loadError = reachesUpper(inputs.altitudeM) ? await upperLoaded() : null;
+  const result = computePoint(api, model, inputs);
+  // Without the tables, a point that needed them says why they are missing.
+  return loadError && !result.ok && /loadUpper/.test(result.message) ? failure("altitude", loadError) : result;
 }
 
 /** Whether the samples give the velocity's direction (components, or a path and heading). */
@@ -92,6 +95,27 @@ function scanField(message) {
   if (/wind direction/.test(message)) return "flight-wind-direction";
   if (/qLimitPa/.test(message)) return "flight-q-limit";
   return "flight";
+}
+
+/**
+ * Loads the upper atmosphere's tables (once; the module keeps them): null when they are
+ * there, else the Error that says why they could not be fetched.
+ */
+async function upperLoaded() {
+  try {
+    await api.loadUpper();
+    return null;
+  } catch (e) {
+    return new Error(`the upper atmosphere's tables (above 86 km) could not be loaded: ${e.message}`);
+  }
+}
+
+/** The largest of `values` (Infinity when there are none: the scan then says why). */
+function highest(values) {
+  if (!values || values.length === 0) return Infinity;
+  let top = -Infinity;
+  for (const v of values) top = Math.max(top, v);
+  return top;
 }
 
 async function flight({ source, units, model: described, cd, areaM2, wind, windsFile, qLimitPa, columns }) {
@@ -139,10 +163,15 @@ async function flight({ source, units, model: described, cd, areaM2, wind, winds
     options.winds = winds;
   }
   if (qLimitPa !== null && qLimitPa !== undefined) options.qLimitPa = qLimitPa;
+  // A flight that climbs above 86 km (its altitudes are geometric) needs the upper
+  // atmosphere's tables, fetched on first need.
+  const loadError = highest(given.altitudeM) > UPPER_BASE_M ? await upperLoaded() : null;
   let scan;
   try {
     scan = model.scanFlight(options);
   } catch (e) {
+    // Without the tables, a flight that needed them says why they are missing.
+    if (loadError && /loadUpper/.test(e.message)) return failure("flight", loadError);
     return failure(scanField(e.message), e);
   } finally {
     if (owned) model.free();

@@ -35,6 +35,8 @@ const root = resolve(here, "..", "..");
 const require = createRequire(import.meta.url);
 const { columnsOf, evaluator, halfUnitOfLastDigit, readVectorFile } = await import(join(root, "bindings/wasm/tests/vectors.mjs"));
 const aerostrata = require(process.env.AEROSTRATA_PKG ?? join(root, "target/wasm/pkg"));
+// The module's numbers above 86 km, to compare the page's with, need its upper part.
+await aerostrata.loadUpper();
 
 let passed = 0;
 const failures = [];
@@ -79,8 +81,13 @@ try {
   const errors = [];
   page.on("pageerror", (e) => errors.push(e.message));
   page.on("console", (m) => m.type() === "error" && errors.push(m.text()));
+  // Who fetches the upper atmosphere's tables, and when: the page or its worker.
+  const upperFetches = [];
+  context.on("request", (r) => r.url().endsWith("/aerostrata_upper.bin") && upperFetches.push(r.url()));
   await page.goto(url);
   await page.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
+  // The page opens at 11 000 m: nothing needs the upper atmosphere yet.
+  check(upperFetches.length === 0, `the upper part is not fetched at start (${upperFetches.length} requests)`);
 
   const value = async (quantity) => {
     const text = await page.getAttribute(`#view-point [data-quantity="${quantity}"]`, "data-value");
@@ -107,6 +114,19 @@ try {
     }
   }
   check(compared >= 30, `only ${compared} values compared with the vectors`);
+
+  // 1b. The upper atmosphere is fetched on first need (the lower vectors above reach
+  // 84 km, whose profile chart reaches above 86 km); then a typed altitude above 86 km
+  // gives the module's numbers, and no message asks the user to load anything.
+  await page.fill("#altitude", "150000");
+  await page.waitForFunction(() => document.body.dataset.point === "done", null, { timeout: 60000 });
+  check(upperFetches.length >= 1, `the upper part was fetched (${upperFetches.length} requests)`);
+  const upperState = aerostrata.standardState(150000);
+  for (const key of ["temperatureK", "pressurePa", "densityKgM3"]) {
+    const ours = await value(key);
+    check(Object.is(ours, upperState[key]), `${key} at 150 km: page ${ours}, module ${upperState[key]}`);
+  }
+  check((await message("altitude")) === "", `no message at 150 km: "${await message("altitude")}"`);
 
   // 2. The page's numbers are the module's: every state quantity at a typed altitude.
   await page.fill("#altitude", "25000");
@@ -529,6 +549,26 @@ try {
   await page.screenshot({ path: join(shots, "web-calculator-phone.png"), fullPage: true });
 
   check(errors.length === 0, `errors in the page: ${errors.join("; ")}`);
+
+  // 20. Served without the upper part (a 404): at 120 km the standard says its tables
+  // could not be loaded, and a model that does not need them (isothermal) still answers.
+  const bare = await context.newPage();
+  await bare.route("**/aerostrata_upper.bin", (route) => route.fulfill({ status: 404, body: "not here" }));
+  await bare.goto(url);
+  await bare.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
+  await bare.fill("#altitude", "120000");
+  await bare.waitForFunction(() => document.body.dataset.point === "failed", null, { timeout: 60000 });
+  const missing = await bare.textContent("#altitude-msg");
+  check(/upper atmosphere's tables \(above 86 km\) could not be loaded: loadUpper: fetching .*aerostrata_upper\.bin gave HTTP status 404/.test(missing), `message without the upper part: "${missing}"`);
+  await bare.selectOption("#model-kind", "isothermal");
+  await bare.fill("#iso-t", "250");
+  await bare.fill("#iso-p0", "29.5inHg");
+  await bare.waitForFunction(() => document.body.dataset.point === "done", null, { timeout: 60000 });
+  const isothermal = aerostrata.AtmosphereModel.fromSpec("isothermal=250K,p0=29.5inHg").state(120000);
+  const bareTemperature = await bare.getAttribute('#view-point [data-quantity="temperatureK"]', "data-value");
+  check(Number(bareTemperature) === isothermal.temperatureK, `isothermal at 120 km without the upper part: ${bareTemperature}`);
+  check((await bare.textContent("#altitude-msg")) === "", "no message for a model that does not need the upper part");
+  await bare.close();
 } finally {
   await context.close();
   rmSync(profile, { recursive: true, force: true });

@@ -199,6 +199,12 @@ mod tests {
     /// here through the door), and an error names the element: common practice, no source.
     #[test]
     fn the_batch_gives_the_bits_of_single_states_and_names_a_bad_element() {
+        // 300 km needs the upper atmosphere's tables (build.rs writes their file).
+        aerostrata::model::upper::load_tables(include_bytes!(concat!(
+            env!("OUT_DIR"),
+            "/aerostrata_upper.bin"
+        )))
+        .unwrap();
         for offset_k in [0.0, 15.0] {
             let model = standard(offset_k).unwrap();
             let altitudes = [0.0, 5_000.5, 86_000.0, 300_000.0, 11_000.0, -4_999.0];

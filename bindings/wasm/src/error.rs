@@ -80,6 +80,15 @@ pub fn class_of(error: &Error) -> Class {
 
 impl From<Error> for Failure {
     fn from(error: Error) -> Self {
+        // The core's message names its Rust function; a page needs to know what to call.
+        if let Error::UpperNotLoaded { altitude_m } = error {
+            return Self::plain(
+                Text::new("altitude ")
+                    .n(altitude_m / 1000.0)
+                    .s(" km is above 86 km, whose upper-atmosphere tables are not loaded: call `await loadUpper()` first")
+                    .done(),
+            );
+        }
         Self { class: class_of(&error), message: render(&error) }
     }
 }
@@ -140,6 +149,21 @@ mod tests {
         assert_eq!(class_of(&e), Class::Plain, "{e}");
         let e = Tabulated::from_rows_vec(AltitudeKind::Geometric, &rows[..1]).unwrap_err();
         assert_eq!(Failure::from(e).class, Class::Plain, "{e}");
+    }
+
+    /// The upper atmosphere's tables not loaded: a plain `Error` that says what to call, in
+    /// kilometres, in front of which a batch or a scan puts its element.
+    #[test]
+    fn tables_not_loaded_say_to_call_load_upper() {
+        let f = Failure::from(Error::UpperNotLoaded { altitude_m: 120_000.0 });
+        assert_eq!(f.class, Class::Plain);
+        assert_eq!(
+            f.message,
+            "altitude 120 km is above 86 km, whose upper-atmosphere tables are not loaded: call `await loadUpper()` first"
+        );
+        assert!(Failure::from(Error::UpperNotLoaded { altitude_m: 86_000.5 })
+            .message
+            .starts_with("altitude 86.0005 km"));
     }
 
     #[test]

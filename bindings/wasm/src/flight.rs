@@ -178,7 +178,8 @@ impl Scanned {
 }
 
 /// A sample's failure as a `RangeError` naming it (the core's point errors name it
-/// already): every failure of a sample is a value outside what a flight allows.
+/// already): every failure of a sample is a value outside what a flight allows, but for
+/// the upper atmosphere's tables not loaded yet, a plain `Error` as everywhere else.
 fn sample_failure(e: aerostrata::Error, i: usize) -> Failure {
     let failure = Failure::from(e);
     let failure = if matches!(e, aerostrata::Error::InvalidPoint { .. }) {
@@ -186,7 +187,11 @@ fn sample_failure(e: aerostrata::Error, i: usize) -> Failure {
     } else {
         failure.at(&Text::new("flight sample ").u(i).done())
     };
-    Failure::range(failure.message)
+    if matches!(e, aerostrata::Error::UpperNotLoaded { .. }) {
+        failure
+    } else {
+        Failure::range(failure.message)
+    }
 }
 
 /// `name` must have one element per sample.

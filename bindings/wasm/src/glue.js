@@ -238,6 +238,13 @@ export function longText(name, value) {
   return value;
 }
 
+// A Uint8Array or an ArrayBuffer as a Uint8Array (copied into the module by the caller).
+export function bytes(name, value) {
+  if (value instanceof Uint8Array) return value;
+  if (value instanceof ArrayBuffer) return new Uint8Array(value);
+  throw typeError(name, "a Uint8Array or an ArrayBuffer", value);
+}
+
 // Six significant digits, as a person reads a number in a message.
 export function tidy(value) {
   return String(Number(value.toPrecision(6)));

@@ -130,6 +130,10 @@ extern "C" {
     #[wasm_bindgen(js_name = guardFreed)]
     pub fn guard_freed(instance: JsValue, class_name: &str, what: &str, state_keys: &str);
 
+    /// A `Uint8Array` or an `ArrayBuffer`, copied; a `TypeError` naming `name` otherwise.
+    #[wasm_bindgen(catch)]
+    pub fn bytes(name: &str, value: &JsValue) -> Result<Vec<u8>, JsValue>;
+
     /// Hands glue.js the module's `WebAssembly.Memory`, for `batchInto`'s views into the
     /// buffer of batch.rs.
     #[wasm_bindgen(js_name = useMemory)]

@@ -51,6 +51,7 @@ mod model;
 mod naming;
 mod quantity;
 mod text;
+mod upper;
 
 pub use aero::*;
 pub use error::{Class, Failure};
@@ -58,6 +59,7 @@ pub use input::{model_grammar, parse_value, read_flight_csv};
 pub use loads::WindProfile;
 pub use model::{standard_species, standard_state, AtmosphereModel};
 pub use quantity::{from_us, quantities, to_us};
+pub use upper::{load_upper, upper_loaded};
 
 use wasm_bindgen::prelude::*;
 
@@ -70,14 +72,16 @@ pub fn version() -> alloc::string::String {
 /// Runs once when the module is instantiated: makes the methods of a freed
 /// `AtmosphereModel` or `WindProfile` throw an `Error` that says it was freed, and adds
 /// `AtmosphereModel.batchInto` (see `guardFreed` in glue.js), by reaching each class's
-/// prototype through a throwaway object, and hands glue.js the module's memory, where
-/// `batchInto` reads and writes its chunks through views (batch.rs).
+/// prototype through a throwaway object (through which `loadUpper` also reaches the hidden
+/// `__loadUpper`, upper.rs and upper.js), and hands glue.js the module's memory, where `batchInto`
+/// reads and writes its chunks through views (batch.rs).
 #[wasm_bindgen(start, skip_typescript, js_name = __aerostrataStart)]
 fn start() {
     js::use_memory(wasm_bindgen::memory());
     let keys = quantity::keys(aerostrata::Quantity::of_group(aerostrata::quantity::Group::State));
-    let model = AtmosphereModel::from_model(model::Model::Us1976);
-    js::guard_freed(JsValue::from(model), "AtmosphereModel", "model", &keys);
+    let model = JsValue::from(AtmosphereModel::from_model(model::Model::Us1976));
+    upper::use_upper_loader(&model);
+    js::guard_freed(model, "AtmosphereModel", "model", &keys);
     if let Some(calm) = WindProfile::calm() {
         js::guard_freed(JsValue::from(calm), "WindProfile", "wind profile", "");
     }
@@ -121,6 +125,19 @@ export interface QuantityInfo {
   /** Shown in compact tables. */
   primary: boolean;
 }
+
+/**
+ * Loads the upper atmosphere's tables (86 to 1000 km), which the module leaves out of its
+ * default download: until then every call that needs an altitude above 86 km (a state,
+ * species, an offset model or a sounding's blend up there, a flight scan or an inverse
+ * reaching there) throws an `Error` that says to call this first. With no argument it
+ * fetches `aerostrata_upper.bin` beside the module (browsers and bundlers) or reads it
+ * (Node); or give the file's URL, a fetched `Response`, or its bytes. Loading again, or
+ * while a load is under way, costs nothing more. A file other than the module's own is
+ * refused with an `Error` that says why. The numbers are then the native core's, bit for
+ * bit.
+ */
+export function loadUpper(source?: string | URL | Response | Uint8Array | ArrayBuffer): Promise<void>;
 
 /** Which kind of altitude a number is: geometric (above mean sea level, m) or geopotential (geopotential m). */
 export type AltitudeKind = "geometric" | "geopotential";

@@ -158,6 +158,8 @@ mod tests {
             Error::NotHydrostatic { row: 3, ratio: 3.3, min: 0.5, max: 2.0 },
             Error::VapourPressureTooHigh { row: 0, vapour_pressure_pa: 5000.0, pressure_pa: 4000.0 },
             Error::StorageTooSmall { needed: 9, len: 4 },
+            Error::UpperNotLoaded { altitude_m: 120_000.5 },
+            Error::UpperTablesRefused { problem: "its digest is not this build's", len: 17, expected: 17220 },
         ];
         for error in &errors {
             assert_eq!(render(error), error.to_string(), "{error:?}");

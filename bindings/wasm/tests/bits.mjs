@@ -12,5 +12,7 @@ import { loadNode, packageDir, vectorsDir } from "./load.mjs";
 import { bitLines, readVectorFiles } from "./vectors.mjs";
 
 const aerostrata = loadNode(packageDir(process.argv[2]));
+// The upper vector files go to 1000 km: the upper atmosphere's tables, as a page loads them.
+await aerostrata.loadUpper();
 const lines = bitLines(aerostrata, readVectorFiles(process.argv[3] ?? vectorsDir));
 process.stdout.write(lines.join("\n") + "\n");

@@ -26,9 +26,15 @@ test("package.json names the package and points at both builds", () => {
     "node/aerostrata.js",
     "node/aerostrata.d.ts",
     "node/aerostrata_bg.wasm",
+    "web/aerostrata_upper.bin",
+    "node/aerostrata_upper.bin",
   ]) {
     assert.ok(existsSync(join(dir, file)), file);
   }
+  // The upper part: one file, the same in both builds, and an export of its own for
+  // bundlers and pages that serve it themselves.
+  assert.deepEqual(readFileSync(join(dir, "web/aerostrata_upper.bin")), readFileSync(join(dir, "node/aerostrata_upper.bin")));
+  assert.equal(manifest.exports["./aerostrata_upper.bin"], "./web/aerostrata_upper.bin");
   assert.equal(manifest.exports["."].node.default, "./node/aerostrata.js");
   assert.equal(manifest.exports["."].default.default, "./web/aerostrata.js");
 });
@@ -63,6 +69,8 @@ test("the types name every export in camelCase with units in the names and docs"
     "export interface AtmosphereState {",
     "  /** Pressure p, Pa: static pressure of the air. */",
     "export function quantities(): QuantityInfo[];",
+    "export function loadUpper(source?: string | URL | Response | Uint8Array | ArrayBuffer): Promise<void>;",
+    "export function upperLoaded(): boolean;",
     "  speedOfSoundMS: number | null;",
   ]) {
     assert.ok(dts.includes(declaration), `missing: ${declaration}`);
@@ -76,13 +84,21 @@ test("the types name every export in camelCase with units in the names and docs"
   assert.deepEqual(params.filter((p) => p.includes("_")), []);
 });
 
-test("the Node build's glue snippet is CommonJS", () => {
+test("the Node build's glue snippets are CommonJS", () => {
   const node = readFileSync(join(dir, "node", "aerostrata.js"), "utf8");
-  const snippet = node.match(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/);
-  assert.ok(snippet, "no snippet required");
-  const text = readFileSync(join(dir, "node", snippet[1]), "utf8");
-  assert.doesNotMatch(text, /^export /m);
-  assert.match(text, /^module\.exports = \{ .*record.* \};$/m);
+  const snippets = [...new Set([...node.matchAll(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/g)].map((m) => m[1]))];
+  const texts = Object.fromEntries(snippets.map((s) => [s.split("/").pop(), readFileSync(join(dir, "node", s), "utf8")]));
+  assert.deepEqual(Object.keys(texts).sort(), ["glue.js", "upper.js"]);
+  for (const [name, text] of Object.entries(texts)) {
+    assert.doesNotMatch(text, /^export /m, name);
+    assert.match(text, /^module\.exports = \{ .* \};$/m, name);
+    // `import.meta` is a syntax error in CommonJS: the file's URL comes from its path.
+    const code = text.split("\n").filter((line) => !line.trim().startsWith("//")).join("\n");
+    assert.doesNotMatch(code, /import\.meta/, name);
+  }
+  assert.match(texts["glue.js"], /^module\.exports = \{ .*record.* \};$/m);
+  assert.match(texts["upper.js"], /^module\.exports = \{ .*loadUpper.* \};$/m);
+  assert.match(texts["upper.js"], /new URL\("\.\.\/\.\.\/\.\.\/aerostrata_upper\.bin", require\("url"\)\.pathToFileURL\(__filename\)\)/);
 });
 
 test("the README's JavaScript example runs against the package and prints the standard's numbers", () => {

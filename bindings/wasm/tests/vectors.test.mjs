@@ -11,6 +11,8 @@ import { loadNode, loadWeb, vectorsDir } from "./load.mjs";
 import { bitLines, evaluator, halfUnitOfLastDigit, readVectorFiles } from "./vectors.mjs";
 
 const aerostrata = loadNode();
+// The upper vector files go to 1000 km: the upper atmosphere's tables first.
+await aerostrata.loadUpper();
 const files = readVectorFiles(vectorsDir);
 
 test("the vector files are there", () => {
@@ -56,6 +58,7 @@ test("the half unit of the last digit is read as the Rust reader reads it", () =
 
 test("the web build gives the Node build's bits for every vector", async () => {
   const web = await loadWeb();
+  await web.loadUpper();
   assert.deepEqual(bitLines(web, files), bitLines(aerostrata, files));
 });
 

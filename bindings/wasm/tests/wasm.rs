@@ -57,8 +57,17 @@ fn scalar_exports_read_js_numbers_only() {
     assert_eq!(message(&error), "densityKgM3 must be a number, got null");
 }
 
+/// The upper atmosphere's tables, as `loadUpper` hands them to the module (build.rs writes
+/// the file from the native core's compiled-in table).
+fn load_upper() {
+    let file: &[u8] = include_bytes!(concat!(env!("OUT_DIR"), "/aerostrata_upper.bin"));
+    AtmosphereModel::load_upper_bytes(js_sys::Uint8Array::from(file).into()).unwrap();
+    assert!(aerostrata_wasm::upper_loaded());
+}
+
 #[wasm_bindgen_test]
 fn the_state_and_the_batch_carry_the_cores_bits() {
+    load_upper();
     let model = AtmosphereModel::standard(JsValue::UNDEFINED).unwrap();
     for z in [-5000.0, 0.0, 11_000.0, 47_350.5, 85_999.0, 86_000.0, 150_000.0, 999_999.0] {
         let native = US1976.state(Altitude::geometric_m(z).unwrap()).unwrap();

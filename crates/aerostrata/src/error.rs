@@ -231,6 +231,22 @@ pub enum Error {
         /// A depth over which the blend would keep pressure falling, geopotential m.
         min_depth_m: f64,
     },
+    /// An altitude above 86 km needs the upper atmosphere's tables, which this build loads
+    /// at run time (the `upper-loadable` feature without `upper`) and which have not been
+    /// loaded: call `model::upper::load_tables` first.
+    UpperNotLoaded {
+        /// The altitude that needed them, geometric m.
+        altitude_m: f64,
+    },
+    /// A file offered as the upper atmosphere's tables is not this build's tables' file.
+    UpperTablesRefused {
+        /// What is wrong with it.
+        problem: &'static str,
+        /// Its length, bytes.
+        len: usize,
+        /// The length of the file this build reads, bytes.
+        expected: usize,
+    },
     /// Caller-provided storage is shorter than the data to be put in it.
     StorageTooSmall {
         /// How many entries are needed.
@@ -391,6 +407,20 @@ impl Error {
             Error::StorageTooSmall { needed, len } => {
                 parts(&[T("storage holds "), C(len), T(" levels, the table has "), C(needed), T(" rows")])
             }
+            Error::UpperNotLoaded { altitude_m } => parts(&[
+                T("geometric altitude "),
+                N(altitude_m),
+                T(" m is above 86 km, where the upper atmosphere's tables are needed and are not loaded: "),
+                T("load them first (aerostrata::model::upper::load_tables)"),
+            ]),
+            Error::UpperTablesRefused { problem, len, expected } => parts(&[
+                T("the upper-atmosphere tables file of "),
+                C(len),
+                T(" bytes was refused (this build reads one of "),
+                C(expected),
+                T(" bytes): "),
+                T(problem),
+            ]),
             Error::BlendRaisesPressure { side, depth_m, ratio, min_depth_m } => parts(&[
                 T("a blend of "),
                 N(depth_m),

@@ -1,7 +1,8 @@
 // Opens page.html of the fresh project in headless Chromium (Debian's, driven by
 // playwright-core) and checks what it computed through the import map: the 1976
 // standard's sea level (Table I: 288.150 K, 1.01325E+05 Pa) and q = rho V^2 / 2 at
-// 1.225 kg/m^3 and 100 m/s, 6125 Pa (hand-worked). Only the page's own server is reached.
+// 1.225 kg/m^3 and 100 m/s, 6125 Pa (hand-worked); and, after loadUpper, Table I's 360.00 K
+// at 120 km. Only the page's own server is reached.
 //
 // Usage (cargo xtask npm-check): node browser.mjs URL PLAYWRIGHT_CORE_DIR
 // Prints "browser: ..." and exits 1 on any failure.
@@ -43,13 +44,16 @@ try {
   const text = answered ? await page.textContent("#result") : `nothing within 30 s (requests: ${requested.join(", ")})`;
   const result = text.startsWith("{") ? JSON.parse(text) : null;
   const wasm = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_bg.wasm"));
+  const upper = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_upper.bin"));
   if (!result) failure = `the page says ${text}`;
   else if (Math.abs(result.temperatureK - 288.15) > 0.0005) failure = `temperature ${result.temperatureK} K`;
   else if (Math.abs(result.pressurePa - 101325) > 0.5) failure = `pressure ${result.pressurePa} Pa`;
   else if (!(Math.abs(result.dynamicPressurePa / 6125 - 1) < 1e-12)) failure = `q ${result.dynamicPressurePa} Pa`;
   else if (!wasm) failure = `the module was not fetched from the installed package: ${requested.join(", ")}`;
+  else if (!(Math.abs(result.upperTemperatureK - 360) <= 0.005)) failure = `temperature at 120 km ${result.upperTemperatureK} K`;
+  else if (!upper) failure = `the upper part was not fetched from the installed package: ${requested.join(", ")}`;
   else if (errors.length) failure = `page errors: ${errors.join("; ")}`;
-  else console.log(`browser: aerostrata ${result.version} through the import map: sea level ${result.temperatureK} K, ${result.pressurePa} Pa`);
+  else console.log(`browser: aerostrata ${result.version} through the import map: sea level ${result.temperatureK} K, ${result.pressurePa} Pa, ${result.upperTemperatureK} K at 120 km`);
 } catch (error) {
   failure = String(error);
 } finally {

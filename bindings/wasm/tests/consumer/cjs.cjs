@@ -3,13 +3,14 @@
 // tarball. Prints one line, "cjs: ...", and exits 1 on any failed check.
 //
 // Sources: U.S. Standard Atmosphere 1976, Table I at 0 m (288.150 K, 1.01325E+05 Pa);
-// q = rho V^2 / 2 at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked).
+// q = rho V^2 / 2 at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked); Table I at
+// 120 km, 360.00 K.
 
 "use strict";
 const assert = require("node:assert/strict");
 const path = require("node:path");
 
-const { AtmosphereModel, dynamicPressurePa, standardState, version } = require("aerostrata");
+const { AtmosphereModel, dynamicPressurePa, loadUpper, standardState, upperLoaded, version } = require("aerostrata");
 
 const entry = require.resolve("aerostrata");
 assert.ok(entry.startsWith(path.join(process.cwd(), "node_modules", "aerostrata") + path.sep), entry);
@@ -25,4 +26,17 @@ assert.ok(Math.abs(hotSea.temperatureK - 303.15) <= 0.0005, `${hotSea.temperatur
 assert.ok(Math.abs(hotSea.pressurePa - 101325) <= 0.5, `${hotSea.pressurePa}`);
 // 1.225 has no exact binary form: within 1e-12 relative.
 assert.ok(Math.abs(dynamicPressurePa(1.225, 100) / 6125 - 1) < 1e-12);
-console.log(`cjs: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa`);
+// The upper atmosphere: an Error that says what to call, then read from the installed
+// package's aerostrata_upper.bin beside the module.
+assert.throws(() => standardState(120000), /call `await loadUpper\(\)` first/);
+loadUpper().then(
+  () => {
+    assert.ok(upperLoaded());
+    assert.ok(Math.abs(standardState(120000).temperatureK - 360) <= 0.005);
+    console.log(`cjs: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa; upper part loaded`);
+  },
+  (error) => {
+    console.error(`cjs: ${error}`);
+    process.exit(1);
+  },
+);

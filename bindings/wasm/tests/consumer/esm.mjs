@@ -4,12 +4,12 @@
 //
 // Sources: U.S. Standard Atmosphere 1976, Table I at 0 m (288.150 K, 1.01325E+05 Pa,
 // 1.2250 kg/m^3) and at 11 000 m geopotential (216.650 K, 2.2632E+04 Pa); q = rho V^2 / 2
-// at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked).
+// at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked); Table I at 120 km, 360.00 K.
 
 import assert from "node:assert/strict";
 import { fileURLToPath } from "node:url";
 
-import { AtmosphereModel, dynamicPressurePa, standardState, version } from "aerostrata";
+import { AtmosphereModel, dynamicPressurePa, loadUpper, standardState, upperLoaded, version } from "aerostrata";
 
 // The package is the installed one, not a checkout's build.
 const entry = fileURLToPath(import.meta.resolve("aerostrata"));
@@ -27,4 +27,10 @@ assert.ok(Math.abs(tropopause.pressurePa - 22632) <= 0.5, `${tropopause.pressure
 // 1.225 has no exact binary form: within 1e-12 relative.
 assert.ok(Math.abs(dynamicPressurePa(1.225, 100) / 6125 - 1) < 1e-12);
 assert.throws(() => standardState(2e6), RangeError);
-console.log(`esm: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa`);
+// The upper atmosphere: an Error that says what to call, then read from the installed
+// package's aerostrata_upper.bin beside the module. Table I at 120 km: 360.00 K.
+assert.throws(() => standardState(120000), /call `await loadUpper\(\)` first/);
+await loadUpper();
+assert.ok(upperLoaded());
+assert.ok(Math.abs(standardState(120000).temperatureK - 360) <= 0.005);
+console.log(`esm: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa; upper part loaded`);

@@ -1,7 +1,7 @@
 // A TypeScript consumer of the installed package's declarations, checked by
 // `tsc --strict --noEmit` (cargo xtask npm-check): the Node entry and the web entry.
 
-import { AtmosphereModel, dynamicPressurePa, standardState } from "aerostrata";
+import { AtmosphereModel, dynamicPressurePa, loadUpper, standardState, upperLoaded } from "aerostrata";
 import type { AltitudeKind, AtmosphereState, StateQuantity } from "aerostrata";
 import init, { standardState as webStandardState } from "aerostrata/web";
 
@@ -17,6 +17,14 @@ const wanted: StateQuantity[] = ["temperatureK", "densityKgM3"];
 const columns: Record<StateQuantity, Float64Array> = model.batch(new Float64Array([0, 1000]), wanted);
 const firstTemperatureK: number | undefined = columns.temperatureK[0];
 model.free();
+
+export async function high(): Promise<number> {
+  const loading: Promise<void> = loadUpper();
+  await loading;
+  await loadUpper(new Uint8Array(0));
+  const loaded: boolean = upperLoaded();
+  return loaded ? standardState(120000).temperatureK : Number.NaN;
+}
 
 export async function onThePage(): Promise<number> {
   await init();

@@ -144,7 +144,8 @@ mod tests {
         let zero = TemperatureOffset::new(US1976, 0.0).unwrap();
         for i in 0..=1005 {
             let h = Altitude::geometric_m(-5_000.0 + 1_000.0 * f64::from(i)).unwrap();
-            assert_eq!(zero.state(h).unwrap(), US1976.state(h).unwrap(), "{h:?}");
+            // Results, not states: the same error where the upper tables are not compiled in.
+            assert_eq!(zero.state(h), US1976.state(h), "{h:?}");
         }
         let iso = AnyModel::from(Isothermal::new(250.0, 101_325.0).unwrap());
         assert_eq!(iso.range(), Isothermal::new(250.0, 101_325.0).unwrap().range());

@@ -14,7 +14,7 @@ mod offset;
 mod sounding;
 pub mod spec;
 mod standard;
-#[cfg(feature = "upper")]
+#[cfg(any(feature = "upper", feature = "upper-loadable"))]
 pub mod upper;
 
 #[cfg(feature = "alloc")]

@@ -1,5 +1,5 @@
 //! The U.S. Standard Atmosphere, 1976, from -5 km to 1000 km geometric altitude (to
-//! 86 km without the `upper` feature).
+//! 86 km without the `upper` or `upper-loadable` feature).
 //!
 //! Up to 86 km: seven layers of molecular-scale temperature linear in geopotential altitude up to
 //! 84.852 km (the standard's Table 4), evaluated by the same [`Layered`] machinery users
@@ -17,7 +17,9 @@ use super::atmosphere::Atmosphere;
 use super::layered::{Layer, Layered};
 
 /// The U.S. Standard Atmosphere, 1976, -5 km to 1000 km geometric (86 km without the
-/// `upper` feature).
+/// `upper` or `upper-loadable` feature; with `upper-loadable` alone, altitudes above
+/// 86 km are [`Error::UpperNotLoaded`](crate::Error::UpperNotLoaded) until
+/// `model::upper::load_tables` has run).
 ///
 /// At and below 86 km the layered lower part answers, above it the upper part; the two
 /// meet at 86 km within the standard's own small discontinuity (pressure 1.05e-5 and
@@ -46,9 +48,9 @@ pub const US1976: Us1976 = Us1976;
 pub(crate) const LOWER_RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, 86_000.0);
 
 /// Geometric range of the whole model, m.
-#[cfg(feature = "upper")]
+#[cfg(any(feature = "upper", feature = "upper-loadable"))]
 const RANGE: AltitudeRange = AltitudeRange::from_geometric(-5_000.0, super::upper::TOP_M);
-#[cfg(not(feature = "upper"))]
+#[cfg(not(any(feature = "upper", feature = "upper-loadable")))]
 const RANGE: AltitudeRange = LOWER_RANGE;
 
 /// The standard's layers (Table 4 of the standard: base geopotential altitude, base
@@ -123,16 +125,20 @@ impl Us1976 {
     ///
     /// ```
     /// use aerostrata::{Altitude, US1976};
+    /// # #[cfg(feature = "upper")] {
     /// // The standard's boundary values at 86 km (from memory of the printed table).
     /// let n = US1976.species(Altitude::geometric_m(86_000.0)?)?;
     /// assert!((n.n2_m3 / 1.129794e20 - 1.0).abs() < 1e-12);
     /// assert!((n.o_m3 / 8.6e16 - 1.0).abs() < 1e-12);
+    /// # }
     /// # Ok::<(), aerostrata::Error>(())
     /// ```
     ///
     /// # Errors
-    /// [`Error::OutOfRange`](crate::Error::OutOfRange) outside 86 km to 1000 km.
-    #[cfg(feature = "upper")]
+    /// [`Error::OutOfRange`](crate::Error::OutOfRange) outside 86 km to 1000 km;
+    /// [`Error::UpperNotLoaded`](crate::Error::UpperNotLoaded) with `upper-loadable` alone
+    /// before the tables are loaded.
+    #[cfg(any(feature = "upper", feature = "upper-loadable"))]
     pub fn species(&self, altitude: Altitude) -> Result<super::upper::Species> {
         super::upper::species_checked(altitude.geometric().meters())
     }
@@ -140,7 +146,7 @@ impl Us1976 {
 
 /// Whether the upper part answers for `altitude` (strictly above 86 km geometric),
 /// decided in the kind of altitude the caller gave.
-#[cfg(feature = "upper")]
+#[cfg(any(feature = "upper", feature = "upper-loadable"))]
 fn is_upper(altitude: Altitude) -> bool {
     match altitude {
         Altitude::Geometric(z) => z.meters() > LOWER_RANGE.geometric_max_m,
@@ -155,7 +161,7 @@ impl Atmosphere for Us1976 {
 
     fn air(&self, altitude: Altitude) -> Result<Air> {
         let altitude = RANGE.check(altitude)?;
-        #[cfg(feature = "upper")]
+        #[cfg(any(feature = "upper", feature = "upper-loadable"))]
         if is_upper(altitude) {
             return super::upper::air(altitude.geometric().meters());
         }

@@ -38,6 +38,7 @@ pub const CRATES: [Publishable; 3] = [
             ("alloc", &[NO_DEFAULT, "--features", "alloc"]),
             ("std", &[NO_DEFAULT, "--features", "std"]),
             ("upper", &[NO_DEFAULT, "--features", "upper"]),
+            ("upper-loadable", &[NO_DEFAULT, "--features", "upper-loadable"]),
             ("serde", &[NO_DEFAULT, "--features", "serde"]),
             ("rayon", &["--features", "rayon"]),
             ("all features", &["--all-features"]),

@@ -11,10 +11,12 @@ use crate::package::versions::toml_string;
 use crate::process::Cmd;
 
 /// The builds, each a `cargo build` argument list after `-p`.
-const BUILDS: [&[&str]; 6] = [
+const BUILDS: [&[&str]; 7] = [
     &["aerostrata"],
     &["aerostrata", "--no-default-features"],
     &["aerostrata", "--no-default-features", "--features", "upper"],
+    // The web module's set: the upper atmosphere's tables loaded at run time.
+    &["aerostrata", "--no-default-features", "--features", "upper-loadable"],
     &["aerostrata", "--no-default-features", "--features", "alloc,serde"],
     &["aerostrata-cli"],
     &["aerostrata-c"],

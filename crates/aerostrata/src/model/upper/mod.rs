@@ -9,9 +9,13 @@
 //! interpolant through those values and slopes, within 1e-6 relative of the generator's
 //! own integration everywhere (proved by a test of the generator). No integration at run
 //! time. One departure from the standard: hydrogen, which it gives from 150 km up only,
-//! is continued below by its own equation ([`HYDROGEN_BASE_M`]).
+//! is continued below by its own equation ([`HYDROGEN_BASE_M`]). The table is compiled in
+//! with the `upper` feature, or loaded at run time with `upper-loadable` ([`load_tables`]).
 
 mod segment;
+mod tables;
+mod upper_layout;
+#[cfg(feature = "upper")]
 mod upper_table;
 
 use crate::altitude::AltitudeRange;
@@ -21,7 +25,12 @@ use crate::gas::Air;
 use crate::math::{exp, sqrt};
 use crate::quantity::Quantity;
 
-use upper_table::{LN_DENSITY, SEGMENTS, SLOPE};
+#[cfg(all(feature = "upper", feature = "alloc"))]
+pub use tables::tables_file;
+pub use tables::{
+    load_tables, tables_digest, tables_loaded, TABLES_DIGEST, TABLES_FILE_BYTES, TABLES_FORMAT, TABLES_MAGIC,
+};
+use upper_layout::SEGMENTS;
 
 /// Where the upper part takes over, geometric m (86 km; at exactly 86 km the lower part
 /// answers).
@@ -108,9 +117,11 @@ impl Species {
     ///
     /// ```
     /// use aerostrata::{Altitude, Quantity, US1976};
+    /// # #[cfg(feature = "upper")] {
     /// let n = US1976.species(Altitude::geometric_m(200_000.0)?)?;
     /// assert_eq!(n.get(Quantity::AtomicOxygenNumberDensity)?, n.o_m3);
     /// assert!(n.get(Quantity::Temperature).is_err());
+    /// # }
     /// # Ok::<(), aerostrata::Error>(())
     /// ```
     pub fn get(&self, quantity: Quantity) -> Result<f64> {
@@ -180,15 +191,19 @@ pub fn table_nodes() -> impl Iterator<Item = f64> {
 }
 
 /// The species at `z_m`, 86 km <= Z <= 1000 km (the caller checks).
-pub(crate) fn species(z_m: f64) -> Species {
+///
+/// # Errors
+/// [`Error::UpperNotLoaded`] when the tables are neither compiled in nor loaded.
+pub(crate) fn species(z_m: f64) -> Result<Species> {
+    let (ln_density, slope) = tables::tables(z_m)?;
     // The segment holding z: the first whose end is at or above it.
     let segment = SEGMENTS.iter().find(|s| z_m <= s.end_m).unwrap_or(&SEGMENTS[SEGMENTS.len() - 1]);
     let position = ((z_m - segment.start_m) / segment.step_m).max(0.0);
     let interval = (position as usize).min(segment.intervals as usize - 1);
     let u = position - interval as f64;
     let lower = segment.first as usize + interval;
-    let (y0, y1) = (&LN_DENSITY[lower], &LN_DENSITY[lower + 1]);
-    let (d0, d1) = (&SLOPE[lower], &SLOPE[lower + 1]);
+    let (y0, y1) = (&ln_density[lower], &ln_density[lower + 1]);
+    let (d0, d1) = (&slope[lower], &slope[lower + 1]);
     // Cubic Hermite basis on [0, 1]; slopes are per metre, scaled by the step.
     let u2 = u * u;
     let u3 = u2 * u;
@@ -199,20 +214,20 @@ pub(crate) fn species(z_m: f64) -> Species {
     let step = segment.step_m;
     let ln_n =
         |i: usize| h00 * y0[i] + h01 * y1[i] + step * (h10 * f64::from(d0[i]) + h11 * f64::from(d1[i]));
-    Species {
+    Ok(Species {
         n2_m3: exp(ln_n(0)),
         o_m3: exp(ln_n(1)),
         o2_m3: exp(ln_n(2)),
         ar_m3: exp(ln_n(3)),
         he_m3: exp(ln_n(4)),
         h_m3: exp(ln_n(5)),
-    }
+    })
 }
 
 /// The air at `z_m`, 86 km < Z <= 1000 km (the caller checks).
 pub(crate) fn air(z_m: f64) -> Result<Air> {
     let (temperature_k, _) = temperature_within(z_m);
-    let species = species(z_m);
+    let species = species(z_m)?;
     Air::from_number_density(temperature_k, species.total_m3(), species.density_kg_m3())
 }
 
@@ -220,7 +235,7 @@ pub(crate) fn air(z_m: f64) -> Result<Air> {
 /// band.
 pub(crate) fn species_checked(z_m: f64) -> Result<Species> {
     if (BASE_M..=TOP_M).contains(&z_m) {
-        Ok(species(z_m))
+        species(z_m)
     } else {
         Err(Error::OutOfRange {
             quantity: "geometric altitude for species number densities",
@@ -235,7 +250,6 @@ pub(crate) fn species_checked(z_m: f64) -> Result<Species> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::quantity::Group;
 
     /// The ellipse's constants, derived from the joins' conditions, round to the ones the
     /// U.S. Standard Atmosphere 1976 (Part 1) prints: Tc = 263.1905 K, A = -76.3232 K,
@@ -254,8 +268,10 @@ mod tests {
     /// The catalogue's species are those of `as_array`, in its order, and `get` gives
     /// each one's value (the doors read them by quantity).
     #[test]
+    #[cfg(feature = "upper")]
     fn get_walks_the_catalogue_in_the_standards_order() {
-        let n = species(500_000.0);
+        use crate::quantity::Group;
+        let n = species(500_000.0).unwrap();
         let quantities: Vec<Quantity> = Quantity::of_group(Group::Species).collect();
         assert_eq!(quantities.len(), n.as_array().len());
         for (quantity, value) in quantities.iter().zip(n.as_array()) {

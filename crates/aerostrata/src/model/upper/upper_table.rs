@@ -5,28 +5,7 @@
 // integrated by RK4 at a 5 m step (estimated integration error 1.8e-13 in
 // ln n). The standard gives hydrogen from 150 km up; below, its entries continue its
 // equation down to 86 km. Cubic Hermite interpolation of this table departs from the
-// integration by at most 3.1e-7 in ln n.
-
-use super::segment::Segment;
-
-#[rustfmt::skip]
-pub(super) static SEGMENTS: [Segment; 15] = [
-    Segment { start_m: 86000.0, end_m: 91000.0, step_m: 250.0, first: 0, intervals: 20 },
-    Segment { start_m: 91000.0, end_m: 95000.0, step_m: 250.0, first: 21, intervals: 16 },
-    Segment { start_m: 95000.0, end_m: 97000.0, step_m: 500.0, first: 38, intervals: 4 },
-    Segment { start_m: 97000.0, end_m: 100000.0, step_m: 500.0, first: 43, intervals: 6 },
-    Segment { start_m: 100000.0, end_m: 106000.0, step_m: 500.0, first: 50, intervals: 12 },
-    Segment { start_m: 106000.0, end_m: 110000.0, step_m: 200.0, first: 63, intervals: 20 },
-    Segment { start_m: 110000.0, end_m: 115000.0, step_m: 250.0, first: 84, intervals: 20 },
-    Segment { start_m: 115000.0, end_m: 120000.0, step_m: 500.0, first: 105, intervals: 10 },
-    Segment { start_m: 120000.0, end_m: 130000.0, step_m: 500.0, first: 116, intervals: 20 },
-    Segment { start_m: 130000.0, end_m: 150000.0, step_m: 1000.0, first: 137, intervals: 20 },
-    Segment { start_m: 150000.0, end_m: 200000.0, step_m: 2500.0, first: 158, intervals: 20 },
-    Segment { start_m: 200000.0, end_m: 300000.0, step_m: 5000.0, first: 179, intervals: 20 },
-    Segment { start_m: 300000.0, end_m: 500000.0, step_m: 10000.0, first: 200, intervals: 20 },
-    Segment { start_m: 500000.0, end_m: 700000.0, step_m: 20000.0, first: 221, intervals: 10 },
-    Segment { start_m: 700000.0, end_m: 1000000.0, step_m: 50000.0, first: 232, intervals: 6 },
-];
+// integration by at most 3.1e-7 in ln n. Where the nodes lie: upper_layout.rs.
 
 #[rustfmt::skip]
 pub(super) static LN_DENSITY: [[f64; 6]; 239] = [
