@@ -106,7 +106,7 @@ pub(crate) struct LayerLanes {
 const LANE_LAYERS: usize = 8;
 
 /// Altitudes [`LayerLanes::temperature_pressure`] works through at a time.
-const LANE_CHUNK: usize = 64;
+const LANE_CHUNK: usize = 32;
 
 impl LayerLanes {
     /// The columns of `layers`, or `None` for none or more than eight.
