@@ -286,19 +286,23 @@ pub(crate) fn cbrt(x: f64) -> f64 {
 mod tests {
     use super::*;
 
+    /// Uniform numbers in [0, 1) from a fixed xorshift64 sequence.
+    fn uniform(mut state: u64) -> impl FnMut() -> f64 {
+        move || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            (state >> 11) as f64 / (1u64 << 53) as f64
+        }
+    }
+
     /// The kernels are libm's own polynomial for |x| <= pi/4: every bit the same as
     /// `libm::sin` and `libm::cos` on a dense sweep, at random points (a fixed xorshift
     /// sequence) and at the edges (0, the tiny-argument thresholds, pi/4 itself).
     #[test]
     fn the_small_kernels_are_libms_bits() {
         let quarter = core::f64::consts::FRAC_PI_4;
-        let mut state = 0x9e37_79b9_7f4a_7c15_u64;
-        let mut random = || {
-            state ^= state << 13;
-            state ^= state >> 7;
-            state ^= state << 17;
-            (state >> 11) as f64 / (1u64 << 53) as f64
-        };
+        let mut random = uniform(0x9e37_79b9_7f4a_7c15);
         let edges =
             [0.0, -0.0, 1e-300, 7.45e-9, 7.46e-9, 1.49e-8, 1.5e-8, quarter, -quarter, 45.0 * (PI_180)];
         let sweep = (0..=200_000).map(|i| quarter * (f64::from(i) / 100_000.0 - 1.0));
@@ -314,13 +318,7 @@ mod tests {
     /// of libm's cases and one ulp either side; `log1p` likewise over [-1.5, 1.5].
     #[test]
     fn the_lane_kernels_are_libms_bits() {
-        let mut state = 0x2545_f491_4f6c_dd1d_u64;
-        let mut random = || {
-            state ^= state << 13;
-            state ^= state >> 7;
-            state ^= state << 17;
-            (state >> 11) as f64 / (1u64 << 53) as f64
-        };
+        let mut random = uniform(0x2545_f491_4f6c_dd1d);
         let around = |x: f64| {
             let b = x.to_bits();
             [
