@@ -2,9 +2,9 @@
 //! altitudes at a time, lane-wise ([`LayerLanes`]: the layer of each altitude by counting
 //! bases, the logarithm and exponential by the math module's lane kernels, all without
 //! branches, so the compiler runs several altitudes at once), then the standard's M/M0
-//! from 80 km (as the scalar path, [`lower_air_by_ratio`]); the upper part above 86 km and every
-//! failing input go through the model's own [`Atmosphere::air`], so every bit is the
-//! scalar path's.
+//! from 80 km as the scalar path applies it ([`lower_air_by_ratio`]); the upper part
+//! above 86 km and every failing input go through the model's own [`Atmosphere::air`],
+//! so every bit is the scalar path's.
 
 use crate::altitude::{geopotential_of, Altitude, AltitudeKind};
 use crate::gas::Air;
