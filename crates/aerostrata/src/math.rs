@@ -139,13 +139,11 @@ fn exp_kernel(x: f64) -> f64 {
     // k is +-1; above 2^-28 k is 0; below, exp(x) is 1 + x. The truncation here is in
     // floating point, so that it runs lane-wise: t rounded to nearest by adding and
     // taking off 1.5 * 2^52 (exact for |t| < 2^51), then a step toward zero where that
-    // rounded away from it.
+    // rounded away from it (t has x's sign wherever the truncation is used).
+    let one = f64::from_bits(1.0_f64.to_bits() | sign);
     let t = INVLN2 * x + f64::from_bits(0.5_f64.to_bits() | sign);
     let nearest = (t + ROUNDING_SHIFT) - ROUNDING_SHIFT;
-    let away_up = (nearest > t) & (t > 0.0);
-    let away_down = (nearest < t) & (t < 0.0);
-    let truncated = nearest - pick(away_up, 1.0, 0.0) + pick(away_down, 1.0, 0.0);
-    let one = f64::from_bits(1.0_f64.to_bits() | sign);
+    let truncated = nearest - pick(magnitude(nearest) > magnitude(t), one, 0.0);
     let kf = pick(
         ax >= high_word_float(0x3ff0_a2b2),
         truncated,
