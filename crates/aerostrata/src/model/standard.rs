@@ -174,7 +174,7 @@ impl Atmosphere for Us1976 {
 /// The lower standard's air at `altitude` (within [`LOWER_RANGE`]; `h_m` its geopotential
 /// altitude) from its layers' molecular-scale temperature and pressure there.
 #[inline]
-pub(crate) fn lower_air(altitude: Altitude, h_m: f64, molecular_temperature_k: f64, pressure_pa: f64) -> Air {
+fn lower_air(altitude: Altitude, h_m: f64, molecular_temperature_k: f64, pressure_pa: f64) -> Air {
     lower_air_by_ratio(molecular_temperature_k, pressure_pa, lower_molar_mass_ratio(altitude, h_m))
 }
 
