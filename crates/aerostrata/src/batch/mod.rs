@@ -131,8 +131,8 @@ pub(crate) fn check_request(
 /// column per quantity of `quantities`, written into `outputs` (column `c` gets
 /// quantity `c`), every value bit for bit `model.state(alt)?.get(q)?`.
 ///
-/// For the 1976 standard [`Us1976::batch`](crate::Us1976::batch) is faster (its layer
-/// cursor); this one asks `model.air` for every altitude.
+/// For the 1976 standard [`Us1976::batch`](crate::Us1976::batch) is faster (its layers
+/// lane-wise); this one asks `model.air` for every altitude.
 ///
 /// ```
 /// use aerostrata::batch;
