@@ -186,8 +186,8 @@ fn reaches_out(source: &str) -> bool {
         .any(|code| code.contains("\"../../") || code.contains("\"/../../") || code.contains("(\"../..\")"))
 }
 
-/// Every file under `dir`, sorted.
-fn walk(dir: &Path, files: &mut Vec<PathBuf>) -> Result<(), String> {
+/// Every file under `dir`, sorted (also the versions check's walk).
+pub(super) fn walk(dir: &Path, files: &mut Vec<PathBuf>) -> Result<(), String> {
     let mut entries: Vec<PathBuf> = fs::read_dir(dir)
         .map_err(|e| io_error("list", dir, e))?
         .filter_map(Result::ok)

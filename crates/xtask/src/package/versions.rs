@@ -502,20 +502,18 @@ fn gather(root: &Path) -> Result<Copies, String> {
 /// extensions a version can hide in.
 fn collect_texts(root: &Path, path: &Path, texts: &mut Vec<(String, String)>) -> Result<(), String> {
     const EXTENSIONS: [&str; 9] = ["md", "rs", "toml", "txt", "h", "c", "cmake", "py", "in"];
+    let mut files = Vec::new();
     if path.is_dir() {
-        let mut entries: Vec<_> = std::fs::read_dir(path)
-            .map_err(|e| io_error("list", path, e))?
-            .filter_map(Result::ok)
-            .map(|entry| entry.path())
-            .collect();
-        entries.sort();
-        for entry in entries {
-            collect_texts(root, &entry, texts)?;
+        super::crates::walk(path, &mut files)?;
+    } else {
+        files.push(path.to_path_buf());
+    }
+    for file in files {
+        if file.extension().and_then(|e| e.to_str()).is_some_and(|e| EXTENSIONS.contains(&e)) {
+            let text = std::fs::read_to_string(&file).map_err(|e| io_error("read", &file, e))?;
+            let relative = file.strip_prefix(root).unwrap_or(&file).to_string_lossy().into_owned();
+            texts.push((relative, text));
         }
-    } else if path.extension().and_then(|e| e.to_str()).is_some_and(|e| EXTENSIONS.contains(&e)) {
-        let text = std::fs::read_to_string(path).map_err(|e| io_error("read", path, e))?;
-        let relative = path.strip_prefix(root).unwrap_or(path).to_string_lossy().into_owned();
-        texts.push((relative, text));
     }
     Ok(())
 }
