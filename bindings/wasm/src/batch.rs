@@ -1,7 +1,7 @@
 //! Batch evaluation over many altitudes: `batch`, which returns new arrays, and the
 //! buffer behind `batchInto` (glue.js), which writes into the caller's. Both run the
-//! core's own batch (`aerostrata::batch`: the 1976 standard's layer cursor, one column
-//! at a time), whose every value is the bits of `state(alt).get(q)`.
+//! core's own batch (`aerostrata::batch`: the 1976 standard's layers lane-wise, one
+//! column at a time), whose every value is the bits of `state(alt).get(q)`.
 
 use alloc::vec::Vec;
 
@@ -143,7 +143,7 @@ fn state_quantities(quantities: &JsValue) -> Result<Vec<Quantity>, JsValue> {
 }
 
 /// The core's batch into `outputs` (one column per quantity, each as long as the
-/// altitudes): the 1976 standard's own (`US1976.batch`: its layer cursor), any other
+/// altitudes): the 1976 standard's own (`US1976.batch`: its layers lane-wise), any other
 /// model's through `batch::evaluate`. The first bad element's error names it
 /// `altitudesM[offset + i]`, the error `state(alt).get(q)` gives there.
 fn core_batch(
