@@ -13,10 +13,13 @@ import { $, allQuantities, convertFields, fill, quantity, setFieldUnits, setMess
 import { computePoint, reachesUpper, UPPER_BASE_M } from "./point.js";
 
 try {
+  // The default module, then the full one: every field is read through `parseValue` and
+  // every model through `fromSpec`, which only the full module has.
   await init();
+  await api.loadFull();
 } catch (e) {
   // Without the module the page has no numbers to give: say so rather than sit blank.
-  $("page-msg").textContent = `The aerostrata module could not be loaded (${e.message}). Serve this folder over HTTP with aerostrata/ beside index.html (cargo xtask wasm builds it).`;
+  $("page-msg").textContent = `The aerostrata module could not be loaded (${e.message}). Serve this folder over HTTP with aerostrata/ beside index.html, its lite/ and full/ folders within (cargo xtask wasm builds it).`;
   throw e;
 }
 

@@ -11,7 +11,8 @@ import init, * as api from "./aerostrata/aerostrata.js";
 import { computePoint, reachesUpper, UPPER_BASE_M } from "./point.js";
 import { largest, thin } from "./thin.js";
 
-const ready = init();
+// The default module and the full one (the readers, the user models and the scan).
+const ready = init().then(() => api.loadFull());
 
 /** The sounding last read, kept for the points and flights that follow: {version, model}. */
 let sounding = null;

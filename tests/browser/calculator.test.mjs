@@ -35,8 +35,10 @@ const root = resolve(here, "..", "..");
 const require = createRequire(import.meta.url);
 const { columnsOf, evaluator, halfUnitOfLastDigit, readVectorFile } = await import(join(root, "bindings/wasm/tests/vectors.mjs"));
 const aerostrata = require(process.env.AEROSTRATA_PKG ?? join(root, "target/wasm/pkg"));
-// The module's numbers above 86 km, to compare the page's with, need its upper part.
+// The module's numbers above 86 km, to compare the page's with, need its upper part; the
+// readers and user models its full part.
 await aerostrata.loadUpper();
+await aerostrata.loadFull();
 
 let passed = 0;
 const failures = [];
@@ -84,8 +86,14 @@ try {
   // Who fetches the upper atmosphere's tables, and when: the page or its worker.
   const upperFetches = [];
   context.on("request", (r) => r.url().endsWith("/aerostrata_upper.bin") && upperFetches.push(r.url()));
+  // The page and its worker each load the package's two modules.
+  const moduleFetches = [];
+  context.on("request", (r) => r.url().endsWith("_bg.wasm") && moduleFetches.push(new URL(r.url()).pathname));
   await page.goto(url);
   await page.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
+  for (const file of ["/aerostrata/lite/aerostrata_bg.wasm", "/aerostrata/full/aerostrata_bg.wasm"]) {
+    check(moduleFetches.includes(file), `${file} fetched at start (${moduleFetches.join(", ")})`);
+  }
   // The page opens at 11 000 m: nothing needs the upper atmosphere yet.
   check(upperFetches.length === 0, `the upper part is not fetched at start (${upperFetches.length} requests)`);
 

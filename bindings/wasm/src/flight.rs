@@ -12,9 +12,9 @@ use aerostrata::wind::{WindLevel, WindProfile};
 use aerostrata::{Atmosphere, Quantity, Vehicle};
 use wasm_bindgen::prelude::*;
 
-use crate::aero::DragSpec;
 use crate::args::zeroed;
 use crate::error::{Failure, Js};
+use crate::flow::DragSpec;
 use crate::js;
 use crate::model::AtmosphereModel;
 use crate::text::Text;

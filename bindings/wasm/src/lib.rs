@@ -39,15 +39,23 @@ mod standalone {
     }
 }
 
+#[macro_use]
 mod aero;
 mod args;
 mod batch;
 mod error;
+#[cfg(feature = "full")]
 mod flight;
+#[cfg(feature = "full")]
+mod flow;
+#[cfg(feature = "full")]
 mod input;
 mod js;
+#[cfg(feature = "full")]
 mod loads;
 mod model;
+#[cfg(feature = "full")]
+mod models;
 mod naming;
 mod quantity;
 mod text;
@@ -55,11 +63,15 @@ mod upper;
 
 pub use aero::*;
 pub use error::{Class, Failure};
+#[cfg(feature = "full")]
+pub use flow::*;
+#[cfg(feature = "full")]
 pub use input::{model_grammar, parse_value, read_flight_csv};
+#[cfg(feature = "full")]
 pub use loads::WindProfile;
 pub use model::{standard_species, standard_state, AtmosphereModel};
 pub use quantity::{from_us, quantities, to_us};
-pub use upper::{load_upper, upper_loaded};
+pub use upper::upper_loaded;
 
 use wasm_bindgen::prelude::*;
 
@@ -72,16 +84,15 @@ pub fn version() -> alloc::string::String {
 /// Runs once when the module is instantiated: makes the methods of a freed
 /// `AtmosphereModel` or `WindProfile` throw an `Error` that says it was freed, and adds
 /// `AtmosphereModel.batchInto` (see `guardFreed` in glue.js), by reaching each class's
-/// prototype through a throwaway object (through which `loadUpper` also reaches the hidden
-/// `__loadUpper`, upper.rs and upper.js), and hands glue.js the module's memory, where `batchInto`
-/// reads and writes its chunks through views (batch.rs).
+/// prototype through a throwaway object, and hands glue.js the module's memory, where
+/// `batchInto` reads and writes its chunks through views (batch.rs).
 #[wasm_bindgen(start, skip_typescript, js_name = __aerostrataStart)]
 fn start() {
     js::use_memory(wasm_bindgen::memory());
     let keys = quantity::keys(aerostrata::Quantity::of_group(aerostrata::quantity::Group::State));
     let model = JsValue::from(AtmosphereModel::from_model(model::Model::Us1976));
-    upper::use_upper_loader(&model);
     js::guard_freed(model, "AtmosphereModel", "model", &keys);
+    #[cfg(feature = "full")]
     if let Some(calm) = WindProfile::calm() {
         js::guard_freed(JsValue::from(calm), "WindProfile", "wind profile", "");
     }
@@ -138,6 +149,25 @@ export interface QuantityInfo {
  * bit.
  */
 export function loadUpper(source?: string | URL | Response | Uint8Array | ArrayBuffer): Promise<void>;
+
+/**
+ * Loads the module's full part, which the default module leaves out: every model beyond
+ * the standard (`hydrostaticOffset` is in the default module; `exponential`, `isothermal`,
+ * `layered`, `tabulated`, soundings, `fromSpec`), flight scans and winds
+ * (`scanFlight`, `WindProfile`), `terminalVelocityMS` and drag tables, compressible flow,
+ * airspeeds and altimetry, and the readers of values with units and of files
+ * (`parseValue`, `readFlightCsv`, `modelGrammar`). Until then each of them throws an
+ * `Error` that says to call this first. With no argument it fetches
+ * `full/aerostrata_bg.wasm` beside the package's entry (browsers and bundlers) or reads it
+ * (Node, which takes no argument); or give its URL, a fetched `Response`, its bytes or a
+ * compiled `WebAssembly.Module`. Loading again costs nothing more. Models made before it
+ * are made again in the full part, from the same arguments, when one of its methods is
+ * first called on them: the same numbers, bit for bit.
+ */
+export function loadFull(source?: string | URL | Response | Uint8Array | ArrayBuffer | WebAssembly.Module): Promise<void>;
+
+/** Whether the module's full part is loaded (`loadFull`). */
+export function fullLoaded(): boolean;
 
 /** Which kind of altitude a number is: geometric (above mean sea level, m) or geopotential (geopotential m). */
 export type AltitudeKind = "geometric" | "geopotential";

@@ -10,6 +10,7 @@ const a = loadNode();
 // Some checks go above 86 km: the upper atmosphere's tables first (upper.test.mjs shows
 // the error without them).
 await a.loadUpper();
+await a.loadFull();
 const { AtmosphereModel } = a;
 const standard = AtmosphereModel.standard();
 

@@ -14,5 +14,6 @@ import { bitLines, readVectorFiles } from "./vectors.mjs";
 const aerostrata = loadNode(packageDir(process.argv[2]));
 // The upper vector files go to 1000 km: the upper atmosphere's tables, as a page loads them.
 await aerostrata.loadUpper();
+await aerostrata.loadFull();
 const lines = bitLines(aerostrata, readVectorFiles(process.argv[3] ?? vectorsDir));
 process.stdout.write(lines.join("\n") + "\n");

@@ -10,6 +10,7 @@ const a = loadNode();
 // Some checks go above 86 km: the upper atmosphere's tables first (upper.test.mjs shows
 // the error without them).
 await a.loadUpper();
+await a.loadFull();
 const list = a.quantities();
 const group = (name) => list.filter((q) => q.group === name).map((q) => q.key);
 

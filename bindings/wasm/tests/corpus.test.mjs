@@ -14,6 +14,7 @@ import { join } from "node:path";
 import { loadNode, repoRoot } from "./load.mjs";
 
 const a = loadNode();
+await a.loadFull();
 const { AtmosphereModel, WindProfile } = a;
 const corpus = join(repoRoot, "fuzz", "corpus");
 

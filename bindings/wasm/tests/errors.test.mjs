@@ -6,6 +6,7 @@
 import { test } from "node:test";
 import assert from "node:assert/strict";
 import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import { join } from "node:path";
 
 import { throwsWith } from "./expect.mjs";
@@ -15,6 +16,7 @@ const a = loadNode();
 // Some checks go above 86 km: the upper atmosphere's tables first (upper.test.mjs shows
 // the error without them).
 await a.loadUpper();
+await a.loadFull();
 const { AtmosphereModel } = a;
 const standard = AtmosphereModel.standard();
 
@@ -191,9 +193,6 @@ const GARBAGE = [
 
 /** Plausible arguments for each export, so that one garbage argument reaches deep. */
 const VALID = {
-  // The module's start function (glue.js's guardFreed), which wasm-bindgen exports too;
-  // called again it changes nothing.
-  __aerostrataStart: [],
   dynamicPressurePa: [1.2, 100],
   dynamicPressureFromMachPa: [1e5, 0.8],
   dragN: [1e4, 0.5, 0.01],
@@ -232,6 +231,8 @@ const VALID = {
   // Loaded above (so any source resolves at once: garbage must still not trap).
   loadUpper: [],
   upperLoaded: [],
+  loadFull: [],
+  fullLoaded: [],
   readFlightCsv: ["time,altitude_ft,velocity_ft_s\n0,0,0\n1,50,100\n"],
 };
 const STATIC = {
@@ -244,8 +245,6 @@ const STATIC = {
   hydrostaticOffset: [15, 101325],
   fromSoundingCsv: ["geometric_altitude_m,temperature_degC,pressure_hPa\n0,15,1013\n1000,8.5,\n"],
   fromSoundingJson: [{ altitude: "geometric", rows: [{ altitude_m: 0, temperature_k: 288, pressure_pa: 1e5 }, { altitude_m: 1000, temperature_k: 281 }] }],
-  // loadUpper's step into the module (upper.rs): not for users, but callable.
-  __loadUpper: [readFileSync(join(packageDir(), "node", "aerostrata_upper.bin"))],
 };
 const METHODS = {
   state: [1000, "geometric"],
@@ -255,9 +254,6 @@ const METHODS = {
   terminalVelocityMS: [1000, 1, 1, 1.5, "geometric"],
   scanFlight: [[0, 1, 2], [0, 100, 300], [0, 150, 250], { drag: 0.5, referenceAreaM2: 0.01, referenceLengthM: 1 }],
   range: [],
-  // batchInto's two steps (batch.rs): not for users, but callable, so garbage must not trap.
-  __batchPrepare: [["temperatureK"], "geometric", 2],
-  __batchRun: [0, 0],
 };
 
 function call(fn, args) {
@@ -338,6 +334,38 @@ test("garbage at every export throws Errors and never traps", () => {
   // And the module still works, with the same bits as before.
   assert.equal(AtmosphereModel.standard().state(0).pressurePa, 101325);
   assert.equal(a.standardState(11000, "geopotential").temperatureK, 216.65);
+});
+
+// The modules' own steps, which the package's entry does not export but either module's
+// glue can call: loadUpper's step into the module (upper.rs), batchInto's two (batch.rs)
+// and the start function (glue.js's guardFreed; called again it changes nothing).
+test("garbage at each module's hidden steps throws Errors and never traps", () => {
+  const tables = readFileSync(join(packageDir(), "node", "aerostrata_upper.bin"));
+  for (const part of ["lite", "full"]) {
+    const m = createRequire(import.meta.url)(join(packageDir(), "node", part, "aerostrata.js"));
+    const model = m.AtmosphereModel.standard();
+    const steps = {
+      start: [() => m.__aerostrataStart(), []],
+      __loadUpper: [(...x) => m.AtmosphereModel.__loadUpper(...x), [tables]],
+      __batchPrepare: [(...x) => model.__batchPrepare(...x), [["temperatureK"], "geometric", 2]],
+      __batchRun: [(...x) => model.__batchRun(...x), [0, 0]],
+    };
+    for (const [name, [fn, valid]] of Object.entries(steps)) {
+      assert.equal(call(fn, valid), "returned", `${part} ${name}`);
+      for (let i = 0; i <= valid.length; i++) {
+        for (const g of GARBAGE) {
+          const args = [...valid];
+          args[i] = g;
+          try {
+            call(fn, args);
+          } catch (e) {
+            assert.fail(`${part} ${name}(${i}: ${String(g)}): ${e.message}`);
+          }
+        }
+      }
+    }
+    assert.equal(model.state(0).pressurePa, 101325, part);
+  }
 });
 
 test("garbage at WindProfile and in every option of scanFlight throws Errors and never traps", () => {

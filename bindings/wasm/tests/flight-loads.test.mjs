@@ -19,6 +19,7 @@ const a = loadNode();
 // Some checks go above 86 km: the upper atmosphere's tables first (upper.test.mjs shows
 // the error without them).
 await a.loadUpper();
+await a.loadFull();
 const { AtmosphereModel, WindProfile } = a;
 const standard = AtmosphereModel.standard();
 const here = dirname(fileURLToPath(import.meta.url));

@@ -7,6 +7,7 @@ import assert from "node:assert/strict";
 import { loadNode } from "./load.mjs";
 
 const a = loadNode();
+await a.loadFull();
 const { AtmosphereModel } = a;
 
 test("a value with its unit reads in SI; a bare one in the unit given", () => {

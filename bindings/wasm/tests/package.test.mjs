@@ -22,10 +22,18 @@ test("package.json names the package and points at both builds", () => {
     "LICENSE-APACHE",
     "web/aerostrata.js",
     "web/aerostrata.d.ts",
-    "web/aerostrata_bg.wasm",
+    "web/parts.js",
+    "web/lite/aerostrata.js",
+    "web/lite/aerostrata_bg.wasm",
+    "web/full/aerostrata.js",
+    "web/full/aerostrata_bg.wasm",
     "node/aerostrata.js",
     "node/aerostrata.d.ts",
-    "node/aerostrata_bg.wasm",
+    "node/parts.js",
+    "node/lite/aerostrata.js",
+    "node/lite/aerostrata_bg.wasm",
+    "node/full/aerostrata.js",
+    "node/full/aerostrata_bg.wasm",
     "web/aerostrata_upper.bin",
     "node/aerostrata_upper.bin",
   ]) {
@@ -35,6 +43,12 @@ test("package.json names the package and points at both builds", () => {
   // bundlers and pages that serve it themselves.
   assert.deepEqual(readFileSync(join(dir, "web/aerostrata_upper.bin")), readFileSync(join(dir, "node/aerostrata_upper.bin")));
   assert.equal(manifest.exports["./aerostrata_upper.bin"], "./web/aerostrata_upper.bin");
+  // Each module: the same file in both builds, and an export of its own.
+  for (const part of ["lite", "full"]) {
+    assert.deepEqual(readFileSync(join(dir, "web", part, "aerostrata_bg.wasm")), readFileSync(join(dir, "node", part, "aerostrata_bg.wasm")), part);
+  }
+  assert.equal(manifest.exports["./aerostrata_bg.wasm"], "./web/lite/aerostrata_bg.wasm");
+  assert.equal(manifest.exports["./aerostrata_full_bg.wasm"], "./web/full/aerostrata_bg.wasm");
   assert.equal(manifest.exports["."].node.default, "./node/aerostrata.js");
   assert.equal(manifest.exports["."].default.default, "./web/aerostrata.js");
 });
@@ -50,7 +64,8 @@ test("require() and import() in Node resolve to the Node build", async () => {
 
 test("the web build is an ES module that runs once initialised", async () => {
   const source = readFileSync(join(dir, "web", "aerostrata.js"), "utf8");
-  assert.match(source, /__wbg_init as default/);
+  assert.match(source, /^export default function init\(input\)/m);
+  assert.match(readFileSync(join(dir, "web", "lite", "aerostrata.js"), "utf8"), /__wbg_init as default/);
   const web = await loadWeb();
   assert.deepEqual(web.standardState(20000), loadNode().standardState(20000));
 });
@@ -71,6 +86,8 @@ test("the types name every export in camelCase with units in the names and docs"
     "export function quantities(): QuantityInfo[];",
     "export function loadUpper(source?: string | URL | Response | Uint8Array | ArrayBuffer): Promise<void>;",
     "export function upperLoaded(): boolean;",
+    "export function loadFull(source?: string | URL | Response | Uint8Array | ArrayBuffer | WebAssembly.Module): Promise<void>;",
+    "export function fullLoaded(): boolean;",
     "  speedOfSoundMS: number | null;",
   ]) {
     assert.ok(dts.includes(declaration), `missing: ${declaration}`);
@@ -84,11 +101,14 @@ test("the types name every export in camelCase with units in the names and docs"
   assert.deepEqual(params.filter((p) => p.includes("_")), []);
 });
 
-test("the Node build's glue snippets are CommonJS", () => {
-  const node = readFileSync(join(dir, "node", "aerostrata.js"), "utf8");
-  const snippets = [...new Set([...node.matchAll(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/g)].map((m) => m[1]))];
-  const texts = Object.fromEntries(snippets.map((s) => [s.split("/").pop(), readFileSync(join(dir, "node", s), "utf8")]));
-  assert.deepEqual(Object.keys(texts).sort(), ["glue.js", "upper.js"]);
+test("the Node build's entry, parts.js and glue snippets are CommonJS", () => {
+  const texts = { "parts.js": readFileSync(join(dir, "node", "parts.js"), "utf8") };
+  for (const part of ["lite", "full"]) {
+    const glue = readFileSync(join(dir, "node", part, "aerostrata.js"), "utf8");
+    const snippets = [...new Set([...glue.matchAll(/require\((?:String\.raw`|")(\.\/snippets\/[^`"]+)(?:`|")\)/g)].map((m) => m[1]))];
+    assert.deepEqual(snippets.map((s) => s.split("/").pop()), ["glue.js"], part);
+    texts[`${part}/glue.js`] = readFileSync(join(dir, "node", part, snippets[0]), "utf8");
+  }
   for (const [name, text] of Object.entries(texts)) {
     assert.doesNotMatch(text, /^export /m, name);
     assert.match(text, /^module\.exports = \{ .* \};$/m, name);
@@ -96,9 +116,11 @@ test("the Node build's glue snippets are CommonJS", () => {
     const code = text.split("\n").filter((line) => !line.trim().startsWith("//")).join("\n");
     assert.doesNotMatch(code, /import\.meta/, name);
   }
-  assert.match(texts["glue.js"], /^module\.exports = \{ .*record.* \};$/m);
-  assert.match(texts["upper.js"], /^module\.exports = \{ .*loadUpper.* \};$/m);
-  assert.match(texts["upper.js"], /new URL\("\.\.\/\.\.\/\.\.\/aerostrata_upper\.bin", require\("url"\)\.pathToFileURL\(__filename\)\)/);
+  assert.match(texts["lite/glue.js"], /^module\.exports = \{ .*record.* \};$/m);
+  assert.match(texts["parts.js"], /^module\.exports = \{ parts \};$/m);
+  const entry = readFileSync(join(dir, "node", "aerostrata.js"), "utf8");
+  assert.match(entry, /^"use strict";$/m);
+  assert.doesNotMatch(entry, /^(export|import) /m);
 });
 
 test("the README's JavaScript example runs against the package and prints the standard's numbers", () => {

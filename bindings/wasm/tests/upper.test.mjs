@@ -21,33 +21,44 @@ const file = readFileSync(join(dir, "node", "aerostrata_upper.bin"));
 const NOT_LOADED = /is above 86 km, whose upper-atmosphere tables are not loaded: call `await loadUpper\(\)` first/;
 
 /** The calls that reach the tables: a state, species, an offset model, a flight scan and
- * a batch crossing 86 km, an inverse solved up there, a sounding's blend above its top. */
-function callsAbove86Km() {
-  const standard = AtmosphereModel.standard();
-  const hot = AtmosphereModel.standard(15);
-  const sounding = AtmosphereModel.tabulated("geometric", [0, 30000], [288.15, 226.51], {
+ * a batch crossing 86 km, an inverse solved up there, a sounding's blend above its top;
+ * the last two only with the full module loaded (`loadFull`). */
+function callsAbove86Km(m = a) {
+  const standard = m.AtmosphereModel.standard();
+  const hot = m.AtmosphereModel.standard(15);
+  const lite = {
+    standardState: () => m.standardState(120000).pressurePa,
+    state: () => standard.state(150000).densityKgM3,
+    geopotential: () => standard.state(100000, "geopotential").temperatureK,
+    species: () => m.standardSpecies(200000).nOM3,
+    offsetModel: () => hot.state(100000).temperatureK,
+    batch: () => standard.batch([80000, 90000], ["temperatureK"]).temperatureK[1],
+    // 1e-6 Pa lies far above 86 km (0.37 Pa there; U.S. Standard Atmosphere 1976, Table I).
+    altitudeOf: () => standard.altitudeOf("pressure", 1e-6),
+  };
+  if (!m.fullLoaded()) return lite;
+  const sounding = m.AtmosphereModel.tabulated("geometric", [0, 30000], [288.15, 226.51], {
     // U.S. Standard Atmosphere 1976, Table I: 101 325 Pa at 0 m, 1197.0 Pa at 30 km (from memory).
     pressurePa: [101325, 1197],
     blendAboveM: 5000,
   });
   return {
-    standardState: () => a.standardState(120000).pressurePa,
-    state: () => standard.state(150000).densityKgM3,
-    geopotential: () => standard.state(100000, "geopotential").temperatureK,
-    species: () => a.standardSpecies(200000).nOM3,
-    offsetModel: () => hot.state(100000).temperatureK,
+    ...lite,
     sounding: () => sounding.state(100000).pressurePa,
-    batch: () => standard.batch([80000, 90000], ["temperatureK"]).temperatureK[1],
-    // A climb from 80 to 120 km at 1.5 km/s (invented).
+    // A climb from 80 to 120 km at 1.5 km/s (invented); the standard model made by the
+    // default module, made again in the full one for the scan.
     scanFlight: () => standard.scanFlight([0, 1, 2], [80000, 100000, 120000], [1500, 1500, 1500]).summary.samples,
-    // 1e-6 Pa lies far above 86 km (0.37 Pa there; U.S. Standard Atmosphere 1976, Table I).
-    altitudeOf: () => standard.altitudeOf("pressure", 1e-6),
   };
 }
 
-test("before loading: an Error that says to call loadUpper, at every path above 86 km", () => {
+test("before loading: an Error that says to call loadUpper, at every path above 86 km", async () => {
   assert.equal(a.upperLoaded(), false);
-  for (const [name, call] of Object.entries(callsAbove86Km())) {
+  const lite = callsAbove86Km();
+  // The default module's paths, then, with the full module loaded, every path of both.
+  await a.loadFull();
+  const all = callsAbove86Km();
+  assert.ok(Object.keys(all).length > Object.keys(lite).length);
+  for (const [name, call] of [...Object.entries(lite), ...Object.entries(all)]) {
     const e = throwsWith(call, Error, NOT_LOADED);
     assert.ok(!(e instanceof RangeError), name);
   }
@@ -102,5 +113,11 @@ test("the web build loads from a URL, a path or bytes, with the Node build's bit
   await web.loadUpper(file.buffer.slice(file.byteOffset, file.byteOffset + file.length));
   for (const z of [86000.5, 91000, 110000, 150000, 500000, 1e6]) {
     assert.ok(Object.is(web.standardState(z).densityKgM3, a.standardState(z).densityKgM3), `${z}`);
+  }
+  // The full module loaded after the tables gets them too: every path, the Node build's bits.
+  await web.loadFull(readFileSync(join(dir, "web", "full", "aerostrata_bg.wasm")));
+  const node = callsAbove86Km();
+  for (const [name, call] of Object.entries(callsAbove86Km(web))) {
+    assert.ok(Object.is(call(), node[name]()), name);
   }
 });

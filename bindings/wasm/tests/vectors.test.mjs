@@ -13,6 +13,7 @@ import { bitLines, evaluator, halfUnitOfLastDigit, readVectorFiles } from "./vec
 const aerostrata = loadNode();
 // The upper vector files go to 1000 km: the upper atmosphere's tables first.
 await aerostrata.loadUpper();
+await aerostrata.loadFull();
 const files = readVectorFiles(vectorsDir);
 
 test("the vector files are there", () => {
@@ -59,6 +60,7 @@ test("the half unit of the last digit is read as the Rust reader reads it", () =
 test("the web build gives the Node build's bits for every vector", async () => {
   const web = await loadWeb();
   await web.loadUpper();
+  await web.loadFull();
   assert.deepEqual(bitLines(web, files), bitLines(aerostrata, files));
 });
 

@@ -29,11 +29,27 @@ pub fn run(root: &Path) -> Result<(), String> {
     step("format (cargo fmt --check)", cargo(&["fmt", "--all", "--", "--check"]).run());
     step(
         "lints (cargo clippy -D warnings)",
-        cargo(&["clippy", "--workspace", "--all-targets", "--", "-D", "warnings"]).run(),
+        cargo(&["clippy", "--workspace", "--all-targets", "--", "-D", "warnings"]).run().and_then(|()| {
+            // The web package's default module: the wasm crate without its `full` feature.
+            cargo(&[
+                "clippy",
+                "-p",
+                "aerostrata-wasm",
+                "--no-default-features",
+                "--all-targets",
+                "--",
+                "-D",
+                "warnings",
+            ])
+            .run()
+        }),
     );
     step(
         "unit, property, doc and CLI tests (cargo test)",
-        cargo(&["test", "--workspace"]).envs([("PROPTEST_RNG_SEED", PROPTEST_SEED)]).run(),
+        cargo(&["test", "--workspace"]).envs([("PROPTEST_RNG_SEED", PROPTEST_SEED)]).run().and_then(|()| {
+            // The web package's default module: the wasm crate without its `full` feature.
+            cargo(&["test", "-p", "aerostrata-wasm", "--no-default-features"]).run()
+        }),
     );
     step(
         "API docs build without warnings",

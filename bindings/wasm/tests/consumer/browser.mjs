@@ -43,17 +43,20 @@ try {
     .then(() => true, () => false);
   const text = answered ? await page.textContent("#result") : `nothing within 30 s (requests: ${requested.join(", ")})`;
   const result = text.startsWith("{") ? JSON.parse(text) : null;
-  const wasm = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_bg.wasm"));
+  const wasm = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/lite/aerostrata_bg.wasm"));
   const upper = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_upper.bin"));
+  const full = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/full/aerostrata_bg.wasm"));
   if (!result) failure = `the page says ${text}`;
   else if (Math.abs(result.temperatureK - 288.15) > 0.0005) failure = `temperature ${result.temperatureK} K`;
   else if (Math.abs(result.pressurePa - 101325) > 0.5) failure = `pressure ${result.pressurePa} Pa`;
   else if (!(Math.abs(result.dynamicPressurePa / 6125 - 1) < 1e-12)) failure = `q ${result.dynamicPressurePa} Pa`;
-  else if (!wasm) failure = `the module was not fetched from the installed package: ${requested.join(", ")}`;
+  else if (!wasm) failure = `the default module was not fetched from the installed package: ${requested.join(", ")}`;
   else if (!(Math.abs(result.upperTemperatureK - 360) <= 0.005)) failure = `temperature at 120 km ${result.upperTemperatureK} K`;
   else if (!upper) failure = `the upper part was not fetched from the installed package: ${requested.join(", ")}`;
+  else if (result.parsedK !== 288.15) failure = `15 C read as ${result.parsedK} K after loadFull`;
+  else if (!full) failure = `the full module was not fetched from the installed package: ${requested.join(", ")}`;
   else if (errors.length) failure = `page errors: ${errors.join("; ")}`;
-  else console.log(`browser: aerostrata ${result.version} through the import map: sea level ${result.temperatureK} K, ${result.pressurePa} Pa, ${result.upperTemperatureK} K at 120 km`);
+  else console.log(`browser: aerostrata ${result.version} through the import map: sea level ${result.temperatureK} K, ${result.pressurePa} Pa, ${result.upperTemperatureK} K at 120 km; full part loaded`);
 } catch (error) {
   failure = String(error);
 } finally {

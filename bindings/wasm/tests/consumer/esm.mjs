@@ -4,12 +4,13 @@
 //
 // Sources: U.S. Standard Atmosphere 1976, Table I at 0 m (288.150 K, 1.01325E+05 Pa,
 // 1.2250 kg/m^3) and at 11 000 m geopotential (216.650 K, 2.2632E+04 Pa); q = rho V^2 / 2
-// at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked); Table I at 120 km, 360.00 K.
+// at 1.225 kg/m^3 and 100 m/s is 6125 Pa (hand-worked); Table I at 120 km, 360.00 K;
+// 15 degC is 288.15 K (the definition of the Celsius scale).
 
 import assert from "node:assert/strict";
 import { fileURLToPath } from "node:url";
 
-import { AtmosphereModel, dynamicPressurePa, loadUpper, standardState, upperLoaded, version } from "aerostrata";
+import { AtmosphereModel, dynamicPressurePa, fullLoaded, loadFull, loadUpper, parseValue, standardState, upperLoaded, version } from "aerostrata";
 
 // The package is the installed one, not a checkout's build.
 const entry = fileURLToPath(import.meta.resolve("aerostrata"));
@@ -33,4 +34,12 @@ assert.throws(() => standardState(120000), /call `await loadUpper\(\)` first/);
 await loadUpper();
 assert.ok(upperLoaded());
 assert.ok(Math.abs(standardState(120000).temperatureK - 360) <= 0.005);
-console.log(`esm: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa; upper part loaded`);
+// The full module: an Error that says what to call, then read from the installed
+// package's full/aerostrata_bg.wasm; a model the default module made scans a flight.
+assert.throws(() => parseValue("15 C", "temperature"), /call `await loadFull\(\)` first/);
+const early = AtmosphereModel.standard();
+await loadFull();
+assert.ok(fullLoaded());
+assert.equal(parseValue("15 C", "temperature").si, 288.15);
+assert.equal(early.scanFlight([0, 1], [0, 100], [0, 100]).summary.samples, 2);
+console.log(`esm: aerostrata ${version()} from ${entry}: sea level ${sea.temperatureK} K, ${sea.pressurePa} Pa; upper and full parts loaded`);

@@ -1,7 +1,7 @@
 // A TypeScript consumer of the installed package's declarations, checked by
 // `tsc --strict --noEmit` (cargo xtask npm-check): the Node entry and the web entry.
 
-import { AtmosphereModel, dynamicPressurePa, loadUpper, standardState, upperLoaded } from "aerostrata";
+import { AtmosphereModel, dynamicPressurePa, fullLoaded, loadFull, loadUpper, parseValue, standardState, upperLoaded } from "aerostrata";
 import type { AltitudeKind, AtmosphereState, StateQuantity } from "aerostrata";
 import init, { standardState as webStandardState } from "aerostrata/web";
 
@@ -24,6 +24,13 @@ export async function high(): Promise<number> {
   await loadUpper(new Uint8Array(0));
   const loaded: boolean = upperLoaded();
   return loaded ? standardState(120000).temperatureK : Number.NaN;
+}
+
+export async function everything(): Promise<number> {
+  const loading: Promise<void> = loadFull();
+  await loading;
+  const loaded: boolean = fullLoaded();
+  return loaded ? parseValue("15 C", "temperature").si : Number.NaN;
 }
 
 export async function onThePage(): Promise<number> {

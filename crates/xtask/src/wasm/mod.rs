@@ -12,13 +12,15 @@
 //! the package's declarations) through an npm cache under target/npm-cache.
 //!
 //! `toolchain` builds for wasm32 with the pinned tools, `package` makes the npm package
-//! and the calculator's site (`table` mends a wasm-opt bug on the way), `node` runs the
+//! and the calculator's site (its two modules, the entry that `facade` writes over them,
+//! and `table` mends a wasm-opt bug on the way), `node` runs the
 //! Node-side tests, `browser` the calculator in Chromium, `bench` the batch benchmark
 //! over the builds of `variant`, `pack` the `npm pack` tarball installed and used in a
 //! fresh project (`npm-check`).
 
 pub mod bench;
 mod browser;
+mod facade;
 mod node;
 mod pack;
 mod package;
