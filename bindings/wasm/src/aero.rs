@@ -1,5 +1,8 @@
-//! The aerodynamic, compressible-flow, airspeed and inverse-altitude helpers: each a
-//! thin call of the core function of the same name, its arguments read as JS numbers.
+//! The point loads, in the default module and the full one: dynamic pressure, drag, Mach,
+//! Reynolds and Knudsen numbers, the rarefaction regime, the ballistic coefficient, and
+//! the unit factors; each a thin call of the core function of the same name, its
+//! arguments read as JS numbers (`number_function!`, which flow.rs shares). Compressible
+//! flow, airspeeds, altimetry and drag tables are the full module's (flow.rs).
 
 use alloc::string::String;
 

@@ -15,9 +15,9 @@ use crate::error::{Failure, Js};
 use crate::js;
 use crate::text::Text;
 
-#[cfg(feature = "full")]
 /// The numbers of several arguments, each given with its JS name, read in order: the
 /// first that is not a JS number is the `TypeError` of [`js::number`] naming it.
+#[cfg(feature = "full")]
 pub fn numbers<const N: usize>(named: [(&str, &JsValue); N]) -> Result<[f64; N], JsValue> {
     let mut out = [0.0; N];
     for (slot, (name, value)) in out.iter_mut().zip(named) {
@@ -42,18 +42,18 @@ pub fn zeroed(len: usize) -> Result<Vec<f64>, Failure> {
     Ok(out)
 }
 
-#[cfg(feature = "full")]
 /// Most elements any array argument or result may have (16 777 216), as glue.js's
 /// MAX_ELEMENTS.
+#[cfg(feature = "full")]
 pub const MAX_ELEMENTS: usize = 1 << 24;
 
-#[cfg(feature = "full")]
 /// Most rows a table (a sounding) and most layers a layered model may have (262 144):
 /// each row costs a few hundred bytes of the module's memory, and no sounding comes near.
+#[cfg(feature = "full")]
 pub const MAX_TABLE_ROWS: usize = 1 << 18;
 
-#[cfg(feature = "full")]
 /// A `RangeError` unless `count` rows of `name` are within [`MAX_TABLE_ROWS`].
+#[cfg(feature = "full")]
 pub fn table_rows(name: &str, count: usize) -> Result<(), JsValue> {
     if count <= MAX_TABLE_ROWS {
         return Ok(());
@@ -102,8 +102,8 @@ pub fn choice<T: Copy>(
         .ok_or_else(|| Failure::plain(Text::new(name).s(": no such option").done()).into())
 }
 
-#[cfg(feature = "full")]
 /// Optional numbers as [`js::optional_numbers`] gives them: `None` where not given.
+#[cfg(feature = "full")]
 pub fn optional_numbers(name: &str, value: &JsValue) -> Result<Vec<Option<f64>>, JsValue> {
     let flat = js::optional_numbers(name, value)?;
     let (values, given) = flat.split_at(flat.len() / 2);

@@ -23,7 +23,7 @@ pub(crate) type Model = aerostrata::AnyModel;
 
 /// The models the lite module's handles can hold: the standard, with an offset or in
 /// hydrostatic balance. Not the core's `AnyModel`, whose every method reaches the user
-/// models, tables and their messages (about 5 KiB gzipped the lite module never uses).
+/// models, tables and their messages (1.5 KiB gzipped the lite module never uses).
 /// The variants are `AnyModel`'s own, so the rest of the door reads either alike.
 #[cfg(not(feature = "full"))]
 #[derive(Debug)]
