@@ -92,6 +92,19 @@ test("the types name every export in camelCase with units in the names and docs"
   ]) {
     assert.ok(dts.includes(declaration), `missing: ${declaration}`);
   }
+  // The full module's declarations say so in their docs, the default module's do not.
+  const docOf = (declaration) => {
+    const at = dts.indexOf(declaration);
+    assert.ok(at > 0, declaration);
+    return dts.slice(dts.lastIndexOf("/**", at), at);
+  };
+  const needsFull = "Needs the full module: call `await loadFull()` first";
+  for (const declaration of ["export function parseValue(", "    scanFlight(", "    static fromSpec(", "export class WindProfile {"]) {
+    assert.ok(docOf(declaration).includes(needsFull), declaration);
+  }
+  for (const declaration of ["export function standardState(", "    batch(", "    static standard(", "export function loadFull("]) {
+    assert.ok(!docOf(declaration).includes(needsFull), declaration);
+  }
   // Every function's doc names its units: "Dynamic pressure q = rho V^2 / 2, Pa, ...".
   assert.match(dts, /Dynamic pressure q = rho V\^2 \/ 2, Pa, of air of density `densityKgM3` \(kg\/m\^3\)/);
   // No snake_case parameter leaked into the API (the Node types: the web ones add

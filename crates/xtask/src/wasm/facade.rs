@@ -235,6 +235,70 @@ pub fn web_types(lite_types: &str, full_types: &str) -> Result<String, String> {
     Ok(format!("{}{}", &full_types[..head], &lite_types[tail..]))
 }
 
+/// The line each declaration only the full module has gets in its doc comment.
+const NEEDS_FULL: &str = "Needs the full module: call `await loadFull()` first (the default module throws an `Error` that says so).";
+
+/// `types` (a `.d.ts` of the full module's) with [`NEEDS_FULL`] added to the doc comment
+/// of every function, class and class member of `full` that `lite` lacks, so that an
+/// editor shows it beside the declaration (the entry's own functions, `loadFull` and the
+/// like, are neither's exports and stay as they are).
+pub fn mark_full_only(types: &str, lite: &Exports, full: &Exports) -> String {
+    let mut out: Vec<String> = Vec::new();
+    let mut class: Option<String> = None;
+    for line in types.lines() {
+        let full_only = if let Some(rest) = line.strip_prefix("export function ") {
+            let id = identifier(rest);
+            full.functions.contains(&id) && !lite.functions.contains(&id)
+        } else if let Some(rest) = line.strip_prefix("export class ") {
+            class = Some(identifier(rest));
+            !lite.classes.contains_key(&identifier(rest))
+        } else if line == "}" {
+            class = None;
+            false
+        } else if let (Some(name), Some(member)) = (&class, line.strip_prefix("    ")) {
+            member_full_only(lite.classes.get(name), member)
+        } else {
+            false
+        };
+        if full_only {
+            let indent: String = line.chars().take_while(|c| *c == ' ').collect();
+            if out.last().is_some_and(|l| l.trim() == "*/") {
+                let at = out.len() - 1;
+                out.splice(at..at, [format!("{indent} *"), format!("{indent} * {NEEDS_FULL}")]);
+            } else {
+                out.push(format!("{indent}/** {NEEDS_FULL} */"));
+            }
+        }
+        out.push(line.to_owned());
+    }
+    out.push(String::new());
+    out.join("\n")
+}
+
+/// Whether the declaration `member` (a line of a class's body, unindented) is one the
+/// lite module's class `lite` lacks (every member when it lacks the class); not for doc
+/// lines, `free`, `[Symbol.dispose]` or the private constructor.
+fn member_full_only(lite: Option<&Class>, member: &str) -> bool {
+    let (kind, rest) = if let Some(rest) = member.strip_prefix("static ") {
+        ("static", rest)
+    } else if let Some(rest) = member.strip_prefix("readonly ") {
+        ("getter", rest)
+    } else {
+        ("method", member)
+    };
+    let id = identifier(rest);
+    if id.is_empty() || ["free", "private"].contains(&id.as_str()) || member.starts_with(' ') {
+        return false;
+    }
+    let Some(lite) = lite else { return true };
+    match (kind, id.as_str()) {
+        ("method", "constructor") => !lite.constructor,
+        ("static", _) => !lite.statics.contains(&id),
+        ("getter", _) => !lite.getters.contains(&id),
+        _ => !lite.methods.contains(&id),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -293,6 +357,70 @@ export { initSync, __wbg_init as default };
         assert!(web_entry(&lite, &full).unwrap_err().contains("function version"));
         full.classes.get_mut("AtmosphereModel").unwrap().getters.clear();
         assert!(check_subset(&lite, &full).is_err());
+    }
+
+    #[test]
+    fn the_full_modules_declarations_say_so_in_their_docs() {
+        let lite = exports(GLUE).unwrap();
+        let types = "/**
+ * Reads a value.
+ */
+export function parseValue(text: string): number;
+/** The version. */
+export function version(): string;
+export class AtmosphereModel {
+    private constructor();
+    free(): void;
+    /**
+     * A state.
+     */
+    state(altitudeM: number): AtmosphereState;
+    scanFlight(timeS: number[]): FlightScanResult;
+    static fromSpec(spec: string): AtmosphereModel;
+    readonly kind: ModelKind;
+}
+export class WindProfile {
+    readonly levelCount: number;
+}
+";
+        let full = exports(&GLUE.replace(
+            "export function version() {}",
+            "export function version() {}\nexport function parseValue() {}",
+        ))
+        .unwrap();
+        let marked =
+            mark_full_only(&format!("{types}export function loadFull(): Promise<void>;\n"), &lite, &full);
+        let expected = format!(
+            "/**
+ * Reads a value.
+ *
+ * {NEEDS_FULL}
+ */
+export function parseValue(text: string): number;
+/** The version. */
+export function version(): string;
+export class AtmosphereModel {{
+    private constructor();
+    free(): void;
+    /**
+     * A state.
+     */
+    state(altitudeM: number): AtmosphereState;
+    /** {NEEDS_FULL} */
+    scanFlight(timeS: number[]): FlightScanResult;
+    /** {NEEDS_FULL} */
+    static fromSpec(spec: string): AtmosphereModel;
+    readonly kind: ModelKind;
+}}
+/** {NEEDS_FULL} */
+export class WindProfile {{
+    /** {NEEDS_FULL} */
+    readonly levelCount: number;
+}}
+export function loadFull(): Promise<void>;
+"
+        );
+        assert_eq!(marked, expected);
     }
 
     #[test]

@@ -355,7 +355,10 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
             fs::write(&path, text).map_err(|e| io_error("write", &path, e))
         };
         write(&format!("{OUT_NAME}.js"), &entry)?;
-        write(&format!("{OUT_NAME}.d.ts"), &format!("{disposable}{types}"))?;
+        write(
+            &format!("{OUT_NAME}.d.ts"),
+            &format!("{disposable}{}", facade::mark_full_only(&types, &lite, &full)),
+        )?;
         let copy = pkg.join(dir).join("parts.js");
         fs::copy(&parts_js, &copy).map_err(|e| io_error("copy", &parts_js, e))?;
         if dir == "node" {
