@@ -329,6 +329,14 @@ export function version() {}
 export { initSync, __wbg_init as default };
 ";
 
+    /// The glue above with one function more, as the full module's.
+    fn full_glue() -> String {
+        GLUE.replace(
+            "export function version() {}",
+            "export function version() {}\nexport function parseValue() {}",
+        )
+    }
+
     #[test]
     fn the_glue_gives_its_public_members_and_the_added_ones() {
         let e = exports(GLUE).unwrap();
@@ -343,11 +351,7 @@ export { initSync, __wbg_init as default };
     #[test]
     fn members_the_full_module_lacks_are_refused_and_the_rest_say_where_they_are() {
         let lite = exports(GLUE).unwrap();
-        let mut full = exports(&GLUE.replace(
-            "export function version() {}",
-            "export function version() {}\nexport function parseValue() {}",
-        ))
-        .unwrap();
+        let mut full = exports(&full_glue()).unwrap();
         let entry = web_entry(&lite, &full).unwrap();
         assert!(entry.contains("export const version = p.fn(\"version\", true);"), "{entry}");
         assert!(entry.contains("export const parseValue = p.fn(\"parseValue\", false);"), "{entry}");
@@ -383,11 +387,7 @@ export class WindProfile {
     readonly levelCount: number;
 }
 ";
-        let full = exports(&GLUE.replace(
-            "export function version() {}",
-            "export function version() {}\nexport function parseValue() {}",
-        ))
-        .unwrap();
+        let full = exports(&full_glue()).unwrap();
         let marked =
             mark_full_only(&format!("{types}export function loadFull(): Promise<void>;\n"), &lite, &full);
         let expected = format!(
