@@ -91,7 +91,7 @@ try {
   context.on("request", (r) => r.url().endsWith("_bg.wasm") && moduleFetches.push(new URL(r.url()).pathname));
   await page.goto(url);
   await page.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
-  for (const file of ["/aerostrata/lite/aerostrata_bg.wasm", "/aerostrata/full/aerostrata_bg.wasm"]) {
+  for (const file of ["/aerostrata/aerostrata_bg.wasm", "/aerostrata/full/aerostrata_bg.wasm"]) {
     check(moduleFetches.includes(file), `${file} fetched at start (${moduleFetches.join(", ")})`);
   }
   // The page opens at 11 000 m: nothing needs the upper atmosphere yet.

@@ -1,9 +1,10 @@
-// The package's two parts behind one API. The default module (lite/) holds what most
-// pages need: the standard atmosphere, the batch, the catalogue, point loads. The full
-// module (full/) holds everything: user models and soundings, flight scans, winds,
-// compressible flow, airspeeds, altimetry, the readers of values and files. A page loads
-// it with `await loadFull()`; until then its functions throw an Error that says so. The
-// upper atmosphere's tables (`loadUpper`) go into whichever modules are loaded.
+// The package's two parts behind one API. The default module (aerostrata_bg.wasm beside
+// the entry, its glue in lite/) holds what most pages need: the standard atmosphere, the
+// batch, the catalogue, point loads. The full module (full/) holds everything: user
+// models and soundings, flight scans, winds, compressible flow, airspeeds, altimetry, the
+// readers of values and files. A page loads it with `await loadFull()`; until then its
+// functions throw an Error that says so. The upper atmosphere's tables (`loadUpper`) go
+// into whichever modules are loaded.
 //
 // Both modules are built from the same crate (bindings/wasm, with and without its `full`
 // feature), so a function the lite module has gives the full module's bits. The two

@@ -176,7 +176,7 @@ test("batchInto holds one chunk in the module's memory; batch holds the whole re
   // The web build, instantiated here, so that its memory can be measured.
   const dir = packageDir();
   const web = await import(join(dir, "web", "aerostrata.js"));
-  const wasm = web.initSync({ module: readFileSync(join(dir, "web", "lite", "aerostrata_bg.wasm")) });
+  const wasm = web.initSync({ module: readFileSync(join(dir, "web", "aerostrata_bg.wasm")) });
   const memory = () => wasm.memory.buffer.byteLength;
   const m = web.AtmosphereModel.standard();
   const n = 300_000;

@@ -29,6 +29,6 @@ export function loadNode(dir = packageDir()) {
 /** The web build (ES module), initialised synchronously from the .wasm bytes. */
 export async function loadWeb(dir = packageDir()) {
   const web = await import(join(dir, "web", "aerostrata.js"));
-  web.initSync({ module: readFileSync(join(dir, "web", "lite", "aerostrata_bg.wasm")) });
+  web.initSync({ module: readFileSync(join(dir, "web", "aerostrata_bg.wasm")) });
   return web;
 }

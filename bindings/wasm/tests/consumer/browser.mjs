@@ -43,7 +43,7 @@ try {
     .then(() => true, () => false);
   const text = answered ? await page.textContent("#result") : `nothing within 30 s (requests: ${requested.join(", ")})`;
   const result = text.startsWith("{") ? JSON.parse(text) : null;
-  const wasm = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/lite/aerostrata_bg.wasm"));
+  const wasm = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_bg.wasm"));
   const upper = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/aerostrata_upper.bin"));
   const full = requested.some((path) => path.endsWith("/node_modules/aerostrata/web/full/aerostrata_bg.wasm"));
   if (!result) failure = `the page says ${text}`;

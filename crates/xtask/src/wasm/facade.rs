@@ -184,7 +184,7 @@ const p = parts(
   false,
 );
 
-/** Instantiates the default module (lite/aerostrata_bg.wasm unless given). */
+/** Instantiates the default module (aerostrata_bg.wasm beside this file unless given). */
 export default function init(input) {
   return lite.default(input);
 }

@@ -1,8 +1,8 @@
 //! `cargo xtask wasm`: the npm package `aerostrata` under target/wasm/pkg (an ES module
 //! for browsers and bundlers in `web/`, a CommonJS build for Node in `node/`, each with
-//! the default module in `lite/`, the full module in `full/` and the entry over both; the
-//! `.d.ts` types, package.json and README) within its size budgets, and the web
-//! calculator's static site under target/wasm/site.
+//! the default module beside the entry (its glue in `lite/`), the full module in `full/`
+//! and the entry over both; the `.d.ts` types, package.json and README) within its size
+//! budgets, and the web calculator's static site under target/wasm/site.
 
 use std::fs;
 use std::path::{Path, PathBuf};
@@ -88,7 +88,8 @@ pub const UPPER_FILE: &str = "aerostrata_upper.bin";
 
 pub(super) const CRATE_DIR: &str = "bindings/wasm";
 const CALCULATOR_DIR: &str = "examples/web-calculator";
-/// The package's two modules: each a directory of web/ and node/, and the features of
+/// The package's two modules: each a directory of web/ and node/ for its glue (the
+/// default module's file itself beside the entry, [`module_file`]), and the features of
 /// bindings/wasm it is built with. The lite module is the default; the full module is
 /// loaded by `loadFull()` (js/parts.js).
 const PARTS: [(&str, &str); 2] = [("lite", "standalone"), ("full", "standalone,full")];
@@ -130,7 +131,7 @@ impl Package {
         format!(
             "{}; {}; {}",
             line(
-                "lite/aerostrata_bg.wasm (default module)",
+                "aerostrata_bg.wasm (default module)",
                 self.wasm_bytes,
                 self.gzip_bytes,
                 MAX_WASM_BYTES,
@@ -230,6 +231,46 @@ fn to_commonjs(path: &Path) -> Result<(), String> {
     fs::write(path, out).map_err(|e| io_error("write", path, e))
 }
 
+/// Where a part's module is in `dir` (`web` or `node`) of the package: the default module
+/// beside the entry, where the package had its one module (`aerostrata/aerostrata_bg.wasm`
+/// stays the module a page loads first); the full module in `full/`.
+fn module_file(pkg: &Path, dir: &str, part: &str) -> PathBuf {
+    let file = format!("{OUT_NAME}_bg.wasm");
+    if part == "lite" {
+        pkg.join(dir).join(file)
+    } else {
+        pkg.join(dir).join(part).join(file)
+    }
+}
+
+/// Moves the default module from lite/, where wasm-bindgen wrote it, to beside the entry
+/// ([`module_file`]), and points its glue there: the one place each glue names the file
+/// (the web glue's URL literal, which bundlers follow; the Node glue's path).
+fn default_module_beside_entry(pkg: &Path) -> Result<(), String> {
+    let file = format!("{OUT_NAME}_bg.wasm");
+    for (dir, from, to) in [
+        (
+            "web",
+            format!("new URL('{file}', import.meta.url)"),
+            format!("new URL('../{file}', import.meta.url)"),
+        ),
+        ("node", format!("`${{__dirname}}/{file}`"), format!("`${{__dirname}}/../{file}`")),
+    ] {
+        let lite = pkg.join(dir).join("lite");
+        let (wasm, glue) = (lite.join(&file), lite.join(format!("{OUT_NAME}.js")));
+        fs::rename(&wasm, module_file(pkg, dir, "lite")).map_err(|e| io_error("move", &wasm, e))?;
+        let text = fs::read_to_string(&glue).map_err(|e| io_error("read", &glue, e))?;
+        if text.matches(&from).count() != 1 {
+            return Err(format!(
+                "{}: expected `{from}` once (the wasm-bindgen version changed?)",
+                glue.display()
+            ));
+        }
+        fs::write(&glue, text.replace(&from, &to)).map_err(|e| io_error("write", &glue, e))?;
+    }
+    Ok(())
+}
+
 /// wasm-opt over the module at `path`, in place, at the variant's level.
 fn optimise(root: &Path, variant: &Variant, path: &Path) -> Result<(), String> {
     let arg = path.to_string_lossy().into_owned();
@@ -322,9 +363,11 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
         for path in snippets {
             to_commonjs(&path)?;
         }
+        if part == "lite" {
+            default_module_beside_entry(&pkg)?;
+        }
         // The two builds' modules are the same file; optimise one and copy it over the other.
-        let web_wasm = pkg.join("web").join(part).join(format!("{OUT_NAME}_bg.wasm"));
-        let node_wasm = pkg.join("node").join(part).join(format!("{OUT_NAME}_bg.wasm"));
+        let (web_wasm, node_wasm) = (module_file(&pkg, "web", part), module_file(&pkg, "node", part));
         optimise(root, variant, &web_wasm)?;
         fs::copy(&web_wasm, &node_wasm).map_err(|e| io_error("copy", &web_wasm, e))?;
     }
@@ -397,7 +440,7 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
     copy_dir(&pkg.join("web"), &site.join(OUT_NAME))?;
 
     let size = |part: &str| -> Result<(u64, u64), String> {
-        let path = pkg.join("web").join(part).join(format!("{OUT_NAME}_bg.wasm"));
+        let path = module_file(&pkg, "web", part);
         Ok((fs::metadata(&path).map_err(|e| io_error("read", &path, e))?.len(), gzip_size(&path)?))
     };
     let ((wasm_bytes, gzip_bytes), (full_bytes, full_gzip_bytes)) = (size("lite")?, size("full")?);
