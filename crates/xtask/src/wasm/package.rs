@@ -321,7 +321,6 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
         fs::remove_dir_all(&pkg).map_err(|e| io_error("remove", &pkg, e))?;
     }
     let bindgen_arg = bindgen.to_string_lossy().into_owned();
-    let mut types = Vec::new();
     for (part, features) in PARTS {
         let mut args = vec![
             "build",
@@ -348,15 +347,6 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
                 .args(["--target", target, "--out-dir", &dir_arg, "--out-name", OUT_NAME, &module_arg])
                 .dir(root)
                 .run()?;
-            // The declarations go into the entry's (below); the part's own are not shipped.
-            for file in [format!("{OUT_NAME}.d.ts"), format!("{OUT_NAME}_bg.wasm.d.ts")] {
-                let path = part_dir.join(file);
-                let text = fs::read_to_string(&path).map_err(|e| io_error("read", &path, e))?;
-                if !path.to_string_lossy().ends_with("_bg.wasm.d.ts") {
-                    types.push(((part, dir), text));
-                }
-                fs::remove_file(&path).map_err(|e| io_error("remove", &path, e))?;
-            }
         }
         let mut snippets = Vec::new();
         js_files(&pkg.join("node").join(part).join("snippets"), &mut snippets);
@@ -377,8 +367,9 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
         facade::exports(&text).map_err(|e| format!("{}: {e}", path.display()))
     };
     let (lite, full) = (glue("web", "lite")?, glue("web", "full")?);
-    let types_of = |part: &str, dir: &str| {
-        types.iter().find(|((p, d), _)| *p == part && *d == dir).map(|(_, t)| t.as_str()).unwrap_or_default()
+    let types_of = |part: &str, dir: &str| -> Result<String, String> {
+        let path = pkg.join(dir).join(part).join(format!("{OUT_NAME}.d.ts"));
+        fs::read_to_string(&path).map_err(|e| io_error("read", &path, e))
     };
     let parts_js = root.join(CRATE_DIR).join("js").join("parts.js");
     // wasm-bindgen's classes declare `[Symbol.dispose]`, which `tsc --strict` knows only
@@ -389,9 +380,9 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
         (
             "web",
             facade::web_entry(&lite, &full)?,
-            facade::web_types(types_of("lite", "web"), types_of("full", "web"))?,
+            facade::web_types(&types_of("lite", "web")?, &types_of("full", "web")?)?,
         ),
-        ("node", facade::node_entry(&lite, &full)?, types_of("full", "node").to_owned()),
+        ("node", facade::node_entry(&lite, &full)?, types_of("full", "node")?),
     ] {
         let write = |name: &str, text: &str| {
             let path = pkg.join(dir).join(name);
@@ -406,6 +397,13 @@ pub fn build_variant(root: &Path, variant: &Variant, out: &Path) -> Result<Packa
         fs::copy(&parts_js, &copy).map_err(|e| io_error("copy", &parts_js, e))?;
         if dir == "node" {
             to_commonjs(&copy)?;
+        }
+    }
+    // The parts' own declarations are in the entry's now, and not shipped.
+    for (dir, (part, _)) in ["web", "node"].into_iter().flat_map(|dir| PARTS.map(|p| (dir, p))) {
+        for file in [format!("{OUT_NAME}.d.ts"), format!("{OUT_NAME}_bg.wasm.d.ts")] {
+            let path = pkg.join(dir).join(part).join(file);
+            fs::remove_file(&path).map_err(|e| io_error("remove", &path, e))?;
         }
     }
     // The upper part: the tables as the native core (with `upper`) writes them.
